@@ -1,0 +1,160 @@
+//! The command line: `planewise analyze` and the other subcommands.
+//!
+//! Every value argument is taken as text and parsed here, so that a bad value is reported with
+//! the argument's name and what is wrong, on one line, with exit status 2 and nothing on stdout.
+
+pub mod analyze;
+
+use clap::{Args, Parser, Subcommand};
+
+use crate::mechanics::{PlaneNormal, SignConvention, StressTensor, StressUnit};
+use crate::parse;
+
+const CONVENTIONS: &str = "\
+Conventions: stresses are tension-positive unless --compression-positive is given, in which case \
+the components you type and every stress printed are compression-positive and σ1 is the most \
+compressive principal stress. Axes x, y, z are right-handed; for dip and dip direction x = east, \
+y = north, z = up, and the dip direction is measured clockwise from north.
+
+Planewise is an aid for engineers. Check inputs and results independently; design decisions \
+follow the applicable codes and licensed engineering practice.";
+
+/// The program's command line.
+#[derive(Debug, Parser)]
+#[command(name = "planewise", version, about = "Stress at a point: principal stresses, tractions, criteria.", after_help = CONVENTIONS)]
+pub struct Cli {
+    /// What to do; without a subcommand the desktop window opens.
+    #[command(subcommand)]
+    pub command: Option<Command>,
+}
+
+/// The subcommands.
+#[derive(Debug, Subcommand)]
+pub enum Command {
+    /// Principal stresses, invariants, equivalent stresses and (optionally) the traction on one plane.
+    #[command(after_help = CONVENTIONS)]
+    Analyze(analyze::AnalyzeArgs),
+}
+
+/// The stress state, as every subcommand takes it.
+#[derive(Debug, Clone, Args)]
+pub struct StressArgs {
+    /// Components as key=value pairs, e.g. xx=120,yy=-35,zz=15,xy=48,yz=-12,zx=22. Omitted
+    /// components are 0; yx, zy, xz are accepted for xy, yz, zx.
+    #[arg(long, value_name = "KEY=VALUE,…", allow_hyphen_values = true)]
+    pub stress: String,
+    /// Unit of every stress typed and printed: Pa, kPa, MPa, GPa, psi or ksi.
+    #[arg(long, value_name = "UNIT", default_value = "MPa")]
+    pub unit: String,
+    /// Stresses typed and printed are compression-positive (geomechanics).
+    #[arg(long)]
+    pub compression_positive: bool,
+}
+
+/// The tensor, unit and convention read from [`StressArgs`].
+#[derive(Debug, Clone, Copy)]
+pub struct StressInput {
+    /// The tensor, stored tension-positive in pascals.
+    pub tensor: StressTensor,
+    /// The unit of every stress typed and printed.
+    pub unit: StressUnit,
+    /// The sign convention of every stress typed and printed.
+    pub convention: SignConvention,
+}
+
+impl StressArgs {
+    /// Reads and checks the arguments.
+    pub fn read(&self) -> Result<StressInput, ArgError> {
+        let unit: StressUnit = self.unit.parse().map_err(|e| ArgError::new("--unit", e))?;
+        let convention = if self.compression_positive {
+            SignConvention::CompressionPositive
+        } else {
+            SignConvention::TensionPositive
+        };
+        let values = parse::stress_list(&self.stress).map_err(|e| ArgError::new("--stress", e))?;
+        let tensor = StressTensor::from_components(values, unit, convention.sign())
+            .map_err(|e| ArgError::new("--stress", e))?;
+        Ok(StressInput {
+            tensor,
+            unit,
+            convention,
+        })
+    }
+}
+
+/// A plane given by its normal or by dip and dip direction.
+#[derive(Debug, Clone, Args)]
+pub struct PlaneArgs {
+    /// The plane's normal as x,y,z (normalised; need not be unit length).
+    #[arg(long, value_name = "X,Y,Z", allow_hyphen_values = true, conflicts_with_all = ["dip", "dip_direction"])]
+    pub normal: Option<String>,
+    /// The plane's dip in degrees, 0 (horizontal) to 90 (vertical); needs --dip-direction.
+    #[arg(
+        long,
+        value_name = "DEG",
+        allow_hyphen_values = true,
+        requires = "dip_direction"
+    )]
+    pub dip: Option<String>,
+    /// The plane's dip direction in degrees clockwise from north (x = east, y = north, z = up).
+    #[arg(long, value_name = "DEG", allow_hyphen_values = true, requires = "dip")]
+    pub dip_direction: Option<String>,
+}
+
+impl PlaneArgs {
+    /// The plane, if one was given.
+    pub fn read(&self) -> Result<Option<PlaneNormal>, ArgError> {
+        if let Some(text) = &self.normal {
+            let v = parse::numbers::<3>(text).map_err(|e| ArgError::new("--normal", e))?;
+            return PlaneNormal::from_vector(v.into())
+                .map(Some)
+                .map_err(|e| ArgError::new("--normal", e));
+        }
+        let (Some(dip), Some(dd)) = (&self.dip, &self.dip_direction) else {
+            return Ok(None);
+        };
+        let dip = parse::number(dip).map_err(|e| ArgError::new("--dip", e))?;
+        let dd = parse::number(dd).map_err(|e| ArgError::new("--dip-direction", e))?;
+        PlaneNormal::from_dip(dip, dd)
+            .map(Some)
+            .map_err(|e| ArgError::new("--dip", e))
+    }
+}
+
+/// A command-line argument that cannot be used: which one, and why.
+#[derive(Debug, Clone, PartialEq, Eq, thiserror::Error)]
+#[error("{arg}: {message}")]
+pub struct ArgError {
+    /// The argument's name as typed, e.g. `--stress`.
+    pub arg: &'static str,
+    /// What is wrong.
+    pub message: String,
+}
+
+impl ArgError {
+    /// An error for argument `arg`.
+    pub fn new(arg: &'static str, error: impl std::fmt::Display) -> Self {
+        Self {
+            arg,
+            message: error.to_string(),
+        }
+    }
+}
+
+/// How a subcommand ended badly.
+#[derive(Debug, thiserror::Error)]
+pub enum CliError {
+    /// Bad input: exit status 2.
+    #[error(transparent)]
+    Arg(#[from] ArgError),
+    /// Anything else (a file that could not be written…): exit status 1.
+    #[error(transparent)]
+    Other(#[from] anyhow::Error),
+}
+
+/// Runs a subcommand and returns what it prints on stdout.
+pub fn run(command: &Command) -> Result<String, CliError> {
+    match command {
+        Command::Analyze(args) => analyze::run(args),
+    }
+}

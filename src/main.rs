@@ -1,0 +1,58 @@
+//! Start-up only: parse the command line, run a subcommand or open the window.
+
+use std::io::Write as _;
+use std::process::ExitCode;
+
+use clap::Parser as _;
+use planewise::cli::{Cli, CliError, run};
+
+fn main() -> ExitCode {
+    let cli = match Cli::try_parse() {
+        Ok(cli) => cli,
+        Err(e) => {
+            if !e.use_stderr() {
+                // --help and --version.
+                let _ = e.print();
+                return ExitCode::SUCCESS;
+            }
+            // One line naming the argument, as for every other bad input.
+            // clap continues some messages on indented lines (the arguments involved) before a
+            // blank line and the usage; join them.
+            let rendered = e.render().to_string();
+            let message: Vec<&str> = rendered
+                .lines()
+                .take_while(|l| !l.trim().is_empty())
+                .map(str::trim)
+                .collect();
+            let message = message.join(" ");
+            let message = message.strip_prefix("error: ").unwrap_or(&message);
+            eprintln!("planewise: {message} (see planewise --help)");
+            return ExitCode::from(2);
+        }
+    };
+    let Some(command) = cli.command else {
+        eprintln!("planewise: the desktop window is not built yet; try `planewise analyze --help`");
+        return ExitCode::from(2);
+    };
+    match run(&command) {
+        Ok(out) => {
+            let mut stdout = std::io::stdout().lock();
+            if stdout
+                .write_all(out.as_bytes())
+                .and_then(|()| stdout.flush())
+                .is_err()
+            {
+                return ExitCode::FAILURE;
+            }
+            ExitCode::SUCCESS
+        }
+        Err(CliError::Arg(e)) => {
+            eprintln!("planewise: {e}");
+            ExitCode::from(2)
+        }
+        Err(CliError::Other(e)) => {
+            eprintln!("planewise: {e:#}");
+            ExitCode::FAILURE
+        }
+    }
+}

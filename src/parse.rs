@@ -1,0 +1,187 @@
+//! Reading numbers and lists typed by users (grid cells, command-line arguments, pasted text).
+//! Every error says what was wrong with which piece, so the caller can add where it came from.
+
+use crate::mechanics::Component;
+
+/// Why a piece of text is not a usable number.
+#[derive(Debug, Clone, PartialEq, Eq, thiserror::Error)]
+pub enum NumberError {
+    /// Nothing was typed.
+    #[error("is empty")]
+    Empty,
+    /// The text is not a decimal number.
+    #[error("'{0}' is not a number")]
+    NotANumber(String),
+    /// The number is too large for f64 and would become infinity.
+    #[error("'{0}' is too large (it overflows to infinity)")]
+    Overflow(String),
+    /// The text names NaN or infinity.
+    #[error("'{0}' is not a finite number")]
+    NonFinite(String),
+}
+
+/// Parses one finite decimal number; surrounding white space is ignored.
+pub fn number(text: &str) -> Result<f64, NumberError> {
+    let t = text.trim();
+    if t.is_empty() {
+        return Err(NumberError::Empty);
+    }
+    let value: f64 = t
+        .parse()
+        .map_err(|_| NumberError::NotANumber(t.to_owned()))?;
+    if value.is_finite() {
+        return Ok(value);
+    }
+    // Rust accepts "inf", "infinity" and "nan" as f64; none is a value a user means.
+    let lower = t.to_ascii_lowercase();
+    if lower.contains("inf") || lower.contains("nan") {
+        Err(NumberError::NonFinite(t.to_owned()))
+    } else {
+        Err(NumberError::Overflow(t.to_owned()))
+    }
+}
+
+/// Why a `key=value,…` stress list is unusable.
+#[derive(Debug, Clone, PartialEq, Eq, thiserror::Error)]
+pub enum StressListError {
+    /// An item has no `=`.
+    #[error("item '{0}' is not of the form key=value")]
+    NotKeyValue(String),
+    /// A key is none of xx yy zz xy yz zx (or yx zy xz).
+    #[error("unknown component '{0}' (expected xx, yy, zz, xy, yz, zx)")]
+    UnknownKey(String),
+    /// A component is given twice, perhaps under its mirrored name.
+    #[error("component {0} is given more than once")]
+    Repeated(&'static str),
+    /// A value is not a finite number.
+    #[error("value of {key} {error}")]
+    Value {
+        /// The key as typed.
+        key: String,
+        /// What is wrong with the value.
+        error: NumberError,
+    },
+}
+
+/// Parses `xx=120,yy=-35,zz=15,xy=48,yz=-12,zx=22` into xx, yy, zz, xy, yz, zx. Omitted
+/// components are zero; `yx`, `zy`, `xz` stand for `xy`, `yz`, `zx`; keys ignore case.
+pub fn stress_list(text: &str) -> Result<[f64; 6], StressListError> {
+    let mut values = [0.0; 6];
+    let mut seen = [false; 6];
+    for item in text.split(',').map(str::trim).filter(|s| !s.is_empty()) {
+        let Some((key, value)) = item.split_once('=') else {
+            return Err(StressListError::NotKeyValue(item.to_owned()));
+        };
+        let key = key.trim();
+        let Some(comp) = Component::parse_key(key) else {
+            return Err(StressListError::UnknownKey(key.to_owned()));
+        };
+        let i = comp as usize;
+        if seen[i] {
+            return Err(StressListError::Repeated(comp.key()));
+        }
+        seen[i] = true;
+        values[i] = number(value).map_err(|error| StressListError::Value {
+            key: key.to_owned(),
+            error,
+        })?;
+    }
+    Ok(values)
+}
+
+/// Why a list of numbers is unusable.
+#[derive(Debug, Clone, PartialEq, Eq, thiserror::Error)]
+pub enum ListError {
+    /// Wrong count.
+    #[error("expected {expected} numbers, found {found}")]
+    Count {
+        /// How many were wanted.
+        expected: usize,
+        /// How many were found.
+        found: usize,
+    },
+    /// One item is not a number.
+    #[error("number {position} {error}")]
+    Item {
+        /// 1-based position in the list.
+        position: usize,
+        /// What is wrong with it.
+        error: NumberError,
+    },
+}
+
+/// Parses exactly `N` numbers separated by commas, semicolons, spaces or tabs (any mix).
+pub fn numbers<const N: usize>(text: &str) -> Result<[f64; N], ListError> {
+    let items: Vec<&str> = text
+        .split(|c: char| c == ',' || c == ';' || c.is_whitespace())
+        .filter(|s| !s.is_empty())
+        .collect();
+    if items.len() != N {
+        return Err(ListError::Count {
+            expected: N,
+            found: items.len(),
+        });
+    }
+    let mut out = [0.0; N];
+    for (i, item) in items.iter().enumerate() {
+        out[i] = number(item).map_err(|error| ListError::Item {
+            position: i + 1,
+            error,
+        })?;
+    }
+    Ok(out)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn numbers_and_their_errors() {
+        assert_eq!(number(" -3.5e2 "), Ok(-350.0));
+        assert_eq!(number(""), Err(NumberError::Empty));
+        assert_eq!(number("abc"), Err(NumberError::NotANumber("abc".into())));
+        assert_eq!(number("1e999"), Err(NumberError::Overflow("1e999".into())));
+        assert_eq!(number("NaN"), Err(NumberError::NonFinite("NaN".into())));
+        assert_eq!(number("-inf"), Err(NumberError::NonFinite("-inf".into())));
+    }
+
+    #[test]
+    fn stress_lists() {
+        assert_eq!(
+            stress_list("xx=1, YX=-2,zz=3"),
+            Ok([1.0, 0.0, 3.0, -2.0, 0.0, 0.0])
+        );
+        assert_eq!(
+            stress_list("xy=1,yx=2"),
+            Err(StressListError::Repeated("xy"))
+        );
+        assert_eq!(
+            stress_list("xw=1"),
+            Err(StressListError::UnknownKey("xw".into()))
+        );
+        assert_eq!(
+            stress_list("xx"),
+            Err(StressListError::NotKeyValue("xx".into()))
+        );
+        assert!(matches!(
+            stress_list("zz=nan"),
+            Err(StressListError::Value { .. })
+        ));
+    }
+
+    #[test]
+    fn separated_lists() {
+        assert_eq!(
+            numbers::<6>("1\t2 ; 3,4  5;6"),
+            Ok([1.0, 2.0, 3.0, 4.0, 5.0, 6.0])
+        );
+        assert_eq!(
+            numbers::<3>("1,2"),
+            Err(ListError::Count {
+                expected: 3,
+                found: 2
+            })
+        );
+    }
+}

@@ -1,0 +1,222 @@
+//! `planewise analyze` seen from outside: the JSON contract and every bad-input case.
+
+#![allow(
+    clippy::unwrap_used,
+    reason = "a test helper that fails should panic loudly"
+)]
+
+use std::process::{Command, Output};
+
+use serde_json::Value;
+
+fn planewise(args: &[&str]) -> Output {
+    Command::new(env!("CARGO_BIN_EXE_planewise"))
+        .args(args)
+        .output()
+        .expect("the binary runs")
+}
+
+fn json(args: &[&str]) -> Value {
+    let out = planewise(args);
+    assert!(
+        out.status.success(),
+        "{}",
+        String::from_utf8_lossy(&out.stderr)
+    );
+    serde_json::from_slice(&out.stdout).expect("stdout is one JSON object")
+}
+
+fn f(v: &Value) -> f64 {
+    v.as_f64().unwrap_or_else(|| panic!("not a number: {v}"))
+}
+
+#[test]
+fn json_contract_for_an_ordinary_state() {
+    let j = json(&[
+        "analyze",
+        "--stress",
+        "xx=120,yy=-35,zz=15,xy=48,yz=-12,zx=22",
+        "--normal",
+        "1,0.5,0",
+        "--json",
+    ]);
+    for key in [
+        "unit",
+        "convention",
+        "stress",
+        "principal",
+        "invariants",
+        "mean_stress",
+        "von_mises",
+        "tresca",
+        "max_shear",
+        "max_shear_normals",
+        "octahedral",
+        "lode_angle_deg",
+        "triaxiality",
+        "plane",
+    ] {
+        assert!(j.get(key).is_some(), "missing {key}");
+    }
+    assert_eq!(j["unit"], "MPa");
+    assert_eq!(j["convention"], "tension-positive");
+    assert_eq!(f(&j["stress"]["zx"]), 22.0);
+    let values: Vec<f64> = j["principal"]["values"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .map(f)
+        .collect();
+    assert!(values[0] >= values[1] && values[1] >= values[2]);
+    // I1 = trace = 100 MPa (closed form).
+    assert!((f(&j["invariants"]["i1"]) - 100.0).abs() < 1e-12);
+    // numpy 2.4.6 numpy.linalg.eigvalsh on the same matrix (reference library, run 2026-12-01).
+    let numpy = [
+        136.330_715_395_901_34,
+        16.962_804_786_392_034,
+        -53.293_520_182_293_36,
+    ];
+    for (ours, reference) in values.iter().zip(numpy) {
+        assert!(
+            (ours - reference).abs() < 1e-11,
+            "{ours} vs numpy {reference}"
+        );
+    }
+    let plane = &j["plane"];
+    let n: Vec<f64> = plane["normal"].as_array().unwrap().iter().map(f).collect();
+    assert!(
+        (n[0] - 2.0 / 5.0_f64.sqrt()).abs() < 1e-15 && (n[1] - 1.0 / 5.0_f64.sqrt()).abs() < 1e-15
+    );
+    // t = σn with n = (2, 1, 0)/√5: t_x = (240 + 48)/√5 (closed form).
+    assert!((f(&plane["traction"][0]) - 288.0 / 5.0_f64.sqrt()).abs() < 1e-12);
+    assert!(plane["shear_direction"].is_array());
+}
+
+#[test]
+fn plane_is_absent_without_a_plane_and_units_convert() {
+    let j = json(&["analyze", "--stress", "xx=1", "--unit", "ksi", "--json"]);
+    assert!(j.get("plane").is_none());
+    assert_eq!(j["unit"], "ksi");
+    assert!((f(&j["von_mises"]) - 1.0).abs() < 1e-12);
+}
+
+#[test]
+fn hydrostatic_state_gives_nulls_not_nan() {
+    let j = json(&[
+        "analyze",
+        "--stress",
+        "xx=-10,yy=-10,zz=-10",
+        "--dip",
+        "30",
+        "--dip-direction",
+        "-30",
+        "--json",
+    ]);
+    assert!(j["lode_angle_deg"].is_null());
+    assert!(j["triaxiality"].is_null());
+    assert_eq!(f(&j["von_mises"]), 0.0);
+    assert_eq!(f(&j["plane"]["shear_stress"]), 0.0);
+    assert!(j["plane"]["shear_direction"].is_null());
+}
+
+#[test]
+fn compression_positive_reorders_and_negates() {
+    // Compression-positive east/north/up 20, 40, 50 MPa on dip 60°, dip direction 090°:
+    // σn = 27.5 MPa (Morris et al. 1996 definitions, worked by hand).
+    let j = json(&[
+        "analyze",
+        "--stress",
+        "xx=20,yy=40,zz=50",
+        "--compression-positive",
+        "--dip",
+        "60",
+        "--dip-direction",
+        "90",
+        "--json",
+    ]);
+    assert_eq!(j["convention"], "compression-positive");
+    assert!((f(&j["principal"]["values"][0]) - 50.0).abs() < 1e-12);
+    assert!((f(&j["principal"]["values"][2]) - 20.0).abs() < 1e-12);
+    assert!((f(&j["plane"]["normal_stress"]) - 27.5).abs() < 1e-12);
+    assert!((f(&j["plane"]["shear_stress"]) - 12.990_381_056_766_580).abs() < 1e-12);
+}
+
+#[test]
+fn badly_conditioned_states_stay_finite() {
+    // A large mean with a tiny deviator, and a tensor at the bottom of the range.
+    for stress in ["xx=1e9,yy=1e9,zz=1e9,xy=1e-3", "xx=1e-12,xy=3e-13", "xx=0"] {
+        let out = planewise(&["analyze", "--stress", stress, "--unit", "Pa", "--json"]);
+        assert!(out.status.success(), "{stress}");
+        let text = String::from_utf8(out.stdout).unwrap();
+        assert!(
+            !text.contains("NaN") && !text.contains("inf"),
+            "{stress}: {text}"
+        );
+        let j: Value = serde_json::from_str(&text).unwrap();
+        assert!(j["principal"]["values"][0].is_number());
+    }
+}
+
+#[test]
+fn text_output_names_units_and_convention() {
+    let out = planewise(&["analyze", "--stress", "xx=50,yy=-10,xy=40"]);
+    let text = String::from_utf8(out.stdout).unwrap();
+    assert!(text.contains("tension-positive"));
+    assert!(text.contains("70 MPa"), "{text}");
+    assert!(text.contains("-30 MPa"), "{text}");
+}
+
+/// Each bad input exits with status 2, prints one line on stderr naming the argument, and
+/// nothing on stdout.
+#[test]
+fn bad_input_is_rejected_with_one_line() {
+    let cases: &[(&[&str], &str)] = &[
+        (&["--stress", "xw=1"], "--stress"),
+        (&["--stress", "xy=1,yx=2"], "--stress"),
+        (&["--stress", "xx=abc"], "--stress"),
+        (&["--stress", "xx=NaN"], "--stress"),
+        (&["--stress", "xx=inf"], "--stress"),
+        (&["--stress", "xx=1e999"], "--stress"),
+        (&["--stress", "xx=1e300", "--unit", "ksi"], "--stress"),
+        (&["--stress", "xx=1", "--normal", "0,0,0"], "--normal"),
+        (&["--stress", "xx=1", "--normal", "1,x,0"], "--normal"),
+        (&["--stress", "xx=1", "--unit", "bar"], "--unit"),
+        (
+            &[
+                "--stress",
+                "xx=1",
+                "--normal",
+                "1,0,0",
+                "--dip",
+                "30",
+                "--dip-direction",
+                "10",
+            ],
+            "--normal",
+        ),
+        (&["--stress", "xx=1", "--dip", "30"], "--dip"),
+        (
+            &["--stress", "xx=1", "--dip", "120", "--dip-direction", "10"],
+            "--dip",
+        ),
+        (
+            &["--stress", "xx=1", "--dip", "30", "--dip-direction", "east"],
+            "--dip-direction",
+        ),
+        (&["--stress", "xx=1", "--bogus"], "--bogus"),
+        (&["--unit", "MPa"], "--stress"),
+    ];
+    for (args, names) in cases {
+        let mut full = vec!["analyze"];
+        full.extend_from_slice(args);
+        let out = planewise(&full);
+        let stderr = String::from_utf8_lossy(&out.stderr);
+        assert_eq!(out.status.code(), Some(2), "{args:?}: {stderr}");
+        assert!(out.stdout.is_empty(), "{args:?} printed on stdout");
+        assert_eq!(stderr.trim_end().lines().count(), 1, "{args:?}: {stderr}");
+        assert!(
+            stderr.contains(names),
+            "{args:?}: '{stderr}' does not name {names}"
+        );
+    }
+}
