@@ -4,7 +4,9 @@
 use std::hint::black_box;
 
 use criterion::{Criterion, Throughput, criterion_group, criterion_main};
-use planewise::mechanics::{Analysis, SignConvention, StressTensor, principal_values_pa};
+use planewise::mechanics::{
+    Analysis, SignConvention, StressTensor, principal_values_into, principal_values_pa,
+};
 
 /// A fixed batch of pseudo-random tensors (xorshift; no dependency, same batch every run).
 fn batch(n: usize) -> Vec<StressTensor> {
@@ -24,7 +26,16 @@ fn analysis(c: &mut Criterion) {
     let tensors = batch(1024);
     let mut group = c.benchmark_group("analysis");
     group.throughput(Throughput::Elements(tensors.len() as u64));
+    // The batch entry point, as bulk work (tables, orientation maps) calls it.
+    let mut out = vec![[0.0; 3]; tensors.len()];
     group.bench_function("principal_values", |b| {
+        b.iter(|| {
+            principal_values_into(black_box(&tensors), &mut out);
+            black_box(&out);
+        });
+    });
+    // One call per tensor, as the window calls it.
+    group.bench_function("principal_values_single", |b| {
         b.iter(|| {
             for t in &tensors {
                 black_box(principal_values_pa(black_box(t)));

@@ -9,7 +9,7 @@
 use nalgebra::{Matrix3, Rotation3, SymmetricEigen, Vector3};
 use planewise::mechanics::{
     Analysis, PlaneNormal, PlaneStress, SignConvention, StressTensor, principal,
-    principal_values_pa,
+    principal_values_into, principal_values_pa,
 };
 use proptest::prelude::*;
 
@@ -146,5 +146,18 @@ proptest! {
             prop_assert!((a.principal.values_pa[i] + c.principal.values_pa[2 - i]).abs() <= 1e-13 * s);
         }
         prop_assert!((a.von_mises_pa - c.von_mises_pa).abs() <= 1e-13 * s);
+    }
+
+    /// The batch path gives what the single-tensor path gives, lane by lane and in the remainder.
+    #[test]
+    fn batch_matches_single(ts in prop::collection::vec(tensor(), 0..11)) {
+        let mut out = vec![[f64::NAN; 3]; ts.len()];
+        principal_values_into(&ts, &mut out);
+        for (t, o) in ts.iter().zip(&out) {
+            let single = principal_values_pa(t);
+            for i in 0..3 {
+                prop_assert!((o[i] - single[i]).abs() <= 1e-13 * scale(t), "{o:?} vs {single:?}");
+            }
+        }
     }
 }

@@ -11,6 +11,6 @@ pub mod units;
 
 pub use analysis::Analysis;
 pub use plane::{PlaneError, PlaneNormal, PlaneStress};
-pub use principal::{Principal, principal, principal_values_pa};
+pub use principal::{Principal, principal, principal_values_into, principal_values_pa};
 pub use tensor::{Component, StressTensor, TensorError};
 pub use units::{SignConvention, StressUnit};

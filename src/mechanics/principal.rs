@@ -72,40 +72,110 @@ impl Scaled {
     /// The roots are 2p cos(θ + 2πk/3) (Smith 1961). Instead of acos and cos, the trisection
     /// cos θ = 1 − d is solved for the root farther from the others, where d in [0, 1 − √3/2]
     /// satisfies 4d³ − 12d² + 9d = 1 − |cos 3θ| (the triple-angle identity written in d, which
-    /// keeps small d, and so sin θ = √(d(2 − d)), to full relative precision). A cubic fit of
-    /// d/q gives 2e-4 relative error and two Newton steps finish it (measured: 1e-15).
+    /// keeps small d, and so sin θ = √(d(2 − d)), to full relative precision).
     fn trig_eigenvalues(&self) -> ([f64; 3], f64) {
         let b = &self.b;
-        let j2 = 0.5 * (b[(0, 0)] * b[(0, 0)] + b[(1, 1)] * b[(1, 1)] + b[(2, 2)] * b[(2, 2)])
-            + b[(0, 1)] * b[(0, 1)]
-            + b[(1, 2)] * b[(1, 2)]
-            + b[(0, 2)] * b[(0, 2)];
+        let j2 = deviator_j2([
+            b[(0, 0)],
+            b[(1, 1)],
+            b[(2, 2)],
+            b[(0, 1)],
+            b[(1, 2)],
+            b[(0, 2)],
+        ]);
         if j2 <= 0.0 {
             return ([0.0; 3], 1.0);
         }
-        let j3 = b.determinant();
-        let p = (j2 / 3.0).sqrt();
-        // Rounding may push cos 3θ just outside [−1, 1].
-        let cos3 = (j3 / (2.0 * p * p * p)).clamp(-1.0, 1.0);
-        let q = 1.0 - cos3.abs();
-        let mut d = q
-            * (0.111_091_802_549_272_24
-                + q * (0.016_823_861_710_409_994
-                    + q * (0.002_789_974_553_378_425_3 + q * 0.003_243_256_239_017_074_7)));
-        for _ in 0..2 {
-            let g = ((4.0 * d - 12.0) * d + 9.0) * d - q;
-            let slope = (12.0 * d - 24.0) * d + 9.0;
-            d -= g / slope;
+        cubic_roots(j2, b.determinant())
+    }
+}
+
+/// J2 = ½ s:s of a deviator given as xx, yy, zz, xy, yz, zx.
+#[inline(always)]
+fn deviator_j2([a, b, c, d, e, f]: [f64; 6]) -> f64 {
+    0.5 * (a * a + b * b + c * c) + d * d + e * e + f * f
+}
+
+/// J3 = det s of a deviator given as xx, yy, zz, xy, yz, zx.
+#[inline(always)]
+fn deviator_j3([a, b, c, d, e, f]: [f64; 6]) -> f64 {
+    a * (b * c - e * e) - d * (d * c - e * f) + f * (d * e - b * f)
+}
+
+/// Roots of λ³ − J2 λ − J3 = 0 (J2 > 0) in descending order, and cos 3θ (see
+/// `Scaled::trig_eigenvalues`). Branch-free, so that the batch path can run it on several
+/// tensors side by side.
+#[inline(always)]
+fn cubic_roots(j2: f64, j3: f64) -> ([f64; 3], f64) {
+    let p = (j2 / 3.0).sqrt();
+    // Rounding may push cos 3θ just outside [−1, 1].
+    let cos3 = (j3 / (2.0 * p * p * p)).clamp(-1.0, 1.0);
+    let q = 1.0 - cos3.abs();
+    // Degree-8 Chebyshev fit of d/q on [0, 1] (9e-9 relative error), evaluated in Estrin's
+    // scheme to keep the dependency chain short, then one Newton step (measured against
+    // asin-based reference values: 9e-16 relative).
+    let q2 = q * q;
+    let q4 = q2 * q2;
+    let low = (0.111_111_112_492_340_49 + 0.016_460_784_692_985_4 * q)
+        + q2 * (0.004_270_201_531_624_106 + 0.001_331_984_819_783_434_3 * q);
+    let high = (0.000_583_251_151_162_893_3 - 0.000_090_809_809_388_839_58 * q)
+        + q2 * (0.000_474_152_368_658_059_36 - 0.000_299_544_588_276_074 * q);
+    let mut d = q * (low + q4 * (high + q4 * 0.000_133_461_666_415_402));
+    let g = ((4.0 * d - 12.0) * d + 9.0) * d - q;
+    let slope = (12.0 * d - 24.0) * d + 9.0;
+    d -= g / slope;
+    let c = 1.0 - d;
+    let s = (d * (2.0 - d)).max(0.0).sqrt();
+    let r3 = 3.0_f64.sqrt();
+    let roots = if cos3 >= 0.0 {
+        [2.0 * p * c, p * (r3 * s - c), -p * (c + r3 * s)]
+    } else {
+        [p * (c + r3 * s), p * (c - r3 * s), -2.0 * p * c]
+    };
+    (roots, cos3)
+}
+
+/// Tensors solved side by side in [`principal_values_into`].
+const LANES: usize = 4;
+
+/// Principal values of many tensors: `out[i]` = [`principal_values_pa`]`(&tensors[i])` for
+/// every index both slices have.
+///
+/// One tensor's solution is a long chain of dependent operations (square roots, divisions), so
+/// a single call leaves most of the processor idle. Here four tensors go through each step
+/// together; lanes that need care (nearly repeated roots, hydrostatic states, extreme
+/// magnitudes) are redone by the single-tensor path, so the results are the same.
+pub fn principal_values_into(tensors: &[StressTensor], out: &mut [[f64; 3]]) {
+    let n = tensors.len().min(out.len());
+    let (tensors, out) = (&tensors[..n], &mut out[..n]);
+    let mut chunks = tensors.chunks_exact(LANES).zip(out.chunks_exact_mut(LANES));
+    for (ts, os) in &mut chunks {
+        let comps: [[f64; 6]; LANES] = std::array::from_fn(|i| ts[i].components_pa());
+        let mean: [f64; LANES] =
+            std::array::from_fn(|i| (comps[i][0] + comps[i][1] + comps[i][2]) / 3.0);
+        let dev: [[f64; 6]; LANES] = std::array::from_fn(|i| {
+            let [xx, yy, zz, xy, yz, zx] = comps[i];
+            [xx - mean[i], yy - mean[i], zz - mean[i], xy, yz, zx]
+        });
+        let j2: [f64; LANES] = std::array::from_fn(|i| deviator_j2(dev[i]));
+        let j3: [f64; LANES] = std::array::from_fn(|i| deviator_j3(dev[i]));
+        // Keep the lanes branch-free; a lane with J2 outside the range where the unscaled
+        // formulas are exact to working precision is flagged and redone below.
+        let solved: [([f64; 3], f64); LANES] =
+            std::array::from_fn(|i| cubic_roots(j2[i].max(1e-300), j3[i]));
+        for i in 0..LANES {
+            let (roots, cos3) = solved[i];
+            let plain = (1e-100..=1e100).contains(&j2[i]) && cos3.abs() <= NEAR_REPEATED_COS3;
+            os[i] = if plain {
+                add_mean(roots, mean[i])
+            } else {
+                principal_values_pa(&ts[i])
+            };
         }
-        let c = 1.0 - d;
-        let s = (d * (2.0 - d)).max(0.0).sqrt();
-        let r3 = 3.0_f64.sqrt();
-        let roots = if cos3 >= 0.0 {
-            [2.0 * p * c, p * (r3 * s - c), -p * (c + r3 * s)]
-        } else {
-            [p * (c + r3 * s), p * (c - r3 * s), -2.0 * p * c]
-        };
-        (roots, cos3)
+    }
+    let rest = n - n % LANES;
+    for (t, o) in tensors[rest..].iter().zip(&mut out[rest..]) {
+        *o = principal_values_pa(t);
     }
 }
 
@@ -146,7 +216,8 @@ pub fn principal(t: &StressTensor) -> Principal {
 /// only known to a few ulp of the largest one anyway).
 fn add_mean(deviatoric_pa: [f64; 3], mean_pa: f64) -> [f64; 3] {
     let values = deviatoric_pa.map(|v| v + mean_pa);
-    let scale = values.iter().fold(0.0_f64, |m, v| m.max(v.abs()));
+    // The values are in descending order, so the largest magnitude is at one end.
+    let scale = values[0].abs().max(values[2].abs());
     values.map(|v| {
         if v.abs() <= 16.0 * f64::EPSILON * scale {
             0.0
@@ -194,15 +265,24 @@ fn solve_with_vectors(s: &Scaled, l: [f64; 3]) -> Principal {
     let n_hi = u * cu + v * cv;
     let n_lo = v * cu - u * cv;
 
+    // With (u, v, n_iso) right-handed, both orders below are right-handed by construction:
+    // n_iso × n_hi = n_lo and n_hi × n_lo = n_iso.
     let mut pairs = if largest_isolated {
         [(l_iso, n_iso), (hi, n_hi), (lo, n_lo)]
     } else {
         [(hi, n_hi), (lo, n_lo), (l_iso, n_iso)]
     };
-    // Rounding can only misorder values that are equal to working precision; keep the promise.
-    pairs.sort_by(|a, b| b.0.total_cmp(&a.0));
+    // Rounding can only misorder values that are equal to working precision; keep the promise
+    // with a three-element sorting network, and restore handedness if it swapped anything.
+    let mut swaps = 0;
+    for (i, j) in [(0, 1), (1, 2), (0, 1)] {
+        if pairs[i].0 < pairs[j].0 {
+            pairs.swap(i, j);
+            swaps += 1;
+        }
+    }
     let [(v1, n1), (v2, n2), (v3, mut n3)] = pairs;
-    if n1.cross(&n2).dot(&n3) < 0.0 {
+    if swaps % 2 == 1 {
         n3 = -n3;
     }
     Principal {
@@ -219,14 +299,16 @@ fn isolated_direction(b: &Matrix3<f64>, lambda: f64) -> Vector3<f64> {
     let r1 = m.row(1).transpose();
     let r2 = m.row(2).transpose();
     let c = [r0.cross(&r1), r0.cross(&r2), r1.cross(&r2)];
-    let best = c
-        .iter()
-        .copied()
-        .max_by(|a, b| a.norm_squared().total_cmp(&b.norm_squared()))
-        .unwrap_or_else(Vector3::x);
-    let n2 = best.norm_squared();
-    if n2 > 0.0 {
-        best / n2.sqrt()
+    let n2 = c.map(|v| v.norm_squared());
+    let best = if n2[0] >= n2[1] && n2[0] >= n2[2] {
+        0
+    } else if n2[1] >= n2[2] {
+        1
+    } else {
+        2
+    };
+    if n2[best] > 0.0 {
+        c[best] / n2[best].sqrt()
     } else {
         Vector3::x()
     }
