@@ -91,13 +91,13 @@ impl Scaled {
 }
 
 /// J2 = ½ s:s of a deviator given as xx, yy, zz, xy, yz, zx.
-#[inline(always)]
+#[inline]
 fn deviator_j2([a, b, c, d, e, f]: [f64; 6]) -> f64 {
     0.5 * (a * a + b * b + c * c) + d * d + e * e + f * f
 }
 
 /// J3 = det s of a deviator given as xx, yy, zz, xy, yz, zx.
-#[inline(always)]
+#[inline]
 fn deviator_j3([a, b, c, d, e, f]: [f64; 6]) -> f64 {
     a * (b * c - e * e) - d * (d * c - e * f) + f * (d * e - b * f)
 }
@@ -105,7 +105,7 @@ fn deviator_j3([a, b, c, d, e, f]: [f64; 6]) -> f64 {
 /// Roots of λ³ − J2 λ − J3 = 0 (J2 > 0) in descending order, and cos 3θ (see
 /// `Scaled::trig_eigenvalues`). Branch-free, so that the batch path can run it on several
 /// tensors side by side.
-#[inline(always)]
+#[inline]
 fn cubic_roots(j2: f64, j3: f64) -> ([f64; 3], f64) {
     let p = (j2 / 3.0).sqrt();
     // Rounding may push cos 3θ just outside [−1, 1].
