@@ -5,6 +5,13 @@
 //! axes; see [`mechanics::units`] for display units and the compression-positive convention.
 
 pub mod cli;
+pub mod draw;
+pub mod export;
 pub mod format;
 pub mod mechanics;
 pub mod parse;
+pub mod scene;
+
+/// The caution every output that can feed a decision carries (README, About, reports, figures).
+pub const SAFETY_NOTE: &str = "Planewise is an aid for engineers. Check inputs and results independently; \
+design decisions follow the applicable codes and licensed engineering practice.";

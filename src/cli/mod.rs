@@ -4,6 +4,7 @@
 //! the argument's name and what is wrong, on one line, with exit status 2 and nothing on stdout.
 
 pub mod analyze;
+pub mod figure;
 
 use clap::{Args, Parser, Subcommand};
 
@@ -34,6 +35,9 @@ pub enum Command {
     /// Principal stresses, invariants, equivalent stresses and (optionally) the traction on one plane.
     #[command(after_help = CONVENTIONS)]
     Analyze(analyze::AnalyzeArgs),
+    /// The annotated 3D view (cube, tractions, cut plane, principal axes) as SVG or PNG.
+    #[command(after_help = CONVENTIONS)]
+    Figure(figure::FigureArgs),
 }
 
 /// The stress state, as every subcommand takes it.
@@ -156,5 +160,6 @@ pub enum CliError {
 pub fn run(command: &Command) -> Result<String, CliError> {
     match command {
         Command::Analyze(args) => analyze::run(args),
+        Command::Figure(args) => figure::run(args),
     }
 }

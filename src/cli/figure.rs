@@ -1,0 +1,133 @@
+//! `planewise figure`: the annotated 3D view written as SVG or PNG, with no window or GPU.
+
+use std::path::PathBuf;
+
+use clap::Args;
+
+use super::{ArgError, CliError, PlaneArgs, StressArgs};
+use crate::draw::camera::{Camera, Projection, ViewPreset};
+use crate::export::{self, ImageFormat};
+use crate::mechanics::PlaneNormal;
+use crate::scene::{FaceChoice, Layers, SceneInput};
+
+/// Arguments of `planewise figure`.
+#[derive(Debug, Clone, Args)]
+pub struct FigureArgs {
+    #[command(flatten)]
+    pub stress: StressArgs,
+    #[command(flatten)]
+    pub plane: PlaneArgs,
+    /// Output file; .svg or .png.
+    #[arg(long, value_name = "FILE")]
+    pub out: PathBuf,
+    /// Image size in pixels, WIDTHxHEIGHT.
+    #[arg(long, value_name = "WxH", default_value = "1600x1200")]
+    pub size: String,
+    /// View direction: iso, x, -x, y, -y, z or -z (the eye's side).
+    #[arg(
+        long,
+        value_name = "VIEW",
+        default_value = "iso",
+        allow_hyphen_values = true
+    )]
+    pub view: String,
+    /// Perspective instead of orthographic projection.
+    #[arg(long)]
+    pub perspective: bool,
+    /// Layers to draw, comma-separated from: cube, faces, plane, ellipsoid, axes, labels,
+    /// triad, legend. Default: all but the ellipsoid (plane only when a plane is given).
+    #[arg(long, value_name = "LIST")]
+    pub layers: Option<String>,
+}
+
+/// Parses `WIDTHxHEIGHT`.
+pub fn parse_size(text: &str) -> Result<(u32, u32), ArgError> {
+    let bad = || {
+        ArgError::new(
+            "--size",
+            format!("'{text}' is not WIDTHxHEIGHT with each side 16 to 16384 pixels"),
+        )
+    };
+    let (w, h) = text.trim().split_once(['x', 'X', '×']).ok_or_else(bad)?;
+    let w: u32 = w.trim().parse().map_err(|_| bad())?;
+    let h: u32 = h.trim().parse().map_err(|_| bad())?;
+    if !(16..=16_384).contains(&w) || !(16..=16_384).contains(&h) {
+        return Err(bad());
+    }
+    Ok((w, h))
+}
+
+/// Parses a layer list.
+pub fn parse_layers(text: &str) -> Result<Layers, ArgError> {
+    let mut l = Layers {
+        cube: false,
+        face_tractions: false,
+        cut_plane: false,
+        ellipsoid: false,
+        principal_axes: false,
+        labels: false,
+        triad: false,
+        legend: false,
+    };
+    for name in text.split(',').map(str::trim).filter(|s| !s.is_empty()) {
+        let flag = match name {
+            "cube" => &mut l.cube,
+            "faces" => &mut l.face_tractions,
+            "plane" => &mut l.cut_plane,
+            "ellipsoid" => &mut l.ellipsoid,
+            "axes" => &mut l.principal_axes,
+            "labels" => &mut l.labels,
+            "triad" => &mut l.triad,
+            "legend" => &mut l.legend,
+            other => {
+                return Err(ArgError::new(
+                    "--layers",
+                    format!(
+                        "unknown layer '{other}' (expected cube, faces, plane, ellipsoid, axes, labels, triad, legend)"
+                    ),
+                ));
+            }
+        };
+        *flag = true;
+    }
+    Ok(l)
+}
+
+/// Runs the subcommand; prints the path written.
+pub fn run(args: &FigureArgs) -> Result<String, CliError> {
+    let input = args.stress.read()?;
+    let plane = args.plane.read()?;
+    let (w, h) = parse_size(&args.size)?;
+    let preset = ViewPreset::from_key(&args.view).ok_or_else(|| {
+        ArgError::new(
+            "--view",
+            format!(
+                "unknown view '{}' (expected iso, x, -x, y, -y, z, -z)",
+                args.view
+            ),
+        )
+    })?;
+    ImageFormat::from_path(&args.out).map_err(|e| ArgError::new("--out", e))?;
+    let mut layers = match &args.layers {
+        Some(list) => parse_layers(list)?,
+        None => Layers::default(),
+    };
+    if plane.is_none() {
+        layers.cut_plane = false;
+    }
+    let mut camera = Camera::from_preset(preset);
+    if args.perspective {
+        camera.projection = Projection::Perspective;
+    }
+    let scene_input = SceneInput {
+        tensor: &input.tensor,
+        plane: plane.unwrap_or(PlaneNormal::Z),
+        unit: input.unit,
+        convention: input.convention,
+        layers,
+        faces: FaceChoice::FacingViewer,
+    };
+    let frame = crate::draw::figure(&scene_input, &camera, w, h);
+    export::write_figure(&args.out, &frame, crate::SAFETY_NOTE).map_err(anyhow::Error::from)?;
+    Ok(format!("wrote {}\n", args.out.display()))
+}

@@ -1,0 +1,482 @@
+//! Turns a [`Scene`] into a [`Frame`]: projected, lit and depth-ordered 2D primitives in pixel
+//! coordinates, which the back ends (egui painter, SVG, PNG) draw in order without further
+//! thought.
+//!
+//! Depth order is a painter's algorithm organised around the planes in the picture: the cube's
+//! faces that face away from the eye are drawn first (front faces are left open so nothing is
+//! tinted wrongly), then everything on the far side of the cut plane from the eye, back to
+//! front, then the cut plane, then everything on the near side, back to front, then labels,
+//! legend and triad on top. Lines and arrow shafts are cut into short pieces so that each piece
+//! sorts on its own depth.
+
+pub mod camera;
+pub mod egui_backend;
+pub mod png;
+pub mod svg;
+
+use nalgebra::{Point3, Vector3};
+
+use crate::scene::style::{self, Rgba};
+use crate::scene::{Scene, Segment};
+use camera::{Camera, ScreenFromWorld};
+
+/// A pixel position (x right, y down).
+pub type Pos = [f32; 2];
+
+/// How text is placed relative to its position.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum Anchor {
+    /// The position is the left end of the text's middle line.
+    LeftCenter,
+    /// The position is the right end of the text's middle line.
+    RightCenter,
+    /// The position is the text's centre.
+    Center,
+}
+
+/// One thing to draw, in pixels.
+#[derive(Clone, Debug, PartialEq)]
+pub enum Prim {
+    /// A filled convex polygon, optionally outlined.
+    Polygon {
+        /// Corners in order.
+        points: Vec<Pos>,
+        /// Fill.
+        fill: Rgba,
+        /// Outline colour and width.
+        outline: Option<(Rgba, f32)>,
+    },
+    /// A straight line with round ends.
+    Line {
+        /// Start.
+        a: Pos,
+        /// End.
+        b: Pos,
+        /// Width in pixels.
+        width: f32,
+        /// Colour.
+        color: Rgba,
+    },
+    /// Text.
+    Text {
+        /// Where.
+        at: Pos,
+        /// What.
+        text: String,
+        /// Font size in pixels.
+        size: f32,
+        /// Colour.
+        color: Rgba,
+        /// Placement.
+        anchor: Anchor,
+        /// Draw a background-coloured halo behind the text (labels over geometry).
+        halo: bool,
+    },
+}
+
+/// A complete picture, ready for a back end.
+#[derive(Clone, Debug, PartialEq)]
+pub struct Frame {
+    /// Width in pixels.
+    pub width: f32,
+    /// Height in pixels.
+    pub height: f32,
+    /// Background colour.
+    pub background: Rgba,
+    /// Primitives in drawing order (first drawn first).
+    pub prims: Vec<Prim>,
+}
+
+/// Sizes that grow with the output (line widths and text scale together).
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct Sizes {
+    /// Multiplier for line widths and arrowheads.
+    pub line: f32,
+    /// Font size for labels, pixels.
+    pub text: f32,
+}
+
+impl Sizes {
+    /// Sizes for an export of `width` × `height` pixels, matching a 1100 × 750 screen view.
+    #[must_use]
+    pub fn for_export(width: f32, height: f32) -> Self {
+        let k = (width / 1100.0).min(height / 750.0).max(0.25);
+        Self {
+            line: k,
+            text: 13.0 * k,
+        }
+    }
+}
+
+impl Default for Sizes {
+    fn default() -> Self {
+        Self {
+            line: 1.0,
+            text: 13.0,
+        }
+    }
+}
+
+/// Longest world length of one sorted piece of a line or shaft.
+const PIECE: f64 = 0.06;
+
+#[derive(Clone, Copy, PartialEq, Eq)]
+enum Side {
+    Far,
+    Near,
+}
+
+struct Item {
+    depth: f64,
+    side: Side,
+    prim: Prim,
+}
+
+fn pos(p: &camera::Projected) -> Pos {
+    [p.x as f32, p.y as f32]
+}
+
+/// Projects, lights and orders `scene` for a `width` × `height` pixel view seen by `camera`.
+#[must_use]
+pub fn render(scene: &Scene, camera: &Camera, width: f32, height: f32, sizes: Sizes) -> Frame {
+    let view = camera.screen_from_world(f64::from(width), f64::from(height), scene.radius());
+    let eye = view.towards_eye();
+    let mut frame = Frame {
+        width,
+        height,
+        background: style::BACKGROUND,
+        prims: Vec::new(),
+    };
+
+    // The cut plane is the last polygon with an outline (see Scene::build); cube faces have none.
+    let cut = scene.polygons.iter().find(|p| p.outline.is_some());
+    let cut_normal = cut.and_then(|p| plane_normal(&p.points));
+    let side_of = |p: &Point3<f64>| -> Side {
+        match cut_normal {
+            Some(n) if n.dot(&p.coords) * n.dot(&eye) < 0.0 => Side::Far,
+            _ => Side::Near,
+        }
+    };
+
+    // Back cube faces first.
+    let mut back: Vec<Item> = Vec::new();
+    for poly in scene.polygons.iter().filter(|p| p.outline.is_none()) {
+        let Some(n) = plane_normal(&poly.points) else {
+            continue;
+        };
+        let centroid = centroid(&poly.points);
+        let outward = if n.dot(&centroid.coords) >= 0.0 {
+            n
+        } else {
+            -n
+        };
+        if outward.dot(&eye) < 0.0 {
+            back.push(Item {
+                depth: view.project(&centroid).depth,
+                side: Side::Far,
+                prim: Prim::Polygon {
+                    points: poly.points.iter().map(|p| pos(&view.project(p))).collect(),
+                    fill: poly.fill.shaded(0.9 + 0.1 * outward.dot(&eye).abs()),
+                    outline: None,
+                },
+            });
+        }
+    }
+
+    let mut items: Vec<Item> = Vec::new();
+    for seg in &scene.segments {
+        push_line(&mut items, &view, seg, sizes, &side_of);
+    }
+    for mesh in &scene.meshes {
+        for tri in &mesh.triangles {
+            let [a, b, c] = tri.map(|i| mesh.vertices[i as usize]);
+            let n = (b - a).cross(&(c - a));
+            let area = n.norm();
+            if area < 1e-12 {
+                continue;
+            }
+            let centroid = Point3::from((a.coords + b.coords + c.coords) / 3.0);
+            let light = 0.55 + 0.45 * (n / area).dot(&light_direction(&eye)).abs();
+            items.push(Item {
+                depth: view.project(&centroid).depth,
+                side: side_of(&centroid),
+                prim: Prim::Polygon {
+                    points: vec![
+                        pos(&view.project(&a)),
+                        pos(&view.project(&b)),
+                        pos(&view.project(&c)),
+                    ],
+                    fill: mesh.color.shaded(light),
+                    outline: None,
+                },
+            });
+        }
+    }
+    for arrow in &scene.arrows {
+        push_arrow(&mut items, &view, arrow, sizes, &side_of);
+    }
+
+    back.sort_by(|a, b| b.depth.total_cmp(&a.depth));
+    items.sort_by(|a, b| b.depth.total_cmp(&a.depth));
+    frame.prims.extend(back.into_iter().map(|i| i.prim));
+    let (far, near): (Vec<Item>, Vec<Item>) = items.into_iter().partition(|i| i.side == Side::Far);
+    frame.prims.extend(far.into_iter().map(|i| i.prim));
+    if let Some(cut) = cut {
+        frame.prims.push(Prim::Polygon {
+            points: cut.points.iter().map(|p| pos(&view.project(p))).collect(),
+            fill: cut.fill,
+            outline: cut.outline.map(|c| (c, 1.2 * sizes.line)),
+        });
+    }
+    frame.prims.extend(near.into_iter().map(|i| i.prim));
+
+    push_labels(&mut frame, scene, &view, sizes);
+    if scene.triad {
+        push_triad(&mut frame, &view, sizes);
+    }
+    if let Some(legend) = &scene.legend {
+        push_legend(&mut frame, legend, &view, sizes);
+    }
+    frame
+}
+
+/// A fixed light a little above and to the left of the eye.
+fn light_direction(eye: &Vector3<f64>) -> Vector3<f64> {
+    let l = eye + Vector3::new(0.0, 0.0, 0.5);
+    l.try_normalize(1e-12).unwrap_or(*eye)
+}
+
+fn centroid(points: &[Point3<f64>]) -> Point3<f64> {
+    let sum = points.iter().fold(Vector3::zeros(), |s, p| s + p.coords);
+    Point3::from(sum / points.len().max(1) as f64)
+}
+
+/// Unit normal of a planar polygon (Newell's method), if it has area.
+fn plane_normal(points: &[Point3<f64>]) -> Option<Vector3<f64>> {
+    let mut n = Vector3::zeros();
+    for (i, p) in points.iter().enumerate() {
+        let q = points[(i + 1) % points.len()];
+        n += p.coords.cross(&q.coords);
+    }
+    n.try_normalize(1e-12)
+}
+
+fn push_line(
+    items: &mut Vec<Item>,
+    view: &ScreenFromWorld,
+    seg: &Segment,
+    sizes: Sizes,
+    side_of: &dyn Fn(&Point3<f64>) -> Side,
+) {
+    let pieces = ((seg.b - seg.a).norm() / PIECE).ceil().max(1.0) as usize;
+    for k in 0..pieces {
+        let t0 = k as f64 / pieces as f64;
+        let t1 = (k + 1) as f64 / pieces as f64;
+        let a = seg.a + (seg.b - seg.a) * t0;
+        let b = seg.a + (seg.b - seg.a) * t1;
+        let mid = Point3::from((a.coords + b.coords) / 2.0);
+        items.push(Item {
+            depth: view.project(&mid).depth,
+            side: side_of(&mid),
+            prim: Prim::Line {
+                a: pos(&view.project(&a)),
+                b: pos(&view.project(&b)),
+                width: seg.width_px * sizes.line,
+                color: seg.color,
+            },
+        });
+    }
+}
+
+fn push_arrow(
+    items: &mut Vec<Item>,
+    view: &ScreenFromWorld,
+    arrow: &crate::scene::Arrow,
+    sizes: Sizes,
+    side_of: &dyn Fn(&Point3<f64>) -> Side,
+) {
+    let tail = view.project(&arrow.from);
+    let tip = view.project(&arrow.to);
+    let (dx, dy) = (tip.x - tail.x, tip.y - tail.y);
+    let screen_len = dx.hypot(dy);
+    let width = f64::from(arrow.width_px * sizes.line);
+    let head_len = (4.5 * width).min(0.45 * screen_len);
+    // The shaft stops where the head begins, measured as a fraction of the world arrow.
+    let head_frac = if screen_len > 0.0 {
+        head_len / screen_len
+    } else {
+        0.0
+    };
+    let shaft_end = arrow.from + (arrow.to - arrow.from) * (1.0 - head_frac);
+    push_line(
+        items,
+        view,
+        &Segment {
+            a: arrow.from,
+            b: shaft_end,
+            color: arrow.color,
+            width_px: arrow.width_px,
+        },
+        sizes,
+        side_of,
+    );
+    if screen_len > 0.5 {
+        let (ux, uy) = (dx / screen_len, dy / screen_len);
+        let half = 1.8 * width;
+        let base = (tip.x - ux * head_len, tip.y - uy * head_len);
+        let points = vec![
+            [tip.x as f32, tip.y as f32],
+            [(base.0 - uy * half) as f32, (base.1 + ux * half) as f32],
+            [(base.0 + uy * half) as f32, (base.1 - ux * half) as f32],
+        ];
+        items.push(Item {
+            depth: tip.depth,
+            side: side_of(&arrow.to),
+            prim: Prim::Polygon {
+                points,
+                fill: arrow.color,
+                outline: None,
+            },
+        });
+    }
+}
+
+fn push_labels(frame: &mut Frame, scene: &Scene, view: &ScreenFromWorld, sizes: Sizes) {
+    let centre = view.project(&Point3::origin());
+    for label in &scene.labels {
+        let p = view.project(&label.at);
+        // Put the text on the side away from the picture's centre, so it runs off the arrow tip
+        // instead of across the arrow.
+        let (anchor, dx) = if p.x < centre.x - 1.0 {
+            (Anchor::RightCenter, -6.0)
+        } else {
+            (Anchor::LeftCenter, 6.0)
+        };
+        frame.prims.push(Prim::Text {
+            at: [p.x as f32 + dx * sizes.line, p.y as f32],
+            text: label.text.clone(),
+            size: sizes.text,
+            color: label.color,
+            anchor,
+            halo: true,
+        });
+    }
+}
+
+fn push_triad(frame: &mut Frame, view: &ScreenFromWorld, sizes: Sizes) {
+    let len = 34.0 * f64::from(sizes.line);
+    let origin = [44.0 * sizes.line, frame.height - 44.0 * sizes.line];
+    let axes = [
+        ("x", Vector3::x()),
+        ("y", Vector3::y()),
+        ("z", Vector3::z()),
+    ];
+    // Draw the axis pointing most away from the viewer first.
+    let mut order: Vec<usize> = vec![0, 1, 2];
+    let eye = view.towards_eye();
+    order.sort_by(|&a, &b| axes[a].1.dot(&eye).total_cmp(&axes[b].1.dot(&eye)));
+    for i in order {
+        let (name, d) = &axes[i];
+        let [sx, sy] = view.screen_direction(d);
+        let end = [origin[0] + (sx * len) as f32, origin[1] + (sy * len) as f32];
+        frame.prims.push(Prim::Line {
+            a: origin,
+            b: end,
+            width: 2.0 * sizes.line,
+            color: style::AXES[i],
+        });
+        let label_at = [
+            origin[0] + (sx * len * 1.3) as f32,
+            origin[1] + (sy * len * 1.3) as f32,
+        ];
+        frame.prims.push(Prim::Text {
+            at: label_at,
+            text: (*name).to_owned(),
+            size: sizes.text,
+            color: style::AXES[i],
+            anchor: Anchor::Center,
+            halo: false,
+        });
+    }
+}
+
+fn push_legend(
+    frame: &mut Frame,
+    legend: &crate::scene::Legend,
+    view: &ScreenFromWorld,
+    sizes: Sizes,
+) {
+    let x = 12.0 * sizes.line;
+    let mut y = 16.0 * sizes.line;
+    let step = sizes.text * 1.45;
+    for line in &legend.lines {
+        frame.prims.push(Prim::Text {
+            at: [x, y],
+            text: line.clone(),
+            size: sizes.text,
+            color: style::INK,
+            anchor: Anchor::LeftCenter,
+            halo: false,
+        });
+        y += step;
+    }
+    // The scale bar: the world length of `scale_bar_text`, in pixels at depth 0.
+    let bar = (legend.scale_bar_world * view.pixels_per_unit()) as f32;
+    if bar > 0.0 {
+        frame.prims.push(Prim::Line {
+            a: [x, y],
+            b: [x + bar, y],
+            width: 3.0 * sizes.line,
+            color: style::TRACTION,
+        });
+        frame.prims.push(Prim::Text {
+            at: [x + bar + 8.0 * sizes.line, y],
+            text: format!("= {} (arrow scale)", legend.scale_bar_text),
+            size: sizes.text,
+            color: style::INK,
+            anchor: Anchor::LeftCenter,
+            halo: false,
+        });
+    } else {
+        frame.prims.push(Prim::Text {
+            at: [x, y],
+            text: format!("arrow scale: {}", legend.scale_bar_text),
+            size: sizes.text,
+            color: style::INK,
+            anchor: Anchor::LeftCenter,
+            halo: false,
+        });
+    }
+    y += step;
+    for entry in &legend.entries {
+        frame.prims.push(Prim::Line {
+            a: [x, y],
+            b: [x + 18.0 * sizes.line, y],
+            width: 4.0 * sizes.line,
+            color: entry.color,
+        });
+        frame.prims.push(Prim::Text {
+            at: [x + 26.0 * sizes.line, y],
+            text: entry.text.clone(),
+            size: sizes.text,
+            color: style::INK,
+            anchor: Anchor::LeftCenter,
+            halo: false,
+        });
+        y += step;
+    }
+}
+
+/// The exported figure for a state: the same scene and frame code as the window, at
+/// `width` × `height` pixels with sizes scaled to match.
+#[must_use]
+pub fn figure(
+    input: &crate::scene::SceneInput<'_>,
+    camera: &Camera,
+    width: u32,
+    height: u32,
+) -> Frame {
+    let scene = Scene::build(input, &camera.towards_eye());
+    let (w, h) = (width as f32, height as f32);
+    render(&scene, camera, w, h, Sizes::for_export(w, h))
+}

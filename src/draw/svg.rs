@@ -1,0 +1,121 @@
+//! Writes a [`Frame`] as SVG. Text uses the bundled DejaVu Sans font by name, so the PNG path
+//! (which loads that font) and any viewer with the font show the same picture.
+
+use std::fmt::Write as _;
+
+use super::{Anchor, Frame, Prim};
+use crate::scene::style::Rgba;
+
+/// The font family named in exported SVG text.
+pub const FONT_FAMILY: &str = "DejaVu Sans";
+
+fn escape(text: &str) -> String {
+    text.replace('&', "&amp;")
+        .replace('<', "&lt;")
+        .replace('>', "&gt;")
+        .replace('"', "&quot;")
+}
+
+fn paint(attr: &str, c: Rgba) -> String {
+    if c.a == 255 {
+        format!(r#"{attr}="{}""#, c.hex())
+    } else {
+        format!(
+            r#"{attr}="{}" {attr}-opacity="{:.3}""#,
+            c.hex(),
+            f32::from(c.a) / 255.0
+        )
+    }
+}
+
+/// The SVG document for `frame`, with an optional title (for example the load case and the
+/// safety caution) in its metadata.
+#[must_use]
+pub fn to_svg(frame: &Frame, title: &str) -> String {
+    let (w, h) = (frame.width, frame.height);
+    let mut s = String::with_capacity(64 * frame.prims.len() + 512);
+    let _ = writeln!(
+        s,
+        r#"<svg xmlns="http://www.w3.org/2000/svg" width="{w}" height="{h}" viewBox="0 0 {w} {h}">"#
+    );
+    let _ = writeln!(s, "<title>{}</title>", escape(title));
+    let _ = writeln!(
+        s,
+        r#"<rect width="{w}" height="{h}" {}/>"#,
+        paint("fill", frame.background)
+    );
+    for prim in &frame.prims {
+        match prim {
+            Prim::Polygon {
+                points,
+                fill,
+                outline,
+            } => {
+                let pts: Vec<String> = points
+                    .iter()
+                    .map(|p| format!("{:.2},{:.2}", p[0], p[1]))
+                    .collect();
+                let stroke = outline.map_or_else(
+                    || r#"stroke="none""#.to_owned(),
+                    |(c, width)| {
+                        format!(
+                            r#"{} stroke-width="{width:.2}" stroke-linejoin="round""#,
+                            paint("stroke", c)
+                        )
+                    },
+                );
+                let _ = writeln!(
+                    s,
+                    r#"<polygon points="{}" {} {stroke}/>"#,
+                    pts.join(" "),
+                    paint("fill", *fill)
+                );
+            }
+            Prim::Line { a, b, width, color } => {
+                let _ = writeln!(
+                    s,
+                    r#"<line x1="{:.2}" y1="{:.2}" x2="{:.2}" y2="{:.2}" {} stroke-width="{width:.2}" stroke-linecap="round"/>"#,
+                    a[0],
+                    a[1],
+                    b[0],
+                    b[1],
+                    paint("stroke", *color)
+                );
+            }
+            Prim::Text {
+                at,
+                text,
+                size,
+                color,
+                anchor,
+                halo,
+            } => {
+                let align = match anchor {
+                    Anchor::LeftCenter => "start",
+                    Anchor::RightCenter => "end",
+                    Anchor::Center => "middle",
+                };
+                let halo = if *halo {
+                    format!(
+                        r#" stroke="{}" stroke-width="{:.2}" stroke-linejoin="round" paint-order="stroke""#,
+                        frame.background.hex(),
+                        0.3 * size
+                    )
+                } else {
+                    String::new()
+                };
+                // Place the baseline so that the text's middle sits on `at` (about 0.35 em below).
+                let _ = writeln!(
+                    s,
+                    r#"<text x="{:.2}" y="{:.2}" font-family="{FONT_FAMILY}" font-size="{size:.2}" text-anchor="{align}" {}{halo}>{}</text>"#,
+                    at[0],
+                    at[1] + 0.35 * size,
+                    paint("fill", *color),
+                    escape(text)
+                );
+            }
+        }
+    }
+    s.push_str("</svg>\n");
+    s
+}

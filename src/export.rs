@@ -1,0 +1,93 @@
+//! Writing exported files: format from the file name, written atomically (a temporary file in
+//! the same folder, then a rename) so a failed export never leaves half a file behind.
+
+use std::io::Write as _;
+use std::path::{Path, PathBuf};
+
+use crate::draw::{Frame, png, svg};
+
+/// Picture formats we write.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum ImageFormat {
+    /// Scalable vector graphics.
+    Svg,
+    /// Portable network graphics.
+    Png,
+}
+
+/// Why an export failed.
+#[derive(Debug, thiserror::Error)]
+pub enum ExportError {
+    /// The file name does not end in .svg or .png.
+    #[error("'{0}' must end in .svg or .png")]
+    Extension(String),
+    /// Rendering failed.
+    #[error(transparent)]
+    Png(#[from] png::PngError),
+    /// Writing failed.
+    #[error("could not write '{path}': {source}")]
+    Io {
+        /// The file.
+        path: PathBuf,
+        /// The cause.
+        source: std::io::Error,
+    },
+}
+
+impl ImageFormat {
+    /// The format a path's extension names.
+    pub fn from_path(path: &Path) -> Result<Self, ExportError> {
+        match path
+            .extension()
+            .and_then(|e| e.to_str())
+            .map(str::to_ascii_lowercase)
+            .as_deref()
+        {
+            Some("svg") => Ok(Self::Svg),
+            Some("png") => Ok(Self::Png),
+            _ => Err(ExportError::Extension(path.display().to_string())),
+        }
+    }
+}
+
+/// The bytes of `frame` in `format`.
+pub fn encode(frame: &Frame, format: ImageFormat, title: &str) -> Result<Vec<u8>, ExportError> {
+    Ok(match format {
+        ImageFormat::Svg => svg::to_svg(frame, title).into_bytes(),
+        ImageFormat::Png => png::to_png(frame)?,
+    })
+}
+
+/// Writes `bytes` to `path` atomically.
+pub fn write_atomic(path: &Path, bytes: &[u8]) -> Result<(), ExportError> {
+    let io = |source| ExportError::Io {
+        path: path.to_owned(),
+        source,
+    };
+    let dir = path
+        .parent()
+        .filter(|p| !p.as_os_str().is_empty())
+        .unwrap_or(Path::new("."));
+    let name = path
+        .file_name()
+        .map_or_else(|| "figure".into(), |n| n.to_string_lossy().into_owned());
+    let tmp = dir.join(format!(".{name}.{}.tmp", std::process::id()));
+    let result = std::fs::File::create(&tmp).and_then(|mut f| {
+        f.write_all(bytes)?;
+        f.sync_all()
+    });
+    if let Err(e) = result {
+        let _ = std::fs::remove_file(&tmp);
+        return Err(io(e));
+    }
+    std::fs::rename(&tmp, path).map_err(|e| {
+        let _ = std::fs::remove_file(&tmp);
+        io(e)
+    })
+}
+
+/// Encodes `frame` in the format the path names and writes it atomically.
+pub fn write_figure(path: &Path, frame: &Frame, title: &str) -> Result<(), ExportError> {
+    let format = ImageFormat::from_path(path)?;
+    write_atomic(path, &encode(frame, format, title)?)
+}

@@ -1,0 +1,712 @@
+//! What the 3D picture contains, as plain data in world units (the cube has edge 1 and its
+//! centre at the origin; x, y, z right-handed, z up). Built from the tensor, the plane and the
+//! layer settings; no drawing and no GUI types here.
+
+pub mod style;
+
+use nalgebra::{Point3, Vector3};
+use serde::{Deserialize, Serialize};
+
+use crate::format::sig;
+use crate::mechanics::{
+    Analysis, PlaneNormal, PlaneStress, SignConvention, StressTensor, StressUnit,
+};
+use style::Rgba;
+
+/// Which parts of the picture are drawn.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(default)]
+#[expect(
+    clippy::struct_excessive_bools,
+    reason = "one switch per layer, as the user sees them"
+)]
+pub struct Layers {
+    /// The unit cube's faces and edges.
+    pub cube: bool,
+    /// Traction arrows on the chosen cube faces.
+    pub face_tractions: bool,
+    /// The cut plane with its normal and traction.
+    pub cut_plane: bool,
+    /// The traction ellipsoid.
+    pub ellipsoid: bool,
+    /// The principal axes.
+    pub principal_axes: bool,
+    /// Value labels next to arrows.
+    pub labels: bool,
+    /// The x, y, z triad in the corner.
+    pub triad: bool,
+    /// The legend (arrow scale, unit, convention, colours).
+    pub legend: bool,
+}
+
+impl Default for Layers {
+    fn default() -> Self {
+        Self {
+            cube: true,
+            face_tractions: true,
+            cut_plane: true,
+            ellipsoid: false,
+            principal_axes: true,
+            labels: true,
+            triad: true,
+            legend: true,
+        }
+    }
+}
+
+/// The six cube faces, by outward normal.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, Serialize, Deserialize)]
+pub enum Face {
+    /// +x
+    PosX,
+    /// −x
+    NegX,
+    /// +y
+    PosY,
+    /// −y
+    NegY,
+    /// +z
+    PosZ,
+    /// −z
+    NegZ,
+}
+
+impl Face {
+    /// All faces.
+    pub const ALL: [Self; 6] = [
+        Self::PosX,
+        Self::NegX,
+        Self::PosY,
+        Self::NegY,
+        Self::PosZ,
+        Self::NegZ,
+    ];
+
+    /// Outward unit normal.
+    #[must_use]
+    pub fn normal(self) -> Vector3<f64> {
+        match self {
+            Self::PosX => Vector3::x(),
+            Self::NegX => -Vector3::x(),
+            Self::PosY => Vector3::y(),
+            Self::NegY => -Vector3::y(),
+            Self::PosZ => Vector3::z(),
+            Self::NegZ => -Vector3::z(),
+        }
+    }
+
+    /// Short name, e.g. "+x".
+    #[must_use]
+    pub fn label(self) -> &'static str {
+        match self {
+            Self::PosX => "+x",
+            Self::NegX => "−x",
+            Self::PosY => "+y",
+            Self::NegY => "−y",
+            Self::PosZ => "+z",
+            Self::NegZ => "−z",
+        }
+    }
+}
+
+/// Which faces carry traction arrows.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize, Deserialize, Default)]
+pub enum FaceChoice {
+    /// The three faces turned towards the viewer (changes as the view turns).
+    #[default]
+    FacingViewer,
+    /// A fixed set, in the order of [`Face::ALL`].
+    Chosen([bool; 6]),
+}
+
+/// Everything the scene is built from.
+#[derive(Clone, Copy, Debug)]
+pub struct SceneInput<'a> {
+    /// The stress state (stored, tension positive).
+    pub tensor: &'a StressTensor,
+    /// The cut plane.
+    pub plane: PlaneNormal,
+    /// Unit of labels.
+    pub unit: StressUnit,
+    /// Sign convention of labels (arrows are physical vectors and do not change).
+    pub convention: SignConvention,
+    /// Layers to draw.
+    pub layers: Layers,
+    /// Faces with traction arrows.
+    pub faces: FaceChoice,
+}
+
+/// An arrow from `from` to `to` (world units).
+#[derive(Clone, Debug, PartialEq)]
+pub struct Arrow {
+    /// Tail.
+    pub from: Point3<f64>,
+    /// Tip.
+    pub to: Point3<f64>,
+    /// Colour.
+    pub color: Rgba,
+    /// Shaft width in pixels at the reference size.
+    pub width_px: f32,
+}
+
+/// A flat, convex polygon (world units), filled and optionally outlined.
+#[derive(Clone, Debug, PartialEq)]
+pub struct Polygon {
+    /// Vertices in order around the polygon.
+    pub points: Vec<Point3<f64>>,
+    /// Fill colour (alpha for translucency).
+    pub fill: Rgba,
+    /// Outline colour, if any.
+    pub outline: Option<Rgba>,
+}
+
+/// Triangles sharing a colour (world units), lit per triangle.
+#[derive(Clone, Debug, PartialEq, Default)]
+pub struct TriMesh {
+    /// Vertex positions.
+    pub vertices: Vec<Point3<f64>>,
+    /// Vertex indices, three per triangle.
+    pub triangles: Vec<[u32; 3]>,
+    /// Colour before lighting.
+    pub color: Rgba,
+}
+
+/// A straight line (world units).
+#[derive(Clone, Debug, PartialEq)]
+pub struct Segment {
+    /// One end.
+    pub a: Point3<f64>,
+    /// Other end.
+    pub b: Point3<f64>,
+    /// Colour.
+    pub color: Rgba,
+    /// Width in pixels at the reference size.
+    pub width_px: f32,
+}
+
+/// Text anchored at a world point, drawn on top of the geometry.
+#[derive(Clone, Debug, PartialEq)]
+pub struct Label {
+    /// Anchor.
+    pub at: Point3<f64>,
+    /// Text, with unit.
+    pub text: String,
+    /// Colour.
+    pub color: Rgba,
+}
+
+/// One entry of the legend: a colour swatch and what it means.
+#[derive(Clone, Debug, PartialEq)]
+pub struct LegendEntry {
+    /// Swatch colour.
+    pub color: Rgba,
+    /// Meaning.
+    pub text: String,
+}
+
+/// The legend, drawn in a corner of the view.
+#[derive(Clone, Debug, PartialEq, Default)]
+pub struct Legend {
+    /// Lines of text above the swatches (scale, unit, convention).
+    pub lines: Vec<String>,
+    /// World length of the scale bar.
+    pub scale_bar_world: f64,
+    /// What the scale bar stands for, with unit.
+    pub scale_bar_text: String,
+    /// Colour key.
+    pub entries: Vec<LegendEntry>,
+}
+
+/// The whole 3D picture.
+#[derive(Clone, Debug, PartialEq, Default)]
+pub struct Scene {
+    /// Filled polygons (cube faces, cut plane).
+    pub polygons: Vec<Polygon>,
+    /// Shaded meshes (ellipsoid).
+    pub meshes: Vec<TriMesh>,
+    /// Lines (cube edges).
+    pub segments: Vec<Segment>,
+    /// Arrows (tractions, principal axes, plane normal).
+    pub arrows: Vec<Arrow>,
+    /// Value labels.
+    pub labels: Vec<Label>,
+    /// Legend, when that layer is on.
+    pub legend: Option<Legend>,
+    /// Whether to draw the axis triad.
+    pub triad: bool,
+    /// World units per pascal for arrow lengths (0 for a zero tensor).
+    pub arrow_scale_per_pa: f64,
+}
+
+impl Scene {
+    /// Radius of a sphere about the origin holding everything drawn (at least the cube's), so
+    /// the view can fit the picture without depending on the view direction.
+    #[must_use]
+    pub fn radius(&self) -> f64 {
+        let mut r: f64 = 0.87;
+        let mut grow = |p: &Point3<f64>| r = r.max(p.coords.norm());
+        for a in &self.arrows {
+            grow(&a.from);
+            grow(&a.to);
+        }
+        for s in &self.segments {
+            grow(&s.a);
+            grow(&s.b);
+        }
+        for m in &self.meshes {
+            m.vertices.iter().for_each(&mut grow);
+        }
+        r
+    }
+}
+
+/// Distance from the centre at which principal-stress arrows start: just past the cube's
+/// corners (√3/2 ≈ 0.866).
+const AXIS_REACH: f64 = 0.9;
+
+/// The cube's eight corners.
+fn cube_corners() -> [Point3<f64>; 8] {
+    std::array::from_fn(|i| {
+        let s = |bit: usize| if i & bit == 0 { -0.5 } else { 0.5 };
+        Point3::new(s(1), s(2), s(4))
+    })
+}
+
+/// The cube's twelve edges as pairs of corner indices (corners differing in one bit).
+fn cube_edges() -> Vec<(usize, usize)> {
+    let mut edges = Vec::with_capacity(12);
+    for a in 0..8usize {
+        for bit in [1usize, 2, 4] {
+            if a & bit == 0 {
+                edges.push((a, a | bit));
+            }
+        }
+    }
+    edges
+}
+
+/// The polygon where the plane through the origin with unit normal `n` cuts the cube
+/// [−½, ½]³, in order around `n`. Always a convex polygon of 4 to 6 vertices.
+#[must_use]
+pub fn cut_polygon(n: &Vector3<f64>) -> Vec<Point3<f64>> {
+    let corners = cube_corners();
+    let mut points: Vec<Point3<f64>> = Vec::with_capacity(6);
+    for (a, b) in cube_edges() {
+        let (pa, pb) = (corners[a], corners[b]);
+        let (da, db) = (n.dot(&pa.coords), n.dot(&pb.coords));
+        // Include an edge end lying exactly on the plane once, from the edge where it is `a`.
+        if da == 0.0 {
+            if !points.iter().any(|p| (p - pa).norm() < 1e-12) {
+                points.push(pa);
+            }
+            continue;
+        }
+        if da * db < 0.0 {
+            let t = da / (da - db);
+            let p = pa + (pb - pa) * t;
+            if !points.iter().any(|q| (q - p).norm() < 1e-12) {
+                points.push(p);
+            }
+        }
+    }
+    // A corner on the plane that is only ever a `b` end.
+    for c in corners {
+        if n.dot(&c.coords) == 0.0 && !points.iter().any(|p| (p - c).norm() < 1e-12) {
+            points.push(c);
+        }
+    }
+    let (u, v) = crate::mechanics::principal::orthogonal_complement(n);
+    points.sort_by(|p, q| {
+        let ap = v.dot(&p.coords).atan2(u.dot(&p.coords));
+        let aq = v.dot(&q.coords).atan2(u.dot(&q.coords));
+        ap.total_cmp(&aq)
+    });
+    points
+}
+
+/// A unit-sphere mesh mapped through x ↦ Σ aᵢ (eᵢ·x) dᵢ: the ellipsoid with semi-axes `a` along
+/// unit directions `d`.
+fn ellipsoid_mesh(semi_axes: [f64; 3], directions: [Vector3<f64>; 3], color: Rgba) -> TriMesh {
+    const RINGS: u32 = 14;
+    const SEGMENTS: u32 = 28;
+    let mut mesh = TriMesh {
+        color,
+        ..TriMesh::default()
+    };
+    for ring in 0..=RINGS {
+        let polar = std::f64::consts::PI * f64::from(ring) / f64::from(RINGS);
+        for seg in 0..SEGMENTS {
+            let azimuth = std::f64::consts::TAU * f64::from(seg) / f64::from(SEGMENTS);
+            let unit = [
+                polar.sin() * azimuth.cos(),
+                polar.sin() * azimuth.sin(),
+                polar.cos(),
+            ];
+            let p = directions[0] * (semi_axes[0] * unit[0])
+                + directions[1] * (semi_axes[1] * unit[1])
+                + directions[2] * (semi_axes[2] * unit[2]);
+            mesh.vertices.push(Point3::from(p));
+        }
+    }
+    for ring in 0..RINGS {
+        for seg in 0..SEGMENTS {
+            let next = (seg + 1) % SEGMENTS;
+            let (a, b) = (ring * SEGMENTS + seg, ring * SEGMENTS + next);
+            let (c, d) = (a + SEGMENTS, b + SEGMENTS);
+            mesh.triangles.push([a, c, b]);
+            mesh.triangles.push([b, c, d]);
+        }
+    }
+    mesh
+}
+
+/// Arrow helper that skips zero-length arrows (a zero traction draws nothing).
+fn push_arrow(
+    arrows: &mut Vec<Arrow>,
+    from: Point3<f64>,
+    vector: Vector3<f64>,
+    color: Rgba,
+    width_px: f32,
+) {
+    if vector.norm() > 1e-9 {
+        arrows.push(Arrow {
+            from,
+            to: from + vector,
+            color,
+            width_px,
+        });
+    }
+}
+
+/// What every layer needs to know while the scene is built.
+struct Context<'a> {
+    input: &'a SceneInput<'a>,
+    physical: Analysis,
+    shown: Analysis,
+    max_abs_pa: f64,
+}
+
+impl Context<'_> {
+    /// A stress in the display unit, with the unit (no sign change).
+    fn value(&self, pa: f64) -> String {
+        format!(
+            "{} {}",
+            sig(self.input.unit.from_pa(pa), 4),
+            self.input.unit.symbol()
+        )
+    }
+}
+
+impl Scene {
+    /// Builds the scene. `towards_viewer` is a unit vector from the origin towards the eye; it
+    /// decides which faces count as facing the viewer.
+    #[must_use]
+    pub fn build(input: &SceneInput<'_>, towards_viewer: &Vector3<f64>) -> Self {
+        let physical = Analysis::new(input.tensor, SignConvention::TensionPositive);
+        let shown = Analysis::new(input.tensor, input.convention);
+        let max_abs_pa = physical
+            .principal
+            .values_pa
+            .iter()
+            .fold(0.0_f64, |m, v| m.max(v.abs()));
+        let cx = Context {
+            input,
+            physical,
+            shown,
+            max_abs_pa,
+        };
+        let layers = input.layers;
+        let mut scene = Self {
+            arrow_scale_per_pa: if max_abs_pa > 0.0 {
+                style::LONGEST_ARROW / max_abs_pa
+            } else {
+                0.0
+            },
+            triad: layers.triad,
+            ..Self::default()
+        };
+        if layers.cube {
+            scene.add_cube();
+        }
+        if layers.face_tractions {
+            scene.add_face_tractions(&cx, towards_viewer);
+        }
+        if layers.cut_plane {
+            scene.add_cut_plane(&cx);
+        }
+        if layers.ellipsoid && scene.arrow_scale_per_pa > 0.0 {
+            let semi = cx
+                .physical
+                .principal
+                .values_pa
+                .map(|v| v.abs() * scene.arrow_scale_per_pa);
+            scene.meshes.push(ellipsoid_mesh(
+                semi,
+                cx.physical.principal.directions,
+                style::ELLIPSOID,
+            ));
+        }
+        if layers.principal_axes {
+            scene.add_principal_axes(&cx);
+        }
+        if layers.legend {
+            scene.add_legend(&cx);
+        }
+        scene
+    }
+
+    fn add_cube(&mut self) {
+        let corners = cube_corners();
+        for face in Face::ALL {
+            let n = face.normal();
+            let mut pts: Vec<Point3<f64>> = corners
+                .iter()
+                .copied()
+                .filter(|c| (c.coords.dot(&n) - 0.5).abs() < 1e-12)
+                .collect();
+            let centre = n * 0.5;
+            let (u, v) = crate::mechanics::principal::orthogonal_complement(&n);
+            pts.sort_by(|p, q| {
+                let (dp, dq) = (p.coords - centre, q.coords - centre);
+                v.dot(&dp)
+                    .atan2(u.dot(&dp))
+                    .total_cmp(&v.dot(&dq).atan2(u.dot(&dq)))
+            });
+            self.polygons.push(Polygon {
+                points: pts,
+                fill: style::CUBE_FACE,
+                outline: None,
+            });
+        }
+        for (a, b) in cube_edges() {
+            self.segments.push(Segment {
+                a: corners[a],
+                b: corners[b],
+                color: style::CUBE_EDGE,
+                width_px: 1.2,
+            });
+        }
+    }
+
+    fn add_face_tractions(&mut self, cx: &Context<'_>, towards_viewer: &Vector3<f64>) {
+        let t = cx.input.tensor;
+        for (i, face) in Face::ALL.into_iter().enumerate() {
+            let n = face.normal();
+            let shown_face = match cx.input.faces {
+                FaceChoice::FacingViewer => n.dot(towards_viewer) > 1e-9,
+                FaceChoice::Chosen(which) => which[i],
+            };
+            if !shown_face {
+                continue;
+            }
+            let Ok(normal) = PlaneNormal::from_vector(n) else {
+                continue;
+            };
+            let ps = PlaneStress::new(t, normal, SignConvention::TensionPositive);
+            let centre = Point3::from(n * 0.5);
+            let s = self.arrow_scale_per_pa;
+            push_arrow(
+                &mut self.arrows,
+                centre,
+                ps.traction_pa * s,
+                style::TRACTION,
+                2.6,
+            );
+            push_arrow(
+                &mut self.arrows,
+                centre,
+                ps.normal_traction_pa() * s,
+                style::NORMAL_PART,
+                1.8,
+            );
+            push_arrow(
+                &mut self.arrows,
+                centre,
+                ps.shear_traction_pa() * s,
+                style::SHEAR_PART,
+                1.8,
+            );
+            if cx.input.layers.labels && ps.traction_pa.norm() > 0.0 {
+                self.labels.push(Label {
+                    at: centre + ps.traction_pa * s,
+                    text: format!("{}: |t| {}", face.label(), cx.value(ps.traction_pa.norm())),
+                    color: style::TRACTION,
+                });
+            }
+        }
+    }
+
+    fn add_cut_plane(&mut self, cx: &Context<'_>) {
+        let t = cx.input.tensor;
+        let sign = cx.input.convention.sign();
+        let n = cx.input.plane.vector();
+        self.polygons.push(Polygon {
+            points: cut_polygon(&n),
+            fill: style::CUT_PLANE,
+            outline: Some(style::PLANE_NORMAL),
+        });
+        let origin = Point3::origin();
+        push_arrow(&mut self.arrows, origin, n * 0.45, style::PLANE_NORMAL, 1.6);
+        let ps = PlaneStress::new(t, cx.input.plane, SignConvention::TensionPositive);
+        let s = self.arrow_scale_per_pa;
+        push_arrow(
+            &mut self.arrows,
+            origin,
+            ps.traction_pa * s,
+            style::TRACTION,
+            3.0,
+        );
+        push_arrow(
+            &mut self.arrows,
+            origin,
+            ps.normal_traction_pa() * s,
+            style::NORMAL_PART,
+            2.2,
+        );
+        push_arrow(
+            &mut self.arrows,
+            origin,
+            ps.shear_traction_pa() * s,
+            style::SHEAR_PART,
+            2.2,
+        );
+        if cx.input.layers.labels {
+            self.labels.push(Label {
+                at: origin + n * 0.47,
+                text: "n".to_owned(),
+                color: style::PLANE_NORMAL,
+            });
+            if ps.traction_pa.norm() > 0.0 {
+                self.labels.push(Label {
+                    at: origin + ps.normal_traction_pa() * s,
+                    text: format!("σn {}", cx.value(sign * ps.normal_stress_pa)),
+                    color: style::NORMAL_PART,
+                });
+            }
+            if ps.shear_stress_pa > 0.0 {
+                self.labels.push(Label {
+                    at: origin + ps.shear_traction_pa() * s,
+                    text: format!("τ {}", cx.value(ps.shear_stress_pa)),
+                    color: style::SHEAR_PART,
+                });
+            }
+        }
+    }
+
+    fn add_principal_axes(&mut self, cx: &Context<'_>) {
+        for (i, (v, d)) in cx
+            .physical
+            .principal
+            .values_pa
+            .iter()
+            .zip(cx.physical.principal.directions)
+            .enumerate()
+        {
+            let len = v.abs() * self.arrow_scale_per_pa;
+            let (color, outward) = if *v > 0.0 {
+                (style::TENSION, true)
+            } else if *v < 0.0 {
+                (style::COMPRESSION, false)
+            } else {
+                (style::NEUTRAL, true)
+            };
+            // A thin line marks the axis through the cube; the stress arrows stand just
+            // outside the cube's corners so the centre stays readable. Tension pulls:
+            // arrows point away from the cube at both ends. Compression pushes: arrows point
+            // in towards the cube.
+            self.segments.push(Segment {
+                a: Point3::from(d * -AXIS_REACH),
+                b: Point3::from(d * AXIS_REACH),
+                color: color.with_alpha(150),
+                width_px: 1.0,
+            });
+            for end in [1.0, -1.0] {
+                let tip_dir = d * end;
+                let (from, vec) = if outward {
+                    (Point3::from(tip_dir * AXIS_REACH), tip_dir * len)
+                } else {
+                    (Point3::from(tip_dir * (AXIS_REACH + len)), -tip_dir * len)
+                };
+                push_arrow(&mut self.arrows, from, vec, color, 2.4);
+            }
+            if cx.input.layers.labels && len > 0.0 {
+                // The displayed index follows the convention: in compression-positive σ1 is
+                // the most compressive, i.e. the physical σ3.
+                let shown_index = match cx.input.convention {
+                    SignConvention::TensionPositive => i,
+                    SignConvention::CompressionPositive => 2 - i,
+                };
+                self.labels.push(Label {
+                    at: Point3::from(d * (AXIS_REACH + len + 0.02)),
+                    text: format!(
+                        "σ{} {}",
+                        shown_index + 1,
+                        cx.value(cx.shown.principal.values_pa[shown_index])
+                    ),
+                    color,
+                });
+            }
+        }
+    }
+
+    fn add_legend(&mut self, cx: &Context<'_>) {
+        let sym = cx.input.unit.symbol();
+        let bar_pa = nice_round(cx.max_abs_pa * 0.5);
+        self.legend = Some(Legend {
+            lines: vec![
+                format!("Stress unit: {sym}"),
+                format!("Convention: {}", cx.input.convention.key()),
+            ],
+            scale_bar_world: bar_pa * self.arrow_scale_per_pa,
+            scale_bar_text: if bar_pa > 0.0 {
+                cx.value(bar_pa)
+            } else {
+                "zero stress".to_owned()
+            },
+            entries: vec![
+                LegendEntry {
+                    color: style::TRACTION,
+                    text: "traction t".to_owned(),
+                },
+                LegendEntry {
+                    color: style::NORMAL_PART,
+                    text: "normal part σn·n".to_owned(),
+                },
+                LegendEntry {
+                    color: style::SHEAR_PART,
+                    text: "shear part τ".to_owned(),
+                },
+                LegendEntry {
+                    color: style::TENSION,
+                    text: "principal, tension".to_owned(),
+                },
+                LegendEntry {
+                    color: style::COMPRESSION,
+                    text: "principal, compression".to_owned(),
+                },
+                LegendEntry {
+                    color: style::PLANE_NORMAL,
+                    text: "cut plane, normal n".to_owned(),
+                },
+            ],
+        });
+    }
+}
+
+/// The largest 1, 2 or 5 × 10ᵏ not above `x` (0 for x ≤ 0): a round length for the scale bar.
+#[must_use]
+pub fn nice_round(x: f64) -> f64 {
+    if !(x > 0.0 && x.is_finite()) {
+        return 0.0;
+    }
+    let p = 10f64.powf(x.log10().floor());
+    let m = x / p;
+    let step = if m >= 5.0 {
+        5.0
+    } else if m >= 2.0 {
+        2.0
+    } else {
+        1.0
+    };
+    step * p
+}
