@@ -4,13 +4,16 @@
 //! Conventions: stresses are stored in pascals as f64, tension positive, in right-handed x, y, z
 //! axes; see [`mechanics::units`] for display units and the compression-positive convention.
 
+pub mod app;
 pub mod cli;
 pub mod draw;
 pub mod export;
 pub mod format;
 pub mod mechanics;
 pub mod parse;
+pub mod results;
 pub mod scene;
+pub mod ui;
 
 /// The caution every output that can feed a decision carries (README, About, reports, figures).
 pub const SAFETY_NOTE: &str = "Planewise is an aid for engineers. Check inputs and results independently; \

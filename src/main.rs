@@ -31,8 +31,13 @@ fn main() -> ExitCode {
         }
     };
     let Some(command) = cli.command else {
-        eprintln!("planewise: the desktop window is not built yet; try `planewise analyze --help`");
-        return ExitCode::from(2);
+        return match planewise::app::run(cli.screenshot.as_deref()) {
+            Ok(()) => ExitCode::SUCCESS,
+            Err(e) => {
+                eprintln!("planewise: {e:#}");
+                ExitCode::FAILURE
+            }
+        };
     };
     match run(&command) {
         Ok(out) => {

@@ -27,6 +27,10 @@ pub struct Cli {
     /// What to do; without a subcommand the desktop window opens.
     #[command(subcommand)]
     pub command: Option<Command>,
+    /// Open the window on the demo, write a PNG of it to PATH once the first frame is complete,
+    /// and exit (for README images and smoke tests).
+    #[arg(long, value_name = "PATH")]
+    pub screenshot: Option<std::path::PathBuf>,
 }
 
 /// The subcommands.

@@ -1,0 +1,649 @@
+//! The desktop program: state, the commands the panels return, undo and redo, shortcuts,
+//! persistence, figure export and the `--screenshot` mode.
+
+use std::path::{Path, PathBuf};
+use std::sync::{Arc, Mutex};
+
+use serde::{Deserialize, Serialize};
+
+use crate::draw::camera::{Camera, ViewPreset};
+use crate::mechanics::{PlaneNormal, SignConvention, StressTensor, StressUnit};
+use crate::scene::{FaceChoice, Layers, SceneInput};
+use crate::ui;
+
+/// Version of the saved state; bump it when a change needs migration.
+pub const FORMAT_VERSION: u32 = 1;
+
+/// Key of the saved state in eframe's storage.
+const STORAGE_KEY: &str = "planewise-state";
+
+/// The part of the state that undo and redo act on.
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+pub struct Document {
+    /// A name for the load case, shown in the title.
+    pub name: String,
+    /// The stress state.
+    pub tensor: StressTensor,
+    /// The cut plane.
+    pub plane: PlaneNormal,
+}
+
+impl Default for Document {
+    fn default() -> Self {
+        Self::demo()
+    }
+}
+
+impl Document {
+    /// The built-in demo: an invented scenario, not data from any real part.
+    #[must_use]
+    pub fn demo() -> Self {
+        let tensor = StressTensor::from_components(
+            [120.0, -35.0, 15.0, 48.0, -12.0, 22.0],
+            StressUnit::MPa,
+            1.0,
+        )
+        .unwrap_or_default();
+        let plane = PlaneNormal::from_vector(nalgebra::Vector3::new(1.0, 0.5, 0.3))
+            .unwrap_or(PlaneNormal::X);
+        Self {
+            name: "Demo (invented scenario): fillet of a steel bracket".to_owned(),
+            tensor,
+            plane,
+        }
+    }
+}
+
+/// Display settings; saved, but not part of undo.
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+#[serde(default)]
+pub struct Settings {
+    /// Unit of every stress shown and typed.
+    pub unit: StressUnit,
+    /// Sign convention of every stress shown and typed.
+    pub convention: SignConvention,
+    /// Layers of the 3D view.
+    pub layers: Layers,
+    /// Faces with traction arrows.
+    pub faces: FaceChoice,
+    /// The 3D view's camera.
+    pub camera: Camera,
+    /// Size of exported figures, pixels.
+    pub export_size: [u32; 2],
+}
+
+impl Default for Settings {
+    fn default() -> Self {
+        Self {
+            unit: StressUnit::MPa,
+            convention: SignConvention::TensionPositive,
+            layers: Layers::default(),
+            faces: FaceChoice::FacingViewer,
+            camera: Camera::default(),
+            export_size: [1600, 1200],
+        }
+    }
+}
+
+/// What is saved between runs.
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+#[serde(default)]
+pub struct Saved {
+    /// Format version.
+    pub format_version: u32,
+    /// The load case.
+    pub document: Document,
+    /// Display settings.
+    pub settings: Settings,
+}
+
+impl Default for Saved {
+    fn default() -> Self {
+        Self {
+            format_version: FORMAT_VERSION,
+            document: Document::demo(),
+            settings: Settings::default(),
+        }
+    }
+}
+
+/// Edits that follow each other in the same field merge into one undo step.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum Coalesce {
+    /// Typing in one grid cell (row, column of the upper triangle).
+    Cell(usize, usize),
+    /// Typing in the plane's normal fields.
+    PlaneVector,
+    /// Typing in the dip fields.
+    PlaneDip,
+    /// Dragging the angle sliders.
+    PlaneAngles,
+}
+
+/// What a panel asks for; applied by the app after the frame.
+#[must_use]
+#[derive(Clone, Debug, PartialEq)]
+pub enum Command {
+    /// Replace the document (undoable).
+    Edit {
+        /// The new document.
+        document: Document,
+        /// Merge with the previous edit of the same field.
+        coalesce: Option<Coalesce>,
+    },
+    /// Undo the last edit.
+    Undo,
+    /// Redo the last undone edit.
+    Redo,
+    /// Go back to the demo load case and default settings (undoable for the document).
+    ResetToDemo,
+    /// Change the display unit.
+    SetUnit(StressUnit),
+    /// Change the sign convention.
+    SetConvention(SignConvention),
+    /// Look from a preset direction.
+    SetView(ViewPreset),
+    /// Put the results on the clipboard as tab-separated text.
+    CopyResults,
+    /// Put the figure on the clipboard as an image.
+    CopyFigure,
+    /// Open the export window.
+    OpenExport,
+    /// Ask for a file name, then export the figure there.
+    ExportWithDialog,
+    /// Export the figure to this path.
+    ExportTo(PathBuf),
+    /// Show the About window.
+    ShowAbout,
+}
+
+/// Undo and redo stacks of documents.
+#[derive(Debug, Default)]
+pub struct History {
+    undo: Vec<Document>,
+    redo: Vec<Document>,
+    last: Option<Coalesce>,
+}
+
+impl History {
+    /// Records `before` as the state to return to, unless this edit continues the previous
+    /// one in the same field.
+    pub fn record(&mut self, before: &Document, coalesce: Option<Coalesce>) {
+        const LIMIT: usize = 500;
+        if coalesce.is_none() || coalesce != self.last || self.undo.is_empty() {
+            self.undo.push(before.clone());
+            if self.undo.len() > LIMIT {
+                self.undo.remove(0);
+            }
+        }
+        self.last = coalesce;
+        self.redo.clear();
+    }
+
+    /// Ends any run of merged edits (the next edit starts a new undo step).
+    pub fn break_run(&mut self) {
+        self.last = None;
+    }
+
+    /// Whether there is anything to undo.
+    #[must_use]
+    pub fn can_undo(&self) -> bool {
+        !self.undo.is_empty()
+    }
+
+    /// Whether there is anything to redo.
+    #[must_use]
+    pub fn can_redo(&self) -> bool {
+        !self.redo.is_empty()
+    }
+}
+
+/// Native file dialogs, behind a trait so tests never open one.
+pub trait Dialogs {
+    /// Asks where to save a figure; `None` when cancelled.
+    fn save_figure(&self, suggested_name: &str) -> Option<PathBuf>;
+}
+
+/// Dialogs through the desktop portal (rfd).
+pub struct NativeDialogs;
+
+impl Dialogs for NativeDialogs {
+    fn save_figure(&self, suggested_name: &str) -> Option<PathBuf> {
+        rfd::FileDialog::new()
+            .add_filter("PNG image", &["png"])
+            .add_filter("SVG drawing", &["svg"])
+            .set_file_name(suggested_name)
+            .save_file()
+    }
+}
+
+/// A message in the status bar.
+#[derive(Clone, Debug, PartialEq, Eq)]
+pub struct Status {
+    /// Text.
+    pub text: String,
+    /// Whether it reports a failure.
+    pub error: bool,
+}
+
+/// The `--screenshot` job: when to take it, where to write it, and how it went.
+struct ScreenshotJob {
+    path: PathBuf,
+    requested: bool,
+    result: Arc<Mutex<Option<Result<(), String>>>>,
+}
+
+/// The application.
+pub struct PlanewiseApp {
+    /// The load case.
+    pub document: Document,
+    /// Display settings.
+    pub settings: Settings,
+    /// Undo and redo.
+    pub history: History,
+    /// Grid editing state.
+    pub stress_panel: ui::stress_panel::StressPanel,
+    /// Plane entry state.
+    pub plane_panel: ui::plane_panel::PlanePanel,
+    /// Export window state.
+    pub export_panel: ui::export_panel::ExportPanel,
+    /// Whether the About window is open.
+    pub about_open: bool,
+    /// The last status message.
+    pub status: Option<Status>,
+    dialogs: Box<dyn Dialogs>,
+    frames: u64,
+    screenshot: Option<ScreenshotJob>,
+    /// Outcome of a `--screenshot` run, read by `main` after the window closes.
+    pub screenshot_outcome: Arc<Mutex<Option<Result<(), String>>>>,
+    fonts_installed: bool,
+}
+
+impl PlanewiseApp {
+    /// A new app on `saved` state, with the given dialogs.
+    #[must_use]
+    pub fn new(saved: Saved, dialogs: Box<dyn Dialogs>) -> Self {
+        Self {
+            document: saved.document,
+            settings: saved.settings,
+            history: History::default(),
+            stress_panel: ui::stress_panel::StressPanel::default(),
+            plane_panel: ui::plane_panel::PlanePanel::default(),
+            export_panel: ui::export_panel::ExportPanel::default(),
+            about_open: false,
+            status: None,
+            dialogs,
+            frames: 0,
+            screenshot: None,
+            screenshot_outcome: Arc::new(Mutex::new(None)),
+            fonts_installed: false,
+        }
+    }
+
+    /// The app on the demo, for tests and first runs.
+    #[must_use]
+    pub fn demo(dialogs: Box<dyn Dialogs>) -> Self {
+        Self::new(Saved::default(), dialogs)
+    }
+
+    /// Restores the saved state from eframe's storage (the demo when there is none or it cannot
+    /// be read).
+    #[must_use]
+    pub fn from_storage(storage: Option<&dyn eframe::Storage>) -> Self {
+        let saved = storage
+            .and_then(|s| eframe::get_value::<Saved>(s, STORAGE_KEY))
+            .filter(|s| s.format_version <= FORMAT_VERSION)
+            .unwrap_or_default();
+        Self::new(saved, Box::new(NativeDialogs))
+    }
+
+    /// Asks the app to write a PNG of its window once the first frames are complete, then close.
+    pub fn screenshot_on_start(&mut self, path: PathBuf) {
+        self.screenshot = Some(ScreenshotJob {
+            path,
+            requested: false,
+            result: Arc::clone(&self.screenshot_outcome),
+        });
+    }
+
+    /// What is saved.
+    #[must_use]
+    pub fn saved(&self) -> Saved {
+        Saved {
+            format_version: FORMAT_VERSION,
+            document: self.document.clone(),
+            settings: self.settings.clone(),
+        }
+    }
+
+    /// The scene input for the current state.
+    #[must_use]
+    pub fn scene_input(&self) -> SceneInput<'_> {
+        SceneInput {
+            tensor: &self.document.tensor,
+            plane: self.document.plane,
+            unit: self.settings.unit,
+            convention: self.settings.convention,
+            layers: self.settings.layers,
+            faces: self.settings.faces,
+        }
+    }
+
+    /// The figure at the export size (the same drawing as `planewise figure`).
+    #[must_use]
+    pub fn export_frame(&self) -> crate::draw::Frame {
+        let [w, h] = self.settings.export_size;
+        crate::draw::figure(&self.scene_input(), &self.settings.camera, w, h)
+    }
+
+    fn set_status(&mut self, text: impl Into<String>, error: bool) {
+        self.status = Some(Status {
+            text: text.into(),
+            error,
+        });
+    }
+
+    /// Exports the figure to `path` (format from the extension).
+    pub fn export_to(&mut self, path: &Path) {
+        let frame = self.export_frame();
+        let title = format!("{} — {}", self.document.name, crate::SAFETY_NOTE);
+        match crate::export::write_figure(path, &frame, &title) {
+            Ok(()) => self.set_status(format!("Figure written to {}", path.display()), false),
+            Err(e) => self.set_status(format!("Export failed: {e}"), true),
+        }
+    }
+
+    /// Applies one command.
+    pub fn apply(&mut self, ctx: &egui::Context, command: Command) {
+        match command {
+            Command::Edit { document, coalesce } => {
+                if document != self.document {
+                    self.history.record(&self.document, coalesce);
+                    self.document = document;
+                }
+            }
+            Command::Undo => {
+                if let Some(previous) = self.history.undo.pop() {
+                    let current = std::mem::replace(&mut self.document, previous);
+                    self.history.redo.push(current);
+                    self.history.break_run();
+                    self.after_external_change();
+                }
+            }
+            Command::Redo => {
+                if let Some(next) = self.history.redo.pop() {
+                    let current = std::mem::replace(&mut self.document, next);
+                    self.history.undo.push(current);
+                    self.history.break_run();
+                    self.after_external_change();
+                }
+            }
+            Command::ResetToDemo => {
+                let demo = Document::demo();
+                if demo != self.document {
+                    self.history.record(&self.document, None);
+                    self.document = demo;
+                }
+                self.settings = Settings::default();
+                self.after_external_change();
+                self.set_status("Reset to the demo load case (an invented scenario)", false);
+            }
+            Command::SetUnit(unit) => {
+                self.settings.unit = unit;
+                self.after_external_change();
+            }
+            Command::SetConvention(convention) => {
+                self.settings.convention = convention;
+                self.after_external_change();
+            }
+            Command::SetView(preset) => {
+                let projection = self.settings.camera.projection;
+                self.settings.camera = Camera {
+                    projection,
+                    ..Camera::from_preset(preset)
+                };
+            }
+            Command::CopyResults => {
+                let rows = crate::results::rows(
+                    &self.document.tensor,
+                    self.document.plane,
+                    self.settings.unit,
+                    self.settings.convention,
+                );
+                ctx.copy_text(crate::results::to_tsv(
+                    &rows,
+                    self.settings.unit,
+                    self.settings.convention,
+                ));
+                self.set_status("Results copied as tab-separated text", false);
+            }
+            Command::CopyFigure => match crate::draw::png::to_pixmap(&self.export_frame()) {
+                Ok(pixmap) => {
+                    let image = egui::ColorImage::from_rgba_premultiplied(
+                        [pixmap.width() as usize, pixmap.height() as usize],
+                        pixmap.data(),
+                    );
+                    ctx.copy_image(image);
+                    self.set_status(
+                        "Figure copied to the clipboard (where the platform allows images)",
+                        false,
+                    );
+                }
+                Err(e) => self.set_status(format!("Copy figure failed: {e}"), true),
+            },
+            Command::OpenExport => self.export_panel.open = true,
+            Command::ExportWithDialog => {
+                let suggested = "planewise-figure.png";
+                if let Some(path) = self.dialogs.save_figure(suggested) {
+                    self.export_to(&path);
+                }
+            }
+            Command::ExportTo(path) => self.export_to(&path),
+            Command::ShowAbout => self.about_open = true,
+        }
+    }
+
+    /// The grid and plane fields show the document again (after undo, presets, unit changes).
+    fn after_external_change(&mut self) {
+        self.stress_panel.reset();
+        self.plane_panel.reset();
+    }
+
+    /// Keyboard shortcuts that work anywhere in the window.
+    fn shortcuts(ctx: &egui::Context) -> Vec<Command> {
+        use egui::{Key, KeyboardShortcut, Modifiers};
+        let mut out = Vec::new();
+        ctx.input_mut(|i| {
+            let redo_shift = KeyboardShortcut::new(Modifiers::COMMAND | Modifiers::SHIFT, Key::Z);
+            if i.consume_shortcut(&redo_shift)
+                || i.consume_shortcut(&KeyboardShortcut::new(Modifiers::COMMAND, Key::Y))
+            {
+                out.push(Command::Redo);
+            }
+            if i.consume_shortcut(&KeyboardShortcut::new(Modifiers::COMMAND, Key::Z)) {
+                out.push(Command::Undo);
+            }
+            if i.consume_shortcut(&KeyboardShortcut::new(Modifiers::COMMAND, Key::E)) {
+                out.push(Command::OpenExport);
+            }
+            if i.consume_shortcut(&KeyboardShortcut::new(
+                Modifiers::COMMAND | Modifiers::SHIFT,
+                Key::C,
+            )) {
+                out.push(Command::CopyResults);
+            }
+        });
+        // View presets on plain digit keys, only when no text field has the keyboard.
+        if !ctx.egui_wants_keyboard_input() {
+            let keys = [
+                Key::Num1,
+                Key::Num2,
+                Key::Num3,
+                Key::Num4,
+                Key::Num5,
+                Key::Num6,
+                Key::Num7,
+            ];
+            for (key, preset) in keys.into_iter().zip(ViewPreset::ALL) {
+                if ctx.input_mut(|i| i.consume_key(Modifiers::NONE, key)) {
+                    out.push(Command::SetView(preset));
+                }
+            }
+        }
+        out
+    }
+
+    fn install_fonts(&mut self, ctx: &egui::Context) {
+        if self.fonts_installed {
+            return;
+        }
+        self.fonts_installed = true;
+        // The bundled export font first, so that the screen and exported figures match.
+        let mut fonts = egui::FontDefinitions::default();
+        fonts.font_data.insert(
+            "dejavu".to_owned(),
+            Arc::new(egui::FontData::from_static(crate::draw::png::FONT)),
+        );
+        if let Some(family) = fonts.families.get_mut(&egui::FontFamily::Proportional) {
+            family.insert(0, "dejavu".to_owned());
+        }
+        ctx.set_fonts(fonts);
+    }
+
+    /// Draws the whole window into `ui` and applies what the user asked for. Used by the real
+    /// window and by the interaction tests.
+    pub fn show(&mut self, ui: &mut egui::Ui) {
+        let ctx = ui.ctx().clone();
+        self.install_fonts(&ctx);
+        let mut commands = Self::shortcuts(&ctx);
+        ui::menus_ui(self, ui, &mut commands);
+        ui::status_bar_ui(self, ui);
+        egui::Panel::left("stress-state")
+            .resizable(true)
+            .default_size(330.0)
+            .show(ui, |ui| {
+                egui::ScrollArea::vertical().show(ui, |ui| {
+                    let (doc, settings) = (&self.document, &self.settings);
+                    self.stress_panel.ui(ui, doc, settings, &mut commands);
+                    ui.separator();
+                    self.plane_panel.ui(ui, doc, settings, &mut commands);
+                });
+            });
+        egui::Panel::right("results")
+            .resizable(true)
+            .default_size(330.0)
+            .show(ui, |ui| {
+                egui::ScrollArea::vertical().show(ui, |ui| {
+                    ui::results_panel::results_ui(
+                        ui,
+                        &self.document,
+                        &self.settings,
+                        &mut commands,
+                    );
+                });
+            });
+        egui::CentralPanel::default().show(ui, |ui| {
+            ui::view_panel::view_ui(ui, &self.document, &mut self.settings, &mut commands);
+        });
+        self.export_panel
+            .ui(&ctx, &mut self.settings, &mut commands);
+        ui::about_ui(&ctx, &mut self.about_open);
+        for command in commands {
+            self.apply(&ctx, command);
+        }
+        self.frames += 1;
+    }
+
+    fn screenshot_step(&mut self, ctx: &egui::Context) {
+        let Some(job) = &mut self.screenshot else {
+            return;
+        };
+        // Let layout and fonts settle for a few frames before taking the picture.
+        if !job.requested && self.frames >= 4 {
+            job.requested = true;
+            let path = job.path.clone();
+            let result = Arc::clone(&job.result);
+            let repaint = ctx.clone();
+            ctx.request_screenshot(move |image| {
+                let [w, h] = image.size;
+                let outcome = crate::draw::png::encode_rgba(w as u32, h as u32, image.as_raw())
+                    .map_err(|e| e.to_string())
+                    .and_then(|bytes| {
+                        crate::export::write_atomic(&path, &bytes).map_err(|e| e.to_string())
+                    });
+                if let Ok(mut slot) = result.lock() {
+                    *slot = Some(outcome);
+                }
+                repaint.request_repaint();
+            });
+        }
+        let done = job.result.lock().map_or(true, |r| r.is_some());
+        if done {
+            ctx.send_viewport_cmd(egui::ViewportCommand::Close);
+        } else {
+            ctx.request_repaint();
+        }
+    }
+}
+
+impl eframe::App for PlanewiseApp {
+    fn ui(&mut self, ui: &mut egui::Ui, _frame: &mut eframe::Frame) {
+        self.show(ui);
+        let ctx = ui.ctx().clone();
+        self.screenshot_step(&ctx);
+        let title = format!("Planewise — {}", self.document.name);
+        ctx.send_viewport_cmd(egui::ViewportCommand::Title(title));
+    }
+
+    fn save(&mut self, storage: &mut dyn eframe::Storage) {
+        if self.screenshot.is_none() {
+            eframe::set_value(storage, STORAGE_KEY, &self.saved());
+        }
+    }
+}
+
+/// Opens the window. With `screenshot`, writes a PNG of the first complete frame there and exits.
+pub fn run(screenshot: Option<&Path>) -> anyhow::Result<()> {
+    let options = eframe::NativeOptions {
+        viewport: egui::ViewportBuilder::default()
+            .with_inner_size([1280.0, 800.0])
+            .with_min_inner_size([800.0, 500.0])
+            .with_title("Planewise"),
+        persist_window: screenshot.is_none(),
+        ..Default::default()
+    };
+    let outcome: Arc<Mutex<Option<Result<(), String>>>> = Arc::new(Mutex::new(None));
+    let outcome_for_app = Arc::clone(&outcome);
+    let shot = screenshot.map(Path::to_path_buf);
+    eframe::run_native(
+        "planewise",
+        options,
+        Box::new(move |cc| {
+            // A screenshot run starts from the demo so README images do not depend on what the
+            // machine last saved.
+            let mut app = if shot.is_some() {
+                PlanewiseApp::demo(Box::new(NativeDialogs))
+            } else {
+                PlanewiseApp::from_storage(cc.storage)
+            };
+            app.screenshot_outcome = outcome_for_app;
+            if let Some(path) = shot {
+                app.screenshot_on_start(path);
+            }
+            Ok(Box::new(app))
+        }),
+    )
+    .map_err(|e| anyhow::anyhow!("could not open the window: {e}"))?;
+    if screenshot.is_some() {
+        let result = outcome
+            .lock()
+            .map_err(|_| anyhow::anyhow!("screenshot state poisoned"))?
+            .take();
+        match result {
+            Some(Ok(())) => {}
+            Some(Err(e)) => anyhow::bail!("screenshot failed: {e}"),
+            None => anyhow::bail!("the window closed before the screenshot was taken"),
+        }
+    }
+    Ok(())
+}

@@ -1,0 +1,122 @@
+//! The window's panels. Each draws from the state it is given and returns what the user asked
+//! for as [`Command`]s; no mechanics is computed here beyond what a panel shows.
+
+pub mod export_panel;
+pub mod plane_panel;
+pub mod results_panel;
+pub mod stress_panel;
+pub mod view_panel;
+
+use crate::app::{Command, PlanewiseApp};
+use crate::draw::camera::{Projection, ViewPreset};
+
+/// The menu bar.
+pub fn menus_ui(app: &mut PlanewiseApp, ui: &mut egui::Ui, out: &mut Vec<Command>) {
+    egui::Panel::top("menus").show(ui, |ui| {
+        egui::MenuBar::new().ui(ui, |ui| {
+            ui.menu_button("File", |ui| {
+                if ui
+                    .add(egui::Button::new("Export figure…").shortcut_text("Ctrl+E"))
+                    .clicked()
+                {
+                    out.push(Command::OpenExport);
+                }
+                if ui.button("Copy figure").clicked() {
+                    out.push(Command::CopyFigure);
+                }
+                if ui
+                    .add(egui::Button::new("Copy results").shortcut_text("Ctrl+Shift+C"))
+                    .clicked()
+                {
+                    out.push(Command::CopyResults);
+                }
+                ui.separator();
+                if ui
+                    .button("Reset to demo")
+                    .on_hover_text("The built-in invented load case and default settings")
+                    .clicked()
+                {
+                    out.push(Command::ResetToDemo);
+                }
+                ui.separator();
+                if ui.button("Quit").clicked() {
+                    ui.send_viewport_cmd(egui::ViewportCommand::Close);
+                }
+            });
+            ui.menu_button("Edit", |ui| {
+                let undo = egui::Button::new("Undo").shortcut_text("Ctrl+Z");
+                if ui.add_enabled(app.history.can_undo(), undo).clicked() {
+                    out.push(Command::Undo);
+                }
+                let redo = egui::Button::new("Redo").shortcut_text("Ctrl+Shift+Z / Ctrl+Y");
+                if ui.add_enabled(app.history.can_redo(), redo).clicked() {
+                    out.push(Command::Redo);
+                }
+            });
+            ui.menu_button("View", |ui| {
+                for (i, preset) in ViewPreset::ALL.into_iter().enumerate() {
+                    let button =
+                        egui::Button::new(preset.label()).shortcut_text(format!("{}", i + 1));
+                    if ui.add(button).clicked() {
+                        out.push(Command::SetView(preset));
+                    }
+                }
+                ui.separator();
+                let cam = &mut app.settings.camera;
+                ui.radio_value(
+                    &mut cam.projection,
+                    Projection::Orthographic,
+                    "Orthographic",
+                );
+                ui.radio_value(&mut cam.projection, Projection::Perspective, "Perspective");
+                ui.separator();
+                view_panel::layers_ui(ui, &mut app.settings.layers);
+            });
+            ui.menu_button("Help", |ui| {
+                if ui.button("About Planewise").clicked() {
+                    out.push(Command::ShowAbout);
+                }
+            });
+        });
+    });
+}
+
+/// The status bar: the last message, and the conventions in force.
+pub fn status_bar_ui(app: &PlanewiseApp, ui: &mut egui::Ui) {
+    egui::Panel::bottom("status").show(ui, |ui| {
+        ui.horizontal(|ui| {
+            ui.label(format!(
+                "{} · {} · x, y, z right-handed",
+                app.settings.unit,
+                app.settings.convention.key()
+            ));
+            ui.separator();
+            if let Some(status) = &app.status {
+                let color = if status.error {
+                    ui.visuals().error_fg_color
+                } else {
+                    ui.visuals().text_color()
+                };
+                ui.colored_label(color, &status.text);
+            } else {
+                ui.weak("Aid for engineers: check inputs and results; codes and licensed practice govern design.");
+            }
+        });
+    });
+}
+
+/// The About window.
+pub fn about_ui(ctx: &egui::Context, open: &mut bool) {
+    egui::Window::new("About Planewise").open(open).collapsible(false).show(ctx, |ui| {
+        ui.heading(format!("Planewise {}", env!("CARGO_PKG_VERSION")));
+        ui.label("The stress state at a point: principal stresses and directions, tractions on any plane, invariants and equivalent stresses, and a CPU-rendered 3D view.");
+        ui.add_space(6.0);
+        ui.strong("Caution");
+        ui.label(crate::SAFETY_NOTE);
+        ui.add_space(6.0);
+        ui.strong("Conventions");
+        ui.label("Stresses are stored in pascals, tension positive, in right-handed x, y, z axes. In the compression-positive convention every stress shown or typed is negated, and σ1 is the most compressive. Dip / dip direction: x = east, y = north, z = up; dip direction clockwise from north.");
+        ui.add_space(6.0);
+        ui.label("The demo load case is an invented scenario, not data from a real part.");
+    });
+}

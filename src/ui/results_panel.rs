@@ -1,0 +1,47 @@
+//! The results panel: every number with its unit; hovering shows the formula.
+
+use crate::app::{Command, Document, Settings};
+use crate::results::rows;
+
+/// Draws the results.
+pub fn results_ui(ui: &mut egui::Ui, doc: &Document, settings: &Settings, out: &mut Vec<Command>) {
+    ui.horizontal(|ui| {
+        ui.heading("Results");
+        if ui
+            .button("Copy")
+            .on_hover_text("Copy as tab-separated text with units (Ctrl+Shift+C)")
+            .clicked()
+        {
+            out.push(Command::CopyResults);
+        }
+    });
+    ui.small(format!("{}, {}", settings.unit, settings.convention.key()));
+    let all = rows(&doc.tensor, doc.plane, settings.unit, settings.convention);
+    let mut group = "";
+    let mut grid_rows: Vec<&crate::results::ResultRow> = Vec::new();
+    let flush = |ui: &mut egui::Ui, title: &str, items: &mut Vec<&crate::results::ResultRow>| {
+        if items.is_empty() {
+            return;
+        }
+        ui.add_space(4.0);
+        ui.strong(title);
+        egui::Grid::new(("results", title))
+            .num_columns(2)
+            .striped(true)
+            .show(ui, |ui| {
+                for row in items.drain(..) {
+                    ui.label(&row.name).on_hover_text(row.formula);
+                    ui.monospace(&row.value).on_hover_text(row.formula);
+                    ui.end_row();
+                }
+            });
+    };
+    for row in &all {
+        if row.group != group {
+            flush(ui, group, &mut grid_rows);
+            group = row.group;
+        }
+        grid_rows.push(row);
+    }
+    flush(ui, group, &mut grid_rows);
+}

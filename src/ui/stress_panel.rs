@@ -1,0 +1,336 @@
+//! The stress-state panel: the 3×3 grid, unit, sign convention, presets and paste.
+
+use crate::app::{Coalesce, Command, Document, Settings};
+use crate::format::sig;
+use crate::mechanics::{Component, SignConvention, StressTensor, StressUnit};
+use crate::parse;
+
+/// Grid editing state: the text in each cell and what is wrong with it.
+#[derive(Debug, Default)]
+pub struct StressPanel {
+    cells: [[String; 3]; 3],
+    errors: [[Option<String>; 3]; 3],
+    /// What the cell texts were made from; when the state differs, cells are refreshed.
+    shown: Option<(StressTensor, StressUnit, SignConvention)>,
+    paste: String,
+    paste_error: Option<String>,
+}
+
+const AXES: [&str; 3] = ["x", "y", "z"];
+
+/// The name of a cell, e.g. σxy.
+#[must_use]
+pub fn cell_name(row: usize, col: usize) -> String {
+    format!("σ{}{}", AXES[row], AXES[col])
+}
+
+/// Presets, with magnitudes of 100 in the display unit.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum Preset {
+    /// σxx = 100.
+    UniaxialTension,
+    /// σxx = −100.
+    UniaxialCompression,
+    /// σxx = σyy = 100.
+    EquibiaxialTension,
+    /// σxy = 100.
+    PureShear,
+    /// σxx = σyy = σzz = −100.
+    Hydrostatic,
+}
+
+impl Preset {
+    /// All presets, in button order.
+    pub const ALL: [Self; 5] = [
+        Self::UniaxialTension,
+        Self::UniaxialCompression,
+        Self::EquibiaxialTension,
+        Self::PureShear,
+        Self::Hydrostatic,
+    ];
+
+    /// Button text.
+    #[must_use]
+    pub fn label(self) -> &'static str {
+        match self {
+            Self::UniaxialTension => "Uniaxial tension",
+            Self::UniaxialCompression => "Uniaxial compression",
+            Self::EquibiaxialTension => "Equibiaxial tension",
+            Self::PureShear => "Pure shear",
+            Self::Hydrostatic => "Hydrostatic compression",
+        }
+    }
+
+    /// Components xx … zx, tension positive, in units of the display unit.
+    #[must_use]
+    pub fn components(self) -> [f64; 6] {
+        match self {
+            Self::UniaxialTension => [100.0, 0.0, 0.0, 0.0, 0.0, 0.0],
+            Self::UniaxialCompression => [-100.0, 0.0, 0.0, 0.0, 0.0, 0.0],
+            Self::EquibiaxialTension => [100.0, 100.0, 0.0, 0.0, 0.0, 0.0],
+            Self::PureShear => [0.0, 0.0, 0.0, 100.0, 0.0, 0.0],
+            Self::Hydrostatic => [-100.0, -100.0, -100.0, 0.0, 0.0, 0.0],
+        }
+    }
+}
+
+impl StressPanel {
+    /// Forget edits in progress and show the document again.
+    pub fn reset(&mut self) {
+        self.shown = None;
+        self.errors = Default::default();
+    }
+
+    /// The first cell error, as "σxy: 'abc' is not a number".
+    #[must_use]
+    pub fn first_error(&self) -> Option<String> {
+        for r in 0..3 {
+            for c in 0..3 {
+                if let Some(e) = &self.errors[r][c] {
+                    return Some(format!("{}: {e}", cell_name(r, c)));
+                }
+            }
+        }
+        None
+    }
+
+    fn refresh(
+        &mut self,
+        ui: &egui::Ui,
+        ids: &[[egui::Id; 3]; 3],
+        doc: &Document,
+        settings: &Settings,
+    ) {
+        let key = (doc.tensor, settings.unit, settings.convention);
+        let force = self.shown.is_none();
+        if self.shown == Some(key) {
+            return;
+        }
+        self.shown = Some(key);
+        let sign = settings.convention.sign();
+        for r in 0..3 {
+            for c in 0..3 {
+                let focused = ui.memory(|m| m.has_focus(ids[r][c]));
+                if !force && (focused || self.errors[r][c].is_some()) {
+                    continue;
+                }
+                let Some(comp) = Component::at(r, c) else {
+                    continue;
+                };
+                let value = sign * settings.unit.from_pa(doc.tensor.component_pa(comp));
+                self.cells[r][c] = sig(value, 8);
+                self.errors[r][c] = None;
+            }
+        }
+    }
+
+    /// Draws the panel.
+    pub fn ui(
+        &mut self,
+        ui: &mut egui::Ui,
+        doc: &Document,
+        settings: &Settings,
+        out: &mut Vec<Command>,
+    ) {
+        ui.heading("Stress state");
+        ui.horizontal(|ui| {
+            ui.label("Unit");
+            let mut unit = settings.unit;
+            egui::ComboBox::from_id_salt("unit")
+                .selected_text(unit.symbol())
+                .show_ui(ui, |ui| {
+                    for u in StressUnit::ALL {
+                        ui.selectable_value(&mut unit, u, u.symbol());
+                    }
+                })
+                .response
+                .on_hover_text("Changes the numbers shown, not the physical state");
+            if unit != settings.unit {
+                out.push(Command::SetUnit(unit));
+            }
+        });
+        ui.horizontal(|ui| {
+            let mut conv = settings.convention;
+            ui.radio_value(&mut conv, SignConvention::TensionPositive, "tension +")
+                .on_hover_text("Tension positive (solid mechanics, finite-element output)");
+            ui.radio_value(
+                &mut conv,
+                SignConvention::CompressionPositive,
+                "compression +",
+            )
+            .on_hover_text("Compression positive (geomechanics): σ1 is the most compressive");
+            if conv != settings.convention {
+                out.push(Command::SetConvention(conv));
+            }
+        });
+
+        let ids: [[egui::Id; 3]; 3] = std::array::from_fn(|r| {
+            std::array::from_fn(|c| egui::Id::unique(("stress-cell", r, c)))
+        });
+        self.refresh(ui, &ids, doc, settings);
+        egui::Grid::new("stress-grid")
+            .spacing([6.0, 4.0])
+            .show(ui, |ui| {
+                ui.label("");
+                for a in AXES {
+                    ui.label(a);
+                }
+                ui.end_row();
+                for r in 0..3 {
+                    ui.label(AXES[r]);
+                    for c in 0..3 {
+                        self.cell_ui(ui, ids[r][c], r, c, doc, settings, out);
+                    }
+                    ui.end_row();
+                }
+            });
+        if let Some(e) = self.first_error() {
+            ui.colored_label(
+                ui.visuals().error_fg_color,
+                format!("⚠ {e} — the last valid state is kept"),
+            );
+        }
+        ui.small(format!(
+            "σij in {} ({}); off-diagonal cells edit their mirror too.",
+            settings.unit,
+            settings.convention.key()
+        ));
+
+        ui.horizontal_wrapped(|ui| {
+            for preset in Preset::ALL {
+                if ui.small_button(preset.label()).clicked() {
+                    let components = preset.components();
+                    if let Ok(tensor) =
+                        StressTensor::from_components(components, settings.unit, 1.0)
+                    {
+                        out.push(Command::Edit {
+                            document: Document {
+                                tensor,
+                                ..doc.clone()
+                            },
+                            coalesce: None,
+                        });
+                        self.reset();
+                    }
+                }
+            }
+            if ui
+                .small_button("Demo")
+                .on_hover_text("The built-in invented load case")
+                .clicked()
+            {
+                out.push(Command::Edit {
+                    document: Document::demo(),
+                    coalesce: None,
+                });
+                self.reset();
+            }
+        });
+
+        ui.horizontal(|ui| {
+            let edit = egui::TextEdit::singleline(&mut self.paste)
+                .hint_text("Paste six numbers: xx yy zz xy yz zx")
+                .desired_width(210.0);
+            let response = ui.add(edit);
+            let enter = response.lost_focus() && ui.input(|i| i.key_pressed(egui::Key::Enter));
+            if ui
+                .button("Fill grid")
+                .on_hover_text("Separated by spaces, tabs, commas or semicolons")
+                .clicked()
+                || enter
+            {
+                self.fill_from_paste(doc, settings, out);
+            }
+        });
+        if let Some(e) = &self.paste_error {
+            ui.colored_label(ui.visuals().error_fg_color, format!("⚠ pasted text: {e}"));
+        }
+    }
+
+    fn fill_from_paste(&mut self, doc: &Document, settings: &Settings, out: &mut Vec<Command>) {
+        match parse::numbers::<6>(&self.paste) {
+            Ok(values) => match StressTensor::from_components(
+                values,
+                settings.unit,
+                settings.convention.sign(),
+            ) {
+                Ok(tensor) => {
+                    out.push(Command::Edit {
+                        document: Document {
+                            tensor,
+                            ..doc.clone()
+                        },
+                        coalesce: None,
+                    });
+                    self.paste_error = None;
+                    self.paste.clear();
+                    self.reset();
+                }
+                Err(e) => self.paste_error = Some(e.to_string()),
+            },
+            Err(e) => self.paste_error = Some(e.to_string()),
+        }
+    }
+
+    #[expect(
+        clippy::too_many_arguments,
+        reason = "one cell needs its place, its id and the state"
+    )]
+    fn cell_ui(
+        &mut self,
+        ui: &mut egui::Ui,
+        id: egui::Id,
+        r: usize,
+        c: usize,
+        doc: &Document,
+        settings: &Settings,
+        out: &mut Vec<Command>,
+    ) {
+        let name = cell_name(r, c);
+        let error = self.errors[r][c].clone();
+        let mut edit = egui::TextEdit::singleline(&mut self.cells[r][c])
+            .id(id)
+            .hint_text(name.clone())
+            .desired_width(78.0);
+        if error.is_some() {
+            edit = edit.background_color(ui.visuals().error_fg_color.gamma_multiply(0.25));
+        }
+        let response = ui.add(edit);
+        let tip = match &error {
+            Some(e) => format!("{name}: {e}"),
+            None => format!(
+                "{name} in {}; σ{}{} = σ{}{}",
+                settings.unit, AXES[r], AXES[c], AXES[c], AXES[r]
+            ),
+        };
+        let response = response.on_hover_text(tip);
+        if !response.changed() {
+            return;
+        }
+        let Some(comp) = Component::at(r, c) else {
+            return;
+        };
+        let (mr, mc) = (c, r);
+        match parse::number(&self.cells[r][c]) {
+            Ok(value) => {
+                let pa = settings.convention.sign() * settings.unit.to_pa(value);
+                match doc.tensor.with_component_pa(comp, pa) {
+                    Ok(tensor) => {
+                        self.errors[r][c] = None;
+                        self.errors[mr][mc] = None;
+                        let (ur, uc) = comp.index();
+                        out.push(Command::Edit {
+                            document: Document {
+                                tensor,
+                                ..doc.clone()
+                            },
+                            coalesce: Some(Coalesce::Cell(ur, uc)),
+                        });
+                    }
+                    Err(e) => self.errors[r][c] = Some(e.to_string()),
+                }
+            }
+            Err(e) => self.errors[r][c] = Some(e.to_string()),
+        }
+    }
+}

@@ -1,0 +1,119 @@
+//! The 3D view: a toolbar (view presets, projection, layers) and the CPU-rendered picture,
+//! which the user turns by dragging.
+
+use crate::app::{Command, Document, Settings};
+use crate::draw::camera::{Camera, Projection, ViewPreset};
+use crate::draw::{Sizes, egui_backend, render};
+use crate::scene::{FaceChoice, Layers, Scene, SceneInput};
+
+/// Checkboxes for the layers.
+pub fn layers_ui(ui: &mut egui::Ui, layers: &mut Layers) {
+    ui.checkbox(&mut layers.cube, "Cube");
+    ui.checkbox(&mut layers.face_tractions, "Face tractions");
+    ui.checkbox(&mut layers.cut_plane, "Cut plane");
+    ui.checkbox(&mut layers.ellipsoid, "Traction ellipsoid");
+    ui.checkbox(&mut layers.principal_axes, "Principal axes");
+    ui.checkbox(&mut layers.labels, "Value labels");
+    ui.checkbox(&mut layers.triad, "Axis triad");
+    ui.checkbox(&mut layers.legend, "Legend");
+}
+
+fn faces_ui(ui: &mut egui::Ui, faces: &mut FaceChoice) {
+    let mut facing = matches!(faces, FaceChoice::FacingViewer);
+    if ui
+        .checkbox(&mut facing, "Faces facing the viewer")
+        .changed()
+    {
+        *faces = if facing {
+            FaceChoice::FacingViewer
+        } else {
+            FaceChoice::Chosen([true, false, true, false, true, false])
+        };
+    }
+    if let FaceChoice::Chosen(which) = faces {
+        for (i, face) in crate::scene::Face::ALL.into_iter().enumerate() {
+            ui.checkbox(&mut which[i], format!("{} face", face.label()));
+        }
+    }
+}
+
+/// Draws the toolbar and the view; camera moves change `settings.camera` directly (the view
+/// is not part of undo).
+pub fn view_ui(ui: &mut egui::Ui, doc: &Document, settings: &mut Settings, out: &mut Vec<Command>) {
+    ui.horizontal_wrapped(|ui| {
+        for (i, preset) in ViewPreset::ALL.into_iter().enumerate() {
+            let text = match preset {
+                ViewPreset::Isometric => "iso".to_owned(),
+                other => other.key().replace('-', "−"),
+            };
+            if ui
+                .selectable_label(false, text)
+                .on_hover_text(format!("{} (key {})", preset.label(), i + 1))
+                .clicked()
+            {
+                out.push(Command::SetView(preset));
+            }
+        }
+        ui.separator();
+        let cam = &mut settings.camera;
+        ui.selectable_value(&mut cam.projection, Projection::Orthographic, "ortho");
+        ui.selectable_value(&mut cam.projection, Projection::Perspective, "persp");
+        ui.separator();
+        ui.menu_button("Layers", |ui| layers_ui(ui, &mut settings.layers));
+        ui.menu_button("Faces", |ui| faces_ui(ui, &mut settings.faces));
+        if ui
+            .button("Export…")
+            .on_hover_text("Export figure (Ctrl+E)")
+            .clicked()
+        {
+            out.push(Command::OpenExport);
+        }
+    });
+
+    let size = ui.available_size().max(egui::vec2(64.0, 64.0));
+    let (rect, response) = ui.allocate_exact_size(size, egui::Sense::click_and_drag());
+    let response = response.on_hover_text(
+        "3D view: drag to orbit, right-drag to pan, scroll to zoom, double-click to reset. Keys 1–7: view presets.",
+    );
+    let cam = &mut settings.camera;
+    if response.dragged_by(egui::PointerButton::Primary) {
+        let d = response.drag_delta();
+        cam.orbit(-f64::from(d.x) * 0.4, f64::from(d.y) * 0.4);
+    }
+    if response.dragged_by(egui::PointerButton::Secondary) {
+        let d = response.drag_delta();
+        cam.pan[0] += f64::from(d.x) / f64::from(rect.height().max(1.0));
+        cam.pan[1] += f64::from(d.y) / f64::from(rect.height().max(1.0));
+    }
+    if response.hovered() {
+        let scroll = ui.input(|i| i.smooth_scroll_delta.y);
+        if scroll != 0.0 {
+            cam.zoom = (cam.zoom * (f64::from(scroll) * 0.003).exp()).clamp(0.1, 20.0);
+        }
+    }
+    if response.double_clicked() {
+        *cam = Camera {
+            projection: cam.projection,
+            ..Camera::default()
+        };
+    }
+
+    let input = SceneInput {
+        tensor: &doc.tensor,
+        plane: doc.plane,
+        unit: settings.unit,
+        convention: settings.convention,
+        layers: settings.layers,
+        faces: settings.faces,
+    };
+    let scene = Scene::build(&input, &settings.camera.towards_eye());
+    let frame = render(
+        &scene,
+        &settings.camera,
+        rect.width(),
+        rect.height(),
+        Sizes::default(),
+    );
+    let shapes = egui_backend::shapes(&frame, rect, ui.ctx());
+    ui.painter_at(rect).extend(shapes);
+}
