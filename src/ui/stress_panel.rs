@@ -231,7 +231,9 @@ impl StressPanel {
             let edit = egui::TextEdit::singleline(&mut self.paste)
                 .hint_text("Paste six numbers: xx yy zz xy yz zx")
                 .desired_width(210.0);
-            let response = ui.add(edit);
+            let response = ui.add(edit).on_hover_text(
+                "Paste six numbers in the order xx yy zz xy yz zx, then press Enter or Fill grid",
+            );
             let enter = response.lost_focus() && ui.input(|i| i.key_pressed(egui::Key::Enter));
             if ui
                 .button("Fill grid")

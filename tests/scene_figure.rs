@@ -1,0 +1,303 @@
+//! The 3D scene as data, its depth order, and the exported figures.
+
+#![allow(
+    clippy::unwrap_used,
+    reason = "a test helper that fails should panic loudly"
+)]
+
+use nalgebra::{Point3, Vector3};
+use planewise::draw::camera::{Camera, ViewPreset};
+use planewise::draw::{Prim, Sizes, figure, png, render, svg};
+use planewise::mechanics::{
+    Analysis, PlaneNormal, PlaneStress, SignConvention, StressTensor, StressUnit,
+};
+use planewise::scene::style::{self, Rgba};
+use planewise::scene::{Arrow, FaceChoice, Layers, Scene, SceneInput, Segment, cut_polygon};
+use proptest::prelude::*;
+
+fn demo_tensor() -> StressTensor {
+    StressTensor::from_components(
+        [120.0, -35.0, 15.0, 48.0, -12.0, 22.0],
+        StressUnit::MPa,
+        1.0,
+    )
+    .unwrap()
+}
+
+fn only(layers: impl Fn(&mut Layers)) -> Layers {
+    let mut l = Layers {
+        cube: false,
+        face_tractions: false,
+        cut_plane: false,
+        ellipsoid: false,
+        principal_axes: false,
+        labels: false,
+        triad: false,
+        legend: false,
+    };
+    layers(&mut l);
+    l
+}
+
+fn input(t: &StressTensor, layers: Layers) -> SceneInput<'_> {
+    SceneInput {
+        tensor: t,
+        plane: PlaneNormal::from_vector(Vector3::new(1.0, 0.5, 0.3)).unwrap(),
+        unit: StressUnit::MPa,
+        convention: SignConvention::TensionPositive,
+        layers,
+        faces: FaceChoice::Chosen([true; 6]),
+    }
+}
+
+#[test]
+fn face_traction_tips_are_the_scaled_tractions() {
+    let t = demo_tensor();
+    let scene = Scene::build(
+        &input(&t, only(|l| l.face_tractions = true)),
+        &Vector3::new(1.0, 1.0, 1.0).normalize(),
+    );
+    let s = scene.arrow_scale_per_pa;
+    assert!(s > 0.0);
+    for n in [
+        Vector3::x(),
+        -Vector3::x(),
+        Vector3::y(),
+        -Vector3::y(),
+        Vector3::z(),
+        -Vector3::z(),
+    ] {
+        // Cauchy: t = σ n (tension positive, physical vectors).
+        let traction = t.matrix_pa() * n;
+        let centre = Point3::from(n * 0.5);
+        let found = scene.arrows.iter().any(|a| {
+            a.color == style::TRACTION
+                && (a.from - centre).norm() < 1e-12
+                && ((a.to - a.from) - traction * s).norm() < 1e-12
+        });
+        assert!(found, "no traction arrow with tip σn on face {n}");
+        // The normal and shear parts add up to the total.
+        let ps = PlaneStress::new(
+            &t,
+            PlaneNormal::from_vector(n).unwrap(),
+            SignConvention::TensionPositive,
+        );
+        let sum = ps.normal_traction_pa() + ps.shear_traction_pa();
+        assert!((sum - traction).norm() < 1e-6);
+    }
+}
+
+#[test]
+fn ellipsoid_axes_are_the_principal_stresses() {
+    let t = demo_tensor();
+    let scene = Scene::build(&input(&t, only(|l| l.ellipsoid = true)), &Vector3::z());
+    let a = Analysis::new(&t, SignConvention::TensionPositive);
+    let s = scene.arrow_scale_per_pa;
+    let mesh = &scene.meshes[0];
+    let semi = a.principal.values_pa.map(|v| v.abs() * s);
+    for (axis, d) in semi.iter().zip(a.principal.directions) {
+        // The farthest vertex along each principal direction reaches the semi-axis |σi|·scale.
+        let reach = mesh
+            .vertices
+            .iter()
+            .map(|p| p.coords.dot(&d).abs())
+            .fold(0.0, f64::max);
+        assert!(
+            (reach - axis).abs() < 0.01 * axis,
+            "reach {reach} vs semi-axis {axis}"
+        );
+    }
+    // Every vertex lies on the ellipsoid Σ (p·ni / ai)² = 1 (Lamé's stress ellipsoid).
+    for p in &mesh.vertices {
+        let q: f64 = (0..3)
+            .map(|i| (p.coords.dot(&a.principal.directions[i]) / semi[i]).powi(2))
+            .sum();
+        assert!((q - 1.0).abs() < 1e-9, "vertex off the ellipsoid: {q}");
+    }
+}
+
+proptest! {
+    #![proptest_config(ProptestConfig::with_cases(500))]
+
+    /// The cut polygon lies in the plane, inside the cube, and is convex and in order.
+    #[test]
+    fn cut_polygon_lies_in_the_plane_and_the_cube(v in prop::array::uniform3(-1.0..1.0_f64)) {
+        prop_assume!(Vector3::from(v).norm() > 1e-3);
+        let n = Vector3::from(v).normalize();
+        let poly = cut_polygon(&n);
+        prop_assert!((3..=6).contains(&poly.len()), "{} vertices", poly.len());
+        for p in &poly {
+            prop_assert!(n.dot(&p.coords).abs() < 1e-12);
+            prop_assert!(p.coords.amax() <= 0.5 + 1e-12);
+        }
+        // Consecutive edges turn the same way about n (convex, ordered).
+        for i in 0..poly.len() {
+            let a = poly[i];
+            let b = poly[(i + 1) % poly.len()];
+            let c = poly[(i + 2) % poly.len()];
+            prop_assert!((b - a).cross(&(c - b)).dot(&n) >= -1e-12);
+        }
+    }
+}
+
+#[test]
+fn nearer_of_two_overlapping_primitives_is_drawn_last() {
+    // Two segments crossing the view centre at different depths, seen from +x: the one at
+    // x = +0.4 is nearer the eye than the one at x = −0.4.
+    let near = Rgba::rgb(1, 2, 3);
+    let far = Rgba::rgb(4, 5, 6);
+    for flip in [false, true] {
+        let mut scene = Scene::default();
+        let mut segs = vec![
+            Segment {
+                a: Point3::new(0.4, -0.3, 0.0),
+                b: Point3::new(0.4, 0.3, 0.0),
+                color: near,
+                width_px: 4.0,
+            },
+            Segment {
+                a: Point3::new(-0.4, 0.0, -0.3),
+                b: Point3::new(-0.4, 0.0, 0.3),
+                color: far,
+                width_px: 4.0,
+            },
+        ];
+        if flip {
+            segs.reverse();
+        }
+        scene.segments = segs;
+        let frame = render(
+            &scene,
+            &Camera::from_preset(ViewPreset::PosX),
+            400.0,
+            400.0,
+            Sizes::default(),
+        );
+        let colors: Vec<Rgba> = frame
+            .prims
+            .iter()
+            .filter_map(|p| match p {
+                Prim::Line { color, .. } => Some(*color),
+                _ => None,
+            })
+            .collect();
+        let last_far = colors.iter().rposition(|c| *c == far).unwrap();
+        let first_near = colors.iter().position(|c| *c == near).unwrap();
+        assert!(
+            first_near > last_far,
+            "near pieces must follow all far pieces (input flipped: {flip})"
+        );
+    }
+    // The same holds for an arrow on either side of the cut plane: seen from +x with the plane
+    // x = 0, an arrow at x = −0.3 is drawn before the plane, one at x = +0.3 after it.
+    let mut scene = Scene::default();
+    scene.polygons.push(planewise::scene::Polygon {
+        points: cut_polygon(&Vector3::x()),
+        fill: style::CUT_PLANE,
+        outline: Some(style::PLANE_NORMAL),
+    });
+    for (x, c) in [(-0.3, far), (0.3, near)] {
+        scene.arrows.push(Arrow {
+            from: Point3::new(x, 0.0, -0.2),
+            to: Point3::new(x, 0.0, 0.2),
+            color: c,
+            width_px: 2.0,
+        });
+    }
+    let frame = render(
+        &scene,
+        &Camera::from_preset(ViewPreset::PosX),
+        400.0,
+        400.0,
+        Sizes::default(),
+    );
+    let index_of = |want: Rgba| {
+        frame
+            .prims
+            .iter()
+            .position(|p| matches!(p, Prim::Line { color, .. } if *color == want))
+            .unwrap()
+    };
+    let plane_index = frame
+        .prims
+        .iter()
+        .position(|p| {
+            matches!(
+                p,
+                Prim::Polygon {
+                    outline: Some(_),
+                    ..
+                }
+            )
+        })
+        .unwrap();
+    assert!(index_of(far) < plane_index && plane_index < index_of(near));
+}
+
+#[test]
+fn zero_tensor_draws_without_dividing_by_zero() {
+    let t = StressTensor::ZERO;
+    let scene = Scene::build(&input(&t, Layers::default()), &Vector3::z());
+    assert_eq!(scene.arrow_scale_per_pa, 0.0);
+    let frame = render(&scene, &Camera::default(), 800.0, 600.0, Sizes::default());
+    let finite = |p: &[f32; 2]| p[0].is_finite() && p[1].is_finite();
+    for prim in &frame.prims {
+        match prim {
+            Prim::Polygon { points, .. } => assert!(points.iter().all(finite)),
+            Prim::Line { a, b, .. } => assert!(finite(a) && finite(b)),
+            Prim::Text { at, .. } => assert!(finite(at)),
+        }
+    }
+}
+
+#[test]
+fn svg_parses_and_png_has_the_requested_size() {
+    let t = demo_tensor();
+    let camera = Camera::default();
+    let frame = figure(&input(&t, Layers::default()), &camera, 640, 480);
+    let text = svg::to_svg(&frame, "test & <check>");
+    let tree = resvg::usvg::Tree::from_str(&text, &resvg::usvg::Options::default()).unwrap();
+    assert_eq!(tree.size().width(), 640.0);
+    let bytes = png::to_png(&frame).unwrap();
+    // PNG signature, then the IHDR chunk's width and height (PNG specification, ISO/IEC 15948).
+    assert_eq!(&bytes[..8], b"\x89PNG\r\n\x1a\n");
+    let w = u32::from_be_bytes(bytes[16..20].try_into().unwrap());
+    let h = u32::from_be_bytes(bytes[20..24].try_into().unwrap());
+    assert_eq!((w, h), (640, 480));
+}
+
+#[test]
+fn the_sigma1_arrow_tip_has_the_arrows_colour() {
+    let t = demo_tensor();
+    let camera = Camera::default();
+    let (w, h) = (1200u32, 900u32);
+    let inp = input(&t, only(|l| l.principal_axes = true));
+    let frame = figure(&inp, &camera, w, h);
+    let pixmap = png::to_pixmap(&frame).unwrap();
+    // Where the σ1 arrow (tension: pointing outwards along +n1) ends on screen.
+    let scene = Scene::build(&inp, &camera.towards_eye());
+    let arrow = scene
+        .arrows
+        .iter()
+        .find(|a| a.color == style::TENSION)
+        .unwrap();
+    let view = camera.screen_from_world(f64::from(w), f64::from(h), scene.radius());
+    let tip = view.project(&arrow.to);
+    let tail = view.project(&arrow.from);
+    let (dx, dy) = (tip.x - tail.x, tip.y - tail.y);
+    let len = dx.hypot(dy);
+    // A few pixels back from the tip, inside the filled head.
+    let (x, y) = (
+        (tip.x - 5.0 * dx / len).round() as u32,
+        (tip.y - 5.0 * dy / len).round() as u32,
+    );
+    let px = pixmap.pixel(x, y).unwrap().demultiply();
+    let c = style::TENSION;
+    let close = |a: u8, b: u8| a.abs_diff(b) <= 12;
+    assert!(
+        close(px.red(), c.r) && close(px.green(), c.g) && close(px.blue(), c.b),
+        "pixel ({x}, {y}) is {:?}, expected {:?}",
+        (px.red(), px.green(), px.blue()),
+        c
+    );
+}
