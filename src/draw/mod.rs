@@ -364,8 +364,8 @@ fn push_labels(frame: &mut Frame, scene: &Scene, view: &ScreenFromWorld, sizes: 
 }
 
 fn push_triad(frame: &mut Frame, view: &ScreenFromWorld, sizes: Sizes) {
-    let len = 34.0 * f64::from(sizes.line);
-    let origin = [44.0 * sizes.line, frame.height - 44.0 * sizes.line];
+    let len = 30.0 * f64::from(sizes.line);
+    let origin = [50.0 * sizes.line, frame.height - 54.0 * sizes.line];
     let axes = [
         ("x", Vector3::x()),
         ("y", Vector3::y()),

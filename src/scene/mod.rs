@@ -663,34 +663,37 @@ impl Scene {
             } else {
                 "zero stress".to_owned()
             },
-            entries: vec![
-                LegendEntry {
-                    color: style::TRACTION,
-                    text: "traction t".to_owned(),
-                },
-                LegendEntry {
-                    color: style::NORMAL_PART,
-                    text: "normal part σn·n".to_owned(),
-                },
-                LegendEntry {
-                    color: style::SHEAR_PART,
-                    text: "shear part τ".to_owned(),
-                },
-                LegendEntry {
-                    color: style::TENSION,
-                    text: "principal, tension".to_owned(),
-                },
-                LegendEntry {
-                    color: style::COMPRESSION,
-                    text: "principal, compression".to_owned(),
-                },
-                LegendEntry {
-                    color: style::PLANE_NORMAL,
-                    text: "cut plane, normal n".to_owned(),
-                },
-            ],
+            entries: legend_entries(&cx.input.layers),
         });
     }
+}
+
+/// The colour key for the layers that are drawn.
+fn legend_entries(layers: &Layers) -> Vec<LegendEntry> {
+    let entry = |color, text: &str| LegendEntry {
+        color,
+        text: text.to_owned(),
+    };
+    let mut out = Vec::new();
+    if layers.face_tractions || layers.cut_plane {
+        out.push(entry(style::TRACTION, "traction t"));
+        out.push(entry(style::NORMAL_PART, "normal part σn·n"));
+        out.push(entry(style::SHEAR_PART, "shear part τ"));
+    }
+    if layers.principal_axes {
+        out.push(entry(style::TENSION, "principal, tension"));
+        out.push(entry(style::COMPRESSION, "principal, compression"));
+    }
+    if layers.cut_plane {
+        out.push(entry(style::PLANE_NORMAL, "cut plane, normal n"));
+    }
+    if layers.ellipsoid {
+        out.push(entry(
+            style::ELLIPSOID.with_alpha(255),
+            "traction ellipsoid",
+        ));
+    }
+    out
 }
 
 /// The largest 1, 2 or 5 × 10ᵏ not above `x` (0 for x ≤ 0): a round length for the scale bar.

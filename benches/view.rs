@@ -1,0 +1,74 @@
+//! Per-frame CPU work of the 3D view and the cost of a large PNG export.
+//! Run: `cargo bench --bench view`. Figures go in notes, never in tests.
+
+use std::hint::black_box;
+
+use criterion::{Criterion, criterion_group, criterion_main};
+use planewise::draw::camera::Camera;
+use planewise::draw::{Sizes, egui_backend, figure, png, render};
+use planewise::mechanics::{PlaneNormal, SignConvention, StressTensor, StressUnit};
+use planewise::scene::{FaceChoice, Layers, Scene, SceneInput};
+
+fn demo_input(t: &StressTensor) -> SceneInput<'_> {
+    SceneInput {
+        tensor: t,
+        plane: PlaneNormal::from_vector(nalgebra::Vector3::new(1.0, 0.5, 0.3))
+            .unwrap_or(PlaneNormal::X),
+        unit: StressUnit::MPa,
+        convention: SignConvention::TensionPositive,
+        // Every layer on, the ellipsoid included: the heaviest ordinary frame.
+        layers: Layers {
+            ellipsoid: true,
+            ..Layers::default()
+        },
+        faces: FaceChoice::FacingViewer,
+    }
+}
+
+fn view(c: &mut Criterion) {
+    let t = StressTensor::from_components(
+        [120.0, -35.0, 15.0, 48.0, -12.0, 22.0],
+        StressUnit::MPa,
+        1.0,
+    )
+    .unwrap_or_default();
+    let input = demo_input(&t);
+    let camera = Camera::default();
+    let ctx = egui::Context::default();
+    let raw = egui::RawInput {
+        screen_rect: Some(egui::Rect::from_min_size(
+            egui::Pos2::ZERO,
+            egui::vec2(1280.0, 800.0),
+        )),
+        ..Default::default()
+    };
+    let mut group = c.benchmark_group("view");
+    // Scene, projection, lighting, depth order, egui shapes and egui's tessellation into
+    // triangles: everything the CPU does for the 3D view in one window frame.
+    group.bench_function("frame_cpu_1280x800", |b| {
+        b.iter(|| {
+            let output = ctx.run_ui(raw.clone(), |ui| {
+                let rect = ui.max_rect();
+                let scene = Scene::build(black_box(&input), &camera.towards_eye());
+                let frame = render(
+                    &scene,
+                    &camera,
+                    rect.width(),
+                    rect.height(),
+                    Sizes::default(),
+                );
+                ui.painter()
+                    .extend(egui_backend::shapes(&frame, rect, ui.ctx()));
+            });
+            black_box(ctx.tessellate(output.shapes, output.pixels_per_point));
+        });
+    });
+    group.sample_size(10);
+    group.bench_function("figure_png_3840x2160", |b| {
+        b.iter(|| black_box(png::to_png(&figure(black_box(&input), &camera, 3840, 2160))));
+    });
+    group.finish();
+}
+
+criterion_group!(benches, view);
+criterion_main!(benches);
