@@ -663,13 +663,13 @@ impl Scene {
             } else {
                 "zero stress".to_owned()
             },
-            entries: legend_entries(&cx.input.layers),
+            entries: legend_entries(cx.input.layers),
         });
     }
 }
 
 /// The colour key for the layers that are drawn.
-fn legend_entries(layers: &Layers) -> Vec<LegendEntry> {
+fn legend_entries(layers: Layers) -> Vec<LegendEntry> {
     let entry = |color, text: &str| LegendEntry {
         color,
         text: text.to_owned(),
