@@ -245,7 +245,7 @@ fn zero_tensor_draws_without_dividing_by_zero() {
         match prim {
             Prim::Polygon { points, .. } => assert!(points.iter().all(finite)),
             Prim::Line { a, b, .. } => assert!(finite(a) && finite(b)),
-            Prim::Text { at, .. } => assert!(finite(at)),
+            Prim::Text { at, .. } | Prim::Image { at, .. } => assert!(finite(at)),
         }
     }
 }

@@ -5,6 +5,8 @@
 
 pub mod analyze;
 pub mod figure;
+pub mod map;
+pub mod worst_plane;
 
 use clap::{Args, Parser, Subcommand};
 
@@ -42,6 +44,12 @@ pub enum Command {
     /// The annotated 3D view (cube, tractions, cut plane, principal axes) as SVG or PNG.
     #[command(after_help = CONVENTIONS)]
     Figure(figure::FigureArgs),
+    /// The plane orientation(s) on which a measure (shear, slip tendency, Mohr–Coulomb…) is largest.
+    #[command(after_help = CONVENTIONS)]
+    WorstPlane(worst_plane::WorstPlaneArgs),
+    /// Every plane orientation on an equal-area projection, coloured by a measure, as SVG or PNG.
+    #[command(after_help = CONVENTIONS)]
+    Map(map::MapArgs),
 }
 
 /// The stress state, as every subcommand takes it.
@@ -165,5 +173,7 @@ pub fn run(command: &Command) -> Result<String, CliError> {
     match command {
         Command::Analyze(args) => analyze::run(args),
         Command::Figure(args) => figure::run(args),
+        Command::WorstPlane(args) => worst_plane::run(args),
+        Command::Map(args) => map::run(args),
     }
 }

@@ -53,6 +53,33 @@ pub fn shapes(frame: &Frame, rect: Rect, ctx: &egui::Context) -> Vec<Shape> {
                     ));
                 }
             }
+            Prim::Image {
+                at,
+                size,
+                pixels,
+                rgba,
+            } => {
+                // One quad per raster cell, merged into the running mesh.
+                let (pw, ph) = (pixels[0] as usize, pixels[1] as usize);
+                let (cw, ch) = (size[0] / pw.max(1) as f32, size[1] / ph.max(1) as f32);
+                for row in 0..ph {
+                    for col in 0..pw {
+                        let i = (row * pw + col) * 4;
+                        let Some(px) = rgba.get(i..i + 4) else {
+                            continue;
+                        };
+                        if px[3] == 0 {
+                            continue;
+                        }
+                        let min = p([at[0] + col as f32 * cw, at[1] + row as f32 * ch]);
+                        let cell = Rect::from_min_size(min, egui::vec2(cw, ch));
+                        mesh.add_colored_rect(
+                            cell,
+                            Color32::from_rgba_unmultiplied(px[0], px[1], px[2], px[3]),
+                        );
+                    }
+                }
+            }
             Prim::Line {
                 a,
                 b,

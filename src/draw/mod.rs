@@ -11,6 +11,7 @@
 
 pub mod camera;
 pub mod egui_backend;
+pub mod map;
 pub mod png;
 pub mod svg;
 
@@ -71,6 +72,18 @@ pub enum Prim {
         anchor: Anchor,
         /// Draw a background-coloured halo behind the text (labels over geometry).
         halo: bool,
+    },
+    /// A raster image (straight-alpha RGBA, row-major, top row first) stretched over a
+    /// rectangle without smoothing.
+    Image {
+        /// Top-left corner.
+        at: Pos,
+        /// Width and height in pixels of the frame.
+        size: [f32; 2],
+        /// Width and height of the raster.
+        pixels: [u32; 2],
+        /// The raster.
+        rgba: std::sync::Arc<Vec<u8>>,
     },
 }
 

@@ -71,6 +71,24 @@ pub fn to_svg(frame: &Frame, title: &str) -> String {
                     paint("fill", *fill)
                 );
             }
+            Prim::Image {
+                at,
+                size,
+                pixels,
+                rgba,
+            } => {
+                if let Ok(png) = super::png::encode_rgba(pixels[0], pixels[1], rgba) {
+                    let _ = writeln!(
+                        s,
+                        r#"<image x="{:.2}" y="{:.2}" width="{:.2}" height="{:.2}" preserveAspectRatio="none" image-rendering="optimizeSpeed" href="data:image/png;base64,{}"/>"#,
+                        at[0],
+                        at[1],
+                        size[0],
+                        size[1],
+                        base64(&png)
+                    );
+                }
+            }
             Prim::Line { a, b, width, color } => {
                 let _ = writeln!(
                     s,
@@ -118,4 +136,46 @@ pub fn to_svg(frame: &Frame, title: &str) -> String {
     }
     s.push_str("</svg>\n");
     s
+}
+
+/// Standard base64 (RFC 4648, section 4) with padding.
+#[must_use]
+pub fn base64(bytes: &[u8]) -> String {
+    const ALPHABET: &[u8; 64] = b"ABCDEFGHIJKLMNOPQRSTUVWXYZabcdefghijklmnopqrstuvwxyz0123456789+/";
+    let mut out = String::with_capacity(bytes.len().div_ceil(3) * 4);
+    for chunk in bytes.chunks(3) {
+        let b = [
+            chunk[0],
+            *chunk.get(1).unwrap_or(&0),
+            *chunk.get(2).unwrap_or(&0),
+        ];
+        let n = (u32::from(b[0]) << 16) | (u32::from(b[1]) << 8) | u32::from(b[2]);
+        for (i, shift) in [18, 12, 6, 0].into_iter().enumerate() {
+            if i <= chunk.len() {
+                out.push(char::from(ALPHABET[((n >> shift) & 63) as usize]));
+            } else {
+                out.push('=');
+            }
+        }
+    }
+    out
+}
+
+#[cfg(test)]
+mod tests {
+    #[test]
+    fn base64_matches_rfc4648_test_vectors() {
+        // RFC 4648, section 10.
+        for (input, output) in [
+            ("", ""),
+            ("f", "Zg=="),
+            ("fo", "Zm8="),
+            ("foo", "Zm9v"),
+            ("foob", "Zm9vYg=="),
+            ("fooba", "Zm9vYmE="),
+            ("foobar", "Zm9vYmFy"),
+        ] {
+            assert_eq!(super::base64(input.as_bytes()), output);
+        }
+    }
 }

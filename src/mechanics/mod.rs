@@ -6,6 +6,8 @@ pub mod criteria;
 pub mod invariants;
 pub mod plane;
 pub mod principal;
+pub mod search;
+pub mod stereonet;
 pub mod tensor;
 pub mod units;
 

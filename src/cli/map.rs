@@ -1,0 +1,96 @@
+//! `planewise map`: every plane orientation on a lower-hemisphere equal-area projection,
+//! coloured by a measure, as SVG or PNG.
+
+use std::path::PathBuf;
+
+use clap::Args;
+
+use super::figure::parse_size;
+use super::worst_plane::MeasureArgs;
+use super::{ArgError, CliError, PlaneArgs, StressArgs};
+use crate::draw::map::{MapMarks, map_frame};
+use crate::export::{self, ImageFormat};
+use crate::format::sig;
+use crate::mechanics::Analysis;
+use crate::mechanics::search::worst_plane;
+use crate::mechanics::stereonet::orientation_map;
+
+/// Arguments of `planewise map`.
+#[derive(Debug, Clone, Args)]
+pub struct MapArgs {
+    #[command(flatten)]
+    pub stress: StressArgs,
+    #[command(flatten)]
+    pub measure: MeasureArgs,
+    #[command(flatten)]
+    pub plane: PlaneArgs,
+    /// Output file; .svg or .png.
+    #[arg(long, value_name = "FILE")]
+    pub out: PathBuf,
+    /// Image size in pixels, WIDTHxHEIGHT.
+    #[arg(long, value_name = "WxH", default_value = "1200x900")]
+    pub size: String,
+    /// Map cells per side (16 to 1024).
+    #[arg(long, value_name = "N", default_value = "256")]
+    pub resolution: String,
+}
+
+/// Runs the subcommand.
+pub fn run(args: &MapArgs) -> Result<String, CliError> {
+    let input = args.stress.read()?;
+    let settings = args.measure.read(&input)?;
+    let plane = args.plane.read()?;
+    let (w, h) = parse_size(&args.size)?;
+    let resolution: usize = args
+        .resolution
+        .trim()
+        .parse()
+        .ok()
+        .filter(|n| (16..=1024).contains(n))
+        .ok_or_else(|| {
+            ArgError::new(
+                "--resolution",
+                format!(
+                    "'{}' is not a whole number from 16 to 1024",
+                    args.resolution
+                ),
+            )
+        })?;
+    ImageFormat::from_path(&args.out).map_err(|e| ArgError::new("--out", e))?;
+    let map = orientation_map(&input.tensor, &settings, resolution);
+    let worst = worst_plane(&input.tensor, &settings).map_err(|e| ArgError::new("--measure", e))?;
+    let shown = Analysis::new(&input.tensor, input.convention);
+    let marks = MapMarks {
+        principal: shown.principal.directions,
+        plane,
+        worst: worst.planes.iter().map(|p| p.normal).collect(),
+    };
+    let unit = input.unit;
+    let is_stress = settings.measure.is_stress();
+    let label = move |v: f64| {
+        if is_stress {
+            format!("{} {}", sig(unit.from_pa(v), 4), unit.symbol())
+        } else {
+            sig(v, 4)
+        }
+    };
+    let sign_note = match settings.measure {
+        crate::mechanics::search::Measure::NormalMin => " (shown as −σn)",
+        _ => "",
+    };
+    let title = format!(
+        "{}{sign_note} — {} · {}",
+        settings.measure.key(),
+        unit.symbol(),
+        match settings.measure {
+            crate::mechanics::search::Measure::SlipTendency
+            | crate::mechanics::search::Measure::DilationTendency
+            | crate::mechanics::search::Measure::MohrCoulomb =>
+                "compression-positive effective stress".to_owned(),
+            _ => input.convention.key().to_owned(),
+        }
+    );
+    let frame = map_frame(&map, &marks, &title, &label, w, h);
+    export::write_figure(&args.out, &frame, crate::SAFETY_NOTE).map_err(anyhow::Error::from)?;
+    Ok(format!("wrote {}\n", args.out.display()))
+}

@@ -1,0 +1,440 @@
+//! The worst plane for a chosen measure: the orientation of the plane through the point on
+//! which the measure is largest, with every distinct plane that attains it.
+//!
+//! Every measure here is a function of the plane's normal and shear stress only. In the
+//! principal frame a unit normal has direction cosines (x, y, z), and with squared cosines
+//! a = x², b = y², c = z² (a + b + c = 1):
+//!
+//! σn = σ1 a + σ2 b + σ3 c,  τ² = (σ1 − σ2)² ab + (σ2 − σ3)² bc + (σ1 − σ3)² ac
+//!
+//! (e.g. Jaeger, Cook & Zimmerman, Fundamentals of Rock Mechanics, 4th ed., §2.7; the τ² form
+//! avoids the cancellation of |t|² − σn²). So the search runs over the triangle of (a, c), which
+//! is one octant of the hemisphere of normals; the other octants hold the sign-flipped planes
+//! (±x, ±y, ±z), which carry the same (σn, τ) and are reported as symmetric equivalents.
+//! Closed forms are used where they exist; otherwise a coarse sweep of the triangle is refined
+//! from its best points by a projected compass search.
+
+use nalgebra::Vector3;
+use serde::{Deserialize, Serialize};
+
+use super::analysis::Analysis;
+use super::criteria::{Condition, CriterionError, MohrCoulomb};
+use super::plane::{PlaneNormal, PlaneStress};
+use super::tensor::StressTensor;
+use super::units::SignConvention;
+
+/// What makes a plane "worst".
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, Serialize, Deserialize)]
+#[serde(rename_all = "kebab-case")]
+pub enum Measure {
+    /// Shear stress τ (closed form: normals (n1 ± n3)/√2).
+    Shear,
+    /// Largest normal stress, in the chosen sign convention (closed form: n1).
+    NormalMax,
+    /// Smallest normal stress, in the chosen sign convention (closed form: n3).
+    NormalMin,
+    /// Traction magnitude |t| (closed form: the principal direction of largest |σi|).
+    Traction,
+    /// Slip tendency τ / (σn − p), compression positive (Morris et al. 1996).
+    SlipTendency,
+    /// Dilation tendency (σ1 − σn)/(σ1 − σ3), compression positive (Ferrill et al. 1999;
+    /// closed form: the least compressive principal direction).
+    DilationTendency,
+    /// Mohr–Coulomb utilization τ / (c + (σn − p) tan φ), compression positive.
+    MohrCoulomb,
+}
+
+impl Measure {
+    /// All measures, in menu order.
+    pub const ALL: [Self; 7] = [
+        Self::Shear,
+        Self::NormalMax,
+        Self::NormalMin,
+        Self::Traction,
+        Self::SlipTendency,
+        Self::DilationTendency,
+        Self::MohrCoulomb,
+    ];
+
+    /// The command-line and JSON key.
+    #[must_use]
+    pub fn key(self) -> &'static str {
+        match self {
+            Self::Shear => "shear",
+            Self::NormalMax => "normal-max",
+            Self::NormalMin => "normal-min",
+            Self::Traction => "traction",
+            Self::SlipTendency => "slip-tendency",
+            Self::DilationTendency => "dilation-tendency",
+            Self::MohrCoulomb => "mohr-coulomb",
+        }
+    }
+
+    /// Parses a key.
+    #[must_use]
+    pub fn from_key(key: &str) -> Option<Self> {
+        Self::ALL.into_iter().find(|m| m.key() == key.trim())
+    }
+
+    /// Whether the value is a stress (in the display unit) rather than a ratio.
+    #[must_use]
+    pub fn is_stress(self) -> bool {
+        matches!(
+            self,
+            Self::Shear | Self::NormalMax | Self::NormalMin | Self::Traction
+        )
+    }
+
+    /// The convention the measure's formula uses: the geomechanics measures are always
+    /// compression positive; normal-max and normal-min follow the chosen display convention.
+    fn convention(self, display: SignConvention) -> SignConvention {
+        match self {
+            Self::SlipTendency | Self::DilationTendency | Self::MohrCoulomb => {
+                SignConvention::CompressionPositive
+            }
+            _ => display,
+        }
+    }
+}
+
+/// Parameters of a search.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct SearchSettings {
+    /// The measure.
+    pub measure: Measure,
+    /// Display convention (normal-max / normal-min, and the stresses reported).
+    pub convention: SignConvention,
+    /// Pore pressure p, Pa (compression positive; slip tendency and Mohr–Coulomb).
+    pub pore_pressure_pa: f64,
+    /// Cohesion and friction angle (required for Mohr–Coulomb).
+    pub material: Option<MohrCoulomb>,
+}
+
+/// Why a search cannot run.
+#[derive(Debug, Clone, PartialEq, thiserror::Error)]
+pub enum SearchError {
+    /// Mohr–Coulomb needs cohesion and friction angle.
+    #[error("the mohr-coulomb measure needs a cohesion and a friction angle")]
+    MissingMaterial,
+    /// Bad criterion parameters.
+    #[error(transparent)]
+    Criterion(#[from] CriterionError),
+}
+
+/// One plane that attains the worst value.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct WorstPlane {
+    /// Unit normal (the sign with a non-negative z, so that dip reads naturally).
+    pub normal: PlaneNormal,
+    /// Dip, degrees.
+    pub dip_deg: f64,
+    /// Dip direction, degrees clockwise from north.
+    pub dip_direction_deg: f64,
+    /// Normal stress on the plane, Pa, in the display convention.
+    pub normal_stress_pa: f64,
+    /// Shear stress on the plane, Pa.
+    pub shear_stress_pa: f64,
+}
+
+/// The outcome of a search.
+#[derive(Clone, Debug, PartialEq)]
+pub struct SearchResult {
+    /// The measure.
+    pub measure: Measure,
+    /// The worst value (Pa for stress measures, else dimensionless); `None` when some plane
+    /// has no frictional capacity left (see `condition`).
+    pub value: Option<f64>,
+    /// [`Condition::Defined`], or [`Condition::EffectiveTension`] when some planes have zero or
+    /// tensile effective normal stress (slip tendency) or no Mohr–Coulomb capacity: those planes
+    /// are worst of all and are the ones reported, never divided by.
+    pub condition: Condition,
+    /// Every distinct plane that attains the value within tolerance, symmetric equivalents
+    /// included. Repeated principal stresses make the optimum a continuum of planes; then only
+    /// its principal-frame representatives are listed.
+    pub planes: Vec<WorstPlane>,
+}
+
+/// Principal values in the measure's convention and the constants of its formula.
+#[derive(Clone, Copy, Debug)]
+struct Objective {
+    measure: Measure,
+    s: [f64; 3],
+    pore_pa: f64,
+    cohesion_pa: f64,
+    tan_phi: f64,
+}
+
+impl Objective {
+    /// The measure at squared direction cosines (a, b, c), or `None` for a plane without
+    /// frictional capacity.
+    fn value(&self, a: f64, b: f64, c: f64) -> Option<f64> {
+        let [s1, s2, s3] = self.s;
+        let sn = s1 * a + s2 * b + s3 * c;
+        let tau2 =
+            (s1 - s2).powi(2) * a * b + (s2 - s3).powi(2) * b * c + (s1 - s3).powi(2) * a * c;
+        let tau = tau2.max(0.0).sqrt();
+        match self.measure {
+            Measure::Shear => Some(tau),
+            Measure::NormalMax => Some(sn),
+            Measure::NormalMin => Some(-sn),
+            Measure::Traction => Some((s1 * s1 * a + s2 * s2 * b + s3 * s3 * c).max(0.0).sqrt()),
+            Measure::SlipTendency => {
+                let eff = sn - self.pore_pa;
+                (eff > 0.0).then(|| tau / eff)
+            }
+            Measure::DilationTendency => (s1 > s3).then(|| (s1 - sn) / (s1 - s3)),
+            Measure::MohrCoulomb => {
+                let capacity = self.cohesion_pa + (sn - self.pore_pa) * self.tan_phi;
+                (capacity > 0.0).then(|| tau / capacity)
+            }
+        }
+    }
+
+    /// `value` for the search: planes without capacity rank above every defined value.
+    fn score(&self, a: f64, c: f64) -> f64 {
+        let b = (1.0 - a - c).max(0.0);
+        self.value(a, b, c).unwrap_or(f64::INFINITY)
+    }
+}
+
+/// Projects (a, c) onto the triangle a ≥ 0, c ≥ 0, a + c ≤ 1 (Euclidean projection).
+fn project(a: f64, c: f64) -> (f64, f64) {
+    let (mut a, mut c) = (a.max(0.0), c.max(0.0));
+    let excess = a + c - 1.0;
+    if excess > 0.0 {
+        a -= excess / 2.0;
+        c -= excess / 2.0;
+        if a < 0.0 {
+            (0.0, 1.0)
+        } else if c < 0.0 {
+            (1.0, 0.0)
+        } else {
+            (a, c)
+        }
+    } else {
+        (a, c)
+    }
+}
+
+/// Grid divisions of the triangle's sides in the coarse sweep.
+const SWEEP: usize = 48;
+/// Starting points refined after the sweep.
+const STARTS: usize = 8;
+
+/// Coarse sweep then projected compass search from the best grid points.
+fn numerical_candidates(obj: &Objective) -> Vec<(f64, f64)> {
+    let h = 1.0 / SWEEP as f64;
+    let mut grid: Vec<(f64, f64, f64)> = Vec::with_capacity((SWEEP + 1) * (SWEEP + 2) / 2);
+    for i in 0..=SWEEP {
+        for k in 0..=(SWEEP - i) {
+            let (a, c) = (i as f64 * h, k as f64 * h);
+            grid.push((obj.score(a, c), a, c));
+        }
+    }
+    grid.sort_by(|x, y| y.0.total_cmp(&x.0));
+    // Starts: the best points, at least two grid steps apart, so separate basins each get one.
+    let mut starts: Vec<(f64, f64)> = Vec::with_capacity(STARTS);
+    for &(_, a, c) in &grid {
+        if starts
+            .iter()
+            .all(|&(sa, sc)| (sa - a).abs() + (sc - c).abs() > 2.5 * h)
+        {
+            starts.push((a, c));
+            if starts.len() == STARTS {
+                break;
+            }
+        }
+    }
+    starts
+        .into_iter()
+        .map(|(mut a, mut c)| {
+            let mut best = obj.score(a, c);
+            let mut step = h;
+            while step > 1e-15 {
+                let mut moved = false;
+                for (da, dc) in [
+                    (1.0, 0.0),
+                    (-1.0, 0.0),
+                    (0.0, 1.0),
+                    (0.0, -1.0),
+                    (1.0, -1.0),
+                    (-1.0, 1.0),
+                ] {
+                    let (na, nc) = project(a + da * step, c + dc * step);
+                    let v = obj.score(na, nc);
+                    if v > best {
+                        (a, c, best) = (na, nc, v);
+                        moved = true;
+                        break;
+                    }
+                }
+                if !moved {
+                    step *= 0.5;
+                }
+            }
+            (a, c)
+        })
+        .collect()
+}
+
+/// The best value the numerical search alone finds (no closed form, no capacity check): for
+/// checking the closed forms against the search. `None` when the best point has no capacity.
+pub fn numerical_value(tensor: &StressTensor, settings: &SearchSettings) -> Option<f64> {
+    let convention = settings.measure.convention(settings.convention);
+    let s = Analysis::new(tensor, convention).principal.values_pa;
+    let (cohesion_pa, tan_phi) = settings.material.map_or((0.0, 0.0), |m| {
+        (m.cohesion_pa, m.friction_angle_deg.to_radians().tan())
+    });
+    let obj = Objective {
+        measure: settings.measure,
+        s,
+        pore_pa: settings.pore_pressure_pa,
+        cohesion_pa,
+        tan_phi,
+    };
+    numerical_candidates(&obj)
+        .into_iter()
+        .filter_map(|(a, c)| obj.value(a, (1.0 - a - c).max(0.0), c))
+        .max_by(f64::total_cmp)
+}
+
+/// Runs the search for `tensor` (stored, tension positive).
+pub fn worst_plane(
+    tensor: &StressTensor,
+    settings: &SearchSettings,
+) -> Result<SearchResult, SearchError> {
+    if !settings.pore_pressure_pa.is_finite() {
+        return Err(CriterionError::PorePressure.into());
+    }
+    if settings.measure == Measure::MohrCoulomb && settings.material.is_none() {
+        return Err(SearchError::MissingMaterial);
+    }
+    let convention = settings.measure.convention(settings.convention);
+    let analysis = Analysis::new(tensor, convention);
+    let s = analysis.principal.values_pa;
+    let (cohesion_pa, tan_phi) = settings.material.map_or((0.0, 0.0), |m| {
+        (m.cohesion_pa, m.friction_angle_deg.to_radians().tan())
+    });
+    let obj = Objective {
+        measure: settings.measure,
+        s,
+        pore_pa: settings.pore_pressure_pa,
+        cohesion_pa,
+        tan_phi,
+    };
+    let scale = s[0].abs().max(s[2].abs());
+    let tie = |x: f64, y: f64| (x - y).abs() <= 1e-12 * scale.max(f64::MIN_POSITIVE);
+
+    // Planes without frictional capacity: the least compressive plane (σn = σ3) has the least
+    // effective normal stress, so it is the first to lose its capacity.
+    let no_capacity = match settings.measure {
+        Measure::SlipTendency => s[2] - settings.pore_pressure_pa <= 0.0,
+        Measure::MohrCoulomb => cohesion_pa + (s[2] - settings.pore_pressure_pa) * tan_phi <= 0.0,
+        _ => false,
+    };
+    let candidates: Vec<(f64, f64)> = if no_capacity {
+        vec![(0.0, 1.0)]
+    } else {
+        match settings.measure {
+            Measure::Shear => vec![(0.5, 0.5)],
+            Measure::NormalMax => vec![(1.0, 0.0)],
+            Measure::NormalMin | Measure::DilationTendency => vec![(0.0, 1.0)],
+            Measure::Traction => {
+                if s[0].abs() >= s[2].abs() {
+                    vec![(1.0, 0.0)]
+                } else {
+                    vec![(0.0, 1.0)]
+                }
+            }
+            Measure::SlipTendency | Measure::MohrCoulomb => numerical_candidates(&obj),
+        }
+    };
+    // Repeated principal values give more representatives of the same optimum.
+    let mut candidates = candidates;
+    if !no_capacity {
+        let extra: Vec<(f64, f64)> = match settings.measure {
+            Measure::Shear if tie(s[0], s[1]) => vec![(0.0, 0.5)],
+            Measure::Shear if tie(s[1], s[2]) => vec![(0.5, 0.0)],
+            Measure::NormalMax if tie(s[0], s[1]) => vec![(0.0, 0.0)],
+            Measure::NormalMin | Measure::DilationTendency if tie(s[1], s[2]) => vec![(0.0, 0.0)],
+            Measure::Traction if tie(s[0].abs(), s[2].abs()) => vec![(0.0, 1.0)],
+            _ => vec![],
+        };
+        candidates.extend(extra);
+    }
+    let value = if no_capacity {
+        None
+    } else {
+        candidates
+            .iter()
+            .filter_map(|&(a, c)| obj.value(a, (1.0 - a - c).max(0.0), c))
+            .max_by(f64::total_cmp)
+    };
+    let best = value.unwrap_or(f64::INFINITY);
+    let tolerance =
+        1e-9 * best.abs().max(if settings.measure.is_stress() {
+            scale
+        } else {
+            1.0
+        }) + 1e-300;
+    let mut planes: Vec<WorstPlane> = Vec::new();
+    for (a, c) in candidates {
+        let b = (1.0 - a - c).max(0.0);
+        let attains = no_capacity || obj.value(a, b, c).is_some_and(|v| v >= best - tolerance);
+        if !attains {
+            continue;
+        }
+        for n in sign_equivalents(a, b, c, &analysis.principal.directions) {
+            if planes
+                .iter()
+                .any(|p| p.normal.vector().dot(&n).abs() > 1.0 - 1e-12)
+            {
+                continue;
+            }
+            let Ok(normal) = PlaneNormal::from_vector(if n.z < 0.0 { -n } else { n }) else {
+                continue;
+            };
+            let ps = PlaneStress::new(tensor, normal, settings.convention);
+            let (dip_deg, dip_direction_deg) = normal.dip_deg();
+            planes.push(WorstPlane {
+                normal,
+                dip_deg,
+                dip_direction_deg,
+                normal_stress_pa: ps.normal_stress_pa,
+                shear_stress_pa: ps.shear_stress_pa,
+            });
+        }
+    }
+    let condition = if no_capacity {
+        Condition::EffectiveTension
+    } else if value.is_none() {
+        // Dilation tendency of an isotropic state: no plane is preferred.
+        Condition::Undefined
+    } else {
+        Condition::Defined
+    };
+    Ok(SearchResult {
+        measure: settings.measure,
+        value,
+        condition,
+        planes,
+    })
+}
+
+/// The normals (x d1 + y d2 + z d3) with x = ±√a, y = ±√b, z = ±√c: every sign choice, one per
+/// plane (n and −n are the same plane).
+fn sign_equivalents(a: f64, b: f64, c: f64, d: &[Vector3<f64>; 3]) -> Vec<Vector3<f64>> {
+    let (x, y, z) = (a.max(0.0).sqrt(), b.max(0.0).sqrt(), c.max(0.0).sqrt());
+    let mut out = Vec::with_capacity(4);
+    for (sy, sz) in [(1.0, 1.0), (1.0, -1.0), (-1.0, 1.0), (-1.0, -1.0)] {
+        let n = d[0] * x + d[1] * (sy * y) + d[2] * (sz * z);
+        if let Some(n) = n.try_normalize(1e-300)
+            && !out
+                .iter()
+                .any(|m: &Vector3<f64>| m.dot(&n).abs() > 1.0 - 1e-12)
+        {
+            out.push(n);
+        }
+    }
+    out
+}

@@ -1,0 +1,177 @@
+//! The lower-hemisphere equal-area (Lambert azimuthal, "Schmidt net") projection of plane poles,
+//! and orientation maps: a measure evaluated for every plane orientation on that projection.
+//!
+//! Geographic axes: x = east, y = north, z = up. A plane's pole is its downward unit normal p
+//! (p_z ≤ 0). The projection maps it to the unit disc (east right, north up):
+//! (X, Y) = (p_x, p_y) / √(1 − p_z), so radius = √2 sin(θ/2) with θ the pole's angle from the
+//! nadir (Snyder, Map Projections — A Working Manual, USGS Professional Paper 1395, 1987,
+//! §24, eq. 24-2 with the sphere's radius scaled so the equator maps to radius 1). The inverse is
+//! p_z = X² + Y² − 1, (p_x, p_y) = (X, Y) √(2 − X² − Y²). Equal area: every patch of the disc
+//! covers twice its area of the hemisphere (2π over π).
+
+use nalgebra::Vector3;
+
+use super::search::{Measure, SearchSettings};
+use super::{Analysis, PlaneNormal, StressTensor};
+
+/// Map coordinates (X east, Y north, in the unit disc) of the pole of the plane with normal `n`
+/// (either sign).
+#[must_use]
+pub fn project_pole(n: &PlaneNormal) -> [f64; 2] {
+    let v = n.vector();
+    let p = if v.z > 0.0 { -v } else { v };
+    let k = 1.0 / (1.0 - p.z).sqrt();
+    [p.x * k, p.y * k]
+}
+
+/// The downward pole at map point (X, Y), or `None` outside the unit disc.
+#[must_use]
+pub fn pole_at(x: f64, y: f64) -> Option<Vector3<f64>> {
+    let r2 = x * x + y * y;
+    // Also refuses NaN.
+    if r2.is_nan() || r2 > 1.0 {
+        return None;
+    }
+    let k = (2.0 - r2).sqrt();
+    Some(Vector3::new(x * k, y * k, r2 - 1.0))
+}
+
+/// A measure on a square grid over the disc.
+#[derive(Clone, Debug, PartialEq)]
+pub struct OrientationMap {
+    /// Cells per side.
+    pub size: usize,
+    /// Row-major values, row 0 at the top (north); `None` outside the disc or where the measure
+    /// is undefined (no capacity, effective tension).
+    pub values: Vec<Option<f64>>,
+    /// Smallest and largest defined value.
+    pub range: Option<(f64, f64)>,
+}
+
+/// Evaluates the measure of `settings` for the plane at every cell centre of a `size` × `size`
+/// grid over the disc.
+#[must_use]
+pub fn orientation_map(
+    tensor: &StressTensor,
+    settings: &SearchSettings,
+    size: usize,
+) -> OrientationMap {
+    let convention = match settings.measure {
+        Measure::SlipTendency | Measure::DilationTendency | Measure::MohrCoulomb => {
+            super::SignConvention::CompressionPositive
+        }
+        _ => settings.convention,
+    };
+    let a = Analysis::new(tensor, convention);
+    let [s1, s2, s3] = a.principal.values_pa;
+    let [d1, d2, d3] = a.principal.directions;
+    let (cohesion, tan_phi) = settings.material.map_or((0.0, 0.0), |m| {
+        (m.cohesion_pa, m.friction_angle_deg.to_radians().tan())
+    });
+    let p = settings.pore_pressure_pa;
+    let measure = settings.measure;
+    let value = |n: &Vector3<f64>| -> Option<f64> {
+        let (l, m, k) = (n.dot(&d1), n.dot(&d2), n.dot(&d3));
+        let (aa, bb, cc) = (l * l, m * m, k * k);
+        let sn = s1 * aa + s2 * bb + s3 * cc;
+        let tau = ((s1 - s2).powi(2) * aa * bb
+            + (s2 - s3).powi(2) * bb * cc
+            + (s1 - s3).powi(2) * aa * cc)
+            .max(0.0)
+            .sqrt();
+        match measure {
+            Measure::Shear => Some(tau),
+            Measure::NormalMax => Some(sn),
+            Measure::NormalMin => Some(-sn),
+            Measure::Traction => Some((s1 * s1 * aa + s2 * s2 * bb + s3 * s3 * cc).max(0.0).sqrt()),
+            Measure::SlipTendency => (sn - p > 0.0).then(|| tau / (sn - p)),
+            Measure::DilationTendency => (s1 > s3).then(|| (s1 - sn) / (s1 - s3)),
+            Measure::MohrCoulomb => {
+                let capacity = cohesion + (sn - p) * tan_phi;
+                (capacity > 0.0).then(|| tau / capacity)
+            }
+        }
+    };
+    let mut values = Vec::with_capacity(size * size);
+    let mut range: Option<(f64, f64)> = None;
+    let step = 2.0 / size as f64;
+    for row in 0..size {
+        let y = 1.0 - (row as f64 + 0.5) * step;
+        for col in 0..size {
+            let x = -1.0 + (col as f64 + 0.5) * step;
+            let v = pole_at(x, y).and_then(|pole| value(&pole));
+            if let Some(v) = v {
+                range = Some(range.map_or((v, v), |(lo, hi)| (lo.min(v), hi.max(v))));
+            }
+            values.push(v);
+        }
+    }
+    OrientationMap {
+        size,
+        values,
+        range,
+    }
+}
+
+/// The viridis colour map (van der Walt & Smith, matplotlib, 2015; CC0), as nine stops
+/// interpolated linearly: perceptually close to uniform and readable in grey and by most
+/// colour-blind readers. `t` in [0, 1].
+#[must_use]
+pub fn viridis(t: f64) -> [u8; 3] {
+    const STOPS: [[u8; 3]; 9] = [
+        [0x44, 0x01, 0x54],
+        [0x48, 0x28, 0x78],
+        [0x3e, 0x49, 0x89],
+        [0x31, 0x68, 0x8e],
+        [0x26, 0x82, 0x8e],
+        [0x1f, 0x9e, 0x89],
+        [0x35, 0xb7, 0x79],
+        [0x6e, 0xce, 0x58],
+        [0xfd, 0xe7, 0x25],
+    ];
+    let t = if t.is_finite() {
+        t.clamp(0.0, 1.0)
+    } else {
+        0.0
+    };
+    let x = t * 8.0;
+    let i = (x.floor() as usize).min(7);
+    let f = x - i as f64;
+    let mix = |a: u8, b: u8| (f64::from(a) + (f64::from(b) - f64::from(a)) * f).round() as u8;
+    [
+        mix(STOPS[i][0], STOPS[i + 1][0]),
+        mix(STOPS[i][1], STOPS[i + 1][1]),
+        mix(STOPS[i][2], STOPS[i + 1][2]),
+    ]
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn projection_round_trips() {
+        for (dip, dd) in [
+            (0.0, 0.0),
+            (30.0, 45.0),
+            (60.0, 90.0),
+            (89.0, 300.0),
+            (90.0, 180.0),
+        ] {
+            let n = PlaneNormal::from_dip(dip, dd).unwrap();
+            let [x, y] = project_pole(&n);
+            assert!(x * x + y * y <= 1.0 + 1e-12);
+            let pole = pole_at(x.clamp(-1.0, 1.0), y.clamp(-1.0, 1.0)).unwrap();
+            assert!(
+                (pole.dot(&n.vector()).abs() - 1.0).abs() < 1e-12,
+                "{dip}/{dd}"
+            );
+        }
+        // A horizontal plane's pole is the centre; a vertical plane's pole lies on the rim.
+        let [x, y] = project_pole(&PlaneNormal::Z);
+        assert!(x.abs() < 1e-15 && y.abs() < 1e-15);
+        let [x, y] = project_pole(&PlaneNormal::from_dip(90.0, 90.0).unwrap());
+        assert!((x.hypot(y) - 1.0).abs() < 1e-12);
+        assert!(pole_at(0.8, 0.8).is_none());
+    }
+}
