@@ -5,6 +5,8 @@
     reason = "a test helper that fails should panic loudly"
 )]
 
+mod common;
+
 use std::process::{Command, Output};
 
 use serde_json::Value;
@@ -206,17 +208,5 @@ fn bad_input_is_rejected_with_one_line() {
         (&["--stress", "xx=1", "--bogus"], "--bogus"),
         (&["--unit", "MPa"], "--stress"),
     ];
-    for (args, names) in cases {
-        let mut full = vec!["analyze"];
-        full.extend_from_slice(args);
-        let out = planewise(&full);
-        let stderr = String::from_utf8_lossy(&out.stderr);
-        assert_eq!(out.status.code(), Some(2), "{args:?}: {stderr}");
-        assert!(out.stdout.is_empty(), "{args:?} printed on stdout");
-        assert_eq!(stderr.trim_end().lines().count(), 1, "{args:?}: {stderr}");
-        assert!(
-            stderr.contains(names),
-            "{args:?}: '{stderr}' does not name {names}"
-        );
-    }
+    common::assert_bad_input("analyze", cases);
 }

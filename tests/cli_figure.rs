@@ -5,6 +5,8 @@
     reason = "a test helper that fails should panic loudly"
 )]
 
+mod common;
+
 use std::process::{Command, Output};
 
 fn planewise(args: &[&str]) -> Output {
@@ -93,15 +95,6 @@ fn bad_figure_arguments_exit_2_with_one_line() {
         (&["--stress", "xx=abc", "--out", out], "--stress"),
         (&["--stress", "xx=1"], "--out"),
     ];
-    for (args, name) in cases {
-        let mut full = vec!["figure"];
-        full.extend_from_slice(args);
-        let o = planewise(&full);
-        let stderr = String::from_utf8_lossy(&o.stderr);
-        assert_eq!(o.status.code(), Some(2), "{args:?}: {stderr}");
-        assert!(o.stdout.is_empty());
-        assert_eq!(stderr.trim_end().lines().count(), 1, "{args:?}: {stderr}");
-        assert!(stderr.contains(name), "{args:?}: {stderr}");
-    }
+    common::assert_bad_input("figure", cases);
     assert!(!out_png.exists(), "nothing is written on bad input");
 }

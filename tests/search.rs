@@ -6,6 +6,8 @@
     reason = "a test helper that fails should panic loudly"
 )]
 
+mod common;
+
 use nalgebra::{Matrix3, Rotation3, Vector3};
 use planewise::mechanics::criteria::{self, Condition, MohrCoulomb};
 use planewise::mechanics::search::{Measure, SearchSettings, numerical_value, worst_plane};
@@ -361,15 +363,6 @@ mod cli {
             ),
             (&["--stress", "xx=nan", "--measure", "shear"], "--stress"),
         ];
-        for (args, name) in cases {
-            let mut full = vec!["worst-plane"];
-            full.extend_from_slice(args);
-            let o = planewise(&full);
-            let stderr = String::from_utf8_lossy(&o.stderr);
-            assert_eq!(o.status.code(), Some(2), "{args:?}: {stderr}");
-            assert!(o.stdout.is_empty());
-            assert_eq!(stderr.trim_end().lines().count(), 1, "{args:?}: {stderr}");
-            assert!(stderr.contains(name), "{args:?}: {stderr}");
-        }
+        super::common::assert_bad_input("worst-plane", cases);
     }
 }

@@ -154,17 +154,42 @@ pub struct SearchResult {
     pub planes: Vec<WorstPlane>,
 }
 
-/// Principal values in the measure's convention and the constants of its formula.
+/// Principal values and directions in the measure's convention and the constants of its
+/// formula: the measure as a function of a plane's orientation.
 #[derive(Clone, Copy, Debug)]
-struct Objective {
+pub(crate) struct Objective {
     measure: Measure,
     s: [f64; 3],
+    directions: [Vector3<f64>; 3],
     pore_pa: f64,
     cohesion_pa: f64,
     tan_phi: f64,
 }
 
 impl Objective {
+    /// The objective for `tensor` and `settings`.
+    pub(crate) fn new(tensor: &StressTensor, settings: &SearchSettings) -> Self {
+        let convention = settings.measure.convention(settings.convention);
+        let principal = Analysis::new(tensor, convention).principal;
+        let (cohesion_pa, tan_phi) = settings.material.map_or((0.0, 0.0), |m| {
+            (m.cohesion_pa, m.friction_angle_deg.to_radians().tan())
+        });
+        Self {
+            measure: settings.measure,
+            s: principal.values_pa,
+            directions: principal.directions,
+            pore_pa: settings.pore_pressure_pa,
+            cohesion_pa,
+            tan_phi,
+        }
+    }
+
+    /// The measure on the plane with unit normal `n` (either sign).
+    pub(crate) fn at_normal(&self, n: &Vector3<f64>) -> Option<f64> {
+        let [l, m, k] = self.directions.map(|d| n.dot(&d));
+        self.value(l * l, m * m, k * k)
+    }
+
     /// The measure at squared direction cosines (a, b, c), or `None` for a plane without
     /// frictional capacity.
     fn value(&self, a: f64, b: f64, c: f64) -> Option<f64> {
@@ -280,18 +305,7 @@ fn numerical_candidates(obj: &Objective) -> Vec<(f64, f64)> {
 /// The best value the numerical search alone finds (no closed form, no capacity check): for
 /// checking the closed forms against the search. `None` when the best point has no capacity.
 pub fn numerical_value(tensor: &StressTensor, settings: &SearchSettings) -> Option<f64> {
-    let convention = settings.measure.convention(settings.convention);
-    let s = Analysis::new(tensor, convention).principal.values_pa;
-    let (cohesion_pa, tan_phi) = settings.material.map_or((0.0, 0.0), |m| {
-        (m.cohesion_pa, m.friction_angle_deg.to_radians().tan())
-    });
-    let obj = Objective {
-        measure: settings.measure,
-        s,
-        pore_pa: settings.pore_pressure_pa,
-        cohesion_pa,
-        tan_phi,
-    };
+    let obj = Objective::new(tensor, settings);
     numerical_candidates(&obj)
         .into_iter()
         .filter_map(|(a, c)| obj.value(a, (1.0 - a - c).max(0.0), c))
@@ -309,19 +323,9 @@ pub fn worst_plane(
     if settings.measure == Measure::MohrCoulomb && settings.material.is_none() {
         return Err(SearchError::MissingMaterial);
     }
-    let convention = settings.measure.convention(settings.convention);
-    let analysis = Analysis::new(tensor, convention);
-    let s = analysis.principal.values_pa;
-    let (cohesion_pa, tan_phi) = settings.material.map_or((0.0, 0.0), |m| {
-        (m.cohesion_pa, m.friction_angle_deg.to_radians().tan())
-    });
-    let obj = Objective {
-        measure: settings.measure,
-        s,
-        pore_pa: settings.pore_pressure_pa,
-        cohesion_pa,
-        tan_phi,
-    };
+    let obj = Objective::new(tensor, settings);
+    let s = obj.s;
+    let (cohesion_pa, tan_phi) = (obj.cohesion_pa, obj.tan_phi);
     let scale = s[0].abs().max(s[2].abs());
     let tie = |x: f64, y: f64| (x - y).abs() <= 1e-12 * scale.max(f64::MIN_POSITIVE);
 
@@ -384,7 +388,7 @@ pub fn worst_plane(
         if !attains {
             continue;
         }
-        for n in sign_equivalents(a, b, c, &analysis.principal.directions) {
+        for n in sign_equivalents(a, b, c, &obj.directions) {
             if planes
                 .iter()
                 .any(|p| p.normal.vector().dot(&n).abs() > 1.0 - 1e-12)

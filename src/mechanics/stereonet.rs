@@ -11,8 +11,8 @@
 
 use nalgebra::Vector3;
 
-use super::search::{Measure, SearchSettings};
-use super::{Analysis, PlaneNormal, StressTensor};
+use super::search::SearchSettings;
+use super::{PlaneNormal, StressTensor};
 
 /// Map coordinates (X east, Y north, in the unit disc) of the pole of the plane with normal `n`
 /// (either sign).
@@ -56,42 +56,7 @@ pub fn orientation_map(
     settings: &SearchSettings,
     size: usize,
 ) -> OrientationMap {
-    let convention = match settings.measure {
-        Measure::SlipTendency | Measure::DilationTendency | Measure::MohrCoulomb => {
-            super::SignConvention::CompressionPositive
-        }
-        _ => settings.convention,
-    };
-    let a = Analysis::new(tensor, convention);
-    let [s1, s2, s3] = a.principal.values_pa;
-    let [d1, d2, d3] = a.principal.directions;
-    let (cohesion, tan_phi) = settings.material.map_or((0.0, 0.0), |m| {
-        (m.cohesion_pa, m.friction_angle_deg.to_radians().tan())
-    });
-    let p = settings.pore_pressure_pa;
-    let measure = settings.measure;
-    let value = |n: &Vector3<f64>| -> Option<f64> {
-        let (l, m, k) = (n.dot(&d1), n.dot(&d2), n.dot(&d3));
-        let (aa, bb, cc) = (l * l, m * m, k * k);
-        let sn = s1 * aa + s2 * bb + s3 * cc;
-        let tau = ((s1 - s2).powi(2) * aa * bb
-            + (s2 - s3).powi(2) * bb * cc
-            + (s1 - s3).powi(2) * aa * cc)
-            .max(0.0)
-            .sqrt();
-        match measure {
-            Measure::Shear => Some(tau),
-            Measure::NormalMax => Some(sn),
-            Measure::NormalMin => Some(-sn),
-            Measure::Traction => Some((s1 * s1 * aa + s2 * s2 * bb + s3 * s3 * cc).max(0.0).sqrt()),
-            Measure::SlipTendency => (sn - p > 0.0).then(|| tau / (sn - p)),
-            Measure::DilationTendency => (s1 > s3).then(|| (s1 - sn) / (s1 - s3)),
-            Measure::MohrCoulomb => {
-                let capacity = cohesion + (sn - p) * tan_phi;
-                (capacity > 0.0).then(|| tau / capacity)
-            }
-        }
-    };
+    let objective = super::search::Objective::new(tensor, settings);
     let mut values = Vec::with_capacity(size * size);
     let mut range: Option<(f64, f64)> = None;
     let step = 2.0 / size as f64;
@@ -99,7 +64,7 @@ pub fn orientation_map(
         let y = 1.0 - (row as f64 + 0.5) * step;
         for col in 0..size {
             let x = -1.0 + (col as f64 + 0.5) * step;
-            let v = pole_at(x, y).and_then(|pole| value(&pole));
+            let v = pole_at(x, y).and_then(|pole| objective.at_normal(&pole));
             if let Some(v) = v {
                 range = Some(range.map_or((v, v), |(lo, hi)| (lo.min(v), hi.max(v))));
             }

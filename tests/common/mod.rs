@@ -1,0 +1,35 @@
+//! Helpers shared by the command-line tests.
+
+#![allow(dead_code, reason = "each test file uses a different part")]
+#![allow(
+    clippy::unwrap_used,
+    reason = "a test helper that fails should panic loudly"
+)]
+
+use std::process::{Command, Output};
+
+/// Runs the built binary.
+pub fn planewise(args: &[&str]) -> Output {
+    Command::new(env!("CARGO_BIN_EXE_planewise"))
+        .args(args)
+        .output()
+        .unwrap()
+}
+
+/// Each case (arguments after `subcommand`, the argument name the message must contain)
+/// exits with status 2, prints one line on stderr naming the argument, and nothing on stdout.
+pub fn assert_bad_input(subcommand: &str, cases: &[(&[&str], &str)]) {
+    for (args, name) in cases {
+        let mut full = vec![subcommand];
+        full.extend_from_slice(args);
+        let out = planewise(&full);
+        let stderr = String::from_utf8_lossy(&out.stderr);
+        assert_eq!(out.status.code(), Some(2), "{args:?}: {stderr}");
+        assert!(out.stdout.is_empty(), "{args:?} printed on stdout");
+        assert_eq!(stderr.trim_end().lines().count(), 1, "{args:?}: {stderr}");
+        assert!(
+            stderr.contains(name),
+            "{args:?}: '{stderr}' does not name {name}"
+        );
+    }
+}
