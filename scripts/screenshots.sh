@@ -11,4 +11,6 @@ $bin figure --stress "$demo" --normal 1,0.5,0.3 --layers cube,plane,labels,legen
     --view iso --size 1100x750 --out screenshots/cut-plane-traction.png
 $bin figure --stress "$demo" --normal 1,0.5,0.3 --layers ellipsoid,axes,labels,legend,triad \
     --view iso --perspective --size 1100x750 --out screenshots/ellipsoid-principal-axes.png
+$bin map --stress "$demo" --normal 1,0.5,0.3 --measure shear --size 1100x750 \
+    --out screenshots/orientation-map-shear.png
 ls -l screenshots

@@ -70,6 +70,20 @@ pub struct Settings {
     pub camera: Camera,
     /// Size of exported figures, pixels.
     pub export_size: [u32; 2],
+    /// The measure for the worst-plane search and the orientation map.
+    pub measure: ui::map_panel::MeasureChoice,
+    /// Which picture the central area shows.
+    pub central: Central,
+}
+
+/// The pictures the central area can show.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize, Deserialize, Default)]
+pub enum Central {
+    /// The 3D view.
+    #[default]
+    View3d,
+    /// The orientation map.
+    Map,
 }
 
 impl Default for Settings {
@@ -81,6 +95,8 @@ impl Default for Settings {
             faces: FaceChoice::FacingViewer,
             camera: Camera::default(),
             export_size: [1600, 1200],
+            measure: ui::map_panel::MeasureChoice::default(),
+            central: Central::View3d,
         }
     }
 }
@@ -527,6 +543,13 @@ impl PlanewiseApp {
                     self.stress_panel.ui(ui, doc, settings, &mut commands);
                     ui.separator();
                     self.plane_panel.ui(ui, doc, settings, &mut commands);
+                    ui.separator();
+                    ui::map_panel::worst_plane_ui(
+                        ui,
+                        &self.document,
+                        &mut self.settings,
+                        &mut commands,
+                    );
                 });
             });
         egui::Panel::right("results")
@@ -543,7 +566,18 @@ impl PlanewiseApp {
                 });
             });
         egui::CentralPanel::default().show(ui, |ui| {
-            ui::view_panel::view_ui(ui, &self.document, &mut self.settings, &mut commands);
+            ui.horizontal(|ui| {
+                ui.selectable_value(&mut self.settings.central, Central::View3d, "3D view");
+                ui.selectable_value(&mut self.settings.central, Central::Map, "Orientation map");
+            });
+            match self.settings.central {
+                Central::View3d => {
+                    ui::view_panel::view_ui(ui, &self.document, &mut self.settings, &mut commands);
+                }
+                Central::Map => {
+                    ui::map_panel::map_ui(ui, &self.document, &self.settings, &mut commands);
+                }
+            }
         });
         self.export_panel
             .ui(&ctx, &mut self.settings, &mut commands);

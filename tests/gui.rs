@@ -26,7 +26,7 @@ impl Dialogs for NoDialogs {
 fn harness() -> Harness<'static, PlanewiseApp> {
     let app = PlanewiseApp::demo(Box::new(NoDialogs));
     let mut h = Harness::builder()
-        .with_size(egui::vec2(1280.0, 900.0))
+        .with_size(egui::vec2(1280.0, 1400.0))
         .build_ui_state(|ui, app: &mut PlanewiseApp| app.show(ui), app);
     h.run();
     h
@@ -218,4 +218,58 @@ fn export_to_a_path_writes_the_same_figure_as_the_command_line() {
     assert_eq!(body(&written), body(&expected));
     assert!(h.state().status.as_ref().is_some_and(|s| !s.error));
     let _ = std::fs::remove_dir_all(&dir);
+}
+
+#[test]
+fn clicking_the_orientation_map_sets_the_plane() {
+    let mut h = harness();
+    h.get_by_label("Orientation map").click();
+    h.run();
+    let rect = h.get_by_label_contains("hover a pole").rect();
+    let (centre, r) = planewise::draw::map::disc_geometry(rect.width(), rect.height());
+    // Half way from the centre to the east rim.
+    let pos = rect.min + egui::vec2(centre[0] + 0.5 * r, centre[1]);
+    h.event(egui::Event::PointerMoved(pos));
+    h.event(egui::Event::PointerButton {
+        pos,
+        button: egui::PointerButton::Primary,
+        pressed: true,
+        modifiers: egui::Modifiers::NONE,
+    });
+    h.event(egui::Event::PointerButton {
+        pos,
+        button: egui::PointerButton::Primary,
+        pressed: false,
+        modifiers: egui::Modifiers::NONE,
+    });
+    h.run();
+    let expected = planewise::mechanics::stereonet::pole_at(0.5, 0.0).unwrap();
+    let got = h.state().document.plane.vector();
+    assert!(
+        (got.dot(&expected).abs() - 1.0).abs() < 1e-3,
+        "plane {got} vs pole {expected}"
+    );
+    // The map's plane change is undoable like any other.
+    h.key_press_modifiers(egui::Modifiers::COMMAND, egui::Key::Z);
+    h.run();
+    assert_eq!(
+        h.state().document.plane,
+        planewise::app::Document::demo().plane
+    );
+}
+
+#[test]
+fn go_to_worst_plane_sets_a_worst_plane() {
+    let mut h = harness();
+    h.get_by_label("go to worst plane 1").click();
+    h.run();
+    let a = Analysis::new(&h.state().document.tensor, SignConvention::TensionPositive);
+    let n = h.state().document.plane.vector();
+    let expected = a.max_shear_normals;
+    assert!(
+        expected
+            .iter()
+            .any(|e| (e.dot(&n).abs() - 1.0).abs() < 1e-9),
+        "plane {n} is not a max-shear plane"
+    );
 }

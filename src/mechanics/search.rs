@@ -157,7 +157,7 @@ pub struct SearchResult {
 /// Principal values and directions in the measure's convention and the constants of its
 /// formula: the measure as a function of a plane's orientation.
 #[derive(Clone, Copy, Debug)]
-pub(crate) struct Objective {
+pub struct Objective {
     measure: Measure,
     s: [f64; 3],
     directions: [Vector3<f64>; 3],
@@ -168,7 +168,8 @@ pub(crate) struct Objective {
 
 impl Objective {
     /// The objective for `tensor` and `settings`.
-    pub(crate) fn new(tensor: &StressTensor, settings: &SearchSettings) -> Self {
+    #[must_use]
+    pub fn new(tensor: &StressTensor, settings: &SearchSettings) -> Self {
         let convention = settings.measure.convention(settings.convention);
         let principal = Analysis::new(tensor, convention).principal;
         let (cohesion_pa, tan_phi) = settings.material.map_or((0.0, 0.0), |m| {
@@ -185,7 +186,8 @@ impl Objective {
     }
 
     /// The measure on the plane with unit normal `n` (either sign).
-    pub(crate) fn at_normal(&self, n: &Vector3<f64>) -> Option<f64> {
+    #[must_use]
+    pub fn at_normal(&self, n: &Vector3<f64>) -> Option<f64> {
         let [l, m, k] = self.directions.map(|d| n.dot(&d));
         self.value(l * l, m * m, k * k)
     }

@@ -2,6 +2,7 @@
 //! for as [`Command`]s; no mechanics is computed here beyond what a panel shows.
 
 pub mod export_panel;
+pub mod map_panel;
 pub mod plane_panel;
 pub mod results_panel;
 pub mod stress_panel;

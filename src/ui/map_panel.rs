@@ -1,0 +1,223 @@
+//! The orientation map tab and the worst-plane controls: every plane's pole on the equal-area
+//! net coloured by the chosen measure; hover names the plane and its value; a click sets the cut
+//! plane.
+
+use crate::app::{Command, Document, Settings};
+use crate::draw::egui_backend;
+use crate::draw::map::{MapMarks, disc_geometry, map_frame};
+use crate::format::sig;
+use crate::mechanics::criteria::MohrCoulomb;
+use crate::mechanics::search::{Measure, SearchSettings, worst_plane};
+use crate::mechanics::stereonet::{orientation_map, pole_at};
+use crate::mechanics::{Analysis, PlaneNormal};
+
+/// The measure and its parameters as the user set them (stresses in pascals).
+#[derive(Clone, Copy, Debug, PartialEq, serde::Serialize, serde::Deserialize)]
+#[serde(default)]
+pub struct MeasureChoice {
+    /// The measure.
+    pub measure: Measure,
+    /// Pore pressure, Pa (compression positive).
+    pub pore_pressure_pa: f64,
+    /// Cohesion, Pa.
+    pub cohesion_pa: f64,
+    /// Friction angle, degrees.
+    pub friction_angle_deg: f64,
+}
+
+impl Default for MeasureChoice {
+    fn default() -> Self {
+        Self {
+            measure: Measure::Shear,
+            pore_pressure_pa: 0.0,
+            cohesion_pa: 5e6,
+            friction_angle_deg: 30.0,
+        }
+    }
+}
+
+impl MeasureChoice {
+    /// The search settings in the display convention.
+    #[must_use]
+    pub fn settings(&self, settings: &Settings) -> SearchSettings {
+        SearchSettings {
+            measure: self.measure,
+            convention: settings.convention,
+            pore_pressure_pa: self.pore_pressure_pa,
+            material: MohrCoulomb::new(self.cohesion_pa, self.friction_angle_deg).ok(),
+        }
+    }
+}
+
+/// Value text for a measure.
+fn value_text(measure: Measure, v: f64, settings: &Settings) -> String {
+    if measure.is_stress() {
+        format!("{} {}", sig(settings.unit.from_pa(v), 5), settings.unit)
+    } else {
+        sig(v, 5)
+    }
+}
+
+/// The worst-plane controls (in the cut-plane column).
+pub fn worst_plane_ui(
+    ui: &mut egui::Ui,
+    doc: &Document,
+    settings: &mut Settings,
+    out: &mut Vec<Command>,
+) {
+    ui.heading("Worst plane");
+    let choice = &mut settings.measure;
+    egui::ComboBox::from_label("measure")
+        .selected_text(choice.measure.key())
+        .show_ui(ui, |ui| {
+            for m in Measure::ALL {
+                ui.selectable_value(&mut choice.measure, m, m.key());
+            }
+        });
+    let unit = settings.unit;
+    if matches!(choice.measure, Measure::SlipTendency | Measure::MohrCoulomb) {
+        let mut p = unit.from_pa(choice.pore_pressure_pa);
+        ui.horizontal(|ui| {
+            ui.label("pore pressure p");
+            ui.add(
+                egui::DragValue::new(&mut p)
+                    .speed(0.1)
+                    .suffix(format!(" {unit}")),
+            )
+            .on_hover_text("Compression positive; effective normal stress σn' = σn − p");
+        });
+        choice.pore_pressure_pa = unit.to_pa(p);
+    }
+    if choice.measure == Measure::MohrCoulomb {
+        let mut c = unit.from_pa(choice.cohesion_pa);
+        ui.horizontal(|ui| {
+            ui.label("cohesion c");
+            ui.add(
+                egui::DragValue::new(&mut c)
+                    .speed(0.1)
+                    .range(0.0..=f64::MAX)
+                    .suffix(format!(" {unit}")),
+            );
+            ui.label("friction φ");
+            ui.add(
+                egui::DragValue::new(&mut choice.friction_angle_deg)
+                    .speed(0.2)
+                    .range(0.0..=89.0)
+                    .suffix("°"),
+            );
+        });
+        choice.cohesion_pa = unit.to_pa(c);
+        ui.small("U = τ / (c + (σn − p) tan φ), compression positive");
+    }
+    let search = settings.measure.settings(settings);
+    match worst_plane(&doc.tensor, &search) {
+        Ok(result) => {
+            let text = result.value.map_or_else(
+                || {
+                    "undefined — planes with no frictional capacity exist (effective tension)"
+                        .to_owned()
+                },
+                |v| value_text(search.measure, v, settings),
+            );
+            ui.label(format!("worst value: {text}"));
+            ui.label(format!("{} plane(s) attain it", result.planes.len()));
+            ui.horizontal_wrapped(|ui| {
+                for (i, p) in result.planes.iter().enumerate() {
+                    let tip = format!(
+                        "dip {}° / dip direction {}°, σn {}, τ {}",
+                        sig(p.dip_deg, 4),
+                        sig(p.dip_direction_deg, 4),
+                        value_text(Measure::Shear, p.normal_stress_pa, settings),
+                        value_text(Measure::Shear, p.shear_stress_pa, settings)
+                    );
+                    if ui
+                        .small_button(format!("go to worst plane {}", i + 1))
+                        .on_hover_text(tip)
+                        .clicked()
+                    {
+                        out.push(Command::Edit {
+                            document: Document {
+                                plane: p.normal,
+                                ..doc.clone()
+                            },
+                            coalesce: None,
+                        });
+                    }
+                }
+            });
+        }
+        Err(e) => {
+            ui.colored_label(ui.visuals().error_fg_color, format!("⚠ {e}"));
+        }
+    }
+}
+
+/// The orientation map tab.
+pub fn map_ui(ui: &mut egui::Ui, doc: &Document, settings: &Settings, out: &mut Vec<Command>) {
+    let search = settings.measure.settings(settings);
+    let size = ui.available_size().max(egui::vec2(200.0, 160.0));
+    let (rect, response) = ui.allocate_exact_size(size, egui::Sense::click());
+    let map = orientation_map(&doc.tensor, &search, 128);
+    let worst = worst_plane(&doc.tensor, &search)
+        .map(|r| r.planes)
+        .unwrap_or_default();
+    let shown = Analysis::new(&doc.tensor, settings.convention);
+    let marks = MapMarks {
+        principal: shown.principal.directions,
+        plane: Some(doc.plane),
+        worst: worst.iter().map(|p| p.normal).collect(),
+    };
+    let unit = settings.unit;
+    let is_stress = search.measure.is_stress();
+    let label = move |v: f64| {
+        if is_stress {
+            format!("{} {unit}", sig(unit.from_pa(v), 4))
+        } else {
+            sig(v, 4)
+        }
+    };
+    let title = format!(
+        "Orientation map: {} ({})",
+        search.measure.key(),
+        settings.convention.key()
+    );
+    let frame = map_frame(
+        &map,
+        &marks,
+        &title,
+        &label,
+        rect.width() as u32,
+        rect.height() as u32,
+    );
+    ui.painter_at(rect)
+        .extend(egui_backend::shapes(&frame, rect, ui.ctx()));
+
+    let (centre, r) = disc_geometry(rect.width(), rect.height());
+    let to_map = |pos: egui::Pos2| {
+        let x = f64::from((pos.x - rect.min.x - centre[0]) / r);
+        let y = f64::from(-(pos.y - rect.min.y - centre[1]) / r);
+        pole_at(x, y).and_then(|pole| PlaneNormal::from_vector(pole).ok())
+    };
+    let hover = response.hover_pos().and_then(to_map);
+    let response = response.on_hover_text(match hover {
+        Some(n) => {
+            let (dip, dd) = n.dip_deg();
+            let value = crate::mechanics::search::Objective::new(&doc.tensor, &search)
+                .at_normal(&n.vector())
+                .map_or_else(|| "undefined (no frictional capacity)".to_owned(), label);
+            format!("pole of dip {}° / dip direction {}°: {} = {value}. Click to make it the cut plane.", sig(dip, 4), sig(dd, 4), search.measure.key())
+        }
+        None => "Orientation map: hover a pole for its plane and value; click to set the cut plane.".to_owned(),
+    });
+    if response.clicked()
+        && let Some(n) = response.interact_pointer_pos().and_then(to_map)
+    {
+        out.push(Command::Edit {
+            document: Document {
+                plane: n,
+                ..doc.clone()
+            },
+            coalesce: None,
+        });
+    }
+}
