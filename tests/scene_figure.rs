@@ -25,16 +25,7 @@ fn demo_tensor() -> StressTensor {
 }
 
 fn only(layers: impl Fn(&mut Layers)) -> Layers {
-    let mut l = Layers {
-        cube: false,
-        face_tractions: false,
-        cut_plane: false,
-        ellipsoid: false,
-        principal_axes: false,
-        labels: false,
-        triad: false,
-        legend: false,
-    };
+    let mut l = Layers::none();
     layers(&mut l);
     l
 }

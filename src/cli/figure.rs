@@ -59,16 +59,7 @@ pub fn parse_size(text: &str) -> Result<(u32, u32), ArgError> {
 
 /// Parses a layer list.
 pub fn parse_layers(text: &str) -> Result<Layers, ArgError> {
-    let mut l = Layers {
-        cube: false,
-        face_tractions: false,
-        cut_plane: false,
-        ellipsoid: false,
-        principal_axes: false,
-        labels: false,
-        triad: false,
-        legend: false,
-    };
+    let mut l = Layers::none();
     for name in text.split(',').map(str::trim).filter(|s| !s.is_empty()) {
         let flag = match name {
             "cube" => &mut l.cube,

@@ -54,6 +54,23 @@ impl Default for Layers {
     }
 }
 
+impl Layers {
+    /// Every layer switched off (a starting point for choosing a few).
+    #[must_use]
+    pub fn none() -> Self {
+        Self {
+            cube: false,
+            face_tractions: false,
+            cut_plane: false,
+            ellipsoid: false,
+            principal_axes: false,
+            labels: false,
+            triad: false,
+            legend: false,
+        }
+    }
+}
+
 /// The six cube faces, by outward normal.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, Serialize, Deserialize)]
 pub enum Face {
