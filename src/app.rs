@@ -378,22 +378,8 @@ impl PlanewiseApp {
                     self.document = document;
                 }
             }
-            Command::Undo => {
-                if let Some(previous) = self.history.undo.pop() {
-                    let current = std::mem::replace(&mut self.document, previous);
-                    self.history.redo.push(current);
-                    self.history.break_run();
-                    self.after_external_change();
-                }
-            }
-            Command::Redo => {
-                if let Some(next) = self.history.redo.pop() {
-                    let current = std::mem::replace(&mut self.document, next);
-                    self.history.undo.push(current);
-                    self.history.break_run();
-                    self.after_external_change();
-                }
-            }
+            Command::Undo => self.step_history(true),
+            Command::Redo => self.step_history(false),
             Command::ResetToDemo => {
                 let demo = Document::demo();
                 if demo != self.document {
@@ -456,6 +442,21 @@ impl PlanewiseApp {
             }
             Command::ExportTo(path) => self.export_to(&path),
             Command::ShowAbout => self.about_open = true,
+        }
+    }
+
+    /// Moves one step back (undo) or forward (redo) through the history.
+    fn step_history(&mut self, back: bool) {
+        let history = &mut self.history;
+        let (from, to) = if back {
+            (&mut history.undo, &mut history.redo)
+        } else {
+            (&mut history.redo, &mut history.undo)
+        };
+        if let Some(document) = from.pop() {
+            to.push(std::mem::replace(&mut self.document, document));
+            self.history.break_run();
+            self.after_external_change();
         }
     }
 
