@@ -22,6 +22,7 @@ fn demo_input(t: &StressTensor) -> SceneInput<'_> {
             ..Layers::default()
         },
         faces: FaceChoice::FacingViewer,
+        worst_planes: &[],
     }
 }
 

@@ -74,6 +74,8 @@ pub struct Settings {
     pub measure: ui::map_panel::MeasureChoice,
     /// Which picture the central area shows.
     pub central: Central,
+    /// Draw the Mohr–Coulomb envelope on the Mohr circles.
+    pub mohr_envelope: bool,
 }
 
 /// The pictures the central area can show.
@@ -84,6 +86,8 @@ pub enum Central {
     View3d,
     /// The orientation map.
     Map,
+    /// The Mohr circles.
+    Mohr,
 }
 
 impl Default for Settings {
@@ -97,6 +101,7 @@ impl Default for Settings {
             export_size: [1600, 1200],
             measure: ui::map_panel::MeasureChoice::default(),
             central: Central::View3d,
+            mohr_envelope: false,
         }
     }
 }
@@ -134,6 +139,10 @@ pub enum Coalesce {
     PlaneDip,
     /// Dragging the angle sliders.
     PlaneAngles,
+    /// One drag in the Mohr diagram (the drag's serial number).
+    MohrDrag(u64),
+    /// One drag of the normal's handle in the 3D view (the drag's serial number).
+    NormalHandle(u64),
 }
 
 /// What a panel asks for; applied by the app after the frame.
@@ -332,9 +341,9 @@ impl PlanewiseApp {
         }
     }
 
-    /// The scene input for the current state.
+    /// The scene input for the current state, with the worst planes to draw.
     #[must_use]
-    pub fn scene_input(&self) -> SceneInput<'_> {
+    pub fn scene_input<'a>(&'a self, worst_planes: &'a [PlaneNormal]) -> SceneInput<'a> {
         SceneInput {
             tensor: &self.document.tensor,
             plane: self.document.plane,
@@ -342,14 +351,26 @@ impl PlanewiseApp {
             convention: self.settings.convention,
             layers: self.settings.layers,
             faces: self.settings.faces,
+            worst_planes,
         }
     }
 
-    /// The figure at the export size (the same drawing as `planewise figure`).
+    /// The picture the central area shows (3D view, orientation map or Mohr circles) at the
+    /// export size, from the same drawing code as the screen and the command line.
     #[must_use]
     pub fn export_frame(&self) -> crate::draw::Frame {
         let [w, h] = self.settings.export_size;
-        crate::draw::figure(&self.scene_input(), &self.settings.camera, w, h)
+        let (doc, settings) = (&self.document, &self.settings);
+        match settings.central {
+            Central::View3d => {
+                let worst = ui::view_panel::worst_normals(doc, settings);
+                crate::draw::figure(&self.scene_input(&worst), &settings.camera, w, h)
+            }
+            Central::Map => ui::map_panel::map_figure(doc, settings, 256, w, h),
+            Central::Mohr => {
+                crate::draw::mohr::mohr_frame(&ui::mohr_panel::figure(doc, settings), w, h)
+            }
+        }
     }
 
     fn set_status(&mut self, text: impl Into<String>, error: bool) {
@@ -570,6 +591,7 @@ impl PlanewiseApp {
             ui.horizontal(|ui| {
                 ui.selectable_value(&mut self.settings.central, Central::View3d, "3D view");
                 ui.selectable_value(&mut self.settings.central, Central::Map, "Orientation map");
+                ui.selectable_value(&mut self.settings.central, Central::Mohr, "Mohr circles");
             });
             match self.settings.central {
                 Central::View3d => {
@@ -577,6 +599,9 @@ impl PlanewiseApp {
                 }
                 Central::Map => {
                     ui::map_panel::map_ui(ui, &self.document, &self.settings, &mut commands);
+                }
+                Central::Mohr => {
+                    ui::mohr_panel::mohr_ui(ui, &self.document, &mut self.settings, &mut commands);
                 }
             }
         });

@@ -58,6 +58,16 @@ fn type_into(h: &mut Harness<'static, PlanewiseApp>, name: &str, text: &str) {
     }
 }
 
+/// One Ctrl+Z brings back the demo's plane.
+fn undo_restores_the_demo_plane(h: &mut Harness<'static, PlanewiseApp>) {
+    h.key_press_modifiers(egui::Modifiers::COMMAND, egui::Key::Z);
+    h.run();
+    assert_eq!(
+        h.state().document.plane,
+        planewise::app::Document::demo().plane
+    );
+}
+
 #[test]
 fn typing_a_cell_changes_the_results_and_its_mirror() {
     let mut h = harness();
@@ -250,12 +260,7 @@ fn clicking_the_orientation_map_sets_the_plane() {
         "plane {got} vs pole {expected}"
     );
     // The map's plane change is undoable like any other.
-    h.key_press_modifiers(egui::Modifiers::COMMAND, egui::Key::Z);
-    h.run();
-    assert_eq!(
-        h.state().document.plane,
-        planewise::app::Document::demo().plane
-    );
+    undo_restores_the_demo_plane(&mut h);
 }
 
 #[test]
@@ -272,4 +277,124 @@ fn go_to_worst_plane_sets_a_worst_plane() {
             .any(|e| (e.dot(&n).abs() - 1.0).abs() < 1e-9),
         "plane {n} is not a max-shear plane"
     );
+}
+
+fn press_move_release(h: &mut Harness<'static, PlanewiseApp>, from: egui::Pos2, to: egui::Pos2) {
+    h.event(egui::Event::PointerMoved(from));
+    h.run();
+    h.event(egui::Event::PointerButton {
+        pos: from,
+        button: egui::PointerButton::Primary,
+        pressed: true,
+        modifiers: egui::Modifiers::NONE,
+    });
+    h.run();
+    for k in 1..=8 {
+        let p = from + (to - from) * (k as f32 / 8.0);
+        h.event(egui::Event::PointerMoved(p));
+        h.run();
+    }
+    h.event(egui::Event::PointerButton {
+        pos: to,
+        button: egui::PointerButton::Primary,
+        pressed: false,
+        modifiers: egui::Modifiers::NONE,
+    });
+    h.run();
+}
+
+#[test]
+fn clicking_the_mohr_diagram_moves_the_plane_to_that_point() {
+    use planewise::draw::mohr::MohrLayout;
+    use planewise::mechanics::PlaneNormal;
+    use planewise::mechanics::mohr::MohrCircles;
+    let mut h = harness();
+    h.get_by_label("Mohr circles").click();
+    h.run();
+    let rect = h
+        .get_by_label_contains("hover a point to name its plane")
+        .rect();
+    let figure = planewise::ui::mohr_panel::figure(&h.state().document, &h.state().settings);
+    let layout = MohrLayout::new(&figure, rect.width().floor(), rect.height().floor());
+    // Aim at the point of the horizontal plane.
+    let t = h.state().document.tensor;
+    let circles = MohrCircles::new(&t, SignConvention::TensionPositive);
+    let (sn, tau) = circles.point(&t, PlaneNormal::Z);
+    let at = layout.to_px(sn, tau);
+    let pos = rect.min + egui::vec2(at[0], at[1]);
+    h.event(egui::Event::PointerMoved(pos));
+    for pressed in [true, false] {
+        h.event(egui::Event::PointerButton {
+            pos,
+            button: egui::PointerButton::Primary,
+            pressed,
+            modifiers: egui::Modifiers::NONE,
+        });
+    }
+    h.run();
+    // The new plane's point is drawn under the pointer. The side panels grow and shrink a few
+    // pixels with the width of the numbers they show, which rescales the picture a little after
+    // the click, so allow a few pixels.
+    let (sn2, tau2) = circles.point(&t, h.state().document.plane);
+    h.event(egui::Event::PointerGone);
+    h.run();
+    let rect_now = h
+        .get_by_label_contains("hover a point to name its plane")
+        .rect();
+    let figure = planewise::ui::mohr_panel::figure(&h.state().document, &h.state().settings);
+    let layout_now = MohrLayout::new(&figure, rect_now.width().floor(), rect_now.height().floor());
+    let drawn = rect_now.min + egui::Vec2::from(layout_now.to_px(sn2, tau2));
+    assert!(
+        drawn.distance(pos) < 6.0,
+        "point drawn at {drawn:?}, clicked at {pos:?}"
+    );
+    assert_ne!(
+        h.state().document.plane,
+        planewise::app::Document::demo().plane
+    );
+    undo_restores_the_demo_plane(&mut h);
+}
+
+#[test]
+fn dragging_the_normal_handle_turns_the_plane_in_one_undo_step() {
+    use planewise::scene::{NORMAL_LENGTH, Scene};
+    let mut h = harness();
+    let rect = h.get_by_label_contains("Drag the white handle").rect();
+    let app = h.state();
+    let camera = app.settings.camera;
+    let scene = Scene::build(&app.scene_input(&[]), &camera.towards_eye());
+    let view = camera.screen_from_world(
+        f64::from(rect.width()),
+        f64::from(rect.height()),
+        scene.radius(),
+    );
+    let tip = view.project(&nalgebra::Point3::from(
+        app.document.plane.vector() * NORMAL_LENGTH,
+    ));
+    let origin = view.project(&nalgebra::Point3::origin());
+    let from = rect.min + egui::vec2(tip.x as f32, tip.y as f32);
+    // Straight up from the centre of the picture, well inside the handle's sphere.
+    let target = [
+        origin.x,
+        origin.y - 0.5 * NORMAL_LENGTH * view.pixels_per_unit(),
+    ];
+    let to = rect.min + egui::vec2(target[0] as f32, target[1] as f32);
+    press_move_release(&mut h, from, to);
+    let expected = view
+        .sphere_direction_at(target[0], target[1], NORMAL_LENGTH)
+        .unwrap();
+    let got = h.state().document.plane.vector();
+    assert!((got - expected).norm() < 0.02, "plane {got} vs {expected}");
+    // The drag turned the plane, not the camera.
+    assert_eq!(h.state().settings.camera, camera);
+    // One undo step for the whole drag.
+    undo_restores_the_demo_plane(&mut h);
+    // A drag that starts away from the handle orbits instead.
+    let away = rect.min + egui::vec2(20.0, rect.height() - 20.0);
+    press_move_release(&mut h, away, away + egui::vec2(60.0, 0.0));
+    assert_eq!(
+        h.state().document.plane,
+        planewise::app::Document::demo().plane
+    );
+    assert_ne!(h.state().settings.camera, camera);
 }

@@ -38,6 +38,7 @@ fn input(t: &StressTensor, layers: Layers) -> SceneInput<'_> {
         convention: SignConvention::TensionPositive,
         layers,
         faces: FaceChoice::Chosen([true; 6]),
+        worst_planes: &[],
     }
 }
 
@@ -291,4 +292,60 @@ fn the_sigma1_arrow_tip_has_the_arrows_colour() {
         (px.red(), px.green(), px.blue()),
         c
     );
+}
+
+#[test]
+fn the_normal_handle_sits_at_the_tip_of_the_normal() {
+    let t = demo_tensor();
+    let scene = Scene::build(&input(&t, only(|l| l.cut_plane = true)), &Vector3::z());
+    let n = PlaneNormal::from_vector(Vector3::new(1.0, 0.5, 0.3)).unwrap();
+    assert_eq!(scene.handles.len(), 1);
+    let tip = Point3::from(n.vector() * planewise::scene::NORMAL_LENGTH);
+    assert!((scene.handles[0].at - tip).norm() < 1e-12);
+    // The normal arrow ends there too.
+    assert!(scene.arrows.iter().any(|a| (a.to - tip).norm() < 1e-12));
+    // No cut plane, no handle.
+    let scene = Scene::build(&input(&t, only(|l| l.cube = true)), &Vector3::z());
+    assert!(scene.handles.is_empty());
+}
+
+#[test]
+fn worst_planes_are_outlined_in_their_planes_on_the_cube() {
+    let t = demo_tensor();
+    let worst = [
+        PlaneNormal::from_vector(Vector3::new(1.0, 0.0, 1.0)).unwrap(),
+        PlaneNormal::from_vector(Vector3::new(-1.0, 0.0, 1.0)).unwrap(),
+    ];
+    let scene_input = SceneInput {
+        worst_planes: &worst,
+        ..input(&t, only(|l| l.worst_planes = true))
+    };
+    let scene = Scene::build(&scene_input, &Vector3::z());
+    let outline: Vec<&Segment> = scene
+        .segments
+        .iter()
+        .filter(|s| s.color == style::WORST_PLANE)
+        .collect();
+    // Each plane through the centre at 45° cuts the cube in a rectangle: 4 edges each.
+    assert_eq!(outline.len(), 8);
+    for s in &outline {
+        let on_some_plane = worst.iter().any(|n| {
+            n.vector().dot(&s.a.coords).abs() < 1e-12 && n.vector().dot(&s.b.coords).abs() < 1e-12
+        });
+        assert!(on_some_plane);
+        for p in [s.a, s.b] {
+            let max = p.coords.amax();
+            assert!(
+                (max - 0.5).abs() < 1e-12,
+                "{p} is not on the cube's surface"
+            );
+        }
+    }
+    // The layer off draws nothing of them even with planes given.
+    let off = SceneInput {
+        worst_planes: &worst,
+        ..input(&t, only(|l| l.cube = true))
+    };
+    let scene = Scene::build(&off, &Vector3::z());
+    assert!(!scene.segments.iter().any(|s| s.color == style::WORST_PLANE));
 }

@@ -4,10 +4,12 @@ use std::path::PathBuf;
 
 use clap::Args;
 
+use super::worst_plane::{MaterialArgs, parse_measure, search_settings};
 use super::{ArgError, CliError, PlaneArgs, StressArgs};
 use crate::draw::camera::{Camera, Projection, ViewPreset};
 use crate::export::{self, ImageFormat};
 use crate::mechanics::PlaneNormal;
+use crate::mechanics::search::worst_plane;
 use crate::scene::{FaceChoice, Layers, SceneInput};
 
 /// Arguments of `planewise figure`.
@@ -38,6 +40,12 @@ pub struct FigureArgs {
     /// triad, legend. Default: all but the ellipsoid (plane only when a plane is given).
     #[arg(long, value_name = "LIST")]
     pub layers: Option<String>,
+    /// Also draw the worst planes for this measure (shear, normal-max, normal-min, traction,
+    /// slip-tendency, dilation-tendency, mohr-coulomb).
+    #[arg(long, value_name = "MEASURE")]
+    pub measure: Option<String>,
+    #[command(flatten)]
+    pub material: MaterialArgs,
 }
 
 /// Parses `WIDTHxHEIGHT`.
@@ -110,6 +118,19 @@ pub fn run(args: &FigureArgs) -> Result<String, CliError> {
     if args.perspective {
         camera.projection = Projection::Perspective;
     }
+    let worst: Vec<PlaneNormal> = match &args.measure {
+        Some(key) => {
+            let settings = search_settings(parse_measure(key)?, &args.material, &input)?;
+            layers.worst_planes = true;
+            worst_plane(&input.tensor, &settings)
+                .map_err(|e| ArgError::new("--measure", e))?
+                .planes
+                .iter()
+                .map(|p| p.normal)
+                .collect()
+        }
+        None => Vec::new(),
+    };
     let scene_input = SceneInput {
         tensor: &input.tensor,
         plane: plane.unwrap_or(PlaneNormal::Z),
@@ -117,6 +138,7 @@ pub fn run(args: &FigureArgs) -> Result<String, CliError> {
         convention: input.convention,
         layers,
         faces: FaceChoice::FacingViewer,
+        worst_planes: &worst,
     };
     let frame = crate::draw::figure(&scene_input, &camera, w, h);
     export::write_figure(&args.out, &frame, crate::SAFETY_NOTE).map_err(anyhow::Error::from)?;

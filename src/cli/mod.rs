@@ -6,6 +6,7 @@
 pub mod analyze;
 pub mod figure;
 pub mod map;
+pub mod mohr;
 pub mod worst_plane;
 
 use clap::{Args, Parser, Subcommand};
@@ -50,6 +51,10 @@ pub enum Command {
     /// Every plane orientation on an equal-area projection, coloured by a measure, as SVG or PNG.
     #[command(after_help = CONVENTIONS)]
     Map(map::MapArgs),
+    /// The three Mohr circles with the admissible region, the cut plane's point, the worst planes
+    /// of a measure and the Mohr–Coulomb envelope, as SVG or PNG.
+    #[command(after_help = CONVENTIONS)]
+    Mohr(mohr::MohrArgs),
 }
 
 /// The stress state, as every subcommand takes it.
@@ -175,5 +180,6 @@ pub fn run(command: &Command) -> Result<String, CliError> {
         Command::Figure(args) => figure::run(args),
         Command::WorstPlane(args) => worst_plane::run(args),
         Command::Map(args) => map::run(args),
+        Command::Mohr(args) => mohr::run(args),
     }
 }

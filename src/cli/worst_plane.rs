@@ -11,12 +11,9 @@ use crate::mechanics::criteria::{Condition, CriterionError, MohrCoulomb};
 use crate::mechanics::search::{Measure, SearchSettings, worst_plane};
 use crate::parse;
 
-/// The measure and its parameters, shared by `worst-plane` and `map`.
+/// Pore pressure and Mohr–Coulomb material, shared by `worst-plane`, `map` and `mohr`.
 #[derive(Debug, Clone, Args)]
-pub struct MeasureArgs {
-    /// shear, normal-max, normal-min, traction, slip-tendency, dilation-tendency or mohr-coulomb.
-    #[arg(long, value_name = "MEASURE")]
-    pub measure: String,
+pub struct MaterialArgs {
     /// Pore pressure p in the stress unit (compression positive), for slip-tendency and
     /// mohr-coulomb.
     #[arg(long, value_name = "P", allow_hyphen_values = true)]
@@ -29,18 +26,10 @@ pub struct MeasureArgs {
     pub friction_angle: Option<String>,
 }
 
-impl MeasureArgs {
-    /// Reads the measure and its parameters (stresses in `input.unit`).
-    pub fn read(&self, input: &StressInput) -> Result<SearchSettings, ArgError> {
-        let measure = Measure::from_key(&self.measure).ok_or_else(|| {
-            ArgError::new(
-                "--measure",
-                format!(
-                    "unknown measure '{}' (expected shear, normal-max, normal-min, traction, slip-tendency, dilation-tendency, mohr-coulomb)",
-                    self.measure
-                ),
-            )
-        })?;
+impl MaterialArgs {
+    /// The pore pressure (Pa, 0 when not given) and the material, if both cohesion and friction
+    /// angle are given (stresses in `input.unit`).
+    pub fn read(&self, input: &StressInput) -> Result<(f64, Option<MohrCoulomb>), ArgError> {
         let unit = input.unit;
         let stress_arg =
             |name: &'static str, text: &Option<String>| -> Result<Option<f64>, ArgError> {
@@ -82,18 +71,57 @@ impl MeasureArgs {
                 ));
             }
         };
-        if measure == Measure::MohrCoulomb && material.is_none() {
-            return Err(ArgError::new(
-                "--measure",
-                "mohr-coulomb needs --cohesion and --friction-angle",
-            ));
-        }
-        Ok(SearchSettings {
-            measure,
-            convention: input.convention,
-            pore_pressure_pa,
-            material,
-        })
+        Ok((pore_pressure_pa, material))
+    }
+}
+
+/// Parses a measure key; the error names `--measure` and lists the keys.
+pub fn parse_measure(key: &str) -> Result<Measure, ArgError> {
+    Measure::from_key(key).ok_or_else(|| {
+        ArgError::new(
+            "--measure",
+            format!(
+                "unknown measure '{key}' (expected shear, normal-max, normal-min, traction, slip-tendency, dilation-tendency, mohr-coulomb)"
+            ),
+        )
+    })
+}
+
+/// The search settings for `measure`; mohr-coulomb without a material is bad input.
+pub fn search_settings(
+    measure: Measure,
+    material: &MaterialArgs,
+    input: &StressInput,
+) -> Result<SearchSettings, ArgError> {
+    let (pore_pressure_pa, material) = material.read(input)?;
+    if measure == Measure::MohrCoulomb && material.is_none() {
+        return Err(ArgError::new(
+            "--measure",
+            "mohr-coulomb needs --cohesion and --friction-angle",
+        ));
+    }
+    Ok(SearchSettings {
+        measure,
+        convention: input.convention,
+        pore_pressure_pa,
+        material,
+    })
+}
+
+/// The measure and its parameters, shared by `worst-plane` and `map`.
+#[derive(Debug, Clone, Args)]
+pub struct MeasureArgs {
+    /// shear, normal-max, normal-min, traction, slip-tendency, dilation-tendency or mohr-coulomb.
+    #[arg(long, value_name = "MEASURE")]
+    pub measure: String,
+    #[command(flatten)]
+    pub material: MaterialArgs,
+}
+
+impl MeasureArgs {
+    /// Reads the measure and its parameters (stresses in `input.unit`).
+    pub fn read(&self, input: &StressInput) -> Result<SearchSettings, ArgError> {
+        search_settings(parse_measure(&self.measure)?, &self.material, input)
     }
 }
 

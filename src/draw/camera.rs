@@ -228,6 +228,40 @@ impl ScreenFromWorld {
         [d.dot(&self.right), -d.dot(&self.up)]
     }
 
+    /// The unit direction from the origin to the point of the sphere of `radius` (world units)
+    /// about the origin that is seen at pixel (`x`, `y`): the half of the sphere facing the eye,
+    /// or, off the sphere's outline, the nearest point of the outline. `None` only for a
+    /// degenerate view (the pixel at the projected origin with nothing to pick).
+    #[must_use]
+    pub fn sphere_direction_at(&self, x: f64, y: f64, radius: f64) -> Option<Vector3<f64>> {
+        let (dx, dy) = (x - self.centre[0], self.centre[1] - y);
+        // Perspective scale depends on depth, which depends on the answer: iterate (it
+        // contracts quickly because the eye is four cube edges away).
+        let mut depth = 0.0;
+        let mut point = Vector3::zeros();
+        for _ in 0..if self.perspective { 12 } else { 1 } {
+            let k = if self.perspective {
+                EYE_DISTANCE / (EYE_DISTANCE + depth).max(0.2 * EYE_DISTANCE)
+            } else {
+                1.0
+            };
+            let (u, v) = (
+                dx / (k * self.pixels_per_unit),
+                dy / (k * self.pixels_per_unit),
+            );
+            let r2 = u * u + v * v;
+            if r2 <= radius * radius {
+                // Nearer the eye is smaller depth (forward points away from the eye).
+                depth = -(radius * radius - r2).sqrt();
+                point = self.right * u + self.up * v + self.forward * depth;
+            } else {
+                depth = 0.0;
+                point = (self.right * u + self.up * v) * (radius / r2.sqrt());
+            }
+        }
+        point.try_normalize(1e-12)
+    }
+
     /// Pixels per world unit at depth 0.
     #[must_use]
     pub fn pixels_per_unit(&self) -> f64 {

@@ -5,7 +5,7 @@ use std::sync::Arc;
 
 use nalgebra::Vector3;
 
-use super::{Anchor, Frame, Prim, Sizes};
+use super::{Anchor, Frame, Prim, Sizes, marker};
 use crate::mechanics::PlaneNormal;
 use crate::mechanics::stereonet::{OrientationMap, project_pole, viridis};
 use crate::scene::style;
@@ -31,20 +31,6 @@ pub fn disc_geometry(width: f32, height: f32) -> ([f32; 2], f32) {
 /// Pixel position of map point (X east, Y north).
 fn to_px(centre: [f32; 2], r: f32, xy: [f64; 2]) -> [f32; 2] {
     [centre[0] + xy[0] as f32 * r, centre[1] - xy[1] as f32 * r]
-}
-
-fn marker(frame: &mut Frame, at: [f32; 2], size: f32, sides: usize, fill: style::Rgba) {
-    let points = (0..sides)
-        .map(|i| {
-            let a = std::f32::consts::TAU * i as f32 / sides as f32 - std::f32::consts::FRAC_PI_2;
-            [at[0] + size * a.cos(), at[1] + size * a.sin()]
-        })
-        .collect();
-    frame.prims.push(Prim::Polygon {
-        points,
-        fill,
-        outline: Some((style::INK, 1.0)),
-    });
 }
 
 /// The figure. `value_label` formats a value with its unit; `title` names the measure.
@@ -138,13 +124,12 @@ pub fn map_frame(
     for (i, d) in marks.principal.iter().enumerate() {
         if let Ok(n) = PlaneNormal::from_vector(*d) {
             let at = to_px(centre, r, project_pole(&n));
-            marker(
-                &mut frame,
+            frame.prims.push(marker(
                 at,
                 5.0 * sizes.line,
                 4,
                 style::Rgba::rgb(255, 255, 255),
-            );
+            ));
             text(
                 &mut frame,
                 [at[0] + 8.0 * sizes.line, at[1] - 8.0 * sizes.line],
@@ -155,7 +140,9 @@ pub fn map_frame(
     }
     if let Some(n) = marks.plane {
         let at = to_px(centre, r, project_pole(&n));
-        marker(&mut frame, at, 6.0 * sizes.line, 12, style::PLANE_NORMAL);
+        frame
+            .prims
+            .push(marker(at, 6.0 * sizes.line, 12, style::PLANE_NORMAL));
         text(
             &mut frame,
             [at[0] + 9.0 * sizes.line, at[1] + 9.0 * sizes.line],
@@ -165,7 +152,9 @@ pub fn map_frame(
     }
     for n in &marks.worst {
         let at = to_px(centre, r, project_pole(n));
-        marker(&mut frame, at, 7.0 * sizes.line, 3, style::TENSION);
+        frame
+            .prims
+            .push(marker(at, 7.0 * sizes.line, 3, style::WORST_PLANE));
     }
     // Colour bar.
     let bar_x = centre[0] + r + 0.16 * w.min(h);

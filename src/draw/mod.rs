@@ -12,6 +12,7 @@
 pub mod camera;
 pub mod egui_backend;
 pub mod map;
+pub mod mohr;
 pub mod png;
 pub mod svg;
 
@@ -130,6 +131,28 @@ impl Default for Sizes {
     }
 }
 
+/// The corners of a regular polygon with `sides` corners at `size` pixels from `at`, the first
+/// straight up.
+#[must_use]
+pub fn regular_polygon(at: Pos, size: f32, sides: usize) -> Vec<Pos> {
+    (0..sides)
+        .map(|i| {
+            let a = std::f32::consts::TAU * i as f32 / sides as f32 - std::f32::consts::FRAC_PI_2;
+            [at[0] + size * a.cos(), at[1] + size * a.sin()]
+        })
+        .collect()
+}
+
+/// A regular polygon marker centred on `at`, outlined in ink.
+#[must_use]
+pub fn marker(at: Pos, size: f32, sides: usize, fill: Rgba) -> Prim {
+    Prim::Polygon {
+        points: regular_polygon(at, size, sides),
+        fill,
+        outline: Some((style::INK, 1.0)),
+    }
+}
+
 /// Longest world length of one sorted piece of a line or shaft.
 const PIECE: f64 = 0.06;
 
@@ -227,6 +250,19 @@ pub fn render(scene: &Scene, camera: &Camera, width: f32, height: f32, sizes: Si
     }
     for arrow in &scene.arrows {
         push_arrow(&mut items, &view, arrow, sizes, &side_of);
+    }
+    // Handles after arrows, so that at equal depth (the normal's tip) the grip is on top.
+    for handle in &scene.handles {
+        let p = view.project(&handle.at);
+        items.push(Item {
+            depth: p.depth,
+            side: side_of(&handle.at),
+            prim: Prim::Polygon {
+                points: regular_polygon(pos(&p), handle.radius_px * sizes.line, 20),
+                fill: handle.fill,
+                outline: Some((handle.outline, 1.8 * sizes.line)),
+            },
+        });
     }
 
     back.sort_by(|a, b| b.depth.total_cmp(&a.depth));

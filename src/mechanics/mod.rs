@@ -4,6 +4,7 @@
 pub mod analysis;
 pub mod criteria;
 pub mod invariants;
+pub mod mohr;
 pub mod plane;
 pub mod principal;
 pub mod search;

@@ -37,6 +37,8 @@ pub struct Layers {
     pub triad: bool,
     /// The legend (arrow scale, unit, convention, colours).
     pub legend: bool,
+    /// The worst planes of the chosen measure (outline and normal).
+    pub worst_planes: bool,
 }
 
 impl Default for Layers {
@@ -50,6 +52,7 @@ impl Default for Layers {
             labels: true,
             triad: true,
             legend: true,
+            worst_planes: false,
         }
     }
 }
@@ -67,6 +70,7 @@ impl Layers {
             labels: false,
             triad: false,
             legend: false,
+            worst_planes: false,
         }
     }
 }
@@ -151,6 +155,8 @@ pub struct SceneInput<'a> {
     pub layers: Layers,
     /// Faces with traction arrows.
     pub faces: FaceChoice,
+    /// The worst planes of the chosen measure, drawn when that layer is on.
+    pub worst_planes: &'a [PlaneNormal],
 }
 
 /// An arrow from `from` to `to` (world units).
@@ -234,6 +240,24 @@ pub struct Legend {
     pub entries: Vec<LegendEntry>,
 }
 
+/// A round grip drawn at a world point on top of the geometry at its depth (the normal's
+/// handle, which the user drags).
+#[derive(Clone, Debug, PartialEq)]
+pub struct Handle {
+    /// Centre.
+    pub at: Point3<f64>,
+    /// Fill.
+    pub fill: Rgba,
+    /// Outline.
+    pub outline: Rgba,
+    /// Radius in pixels at the reference size.
+    pub radius_px: f32,
+}
+
+/// Length of the cut plane's unit-normal arrow in the picture, world units; the handle sits at
+/// its tip.
+pub const NORMAL_LENGTH: f64 = 0.45;
+
 /// The whole 3D picture.
 #[derive(Clone, Debug, PartialEq, Default)]
 pub struct Scene {
@@ -245,6 +269,8 @@ pub struct Scene {
     pub segments: Vec<Segment>,
     /// Arrows (tractions, principal axes, plane normal).
     pub arrows: Vec<Arrow>,
+    /// Grips the user can drag.
+    pub handles: Vec<Handle>,
     /// Value labels.
     pub labels: Vec<Label>,
     /// Legend, when that layer is on.
@@ -466,6 +492,9 @@ impl Scene {
         if layers.principal_axes {
             scene.add_principal_axes(&cx);
         }
+        if layers.worst_planes {
+            scene.add_worst_planes(&cx);
+        }
         if layers.legend {
             scene.add_legend(&cx);
         }
@@ -563,7 +592,19 @@ impl Scene {
             outline: Some(style::PLANE_NORMAL),
         });
         let origin = Point3::origin();
-        push_arrow(&mut self.arrows, origin, n * 0.45, style::PLANE_NORMAL, 1.6);
+        push_arrow(
+            &mut self.arrows,
+            origin,
+            n * NORMAL_LENGTH,
+            style::PLANE_NORMAL,
+            1.6,
+        );
+        self.handles.push(Handle {
+            at: origin + n * NORMAL_LENGTH,
+            fill: Rgba::rgb(255, 255, 255),
+            outline: style::PLANE_NORMAL,
+            radius_px: 5.5,
+        });
         let ps = PlaneStress::new(t, cx.input.plane, SignConvention::TensionPositive);
         let s = self.arrow_scale_per_pa;
         push_arrow(
@@ -589,7 +630,7 @@ impl Scene {
         );
         if cx.input.layers.labels {
             self.labels.push(Label {
-                at: origin + n * 0.47,
+                at: origin + n * (NORMAL_LENGTH + 0.03),
                 text: "n".to_owned(),
                 color: style::PLANE_NORMAL,
             });
@@ -666,6 +707,36 @@ impl Scene {
         }
     }
 
+    fn add_worst_planes(&mut self, cx: &Context<'_>) {
+        for (i, plane) in cx.input.worst_planes.iter().enumerate() {
+            let n = plane.vector();
+            let outline = cut_polygon(&n);
+            for (k, a) in outline.iter().enumerate() {
+                let b = outline[(k + 1) % outline.len()];
+                self.segments.push(Segment {
+                    a: *a,
+                    b,
+                    color: style::WORST_PLANE,
+                    width_px: 2.0,
+                });
+            }
+            push_arrow(
+                &mut self.arrows,
+                Point3::origin(),
+                n * (0.8 * NORMAL_LENGTH),
+                style::WORST_PLANE,
+                1.4,
+            );
+            if cx.input.layers.labels {
+                self.labels.push(Label {
+                    at: Point3::from(n * (0.8 * NORMAL_LENGTH + 0.03)),
+                    text: format!("worst {}", i + 1),
+                    color: style::WORST_PLANE,
+                });
+            }
+        }
+    }
+
     fn add_legend(&mut self, cx: &Context<'_>) {
         let sym = cx.input.unit.symbol();
         let bar_pa = nice_round(cx.max_abs_pa * 0.5);
@@ -680,13 +751,13 @@ impl Scene {
             } else {
                 "zero stress".to_owned()
             },
-            entries: legend_entries(cx.input.layers),
+            entries: legend_entries(cx.input.layers, !cx.input.worst_planes.is_empty()),
         });
     }
 }
 
 /// The colour key for the layers that are drawn.
-fn legend_entries(layers: Layers) -> Vec<LegendEntry> {
+fn legend_entries(layers: Layers, worst_planes: bool) -> Vec<LegendEntry> {
     let entry = |color, text: &str| LegendEntry {
         color,
         text: text.to_owned(),
@@ -703,6 +774,9 @@ fn legend_entries(layers: Layers) -> Vec<LegendEntry> {
     }
     if layers.cut_plane {
         out.push(entry(style::PLANE_NORMAL, "cut plane, normal n"));
+    }
+    if layers.worst_planes && worst_planes {
+        out.push(entry(style::WORST_PLANE, "worst planes (outline, normal)"));
     }
     if layers.ellipsoid {
         out.push(entry(

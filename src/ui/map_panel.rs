@@ -51,10 +51,55 @@ impl MeasureChoice {
 
 /// Value text for a measure.
 fn value_text(measure: Measure, v: f64, settings: &Settings) -> String {
-    if measure.is_stress() {
-        format!("{} {}", sig(settings.unit.from_pa(v), 5), settings.unit)
-    } else {
-        sig(v, 5)
+    label_for(measure, settings, 5)(v)
+}
+
+/// Pore pressure (when `pore`) and cohesion and friction angle (when `material`), edited in the
+/// display unit. Shared by the worst-plane controls and the Mohr tab.
+pub fn material_ui(
+    ui: &mut egui::Ui,
+    choice: &mut MeasureChoice,
+    unit: crate::mechanics::StressUnit,
+    pore: bool,
+    material: bool,
+) {
+    if pore {
+        let mut p = unit.from_pa(choice.pore_pressure_pa);
+        ui.horizontal(|ui| {
+            ui.label("pore pressure p");
+            ui.add(
+                egui::DragValue::new(&mut p)
+                    .speed(0.1)
+                    .suffix(format!(" {unit}")),
+            )
+            .on_hover_text("Compression positive; effective normal stress σn' = σn − p");
+        });
+        choice.pore_pressure_pa = unit.to_pa(p);
+    }
+    if material {
+        let mut c = unit.from_pa(choice.cohesion_pa);
+        ui.horizontal(|ui| {
+            ui.label("cohesion c");
+            ui.add(
+                egui::DragValue::new(&mut c)
+                    .speed(0.1)
+                    .range(0.0..=f64::MAX)
+                    .suffix(format!(" {unit}")),
+            )
+            .on_hover_text(
+                "Mohr–Coulomb cohesion c (shear strength at zero effective normal stress)",
+            );
+            ui.label("friction φ");
+            ui.add(
+                egui::DragValue::new(&mut choice.friction_angle_deg)
+                    .speed(0.2)
+                    .range(0.0..=89.0)
+                    .suffix("°"),
+            )
+            .on_hover_text("Mohr–Coulomb friction angle φ, degrees");
+        });
+        choice.cohesion_pa = unit.to_pa(c);
+        ui.small("U = τ / (c + (σn − p) tan φ), compression positive");
     }
 }
 
@@ -75,40 +120,9 @@ pub fn worst_plane_ui(
             }
         });
     let unit = settings.unit;
-    if matches!(choice.measure, Measure::SlipTendency | Measure::MohrCoulomb) {
-        let mut p = unit.from_pa(choice.pore_pressure_pa);
-        ui.horizontal(|ui| {
-            ui.label("pore pressure p");
-            ui.add(
-                egui::DragValue::new(&mut p)
-                    .speed(0.1)
-                    .suffix(format!(" {unit}")),
-            )
-            .on_hover_text("Compression positive; effective normal stress σn' = σn − p");
-        });
-        choice.pore_pressure_pa = unit.to_pa(p);
-    }
-    if choice.measure == Measure::MohrCoulomb {
-        let mut c = unit.from_pa(choice.cohesion_pa);
-        ui.horizontal(|ui| {
-            ui.label("cohesion c");
-            ui.add(
-                egui::DragValue::new(&mut c)
-                    .speed(0.1)
-                    .range(0.0..=f64::MAX)
-                    .suffix(format!(" {unit}")),
-            );
-            ui.label("friction φ");
-            ui.add(
-                egui::DragValue::new(&mut choice.friction_angle_deg)
-                    .speed(0.2)
-                    .range(0.0..=89.0)
-                    .suffix("°"),
-            );
-        });
-        choice.cohesion_pa = unit.to_pa(c);
-        ui.small("U = τ / (c + (σn − p) tan φ), compression positive");
-    }
+    let needs_pore = matches!(choice.measure, Measure::SlipTendency | Measure::MohrCoulomb);
+    let needs_material = choice.measure == Measure::MohrCoulomb;
+    material_ui(ui, choice, unit, needs_pore, needs_material);
     let search = settings.measure.settings(settings);
     match worst_plane(&doc.tensor, &search) {
         Ok(result) => {
@@ -152,12 +166,31 @@ pub fn worst_plane_ui(
     }
 }
 
-/// The orientation map tab.
-pub fn map_ui(ui: &mut egui::Ui, doc: &Document, settings: &Settings, out: &mut Vec<Command>) {
+/// A stress or ratio value with its unit, at `digits` significant digits.
+fn label_for(measure: Measure, settings: &Settings, digits: usize) -> impl Fn(f64) -> String {
+    let unit = settings.unit;
+    let is_stress = measure.is_stress();
+    move |v: f64| {
+        if is_stress {
+            format!("{} {unit}", sig(unit.from_pa(v), digits))
+        } else {
+            sig(v, digits)
+        }
+    }
+}
+
+/// The orientation-map figure for the current state at `width` × `height` pixels (the tab and
+/// its export).
+#[must_use]
+pub fn map_figure(
+    doc: &Document,
+    settings: &Settings,
+    resolution: usize,
+    width: u32,
+    height: u32,
+) -> crate::draw::Frame {
     let search = settings.measure.settings(settings);
-    let size = ui.available_size().max(egui::vec2(200.0, 160.0));
-    let (rect, response) = ui.allocate_exact_size(size, egui::Sense::click());
-    let map = orientation_map(&doc.tensor, &search, 128);
+    let map = orientation_map(&doc.tensor, &search, resolution);
     let worst = worst_plane(&doc.tensor, &search)
         .map(|r| r.planes)
         .unwrap_or_default();
@@ -167,28 +200,28 @@ pub fn map_ui(ui: &mut egui::Ui, doc: &Document, settings: &Settings, out: &mut 
         plane: Some(doc.plane),
         worst: worst.iter().map(|p| p.normal).collect(),
     };
-    let unit = settings.unit;
-    let is_stress = search.measure.is_stress();
-    let label = move |v: f64| {
-        if is_stress {
-            format!("{} {unit}", sig(unit.from_pa(v), 4))
-        } else {
-            sig(v, 4)
-        }
-    };
     let title = format!(
         "Orientation map: {} ({})",
         search.measure.key(),
         settings.convention.key()
     );
-    let frame = map_frame(
-        &map,
-        &marks,
-        &title,
-        &label,
+    let label = label_for(search.measure, settings, 4);
+    map_frame(&map, &marks, &title, &label, width, height)
+}
+
+/// The orientation map tab.
+pub fn map_ui(ui: &mut egui::Ui, doc: &Document, settings: &Settings, out: &mut Vec<Command>) {
+    let search = settings.measure.settings(settings);
+    let size = ui.available_size().max(egui::vec2(200.0, 160.0));
+    let (rect, response) = ui.allocate_exact_size(size, egui::Sense::click());
+    let frame = map_figure(
+        doc,
+        settings,
+        128,
         rect.width() as u32,
         rect.height() as u32,
     );
+    let label = label_for(search.measure, settings, 4);
     ui.painter_at(rect)
         .extend(egui_backend::shapes(&frame, rect, ui.ctx()));
 

@@ -3,6 +3,7 @@
 
 pub mod export_panel;
 pub mod map_panel;
+pub mod mohr_panel;
 pub mod plane_panel;
 pub mod results_panel;
 pub mod stress_panel;
@@ -10,6 +11,24 @@ pub mod view_panel;
 
 use crate::app::{Command, PlanewiseApp};
 use crate::draw::camera::{Projection, ViewPreset};
+
+/// A number that stays the same for the whole of one drag on `response` and differs between
+/// drags, so that the edits of one drag merge into one undo step and the next drag starts
+/// another.
+#[must_use]
+pub fn drag_serial(ui: &egui::Ui, response: &egui::Response) -> u64 {
+    let key = response.id.with("drag-serial");
+    if response.drag_started() {
+        let counter = egui::Id::unique("planewise-drag-counter");
+        let next = ui.data_mut(|d| {
+            let c = d.get_temp_mut_or_default::<u64>(counter);
+            *c += 1;
+            *c
+        });
+        ui.data_mut(|d| d.insert_temp(key, next));
+    }
+    ui.data(|d| d.get_temp::<u64>(key).unwrap_or(0))
+}
 
 /// The menu bar.
 pub fn menus_ui(app: &mut PlanewiseApp, ui: &mut egui::Ui, out: &mut Vec<Command>) {

@@ -1,10 +1,15 @@
 //! The 3D view: a toolbar (view presets, projection, layers) and the CPU-rendered picture,
 //! which the user turns by dragging.
 
-use crate::app::{Command, Document, Settings};
+use crate::app::{Coalesce, Command, Document, Settings};
 use crate::draw::camera::{Camera, Projection, ViewPreset};
 use crate::draw::{Sizes, egui_backend, render};
-use crate::scene::{FaceChoice, Layers, Scene, SceneInput};
+use crate::mechanics::PlaneNormal;
+use crate::mechanics::search::worst_plane;
+use crate::scene::{FaceChoice, Layers, NORMAL_LENGTH, Scene, SceneInput};
+
+/// How close (pixels) a press must be to the normal's handle to grab it.
+pub const HANDLE_GRAB_PX: f32 = 12.0;
 
 /// Checkboxes for the layers.
 pub fn layers_ui(ui: &mut egui::Ui, layers: &mut Layers) {
@@ -16,6 +21,10 @@ pub fn layers_ui(ui: &mut egui::Ui, layers: &mut Layers) {
     ui.checkbox(&mut layers.labels, "Value labels");
     ui.checkbox(&mut layers.triad, "Axis triad");
     ui.checkbox(&mut layers.legend, "Legend");
+    ui.checkbox(&mut layers.worst_planes, "Worst planes")
+        .on_hover_text(
+            "Outlines and normals of the worst planes for the measure chosen under Worst plane",
+        );
 }
 
 fn faces_ui(ui: &mut egui::Ui, faces: &mut FaceChoice) {
@@ -35,6 +44,19 @@ fn faces_ui(ui: &mut egui::Ui, faces: &mut FaceChoice) {
             ui.checkbox(&mut which[i], format!("{} face", face.label()));
         }
     }
+}
+
+/// The normals of the worst planes for the chosen measure when the worst-planes layer is on
+/// (empty otherwise, or when the measure cannot be evaluated).
+#[must_use]
+pub fn worst_normals(doc: &Document, settings: &Settings) -> Vec<PlaneNormal> {
+    if !settings.layers.worst_planes {
+        return Vec::new();
+    }
+    let search = settings.measure.settings(settings);
+    worst_plane(&doc.tensor, &search)
+        .map(|r| r.planes.iter().map(|p| p.normal).collect())
+        .unwrap_or_default()
 }
 
 /// Draws the toolbar and the view; camera moves change `settings.camera` directly (the view
@@ -72,41 +94,94 @@ pub fn view_ui(ui: &mut egui::Ui, doc: &Document, settings: &mut Settings, out: 
 
     let size = ui.available_size().max(egui::vec2(64.0, 64.0));
     let (rect, response) = ui.allocate_exact_size(size, egui::Sense::click_and_drag());
-    let response = response.on_hover_text(
-        "3D view: drag to orbit, right-drag to pan, scroll to zoom, double-click to reset. Keys 1–7: view presets.",
-    );
-    let cam = &mut settings.camera;
-    if response.dragged_by(egui::PointerButton::Primary) {
-        let d = response.drag_delta();
-        cam.orbit(-f64::from(d.x) * 0.4, f64::from(d.y) * 0.4);
-    }
-    if response.dragged_by(egui::PointerButton::Secondary) {
-        let d = response.drag_delta();
-        cam.pan[0] += f64::from(d.x) / f64::from(rect.height().max(1.0));
-        cam.pan[1] += f64::from(d.y) / f64::from(rect.height().max(1.0));
-    }
-    if response.hovered() {
-        let scroll = ui.input(|i| i.smooth_scroll_delta.y);
-        if scroll != 0.0 {
-            cam.zoom = (cam.zoom * (f64::from(scroll) * 0.003).exp()).clamp(0.1, 20.0);
-        }
-    }
-    if response.double_clicked() {
-        *cam = Camera {
-            projection: cam.projection,
-            ..Camera::default()
-        };
-    }
-
-    let input = SceneInput {
+    let worst = worst_normals(doc, settings);
+    let input = |settings: &Settings| SceneInput {
         tensor: &doc.tensor,
         plane: doc.plane,
         unit: settings.unit,
         convention: settings.convention,
         layers: settings.layers,
         faces: settings.faces,
+        worst_planes: &worst,
     };
-    let scene = Scene::build(&input, &settings.camera.towards_eye());
+
+    // The normal's handle: where it is on screen now, and whether a drag holds it.
+    let handle_id = response.id.with("normal-handle");
+    let scene = Scene::build(&input(settings), &settings.camera.towards_eye());
+    let view = settings.camera.screen_from_world(
+        f64::from(rect.width()),
+        f64::from(rect.height()),
+        scene.radius(),
+    );
+    let handle_px = settings.layers.cut_plane.then(|| {
+        let p = view.project(&nalgebra::Point3::from(doc.plane.vector() * NORMAL_LENGTH));
+        rect.min + egui::vec2(p.x as f32, p.y as f32)
+    });
+    let near_handle = |pos: Option<egui::Pos2>| matches!((pos, handle_px), (Some(p), Some(h)) if p.distance(h) <= HANDLE_GRAB_PX);
+    if response.drag_started_by(egui::PointerButton::Primary) {
+        let grabbed = near_handle(response.interact_pointer_pos());
+        ui.data_mut(|d| d.insert_temp(handle_id, grabbed));
+    }
+    let holding = ui.data(|d| d.get_temp::<bool>(handle_id).unwrap_or(false));
+    if response.drag_stopped() {
+        ui.data_mut(|d| d.remove::<bool>(handle_id));
+    }
+    if holding || near_handle(response.hover_pos()) {
+        ui.ctx().set_cursor_icon(if holding {
+            egui::CursorIcon::Grabbing
+        } else {
+            egui::CursorIcon::Grab
+        });
+    }
+    let response = response.on_hover_text(
+        "3D view: drag to orbit, right-drag to pan, scroll to zoom, double-click to reset. Drag the white handle at the tip of n to turn the cut plane. Keys 1–7: view presets.",
+    );
+
+    let serial = super::drag_serial(ui, &response);
+    if holding && response.dragged_by(egui::PointerButton::Primary) {
+        if let Some(pos) = response.interact_pointer_pos() {
+            let local = pos - rect.min;
+            if let Some(direction) =
+                view.sphere_direction_at(f64::from(local.x), f64::from(local.y), NORMAL_LENGTH)
+                && let Ok(plane) = PlaneNormal::from_vector(direction)
+            {
+                out.push(Command::Edit {
+                    document: Document {
+                        plane,
+                        ..doc.clone()
+                    },
+                    // One undo step per drag.
+                    coalesce: Some(Coalesce::NormalHandle(serial)),
+                });
+            }
+        }
+    } else {
+        let cam = &mut settings.camera;
+        if response.dragged_by(egui::PointerButton::Primary) {
+            let d = response.drag_delta();
+            cam.orbit(-f64::from(d.x) * 0.4, f64::from(d.y) * 0.4);
+        }
+        if response.dragged_by(egui::PointerButton::Secondary) {
+            let d = response.drag_delta();
+            cam.pan[0] += f64::from(d.x) / f64::from(rect.height().max(1.0));
+            cam.pan[1] += f64::from(d.y) / f64::from(rect.height().max(1.0));
+        }
+        if response.hovered() {
+            let scroll = ui.input(|i| i.smooth_scroll_delta.y);
+            if scroll != 0.0 {
+                cam.zoom = (cam.zoom * (f64::from(scroll) * 0.003).exp()).clamp(0.1, 20.0);
+            }
+        }
+        if response.double_clicked() {
+            *cam = Camera {
+                projection: cam.projection,
+                ..Camera::default()
+            };
+        }
+    }
+
+    // Rebuild for the camera as it is now (faces facing the viewer follow the orbit).
+    let scene = Scene::build(&input(settings), &settings.camera.towards_eye());
     let frame = render(
         &scene,
         &settings.camera,

@@ -1,0 +1,478 @@
+//! The Mohr diagram as a figure: the three circles with the admissible region shaded, the cut
+//! plane's and the worst planes' points, the Mohr–Coulomb envelope when a material is set, and
+//! axes with units and the sign convention. The same frame goes to the screen, SVG and PNG.
+
+use super::{Anchor, Frame, Prim, Sizes, marker};
+use crate::format::sig;
+use crate::mechanics::criteria::MohrCoulomb;
+use crate::mechanics::mohr::{Circle, MohrCircles};
+use crate::mechanics::search::WorstPlane;
+use crate::mechanics::{PlaneNormal, SignConvention, StressTensor, StressUnit};
+use crate::scene::style::{self, Rgba};
+
+/// A Mohr–Coulomb envelope with its pore pressure (compression-positive effective stress, as
+/// in the worst-plane measure).
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct Envelope {
+    /// Cohesion and friction angle.
+    pub material: MohrCoulomb,
+    /// Pore pressure p, Pa, compression positive.
+    pub pore_pressure_pa: f64,
+}
+
+impl Envelope {
+    /// The envelope's shear strength τ = c + (σn,c − p) tan φ at a normal stress given in
+    /// `convention` (σn,c is the compression-positive normal stress), Pa; negative beyond the
+    /// envelope's apex.
+    #[must_use]
+    pub fn shear_strength_pa(&self, normal_stress_pa: f64, convention: SignConvention) -> f64 {
+        let compressive = match convention {
+            SignConvention::CompressionPositive => normal_stress_pa,
+            SignConvention::TensionPositive => -normal_stress_pa,
+        };
+        let tan_phi = self.material.friction_angle_deg.to_radians().tan();
+        self.material.cohesion_pa + (compressive - self.pore_pressure_pa) * tan_phi
+    }
+}
+
+/// A marked point of the diagram.
+#[derive(Clone, Debug, PartialEq)]
+pub struct MohrPoint {
+    /// Normal stress, Pa, in the diagram's convention.
+    pub normal_stress_pa: f64,
+    /// Shear stress, Pa (≥ 0).
+    pub shear_stress_pa: f64,
+    /// What the point is (for hover text and labels).
+    pub name: String,
+}
+
+impl MohrPoint {
+    /// The point of the plane with normal `normal`, named `what` plus its dip and dip direction.
+    #[must_use]
+    pub fn of_plane(
+        circles: &MohrCircles,
+        tensor: &StressTensor,
+        normal: PlaneNormal,
+        what: &str,
+    ) -> Self {
+        let (normal_stress_pa, shear_stress_pa) = circles.point(tensor, normal);
+        let (dip, dip_direction) = normal.dip_deg();
+        Self {
+            normal_stress_pa,
+            shear_stress_pa,
+            name: format!(
+                "{what}: dip {}° / dip direction {}°",
+                sig(dip, 4),
+                sig(dip_direction, 4)
+            ),
+        }
+    }
+}
+
+/// The points of worst planes (their stresses are already in the display convention).
+#[must_use]
+pub fn worst_points(planes: &[WorstPlane]) -> Vec<MohrPoint> {
+    planes
+        .iter()
+        .enumerate()
+        .map(|(i, p)| MohrPoint {
+            normal_stress_pa: p.normal_stress_pa,
+            shear_stress_pa: p.shear_stress_pa,
+            name: format!(
+                "worst plane {}: dip {}° / dip direction {}°",
+                i + 1,
+                sig(p.dip_deg, 4),
+                sig(p.dip_direction_deg, 4)
+            ),
+        })
+        .collect()
+}
+
+/// Everything the Mohr figure shows.
+#[derive(Clone, Debug, PartialEq)]
+pub struct MohrFigure {
+    /// The circles (their convention is the diagram's).
+    pub circles: MohrCircles,
+    /// Unit of the axes.
+    pub unit: StressUnit,
+    /// The cut plane's point.
+    pub plane: Option<MohrPoint>,
+    /// The worst planes' points (duplicates are drawn once).
+    pub worst: Vec<MohrPoint>,
+    /// What the worst planes are worst for (legend).
+    pub worst_label: String,
+    /// The Mohr–Coulomb envelope, when cohesion and friction angle are set.
+    pub envelope: Option<Envelope>,
+}
+
+/// Where the data sit in the picture: a linear map with the same scale on both axes, so that
+/// circles stay round.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct MohrLayout {
+    /// Plot area, pixels: left, top, right, bottom.
+    pub plot: [f32; 4],
+    /// σn at the plot's left edge, Pa.
+    pub normal_min_pa: f64,
+    /// σn at the plot's right edge, Pa.
+    pub normal_max_pa: f64,
+    /// τ at the plot's top edge, Pa (τ = 0 at the bottom edge).
+    pub shear_max_pa: f64,
+    /// Pixels per pascal, both axes.
+    pub px_per_pa: f64,
+}
+
+impl MohrLayout {
+    /// The layout for `figure` in a `width` × `height` picture.
+    #[must_use]
+    pub fn new(figure: &MohrFigure, width: f32, height: f32) -> Self {
+        let sizes = Sizes::for_export(width, height);
+        let k = sizes.line;
+        let plot = [
+            78.0 * k,
+            5.6 * 1.45 * sizes.text + 20.0 * k,
+            width - 28.0 * k,
+            height - 52.0 * k,
+        ];
+        let [s1, _, s3] = figure.circles.principal_pa;
+        let scale = s1.abs().max(s3.abs());
+        let mut span = (s1 - s3).max(1e-3 * scale).max(1.0);
+        let (mut lo, mut hi) = (s3 - 0.1 * span, s1 + 0.1 * span);
+        // Show σn = 0 when it is near: the reader then sees what is tension and compression.
+        if lo > 0.0 && lo < 0.8 * span {
+            lo = -0.04 * span;
+        }
+        if hi < 0.0 && -hi < 0.8 * span {
+            hi = 0.04 * span;
+        }
+        span = hi - lo;
+        let mut top = 0.5 * (s1 - s3) * 1.3;
+        if top <= 0.0 {
+            top = 0.3 * span;
+        }
+        let (pw, ph) = (
+            f64::from((plot[2] - plot[0]).max(10.0)),
+            f64::from((plot[3] - plot[1]).max(10.0)),
+        );
+        let px_per_pa = (pw / span).min(ph / top);
+        // Fill the plot: widen σn about its centre and raise τ's top.
+        let mid = 0.5 * (lo + hi);
+        let half = 0.5 * pw / px_per_pa;
+        Self {
+            plot,
+            normal_min_pa: mid - half,
+            normal_max_pa: mid + half,
+            shear_max_pa: ph / px_per_pa,
+            px_per_pa,
+        }
+    }
+
+    /// Pixel position of (σn, τ).
+    #[must_use]
+    pub fn to_px(&self, normal_stress_pa: f64, shear_stress_pa: f64) -> [f32; 2] {
+        [
+            self.plot[0] + ((normal_stress_pa - self.normal_min_pa) * self.px_per_pa) as f32,
+            self.plot[3] - (shear_stress_pa * self.px_per_pa) as f32,
+        ]
+    }
+
+    /// (σn, τ) at a pixel position.
+    #[must_use]
+    pub fn from_px(&self, at: [f32; 2]) -> (f64, f64) {
+        (
+            self.normal_min_pa + f64::from(at[0] - self.plot[0]) / self.px_per_pa,
+            f64::from(self.plot[3] - at[1]) / self.px_per_pa,
+        )
+    }
+
+    /// Whether a pixel position is inside the plot area.
+    #[must_use]
+    pub fn contains(&self, at: [f32; 2]) -> bool {
+        (self.plot[0]..=self.plot[2]).contains(&at[0])
+            && (self.plot[1]..=self.plot[3]).contains(&at[1])
+    }
+}
+
+/// The Mohr–Coulomb envelope's colour.
+pub const ENVELOPE: Rgba = Rgba::rgb(110, 60, 20);
+/// The admissible region's shade.
+const REGION: Rgba = Rgba::rgb(176, 196, 222);
+/// Light grid lines.
+const GRID: Rgba = Rgba::rgb(120, 128, 140).with_alpha(60);
+
+/// The upper half (τ ≥ 0) of `circle` as `steps` + 1 pixel positions from σn = centre + r
+/// round to centre − r.
+fn upper_half(layout: &MohrLayout, circle: &Circle, steps: u32) -> Vec<[f32; 2]> {
+    (0..=steps)
+        .map(|i| {
+            let a = std::f64::consts::PI * f64::from(i) / f64::from(steps);
+            layout.to_px(
+                circle.centre_pa + circle.radius_pa * a.cos(),
+                circle.radius_pa * a.sin(),
+            )
+        })
+        .collect()
+}
+
+fn half_disc(layout: &MohrLayout, circle: &Circle, fill: Rgba) -> Option<Prim> {
+    (circle.radius_pa * layout.px_per_pa >= 0.5).then(|| Prim::Polygon {
+        points: upper_half(layout, circle, 72),
+        fill,
+        outline: None,
+    })
+}
+
+fn arc(frame: &mut Frame, layout: &MohrLayout, circle: &Circle, width: f32, color: Rgba) {
+    for pair in upper_half(layout, circle, 96).windows(2) {
+        frame.prims.push(Prim::Line {
+            a: pair[0],
+            b: pair[1],
+            width,
+            color,
+        });
+    }
+}
+
+/// Tick positions: multiples of a round step between `lo` and `hi`.
+fn ticks(lo: f64, hi: f64, target_count: f64) -> Vec<f64> {
+    let step = crate::scene::nice_round((hi - lo) / target_count);
+    if step <= 0.0 {
+        return Vec::new();
+    }
+    let first = (lo / step).ceil() as i64;
+    let last = (hi / step).floor() as i64;
+    (first..=last).map(|k| k as f64 * step).collect()
+}
+
+/// The figure at `width` × `height` pixels.
+#[must_use]
+pub fn mohr_frame(figure: &MohrFigure, width: u32, height: u32) -> Frame {
+    let (w, h) = (width as f32, height as f32);
+    let sizes = Sizes::for_export(w, h);
+    let layout = MohrLayout::new(figure, w, h);
+    let unit = figure.unit;
+    let convention = figure.circles.convention;
+    let mut frame = Frame {
+        width: w,
+        height: h,
+        background: style::BACKGROUND,
+        prims: Vec::new(),
+    };
+    let [left, top, right, bottom] = layout.plot;
+    let text = |frame: &mut Frame, at: [f32; 2], t: String, anchor: Anchor, color: Rgba| {
+        frame.prims.push(Prim::Text {
+            at,
+            text: t,
+            size: sizes.text,
+            color,
+            anchor,
+            halo: true,
+        });
+    };
+
+    // The admissible region: the outer half-disc less the two inner ones.
+    let outer = figure.circles.outer();
+    let inner = figure.circles.inner();
+    frame
+        .prims
+        .extend(half_disc(&layout, &outer, REGION.with_alpha(150)));
+    for c in &inner {
+        frame.prims.extend(half_disc(&layout, c, style::BACKGROUND));
+    }
+
+    // Grid and tick labels.
+    let value = |pa: f64| sig(unit.from_pa(pa), 4);
+    let x_ticks = ticks(layout.normal_min_pa, layout.normal_max_pa, 7.0);
+    for &x in &x_ticks {
+        let [px, _] = layout.to_px(x, 0.0);
+        frame.prims.push(Prim::Line {
+            a: [px, top],
+            b: [px, bottom],
+            width: sizes.line,
+            color: GRID,
+        });
+        frame.prims.push(Prim::Text {
+            at: [px, bottom + 12.0 * sizes.line],
+            text: value(x),
+            size: 0.9 * sizes.text,
+            color: style::INK,
+            anchor: Anchor::Center,
+            halo: false,
+        });
+    }
+    let step = x_ticks.windows(2).next().map_or(0.0, |p| p[1] - p[0]);
+    if step > 0.0 {
+        let mut y = step;
+        while y <= layout.shear_max_pa {
+            let [_, py] = layout.to_px(0.0, y);
+            frame.prims.push(Prim::Line {
+                a: [left, py],
+                b: [right, py],
+                width: sizes.line,
+                color: GRID,
+            });
+            frame.prims.push(Prim::Text {
+                at: [left - 6.0 * sizes.line, py],
+                text: value(y),
+                size: 0.9 * sizes.text,
+                color: style::INK,
+                anchor: Anchor::RightCenter,
+                halo: false,
+            });
+            y += step;
+        }
+    }
+    // Axes: σn along τ = 0; the τ axis at σn = 0 when it is in view, else the left edge.
+    frame.prims.push(Prim::Line {
+        a: [left, bottom],
+        b: [right, bottom],
+        width: 1.4 * sizes.line,
+        color: style::INK,
+    });
+    let zero_x = if (layout.normal_min_pa..=layout.normal_max_pa).contains(&0.0) {
+        layout.to_px(0.0, 0.0)[0]
+    } else {
+        left
+    };
+    frame.prims.push(Prim::Line {
+        a: [zero_x, top],
+        b: [zero_x, bottom],
+        width: 1.4 * sizes.line,
+        color: style::INK,
+    });
+    let sym = unit.symbol();
+    text(
+        &mut frame,
+        [right, bottom + 30.0 * sizes.line],
+        format!("σn ({sym}), {} →", convention.key()),
+        Anchor::RightCenter,
+        style::INK,
+    );
+    text(
+        &mut frame,
+        [zero_x + 6.0 * sizes.line, top + 8.0 * sizes.line],
+        format!("↑ τ ({sym})"),
+        Anchor::LeftCenter,
+        style::INK,
+    );
+
+    // Circles.
+    arc(&mut frame, &layout, &outer, 2.2 * sizes.line, style::INK);
+    for c in &inner {
+        arc(&mut frame, &layout, c, 1.6 * sizes.line, style::INK);
+    }
+    for (i, s) in figure.circles.principal_pa.iter().enumerate() {
+        let at = layout.to_px(*s, 0.0);
+        frame.prims.push(Prim::Line {
+            a: [at[0], at[1] - 5.0 * sizes.line],
+            b: [at[0], at[1] + 5.0 * sizes.line],
+            width: 2.0 * sizes.line,
+            color: style::INK,
+        });
+        let dy = if i == 1 { -30.0 } else { -14.0 };
+        text(
+            &mut frame,
+            [at[0], at[1] + dy * sizes.line],
+            format!("σ{}", i + 1),
+            Anchor::Center,
+            style::INK,
+        );
+    }
+
+    // The envelope, clipped to the plot.
+    if let Some(env) = figure.envelope {
+        let xs = [layout.normal_min_pa, layout.normal_max_pa];
+        let ys = xs.map(|x| env.shear_strength_pa(x, convention));
+        // τ(σn) is linear: clip the segment to 0 ≤ τ ≤ top.
+        let mut ends = Vec::new();
+        for (x, y) in xs.iter().zip(ys) {
+            if (0.0..=layout.shear_max_pa).contains(&y) {
+                ends.push((*x, y));
+            }
+        }
+        for limit in [0.0, layout.shear_max_pa] {
+            if (ys[0] - limit) * (ys[1] - limit) < 0.0 {
+                let t = (limit - ys[0]) / (ys[1] - ys[0]);
+                ends.push((xs[0] + t * (xs[1] - xs[0]), limit));
+            }
+        }
+        if let [a, b, ..] = ends[..] {
+            frame.prims.push(Prim::Line {
+                a: layout.to_px(a.0, a.1),
+                b: layout.to_px(b.0, b.1),
+                width: 2.4 * sizes.line,
+                color: ENVELOPE,
+            });
+        }
+    }
+
+    // Points: worst planes (triangles), then the cut plane (disc) on top.
+    let mut drawn: Vec<[f32; 2]> = Vec::new();
+    for p in &figure.worst {
+        let at = layout.to_px(p.normal_stress_pa, p.shear_stress_pa);
+        if drawn
+            .iter()
+            .any(|q| (q[0] - at[0]).hypot(q[1] - at[1]) < 1.0)
+        {
+            continue;
+        }
+        drawn.push(at);
+        frame
+            .prims
+            .push(marker(at, 8.0 * sizes.line, 3, style::WORST_PLANE));
+    }
+    if let Some(p) = &figure.plane {
+        let at = layout.to_px(p.normal_stress_pa, p.shear_stress_pa);
+        frame
+            .prims
+            .push(marker(at, 6.5 * sizes.line, 16, style::PLANE_NORMAL));
+        text(
+            &mut frame,
+            [at[0] + 10.0 * sizes.line, at[1] - 10.0 * sizes.line],
+            "cut plane".to_owned(),
+            Anchor::LeftCenter,
+            style::PLANE_NORMAL,
+        );
+    }
+
+    // Title, conventions and key.
+    let [s1, s2, s3] = figure.circles.principal_pa;
+    let mut lines = vec![
+        format!(
+            "Mohr circles: σ1 = {} {sym}, σ2 = {} {sym}, σ3 = {} {sym}",
+            value(s1),
+            value(s2),
+            value(s3)
+        ),
+        format!(
+            "σn {}, τ ≥ 0; shaded: the (σn, τ) of every plane through the point",
+            convention.key()
+        ),
+    ];
+    lines.push(if figure.worst.is_empty() {
+        "● cut plane".to_owned()
+    } else {
+        format!("● cut plane   ▲ worst planes ({})", figure.worst_label)
+    });
+    if let Some(env) = figure.envelope {
+        lines.push(format!(
+            "— Mohr–Coulomb envelope τ = c + (σn − p) tan φ, compression positive: c = {} {sym}, φ = {}°, p = {} {sym}",
+            value(env.material.cohesion_pa),
+            sig(env.material.friction_angle_deg, 4),
+            value(env.pore_pressure_pa)
+        ));
+    }
+    let x0 = 12.0 * sizes.line;
+    let mut y = 16.0 * sizes.line;
+    for (i, line) in lines.into_iter().enumerate() {
+        frame.prims.push(Prim::Text {
+            at: [x0, y],
+            text: line,
+            size: sizes.text,
+            color: if i == 3 { ENVELOPE } else { style::INK },
+            anchor: Anchor::LeftCenter,
+            halo: false,
+        });
+        y += sizes.text * 1.45;
+    }
+    frame
+}

@@ -1,0 +1,133 @@
+//! The Mohr circles tab: the three circles with the admissible region, the cut plane's and the
+//! worst planes' points and, on request, the Mohr–Coulomb envelope. Hovering a point names its
+//! plane; clicking or dragging inside the shaded region moves the cut plane to a plane with
+//! that (σn, τ).
+
+use crate::app::{Coalesce, Command, Document, Settings};
+use crate::draw::egui_backend;
+use crate::draw::mohr::{Envelope, MohrFigure, MohrLayout, MohrPoint, mohr_frame, worst_points};
+use crate::format::sig;
+use crate::mechanics::criteria::MohrCoulomb;
+use crate::mechanics::mohr::MohrCircles;
+use crate::mechanics::search::{Measure, worst_plane};
+
+/// The figure for the current state, as the tab and its export show it.
+#[must_use]
+pub fn figure(doc: &Document, settings: &Settings) -> MohrFigure {
+    let circles = MohrCircles::new(&doc.tensor, settings.convention);
+    let search = settings.measure.settings(settings);
+    let worst = worst_plane(&doc.tensor, &search)
+        .map(|r| worst_points(&r.planes))
+        .unwrap_or_default();
+    let choice = &settings.measure;
+    let show_envelope = settings.mohr_envelope || choice.measure == Measure::MohrCoulomb;
+    let envelope = show_envelope
+        .then(|| MohrCoulomb::new(choice.cohesion_pa, choice.friction_angle_deg).ok())
+        .flatten()
+        .map(|material| Envelope {
+            material,
+            pore_pressure_pa: choice.pore_pressure_pa,
+        });
+    MohrFigure {
+        circles,
+        unit: settings.unit,
+        plane: Some(MohrPoint::of_plane(
+            &circles,
+            &doc.tensor,
+            doc.plane,
+            "cut plane",
+        )),
+        worst,
+        worst_label: search.measure.key().to_owned(),
+        envelope,
+    }
+}
+
+/// The point of `figure` within `radius_px` of `at` (the cut plane first), if any.
+#[must_use]
+pub fn point_near<'a>(
+    figure: &'a MohrFigure,
+    layout: &MohrLayout,
+    at: [f32; 2],
+    radius_px: f32,
+) -> Option<&'a MohrPoint> {
+    figure.plane.iter().chain(&figure.worst).find(|p| {
+        let q = layout.to_px(p.normal_stress_pa, p.shear_stress_pa);
+        (q[0] - at[0]).hypot(q[1] - at[1]) <= radius_px
+    })
+}
+
+/// The Mohr tab.
+pub fn mohr_ui(ui: &mut egui::Ui, doc: &Document, settings: &mut Settings, out: &mut Vec<Command>) {
+    ui.horizontal_wrapped(|ui| {
+        ui.checkbox(&mut settings.mohr_envelope, "Mohr–Coulomb envelope")
+            .on_hover_text(
+                "Draw τ = c + (σn − p) tan φ (compression positive); always drawn when the worst-plane measure is mohr-coulomb",
+            );
+        if settings.mohr_envelope || settings.measure.measure == Measure::MohrCoulomb {
+            let unit = settings.unit;
+            super::map_panel::material_ui(ui, &mut settings.measure, unit, true, true);
+        }
+    });
+    let figure = figure(doc, settings);
+    let size = ui.available_size().max(egui::vec2(240.0, 180.0));
+    let (rect, response) = ui.allocate_exact_size(size, egui::Sense::click_and_drag());
+    let frame = mohr_frame(&figure, rect.width() as u32, rect.height() as u32);
+    ui.painter_at(rect)
+        .extend(egui_backend::shapes(&frame, rect, ui.ctx()));
+    let layout = MohrLayout::new(&figure, rect.width().floor(), rect.height().floor());
+    let local = |pos: egui::Pos2| [pos.x - rect.min.x, pos.y - rect.min.y];
+    let unit = settings.unit;
+    let stress = |pa: f64| format!("{} {unit}", sig(unit.from_pa(pa), 5));
+
+    let hover = response.hover_pos().map(local);
+    let text = match hover {
+        Some(at) => {
+            if let Some(p) = point_near(&figure, &layout, at, 9.0) {
+                format!(
+                    "{}; σn = {}, τ = {}",
+                    p.name,
+                    stress(p.normal_stress_pa),
+                    stress(p.shear_stress_pa)
+                )
+            } else {
+                let (sn, tau) = layout.from_px(at);
+                if layout.contains(at) && figure.circles.is_admissible(sn, tau, 1e-9) {
+                    format!(
+                        "σn = {}, τ = {}: click or drag to put the cut plane here",
+                        stress(sn),
+                        stress(tau)
+                    )
+                } else {
+                    format!(
+                        "σn = {}, τ = {}: no plane has this point (outside the shaded region)",
+                        stress(sn),
+                        stress(tau)
+                    )
+                }
+            }
+        }
+        None => "Mohr circles: hover a point to name its plane; click or drag in the shaded region to move the cut plane.".to_owned(),
+    };
+    let response = response.on_hover_text(text);
+
+    let dragging = response.dragged_by(egui::PointerButton::Primary)
+        && response.drag_delta() != egui::Vec2::ZERO;
+    let serial = super::drag_serial(ui, &response);
+    if (response.clicked() || dragging)
+        && let Some(at) = response.interact_pointer_pos().map(local)
+    {
+        let (sn, tau) = layout.from_px(at);
+        if let Some(plane) = figure.circles.plane_at(sn, tau.max(0.0), doc.plane) {
+            // One undo step per drag; a click is a step of its own.
+            let coalesce = dragging.then_some(Coalesce::MohrDrag(serial));
+            out.push(Command::Edit {
+                document: Document {
+                    plane,
+                    ..doc.clone()
+                },
+                coalesce,
+            });
+        }
+    }
+}
