@@ -90,6 +90,19 @@ pub enum Central {
     Mohr,
 }
 
+impl Central {
+    /// The `--tab` key: `3d`, `map` or `mohr`.
+    #[must_use]
+    pub fn from_key(key: &str) -> Option<Self> {
+        match key {
+            "3d" => Some(Self::View3d),
+            "map" => Some(Self::Map),
+            "mohr" => Some(Self::Mohr),
+            _ => None,
+        }
+    }
+}
+
 impl Default for Settings {
     fn default() -> Self {
         Self {
@@ -361,14 +374,15 @@ impl PlanewiseApp {
     pub fn export_frame(&self) -> crate::draw::Frame {
         let [w, h] = self.settings.export_size;
         let (doc, settings) = (&self.document, &self.settings);
+        let sizes = crate::draw::Sizes::for_export(w as f32, h as f32);
         match settings.central {
             Central::View3d => {
                 let worst = ui::view_panel::worst_normals(doc, settings);
                 crate::draw::figure(&self.scene_input(&worst), &settings.camera, w, h)
             }
-            Central::Map => ui::map_panel::map_figure(doc, settings, 256, w, h),
+            Central::Map => ui::map_panel::map_figure(doc, settings, 256, w, h, sizes),
             Central::Mohr => {
-                crate::draw::mohr::mohr_frame(&ui::mohr_panel::figure(doc, settings), w, h)
+                crate::draw::mohr::mohr_frame(&ui::mohr_panel::figure(doc, settings), w, h, sizes)
             }
         }
     }
@@ -663,7 +677,7 @@ impl eframe::App for PlanewiseApp {
 }
 
 /// Opens the window. With `screenshot`, writes a PNG of the first complete frame there and exits.
-pub fn run(screenshot: Option<&Path>) -> anyhow::Result<()> {
+pub fn run(screenshot: Option<&Path>, tab: Option<Central>) -> anyhow::Result<()> {
     let options = eframe::NativeOptions {
         viewport: egui::ViewportBuilder::default()
             .with_inner_size([1280.0, 800.0])
@@ -687,6 +701,9 @@ pub fn run(screenshot: Option<&Path>) -> anyhow::Result<()> {
                 PlanewiseApp::from_storage(cc.storage)
             };
             app.screenshot_outcome = outcome_for_app;
+            if let Some(tab) = tab {
+                app.settings.central = tab;
+            }
             if let Some(path) = shot {
                 app.screenshot_on_start(path);
             }

@@ -315,7 +315,12 @@ fn clicking_the_mohr_diagram_moves_the_plane_to_that_point() {
         .get_by_label_contains("hover a point to name its plane")
         .rect();
     let figure = planewise::ui::mohr_panel::figure(&h.state().document, &h.state().settings);
-    let layout = MohrLayout::new(&figure, rect.width().floor(), rect.height().floor());
+    let layout = MohrLayout::new(
+        &figure,
+        rect.width().floor(),
+        rect.height().floor(),
+        planewise::draw::Sizes::default(),
+    );
     // Aim at the point of the horizontal plane.
     let t = h.state().document.tensor;
     let circles = MohrCircles::new(&t, SignConvention::TensionPositive);
@@ -342,7 +347,12 @@ fn clicking_the_mohr_diagram_moves_the_plane_to_that_point() {
         .get_by_label_contains("hover a point to name its plane")
         .rect();
     let figure = planewise::ui::mohr_panel::figure(&h.state().document, &h.state().settings);
-    let layout_now = MohrLayout::new(&figure, rect_now.width().floor(), rect_now.height().floor());
+    let layout_now = MohrLayout::new(
+        &figure,
+        rect_now.width().floor(),
+        rect_now.height().floor(),
+        planewise::draw::Sizes::default(),
+    );
     let drawn = rect_now.min + egui::Vec2::from(layout_now.to_px(sn2, tau2));
     assert!(
         drawn.distance(pos) < 6.0,

@@ -9,6 +9,7 @@
 mod common;
 
 use nalgebra::{Matrix3, Rotation3, Vector3};
+use planewise::draw::Sizes;
 use planewise::draw::mohr::{Envelope, MohrFigure, MohrLayout, MohrPoint, mohr_frame};
 use planewise::mechanics::criteria::MohrCoulomb;
 use planewise::mechanics::mohr::MohrCircles;
@@ -109,7 +110,7 @@ fn the_layout_keeps_circles_round_and_everything_in_the_plot() {
     let t = turned();
     let fig = figure_for(&t, None);
     for (w, h) in [(1200.0, 800.0), (500.0, 900.0), (1600.0, 300.0)] {
-        let l = MohrLayout::new(&fig, w, h);
+        let l = MohrLayout::new(&fig, w, h, Sizes::for_export(w, h));
         let outer = fig.circles.outer();
         let c = l.to_px(outer.centre_pa, 0.0);
         let right = l.to_px(outer.centre_pa + outer.radius_pa, 0.0);
@@ -126,7 +127,7 @@ fn the_layout_keeps_circles_round_and_everything_in_the_plot() {
     }
     // A hydrostatic state (one point) still gets a usable layout.
     let h = mpa([5.0, 5.0, 5.0, 0.0, 0.0, 0.0]);
-    let l = MohrLayout::new(&figure_for(&h, None), 800.0, 600.0);
+    let l = MohrLayout::new(&figure_for(&h, None), 800.0, 600.0, Sizes::default());
     assert!(l.px_per_pa.is_finite() && l.px_per_pa > 0.0);
     assert!(l.contains(l.to_px(5e6, 0.0)));
 }
@@ -135,13 +136,19 @@ fn the_layout_keeps_circles_round_and_everything_in_the_plot() {
 fn the_envelope_is_drawn_only_when_a_material_is_set() {
     let t = turned();
     let colour = planewise::draw::mohr::ENVELOPE.hex();
-    let without = planewise::draw::svg::to_svg(&mohr_frame(&figure_for(&t, None), 900, 600), "");
+    let without = planewise::draw::svg::to_svg(
+        &mohr_frame(&figure_for(&t, None), 900, 600, Sizes::default()),
+        "",
+    );
     assert!(!without.contains(&colour));
     let env = Envelope {
         material: MohrCoulomb::new(10e6, 35.0).unwrap(),
         pore_pressure_pa: 0.0,
     };
-    let with = planewise::draw::svg::to_svg(&mohr_frame(&figure_for(&t, Some(env)), 900, 600), "");
+    let with = planewise::draw::svg::to_svg(
+        &mohr_frame(&figure_for(&t, Some(env)), 900, 600, Sizes::default()),
+        "",
+    );
     assert!(with.contains(&colour), "no envelope line");
     assert!(with.contains("Mohr circles: σ1 = 80 MPa"), "title");
 }
@@ -208,7 +215,9 @@ fn cli_writes_svg_and_png() {
     let text = std::fs::read_to_string(&svg).unwrap();
     assert!(text.contains("Mohr circles"));
     assert!(text.contains("cut plane"));
-    assert!(text.contains("worst planes (mohr-coulomb)"));
+    // σ1 = 136 MPa of tension is beyond the envelope's apex (c / tan φ = 17.3 MPa): the worst
+    // planes are those without frictional capacity, and the key says so.
+    assert!(text.contains("worst planes (mohr-coulomb: effective tension"));
     assert!(text.contains(&planewise::draw::mohr::ENVELOPE.hex()));
     let png = dir.join("mohr.png");
     let out = common::planewise(&[

@@ -90,7 +90,15 @@ pub fn run(args: &MapArgs) -> Result<String, CliError> {
             _ => input.convention.key().to_owned(),
         }
     );
-    let frame = map_frame(&map, &marks, &title, &label, w, h);
+    let frame = map_frame(
+        &map,
+        &marks,
+        &title,
+        &label,
+        w,
+        h,
+        crate::draw::Sizes::for_export(w as f32, h as f32),
+    );
     export::write_figure(&args.out, &frame, crate::SAFETY_NOTE).map_err(anyhow::Error::from)?;
     Ok(format!("wrote {}\n", args.out.display()))
 }

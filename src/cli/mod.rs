@@ -34,6 +34,9 @@ pub struct Cli {
     /// and exit (for README images and smoke tests).
     #[arg(long, value_name = "PATH")]
     pub screenshot: Option<std::path::PathBuf>,
+    /// The picture the window opens on: 3d, map or mohr.
+    #[arg(long, value_name = "TAB", value_parser = ["3d", "map", "mohr"])]
+    pub tab: Option<String>,
 }
 
 /// The subcommands.

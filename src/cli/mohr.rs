@@ -8,7 +8,8 @@ use clap::Args;
 use super::figure::parse_size;
 use super::worst_plane::{MaterialArgs, parse_measure, search_settings};
 use super::{ArgError, CliError, PlaneArgs, StressArgs};
-use crate::draw::mohr::{Envelope, MohrFigure, MohrPoint, mohr_frame, worst_points};
+use crate::draw::Sizes;
+use crate::draw::mohr::{Envelope, MohrFigure, MohrPoint, mohr_frame, worst_label, worst_points};
 use crate::export::{self, ImageFormat};
 use crate::mechanics::mohr::MohrCircles;
 use crate::mechanics::search::worst_plane;
@@ -49,7 +50,7 @@ pub fn run(args: &MohrArgs) -> Result<String, CliError> {
             let settings = search_settings(measure, &args.material, &input)?;
             let result =
                 worst_plane(&input.tensor, &settings).map_err(|e| ArgError::new("--measure", e))?;
-            (worst_points(&result.planes), measure.key().to_owned())
+            (worst_points(&result.planes), worst_label(&result))
         }
         None => (Vec::new(), String::new()),
     };
@@ -64,7 +65,7 @@ pub fn run(args: &MohrArgs) -> Result<String, CliError> {
             pore_pressure_pa,
         }),
     };
-    let frame = mohr_frame(&figure, w, h);
+    let frame = mohr_frame(&figure, w, h, Sizes::for_export(w as f32, h as f32));
     export::write_figure(&args.out, &frame, crate::SAFETY_NOTE).map_err(anyhow::Error::from)?;
     Ok(format!("wrote {}\n", args.out.display()))
 }

@@ -24,7 +24,8 @@ pub struct MapMarks {
 /// Where the disc sits in a `width` × `height` figure: centre and radius in pixels.
 #[must_use]
 pub fn disc_geometry(width: f32, height: f32) -> ([f32; 2], f32) {
-    let r = (0.40 * height).min(0.34 * width);
+    // Leave room on the right for the colour bar and its labels at screen text sizes.
+    let r = (0.40 * height).min(0.30 * width);
     ([0.08 * width + r, 0.5 * height + 0.02 * height], r)
 }
 
@@ -42,9 +43,9 @@ pub fn map_frame(
     value_label: &dyn Fn(f64) -> String,
     width: u32,
     height: u32,
+    sizes: Sizes,
 ) -> Frame {
     let (w, h) = (width as f32, height as f32);
-    let sizes = Sizes::for_export(w, h);
     let mut frame = Frame {
         width: w,
         height: h,
@@ -157,7 +158,7 @@ pub fn map_frame(
             .push(marker(at, 7.0 * sizes.line, 3, style::WORST_PLANE));
     }
     // Colour bar.
-    let bar_x = centre[0] + r + 0.16 * w.min(h);
+    let bar_x = centre[0] + r + 0.10 * w.min(h);
     let bar_top = centre[1] - r;
     let bar_h = 2.0 * r;
     let bar_w = 0.035 * w.min(h);

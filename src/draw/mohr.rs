@@ -4,9 +4,10 @@
 
 use super::{Anchor, Frame, Prim, Sizes, marker};
 use crate::format::sig;
+use crate::mechanics::criteria::Condition;
 use crate::mechanics::criteria::MohrCoulomb;
 use crate::mechanics::mohr::{Circle, MohrCircles};
-use crate::mechanics::search::WorstPlane;
+use crate::mechanics::search::{SearchResult, WorstPlane};
 use crate::mechanics::{PlaneNormal, SignConvention, StressTensor, StressUnit};
 use crate::scene::style::{self, Rgba};
 
@@ -69,6 +70,19 @@ impl MohrPoint {
     }
 }
 
+/// The legend text for the worst planes of `result`: the measure's key, and a warning when the
+/// worst planes are those without frictional capacity.
+#[must_use]
+pub fn worst_label(result: &SearchResult) -> String {
+    match result.condition {
+        Condition::EffectiveTension => format!(
+            "{}: effective tension, no frictional capacity",
+            result.measure.key()
+        ),
+        _ => result.measure.key().to_owned(),
+    }
+}
+
 /// The points of worst planes (their stresses are already in the display convention).
 #[must_use]
 pub fn worst_points(planes: &[WorstPlane]) -> Vec<MohrPoint> {
@@ -122,10 +136,9 @@ pub struct MohrLayout {
 }
 
 impl MohrLayout {
-    /// The layout for `figure` in a `width` × `height` picture.
+    /// The layout for `figure` in a `width` × `height` picture with text and lines of `sizes`.
     #[must_use]
-    pub fn new(figure: &MohrFigure, width: f32, height: f32) -> Self {
-        let sizes = Sizes::for_export(width, height);
+    pub fn new(figure: &MohrFigure, width: f32, height: f32, sizes: Sizes) -> Self {
         let k = sizes.line;
         let plot = [
             78.0 * k,
@@ -243,12 +256,12 @@ fn ticks(lo: f64, hi: f64, target_count: f64) -> Vec<f64> {
     (first..=last).map(|k| k as f64 * step).collect()
 }
 
-/// The figure at `width` × `height` pixels.
+/// The figure at `width` × `height` pixels, with text and lines of `sizes` (on screen the
+/// default sizes; in exports [`Sizes::for_export`]).
 #[must_use]
-pub fn mohr_frame(figure: &MohrFigure, width: u32, height: u32) -> Frame {
+pub fn mohr_frame(figure: &MohrFigure, width: u32, height: u32, sizes: Sizes) -> Frame {
     let (w, h) = (width as f32, height as f32);
-    let sizes = Sizes::for_export(w, h);
-    let layout = MohrLayout::new(figure, w, h);
+    let layout = MohrLayout::new(figure, w, h, sizes);
     let unit = figure.unit;
     let convention = figure.circles.convention;
     let mut frame = Frame {

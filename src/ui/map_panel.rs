@@ -188,6 +188,7 @@ pub fn map_figure(
     resolution: usize,
     width: u32,
     height: u32,
+    sizes: crate::draw::Sizes,
 ) -> crate::draw::Frame {
     let search = settings.measure.settings(settings);
     let map = orientation_map(&doc.tensor, &search, resolution);
@@ -206,7 +207,7 @@ pub fn map_figure(
         settings.convention.key()
     );
     let label = label_for(search.measure, settings, 4);
-    map_frame(&map, &marks, &title, &label, width, height)
+    map_frame(&map, &marks, &title, &label, width, height, sizes)
 }
 
 /// The orientation map tab.
@@ -220,6 +221,7 @@ pub fn map_ui(ui: &mut egui::Ui, doc: &Document, settings: &Settings, out: &mut 
         128,
         rect.width() as u32,
         rect.height() as u32,
+        crate::draw::Sizes::default(),
     );
     let label = label_for(search.measure, settings, 4);
     ui.painter_at(rect)

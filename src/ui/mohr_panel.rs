@@ -4,8 +4,10 @@
 //! that (σn, τ).
 
 use crate::app::{Coalesce, Command, Document, Settings};
-use crate::draw::egui_backend;
-use crate::draw::mohr::{Envelope, MohrFigure, MohrLayout, MohrPoint, mohr_frame, worst_points};
+use crate::draw::mohr::{
+    Envelope, MohrFigure, MohrLayout, MohrPoint, mohr_frame, worst_label, worst_points,
+};
+use crate::draw::{Sizes, egui_backend};
 use crate::format::sig;
 use crate::mechanics::criteria::MohrCoulomb;
 use crate::mechanics::mohr::MohrCircles;
@@ -16,8 +18,8 @@ use crate::mechanics::search::{Measure, worst_plane};
 pub fn figure(doc: &Document, settings: &Settings) -> MohrFigure {
     let circles = MohrCircles::new(&doc.tensor, settings.convention);
     let search = settings.measure.settings(settings);
-    let worst = worst_plane(&doc.tensor, &search)
-        .map(|r| worst_points(&r.planes))
+    let (worst, worst_label) = worst_plane(&doc.tensor, &search)
+        .map(|r| (worst_points(&r.planes), worst_label(&r)))
         .unwrap_or_default();
     let choice = &settings.measure;
     let show_envelope = settings.mohr_envelope || choice.measure == Measure::MohrCoulomb;
@@ -38,7 +40,7 @@ pub fn figure(doc: &Document, settings: &Settings) -> MohrFigure {
             "cut plane",
         )),
         worst,
-        worst_label: search.measure.key().to_owned(),
+        worst_label,
         envelope,
     }
 }
@@ -72,10 +74,20 @@ pub fn mohr_ui(ui: &mut egui::Ui, doc: &Document, settings: &mut Settings, out: 
     let figure = figure(doc, settings);
     let size = ui.available_size().max(egui::vec2(240.0, 180.0));
     let (rect, response) = ui.allocate_exact_size(size, egui::Sense::click_and_drag());
-    let frame = mohr_frame(&figure, rect.width() as u32, rect.height() as u32);
+    let frame = mohr_frame(
+        &figure,
+        rect.width() as u32,
+        rect.height() as u32,
+        Sizes::default(),
+    );
     ui.painter_at(rect)
         .extend(egui_backend::shapes(&frame, rect, ui.ctx()));
-    let layout = MohrLayout::new(&figure, rect.width().floor(), rect.height().floor());
+    let layout = MohrLayout::new(
+        &figure,
+        rect.width().floor(),
+        rect.height().floor(),
+        Sizes::default(),
+    );
     let local = |pos: egui::Pos2| [pos.x - rect.min.x, pos.y - rect.min.y];
     let unit = settings.unit;
     let stress = |pa: f64| format!("{} {unit}", sig(unit.from_pa(pa), 5));
