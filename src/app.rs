@@ -78,29 +78,17 @@ pub struct Settings {
     pub mohr_envelope: bool,
 }
 
-/// The pictures the central area can show.
-#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize, Deserialize, Default)]
+/// The pictures the central area can show (`--tab 3d|map|mohr`).
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize, Deserialize, Default, clap::ValueEnum)]
 pub enum Central {
     /// The 3D view.
     #[default]
+    #[value(name = "3d")]
     View3d,
     /// The orientation map.
     Map,
     /// The Mohr circles.
     Mohr,
-}
-
-impl Central {
-    /// The `--tab` key: `3d`, `map` or `mohr`.
-    #[must_use]
-    pub fn from_key(key: &str) -> Option<Self> {
-        match key {
-            "3d" => Some(Self::View3d),
-            "map" => Some(Self::Map),
-            "mohr" => Some(Self::Mohr),
-            _ => None,
-        }
-    }
 }
 
 impl Default for Settings {

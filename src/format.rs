@@ -27,6 +27,17 @@ pub fn sig(value: f64, significant: usize) -> String {
     if text == "-0" { "0".to_owned() } else { text }
 }
 
+/// "dip D° / dip direction A°", each to four significant digits: how every picture names a
+/// plane.
+#[must_use]
+pub fn dip_text(dip_deg: f64, dip_direction_deg: f64) -> String {
+    format!(
+        "dip {}° / dip direction {}°",
+        sig(dip_deg, 4),
+        sig(dip_direction_deg, 4)
+    )
+}
+
 /// `sig` with the unit appended, or "undefined" for `None`.
 #[must_use]
 pub fn with_unit(value: Option<f64>, unit: &str) -> String {

@@ -31,12 +31,7 @@ fn main() -> ExitCode {
         }
     };
     let Some(command) = cli.command else {
-        return match planewise::app::run(
-            cli.screenshot.as_deref(),
-            cli.tab
-                .as_deref()
-                .and_then(planewise::app::Central::from_key),
-        ) {
+        return match planewise::app::run(cli.screenshot.as_deref(), cli.tab) {
             Ok(()) => ExitCode::SUCCESS,
             Err(e) => {
                 eprintln!("planewise: {e:#}");

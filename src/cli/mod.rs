@@ -34,9 +34,9 @@ pub struct Cli {
     /// and exit (for README images and smoke tests).
     #[arg(long, value_name = "PATH")]
     pub screenshot: Option<std::path::PathBuf>,
-    /// The picture the window opens on: 3d, map or mohr.
-    #[arg(long, value_name = "TAB", value_parser = ["3d", "map", "mohr"])]
-    pub tab: Option<String>,
+    /// The picture the window opens on.
+    #[arg(long, value_name = "TAB")]
+    pub tab: Option<crate::app::Central>,
 }
 
 /// The subcommands.

@@ -3,7 +3,7 @@
 //! axes with units and the sign convention. The same frame goes to the screen, SVG and PNG.
 
 use super::{Anchor, Frame, Prim, Sizes, marker};
-use crate::format::sig;
+use crate::format::{dip_text, sig};
 use crate::mechanics::criteria::Condition;
 use crate::mechanics::criteria::MohrCoulomb;
 use crate::mechanics::mohr::{Circle, MohrCircles};
@@ -27,12 +27,10 @@ impl Envelope {
     /// envelope's apex.
     #[must_use]
     pub fn shear_strength_pa(&self, normal_stress_pa: f64, convention: SignConvention) -> f64 {
-        let compressive = match convention {
-            SignConvention::CompressionPositive => normal_stress_pa,
-            SignConvention::TensionPositive => -normal_stress_pa,
-        };
-        let tan_phi = self.material.friction_angle_deg.to_radians().tan();
-        self.material.cohesion_pa + (compressive - self.pore_pressure_pa) * tan_phi
+        // Back to tension positive, then negated: compression positive.
+        let compressive = -convention.sign() * normal_stress_pa;
+        self.material
+            .shear_strength_pa(compressive - self.pore_pressure_pa)
     }
 }
 
@@ -61,11 +59,7 @@ impl MohrPoint {
         Self {
             normal_stress_pa,
             shear_stress_pa,
-            name: format!(
-                "{what}: dip {}° / dip direction {}°",
-                sig(dip, 4),
-                sig(dip_direction, 4)
-            ),
+            name: format!("{what}: {}", dip_text(dip, dip_direction)),
         }
     }
 }
@@ -93,10 +87,9 @@ pub fn worst_points(planes: &[WorstPlane]) -> Vec<MohrPoint> {
             normal_stress_pa: p.normal_stress_pa,
             shear_stress_pa: p.shear_stress_pa,
             name: format!(
-                "worst plane {}: dip {}° / dip direction {}°",
+                "worst plane {}: {}",
                 i + 1,
-                sig(p.dip_deg, 4),
-                sig(p.dip_direction_deg, 4)
+                dip_text(p.dip_deg, p.dip_direction_deg)
             ),
         })
         .collect()

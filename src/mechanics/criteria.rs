@@ -120,6 +120,14 @@ impl MohrCoulomb {
         })
     }
 
+    /// Shear strength τ_f = c + σn' tan φ on a plane with effective normal stress σn'
+    /// (compression positive), Pa; negative beyond the envelope's apex (Coulomb 1776; Labuz &
+    /// Zang, Rock Mech. Rock Eng. 45:975, 2012, eq. 1).
+    #[must_use]
+    pub fn shear_strength_pa(&self, effective_normal_stress_pa: f64) -> f64 {
+        self.cohesion_pa + effective_normal_stress_pa * self.friction_angle_deg.to_radians().tan()
+    }
+
     /// Uniaxial compressive strength 2c cos φ / (1 − sin φ), Pa (Labuz & Zang, "Mohr–Coulomb
     /// failure criterion", Rock Mech. Rock Eng. 45:975, 2012, eq. 7).
     #[must_use]

@@ -5,7 +5,7 @@
 use crate::app::{Command, Document, Settings};
 use crate::draw::egui_backend;
 use crate::draw::map::{MapMarks, disc_geometry, map_frame};
-use crate::format::sig;
+use crate::format::{dip_text, sig};
 use crate::mechanics::criteria::MohrCoulomb;
 use crate::mechanics::search::{Measure, SearchSettings, worst_plane};
 use crate::mechanics::stereonet::{orientation_map, pole_at};
@@ -138,9 +138,8 @@ pub fn worst_plane_ui(
             ui.horizontal_wrapped(|ui| {
                 for (i, p) in result.planes.iter().enumerate() {
                     let tip = format!(
-                        "dip {}° / dip direction {}°, σn {}, τ {}",
-                        sig(p.dip_deg, 4),
-                        sig(p.dip_direction_deg, 4),
+                        "{}, σn {}, τ {}",
+                        dip_text(p.dip_deg, p.dip_direction_deg),
                         value_text(Measure::Shear, p.normal_stress_pa, settings),
                         value_text(Measure::Shear, p.shear_stress_pa, settings)
                     );
@@ -240,9 +239,16 @@ pub fn map_ui(ui: &mut egui::Ui, doc: &Document, settings: &Settings, out: &mut 
             let value = crate::mechanics::search::Objective::new(&doc.tensor, &search)
                 .at_normal(&n.vector())
                 .map_or_else(|| "undefined (no frictional capacity)".to_owned(), label);
-            format!("pole of dip {}° / dip direction {}°: {} = {value}. Click to make it the cut plane.", sig(dip, 4), sig(dd, 4), search.measure.key())
+            format!(
+                "pole of {}: {} = {value}. Click to make it the cut plane.",
+                dip_text(dip, dd),
+                search.measure.key()
+            )
         }
-        None => "Orientation map: hover a pole for its plane and value; click to set the cut plane.".to_owned(),
+        None => {
+            "Orientation map: hover a pole for its plane and value; click to set the cut plane."
+                .to_owned()
+        }
     });
     if response.clicked()
         && let Some(n) = response.interact_pointer_pos().and_then(to_map)

@@ -107,6 +107,7 @@ pub fn view_ui(ui: &mut egui::Ui, doc: &Document, settings: &mut Settings, out: 
 
     // The normal's handle: where it is on screen now, and whether a drag holds it.
     let handle_id = response.id.with("normal-handle");
+    let camera_before = settings.camera;
     let scene = Scene::build(&input(settings), &settings.camera.towards_eye());
     let view = settings.camera.screen_from_world(
         f64::from(rect.width()),
@@ -180,8 +181,12 @@ pub fn view_ui(ui: &mut egui::Ui, doc: &Document, settings: &mut Settings, out: 
         }
     }
 
-    // Rebuild for the camera as it is now (faces facing the viewer follow the orbit).
-    let scene = Scene::build(&input(settings), &settings.camera.towards_eye());
+    // Rebuild only when the camera moved this frame (faces facing the viewer follow the orbit).
+    let scene = if settings.camera == camera_before {
+        scene
+    } else {
+        Scene::build(&input(settings), &settings.camera.towards_eye())
+    };
     let frame = render(
         &scene,
         &settings.camera,
