@@ -349,3 +349,35 @@ fn worst_planes_are_outlined_in_their_planes_on_the_cube() {
     let scene = Scene::build(&off, &Vector3::z());
     assert!(!scene.segments.iter().any(|s| s.color == style::WORST_PLANE));
 }
+
+#[test]
+fn the_normal_handle_is_drawn_over_the_labels() {
+    let t = demo_tensor();
+    let frame = render(
+        &Scene::build(
+            &input(
+                &t,
+                only(|l| {
+                    l.cut_plane = true;
+                    l.labels = true;
+                }),
+            ),
+            &Camera::default().towards_eye(),
+        ),
+        &Camera::default(),
+        800.0,
+        600.0,
+        Sizes::default(),
+    );
+    let handle = frame
+        .prims
+        .iter()
+        .position(|p| matches!(p, Prim::Polygon { outline: Some((c, _)), fill, .. } if *c == style::PLANE_NORMAL && *fill == Rgba::rgb(255, 255, 255)))
+        .expect("no handle drawn");
+    let last_text = frame
+        .prims
+        .iter()
+        .rposition(|p| matches!(p, Prim::Text { .. }))
+        .unwrap();
+    assert!(handle > last_text, "a label covers the handle");
+}

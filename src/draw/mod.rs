@@ -6,8 +6,8 @@
 //! faces that face away from the eye are drawn first (front faces are left open so nothing is
 //! tinted wrongly), then everything on the far side of the cut plane from the eye, back to
 //! front, then the cut plane, then everything on the near side, back to front, then labels,
-//! legend and triad on top. Lines and arrow shafts are cut into short pieces so that each piece
-//! sorts on its own depth.
+//! the normal's handle, legend and triad on top. Lines and arrow shafts are cut into short
+//! pieces so that each piece sorts on its own depth.
 
 pub mod camera;
 pub mod egui_backend;
@@ -251,19 +251,6 @@ pub fn render(scene: &Scene, camera: &Camera, width: f32, height: f32, sizes: Si
     for arrow in &scene.arrows {
         push_arrow(&mut items, &view, arrow, sizes, &side_of);
     }
-    // Handles after arrows, so that at equal depth (the normal's tip) the grip is on top.
-    for handle in &scene.handles {
-        let p = view.project(&handle.at);
-        items.push(Item {
-            depth: p.depth,
-            side: side_of(&handle.at),
-            prim: Prim::Polygon {
-                points: regular_polygon(pos(&p), handle.radius_px * sizes.line, 20),
-                fill: handle.fill,
-                outline: Some((handle.outline, 1.8 * sizes.line)),
-            },
-        });
-    }
 
     back.sort_by(|a, b| b.depth.total_cmp(&a.depth));
     items.sort_by(|a, b| b.depth.total_cmp(&a.depth));
@@ -280,6 +267,16 @@ pub fn render(scene: &Scene, camera: &Camera, width: f32, height: f32, sizes: Si
     frame.prims.extend(near.into_iter().map(|i| i.prim));
 
     push_labels(&mut frame, scene, &view, sizes);
+    // Handles are grips for the pointer: always on top, labels included, so they can be seen
+    // and grabbed from every view.
+    for handle in &scene.handles {
+        let p = view.project(&handle.at);
+        frame.prims.push(Prim::Polygon {
+            points: regular_polygon(pos(&p), handle.radius_px * sizes.line, 20),
+            fill: handle.fill,
+            outline: Some((handle.outline, 1.8 * sizes.line)),
+        });
+    }
     if scene.triad {
         push_triad(&mut frame, &view, sizes);
     }
