@@ -25,12 +25,13 @@ pub enum ExportError {
     #[error(transparent)]
     Png(#[from] png::PngError),
     /// Writing failed.
-    #[error("could not write '{path}': {source}")]
+    #[error("could not write '{path}': {cause}")]
     Io {
         /// The file.
         path: PathBuf,
-        /// The cause.
-        source: std::io::Error,
+        /// The operating system's error. Not marked as the error's source on purpose: the
+        /// message already says it, and an error chain would print it a second time.
+        cause: std::io::Error,
     },
 }
 
@@ -60,9 +61,9 @@ pub fn encode(frame: &Frame, format: ImageFormat, title: &str) -> Result<Vec<u8>
 
 /// Writes `bytes` to `path` atomically.
 pub fn write_atomic(path: &Path, bytes: &[u8]) -> Result<(), ExportError> {
-    let io = |source| ExportError::Io {
+    let io = |cause| ExportError::Io {
         path: path.to_owned(),
-        source,
+        cause,
     };
     let dir = path
         .parent()

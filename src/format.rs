@@ -27,6 +27,31 @@ pub fn sig(value: f64, significant: usize) -> String {
     if text == "-0" { "0".to_owned() } else { text }
 }
 
+/// `value` rounded to 15 significant digits: what a converted number can be trusted to, so
+/// that 30 ksi typed and converted to pascals and back reads 30, not 30.000000000000004.
+/// Used on every number the JSON output carries.
+#[must_use]
+pub fn clean(value: f64) -> f64 {
+    if !value.is_finite() || value == 0.0 {
+        return value;
+    }
+    format!("{value:.14e}").parse().unwrap_or(value)
+}
+
+/// Significant digits that tell every neighbour in `values` apart (at least `min_digits`, at
+/// most 15): for axis ticks and colour-bar labels, so that no two neighbouring labels read the
+/// same unless their values are the same.
+#[must_use]
+pub fn distinct_digits(values: &[f64], min_digits: usize) -> usize {
+    (min_digits..=15)
+        .find(|&d| {
+            values
+                .windows(2)
+                .all(|w| w[0] == w[1] || sig(w[0], d) != sig(w[1], d))
+        })
+        .unwrap_or(15)
+}
+
 /// "dip D° / dip direction A°", each to four significant digits: how every picture names a
 /// plane.
 #[must_use]
@@ -60,5 +85,19 @@ mod tests {
         assert_eq!(sig(-1e-20, 6), "-1.00000e-20");
         assert_eq!(sig(-0.000_000_1, 1), "-1e-7");
         assert_eq!(sig(f64::NAN, 3), "undefined");
+    }
+
+    #[test]
+    fn clean_and_distinct() {
+        use super::{clean, distinct_digits};
+        // 30 ksi to pascals and back (NIST SP 811 factor) is 30.000000000000004 in f64.
+        let pa = 30.0 * 6_894_757.293_168;
+        assert_ne!(pa / 6_894_757.293_168, 30.0);
+        assert_eq!(clean(pa / 6_894_757.293_168), 30.0);
+        assert_eq!(clean(-0.1 - 0.2), -0.3);
+        let ticks = [99.98, 99.99, 100.0, 100.01];
+        let d = distinct_digits(&ticks, 4);
+        assert_eq!(d, 5);
+        assert_eq!(distinct_digits(&[1.0, 2.0, 3.0], 4), 4);
     }
 }

@@ -18,6 +18,9 @@ pub enum NumberError {
     /// The text names NaN or infinity.
     #[error("'{0}' is not a finite number")]
     NonFinite(String),
+    /// A non-zero number so small that it becomes zero in f64.
+    #[error("'{0}' is too small (it underflows to zero)")]
+    Underflow(String),
 }
 
 /// Parses one finite decimal number; surrounding white space is ignored.
@@ -29,6 +32,15 @@ pub fn number(text: &str) -> Result<f64, NumberError> {
     let value: f64 = t
         .parse()
         .map_err(|_| NumberError::NotANumber(t.to_owned()))?;
+    if value == 0.0 {
+        // "1e-400" parses to 0; a non-zero digit before the exponent means the user meant
+        // something else than zero.
+        let mantissa = t.split(['e', 'E']).next().unwrap_or("");
+        if mantissa.chars().any(|c| ('1'..='9').contains(&c)) {
+            return Err(NumberError::Underflow(t.to_owned()));
+        }
+        return Ok(value);
+    }
     if value.is_finite() {
         return Ok(value);
     }
@@ -44,6 +56,9 @@ pub fn number(text: &str) -> Result<f64, NumberError> {
 /// Why a `key=value,…` stress list is unusable.
 #[derive(Debug, Clone, PartialEq, Eq, thiserror::Error)]
 pub enum StressListError {
+    /// Nothing was given.
+    #[error("no components given (expected key=value pairs such as xx=120,xy=-35)")]
+    Empty,
     /// An item has no `=`.
     #[error("item '{0}' is not of the form key=value")]
     NotKeyValue(String),
@@ -68,6 +83,9 @@ pub enum StressListError {
 pub fn stress_list(text: &str) -> Result<[f64; 6], StressListError> {
     let mut values = [0.0; 6];
     let mut seen = [false; 6];
+    if text.split(',').all(|s| s.trim().is_empty()) {
+        return Err(StressListError::Empty);
+    }
     for item in text.split(',').map(str::trim).filter(|s| !s.is_empty()) {
         let Some((key, value)) = item.split_once('=') else {
             return Err(StressListError::NotKeyValue(item.to_owned()));
@@ -144,6 +162,12 @@ mod tests {
         assert_eq!(number("1e999"), Err(NumberError::Overflow("1e999".into())));
         assert_eq!(number("NaN"), Err(NumberError::NonFinite("NaN".into())));
         assert_eq!(number("-inf"), Err(NumberError::NonFinite("-inf".into())));
+        assert_eq!(
+            number("1e-400"),
+            Err(NumberError::Underflow("1e-400".into()))
+        );
+        assert_eq!(number("0e-400"), Ok(0.0));
+        assert_eq!(number("-0.000"), Ok(0.0));
     }
 
     #[test]
@@ -164,6 +188,8 @@ mod tests {
             stress_list("xx"),
             Err(StressListError::NotKeyValue("xx".into()))
         );
+        assert_eq!(stress_list(""), Err(StressListError::Empty));
+        assert_eq!(stress_list(" , "), Err(StressListError::Empty));
         assert!(matches!(
             stress_list("zz=nan"),
             Err(StressListError::Value { .. })

@@ -148,7 +148,7 @@ pub fn rows(
         "triaxiality".into(),
         a.triaxiality
             .map_or_else(|| "undefined".to_owned(), |t| sig(t, 5)),
-        "η = σm / σvM; undefined when J2 = 0",
+        "η = σm / σvM with the tension-positive mean stress in either convention (negative in compression); undefined when J2 = 0",
     );
     let ps = PlaneStress::new(tensor, plane, convention);
     let (dip, dd) = plane.dip_deg();
@@ -168,7 +168,7 @@ pub fn rows(
         "Cut plane",
         "traction t".into(),
         format!("{} {sym}", vector(&(ps.traction_pa / u))),
-        "t = σ n (Cauchy)",
+        "t = σ·n (Cauchy): the traction the material n points into exerts on the material behind the plane, with σ as shown",
     );
     push(
         "Cut plane",
@@ -187,7 +187,13 @@ pub fn rows(
         "shear direction".into(),
         ps.shear_direction
             .map_or_else(|| "undefined (no shear)".to_owned(), |d| vector(&d)),
-        "(t − σn n) / τ",
+        "Direction of the shear traction on the material behind the plane from the material n points into, in tension-positive physics whatever the convention: (t − σn n) / τ with tension-positive t",
+    );
+    push(
+        "Cut plane",
+        "rake".into(),
+        with_unit(ps.rake_deg(), "°"),
+        "Angle in the plane from strike (dip direction − 90°) to the hanging wall's slip, counter-clockwise seen from above: +90° reverse, −90° normal, 0° left-lateral, 180° right-lateral (Aki & Richards 1980); undefined without shear or for a horizontal plane",
     );
     out
 }

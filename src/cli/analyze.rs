@@ -7,7 +7,7 @@ use nalgebra::Vector3;
 use serde::Serialize;
 
 use super::{CliError, PlaneArgs, StressArgs, StressInput};
-use crate::format::{sig, with_unit};
+use crate::format::{clean, sig, with_unit};
 use crate::mechanics::{Analysis, Component, PlaneNormal, PlaneStress};
 
 /// Arguments of `planewise analyze`.
@@ -85,11 +85,16 @@ pub struct PlaneJson {
     pub traction: [f64; 3],
     pub normal_stress: f64,
     pub shear_stress: f64,
+    /// Unit direction of the shear traction exerted on the material behind the plane by the
+    /// material the normal points into (tension-positive physics, whatever the convention).
     pub shear_direction: Option<[f64; 3]>,
+    /// Rake of the hanging wall's slip in the plane (Aki & Richards), degrees; null when the
+    /// shear is negligible or the plane is horizontal.
+    pub rake_deg: Option<f64>,
 }
 
 fn arr(v: &Vector3<f64>) -> [f64; 3] {
-    [v.x, v.y, v.z]
+    [v.x, v.y, v.z].map(clean)
 }
 
 /// Builds the JSON object for a state and optional plane.
@@ -98,7 +103,9 @@ pub fn to_json(input: &StressInput, plane: Option<PlaneNormal>) -> AnalyzeJson {
     let u = input.unit.pascals();
     let sign = input.convention.sign();
     let a = Analysis::new(&input.tensor, input.convention);
-    let c = input.tensor.components_pa().map(|v| sign * v / u);
+    // Every number through `clean`: a value typed in psi comes back as typed.
+    let st = |pa: f64| clean(pa / u);
+    let c = input.tensor.components_pa().map(|v| st(sign * v));
     let inv = &a.invariants;
     AnalyzeJson {
         unit: input.unit.symbol().to_owned(),
@@ -112,35 +119,36 @@ pub fn to_json(input: &StressInput, plane: Option<PlaneNormal>) -> AnalyzeJson {
             zx: c[5],
         },
         principal: PrincipalJson {
-            values: a.principal.values_pa.map(|v| v / u),
+            values: a.principal.values_pa.map(st),
             directions: a.principal.directions.map(|d| arr(&d)),
         },
         invariants: InvariantsJson {
-            i1: inv.i1 / u,
-            i2: inv.i2 / (u * u),
-            i3: inv.i3 / (u * u * u),
-            j2: inv.j2 / (u * u),
-            j3: inv.j3 / (u * u * u),
+            i1: st(inv.i1),
+            i2: clean(inv.i2 / (u * u)),
+            i3: clean(inv.i3 / (u * u * u)),
+            j2: clean(inv.j2 / (u * u)),
+            j3: clean(inv.j3 / (u * u * u)),
         },
-        mean_stress: a.mean_stress_pa / u,
-        von_mises: a.von_mises_pa / u,
-        tresca: a.tresca_pa / u,
-        max_shear: a.max_shear_pa / u,
+        mean_stress: st(a.mean_stress_pa),
+        von_mises: st(a.von_mises_pa),
+        tresca: st(a.tresca_pa),
+        max_shear: st(a.max_shear_pa),
         max_shear_normals: a.max_shear_normals.map(|n| arr(&n)),
         octahedral: OctahedralJson {
-            normal: a.octahedral_normal_pa / u,
-            shear: a.octahedral_shear_pa / u,
+            normal: st(a.octahedral_normal_pa),
+            shear: st(a.octahedral_shear_pa),
         },
-        lode_angle_deg: a.lode_angle_deg,
-        triaxiality: a.triaxiality,
+        lode_angle_deg: a.lode_angle_deg.map(clean),
+        triaxiality: a.triaxiality.map(clean),
         plane: plane.map(|n| {
             let ps = PlaneStress::new(&input.tensor, n, input.convention);
             PlaneJson {
                 normal: arr(&n.vector()),
                 traction: arr(&(ps.traction_pa / u)),
-                normal_stress: ps.normal_stress_pa / u,
-                shear_stress: ps.shear_stress_pa / u,
+                normal_stress: st(ps.normal_stress_pa),
+                shear_stress: st(ps.shear_stress_pa),
                 shear_direction: ps.shear_direction.map(|d| arr(&d)),
+                rake_deg: ps.rake_deg().map(clean),
             }
         }),
     }
@@ -222,7 +230,7 @@ pub fn to_text(j: &AnalyzeJson) -> String {
         let _ = writeln!(
             s,
             "  {:<23} {} {u}",
-            "traction t = σn",
+            "traction t = σ·n",
             vec_text(&p.traction)
         );
         let _ = writeln!(
@@ -242,6 +250,15 @@ pub fn to_text(j: &AnalyzeJson) -> String {
             .as_ref()
             .map_or_else(|| "undefined (no shear)".to_owned(), vec_text);
         let _ = writeln!(s, "  {:<23} {dir}", "shear direction");
+        let rake = p.rake_deg.map_or_else(
+            || "undefined (no shear, or a horizontal plane)".to_owned(),
+            |r| format!("{}°", sig(r, 5)),
+        );
+        let _ = writeln!(s, "  {:<23} {rake}", "rake");
+        let _ = writeln!(
+            s,
+            "  (shear direction: the shear on the material behind the plane from the material n points into, tension-positive physics; rake: the hanging wall's slip from strike, Aki & Richards, reverse +90°)"
+        );
     }
     s
 }

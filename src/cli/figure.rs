@@ -4,7 +4,7 @@ use std::path::PathBuf;
 
 use clap::Args;
 
-use super::worst_plane::{MaterialArgs, parse_measure, search_settings};
+use super::worst_plane::{MaterialArgs, no_material, parse_measure, search_settings};
 use super::{ArgError, CliError, PlaneArgs, StressArgs};
 use crate::draw::camera::{Camera, Projection, ViewPreset};
 use crate::export::{self, ImageFormat};
@@ -118,18 +118,18 @@ pub fn run(args: &FigureArgs) -> Result<String, CliError> {
     if args.perspective {
         camera.projection = Projection::Perspective;
     }
-    let worst: Vec<PlaneNormal> = match &args.measure {
-        Some(key) => {
-            let settings = search_settings(parse_measure(key)?, &args.material, &input)?;
-            layers.worst_planes = true;
-            worst_plane(&input.tensor, &settings)
-                .map_err(|e| ArgError::new("--measure", e))?
-                .planes
-                .iter()
-                .map(|p| p.normal)
-                .collect()
-        }
-        None => Vec::new(),
+    let worst: Vec<PlaneNormal> = if let Some(key) = &args.measure {
+        let settings = search_settings(parse_measure(key)?, &args.material, &input, false)?;
+        layers.worst_planes = true;
+        worst_plane(&input.tensor, &settings)
+            .map_err(|e| ArgError::new("--measure", e))?
+            .planes
+            .iter()
+            .map(|p| p.normal)
+            .collect()
+    } else {
+        no_material(&args.material, &input)?;
+        Vec::new()
     };
     let scene_input = SceneInput {
         tensor: &input.tensor,

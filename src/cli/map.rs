@@ -8,9 +8,8 @@ use clap::Args;
 use super::figure::parse_size;
 use super::worst_plane::MeasureArgs;
 use super::{ArgError, CliError, PlaneArgs, StressArgs};
-use crate::draw::map::{MapMarks, map_frame};
+use crate::draw::map::{MapMarks, MapMeasure, map_frame};
 use crate::export::{self, ImageFormat};
-use crate::format::sig;
 use crate::mechanics::Analysis;
 use crate::mechanics::search::worst_plane;
 use crate::mechanics::stereonet::orientation_map;
@@ -64,37 +63,17 @@ pub fn run(args: &MapArgs) -> Result<String, CliError> {
         principal: shown.principal.directions,
         plane,
         worst: worst.planes.iter().map(|p| p.normal).collect(),
+        cone: worst.cone,
     };
-    let unit = input.unit;
-    let is_stress = settings.measure.is_stress();
-    let label = move |v: f64| {
-        if is_stress {
-            format!("{} {}", sig(unit.from_pa(v), 4), unit.symbol())
-        } else {
-            sig(v, 4)
-        }
+    let what = MapMeasure {
+        measure: settings.measure,
+        unit: input.unit,
+        convention: input.convention,
     };
-    let sign_note = match settings.measure {
-        crate::mechanics::search::Measure::NormalMin => " (shown as −σn)",
-        _ => "",
-    };
-    let title = format!(
-        "{}{sign_note} — {} · {}",
-        settings.measure.key(),
-        unit.symbol(),
-        match settings.measure {
-            crate::mechanics::search::Measure::SlipTendency
-            | crate::mechanics::search::Measure::DilationTendency
-            | crate::mechanics::search::Measure::MohrCoulomb =>
-                "compression-positive effective stress".to_owned(),
-            _ => input.convention.key().to_owned(),
-        }
-    );
     let frame = map_frame(
         &map,
         &marks,
-        &title,
-        &label,
+        &what,
         w,
         h,
         crate::draw::Sizes::for_export(w as f32, h as f32),

@@ -67,7 +67,8 @@ pub struct StressArgs {
     /// components are 0; yx, zy, xz are accepted for xy, yz, zx.
     #[arg(long, value_name = "KEY=VALUE,…", allow_hyphen_values = true)]
     pub stress: String,
-    /// Unit of every stress typed and printed: Pa, kPa, MPa, GPa, psi or ksi.
+    /// Unit of every stress typed and printed, exactly as written: Pa, kPa, MPa, GPa, psi or
+    /// ksi (N/mm² and N/mm2 are read as MPa).
     #[arg(long, value_name = "UNIT", default_value = "MPa")]
     pub unit: String,
     /// Stresses typed and printed are compression-positive (geomechanics).
@@ -104,6 +105,24 @@ impl StressArgs {
             convention,
         })
     }
+}
+
+/// Parses a stress typed in `unit` (pore pressure, cohesion) and converts it to pascals; the
+/// same limit as the tensor's components applies.
+pub fn stress_value(arg: &'static str, text: &str, unit: StressUnit) -> Result<f64, ArgError> {
+    let value = parse::number(text).map_err(|e| ArgError::new(arg, e))?;
+    let pa = unit.to_pa(value);
+    // `parse::number` only returns finite numbers, so the product is finite or ±inf.
+    if pa.abs() > crate::mechanics::tensor::MAX_STRESS_PA {
+        return Err(ArgError::new(
+            arg,
+            format!(
+                "'{}' is out of range (magnitude above 1e30 Pa)",
+                text.trim()
+            ),
+        ));
+    }
+    Ok(pa)
 }
 
 /// A plane given by its normal or by dip and dip direction.

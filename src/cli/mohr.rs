@@ -40,14 +40,14 @@ pub struct MohrArgs {
 pub fn run(args: &MohrArgs) -> Result<String, CliError> {
     let input = args.stress.read()?;
     let plane = args.plane.read()?;
-    let (pore_pressure_pa, material) = args.material.read(&input)?;
+    let measure = args.measure.as_deref().map(parse_measure).transpose()?;
+    let (pore_pressure_pa, material) = args.material.read(&input, measure, true)?;
     let (w, h) = parse_size(&args.size)?;
     ImageFormat::from_path(&args.out).map_err(|e| ArgError::new("--out", e))?;
     let circles = MohrCircles::new(&input.tensor, input.convention);
-    let (worst, worst_label) = match &args.measure {
-        Some(key) => {
-            let measure = parse_measure(key)?;
-            let settings = search_settings(measure, &args.material, &input)?;
+    let (worst, worst_label) = match measure {
+        Some(measure) => {
+            let settings = search_settings(measure, &args.material, &input, true)?;
             let result =
                 worst_plane(&input.tensor, &settings).map_err(|e| ArgError::new("--measure", e))?;
             (worst_points(&result.planes), worst_label(&result))

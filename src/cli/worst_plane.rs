@@ -6,9 +6,10 @@ use clap::Args;
 use serde::Serialize;
 
 use super::{ArgError, CliError, StressArgs, StressInput};
-use crate::format::sig;
-use crate::mechanics::criteria::{Condition, CriterionError, MohrCoulomb};
-use crate::mechanics::search::{Measure, SearchSettings, worst_plane};
+use crate::format::{clean, sig};
+use crate::mechanics::PlaneStress;
+use crate::mechanics::criteria::{CriterionError, MohrCoulomb};
+use crate::mechanics::search::{Measure, SearchSettings, WorstCondition, worst_plane};
 use crate::parse;
 
 /// Pore pressure and Mohr–Coulomb material, shared by `worst-plane`, `map` and `mohr`.
@@ -27,27 +28,53 @@ pub struct MaterialArgs {
 }
 
 impl MaterialArgs {
+    /// Whether any of the three was given.
+    fn any(&self) -> bool {
+        self.pore_pressure.is_some() || self.cohesion.is_some() || self.friction_angle.is_some()
+    }
+
     /// The pore pressure (Pa, 0 when not given) and the material, if both cohesion and friction
-    /// angle are given (stresses in `input.unit`).
-    pub fn read(&self, input: &StressInput) -> Result<(f64, Option<MohrCoulomb>), ArgError> {
+    /// angle are given (stresses in `input.unit`). `measure` is the measure in use, if any;
+    /// `envelope` says whether the command also draws a Mohr–Coulomb envelope from the material.
+    /// An argument that nothing uses is bad input, not silently ignored.
+    pub fn read(
+        &self,
+        input: &StressInput,
+        measure: Option<Measure>,
+        envelope: bool,
+    ) -> Result<(f64, Option<MohrCoulomb>), ArgError> {
         let unit = input.unit;
         let stress_arg =
             |name: &'static str, text: &Option<String>| -> Result<Option<f64>, ArgError> {
                 text.as_deref()
-                    .map(|t| {
-                        parse::number(t)
-                            .map(|v| unit.to_pa(v))
-                            .map_err(|e| ArgError::new(name, e))
-                    })
+                    .map(|t| super::stress_value(name, t, unit))
                     .transpose()
             };
-        let pore_pressure_pa = stress_arg("--pore-pressure", &self.pore_pressure)?.unwrap_or(0.0);
+        let pore_pressure_pa = stress_arg("--pore-pressure", &self.pore_pressure)?;
         let cohesion_pa = stress_arg("--cohesion", &self.cohesion)?;
         let friction = self
             .friction_angle
             .as_deref()
             .map(|t| parse::number(t).map_err(|e| ArgError::new("--friction-angle", e)))
             .transpose()?;
+        let measure_text = measure.map_or_else(
+            || "no --measure is given".to_owned(),
+            |m| format!("the measure is {}", m.key()),
+        );
+        let material_used = measure.is_some_and(Measure::uses_material) || envelope;
+        if !material_used {
+            for (given, name) in [
+                (cohesion_pa.is_some(), "--cohesion"),
+                (friction.is_some(), "--friction-angle"),
+            ] {
+                if given {
+                    return Err(ArgError::new(
+                        name,
+                        format!("applies only to --measure mohr-coulomb ({measure_text})"),
+                    ));
+                }
+            }
+        }
         let material = match (cohesion_pa, friction) {
             (Some(c), Some(phi)) => Some(MohrCoulomb::new(c, phi).map_err(|e| {
                 let arg = if matches!(e, CriterionError::Cohesion) {
@@ -71,29 +98,46 @@ impl MaterialArgs {
                 ));
             }
         };
-        Ok((pore_pressure_pa, material))
+        let pore_used =
+            measure.is_some_and(Measure::uses_pore_pressure) || (envelope && material.is_some());
+        if pore_pressure_pa.is_some() && !pore_used {
+            let also = if envelope {
+                " or to the Mohr–Coulomb envelope (--cohesion and --friction-angle)"
+            } else {
+                ""
+            };
+            return Err(ArgError::new(
+                "--pore-pressure",
+                format!(
+                    "applies only to --measure slip-tendency or mohr-coulomb{also} ({measure_text})"
+                ),
+            ));
+        }
+        Ok((pore_pressure_pa.unwrap_or(0.0), material))
     }
 }
 
 /// Parses a measure key; the error names `--measure` and lists the keys.
 pub fn parse_measure(key: &str) -> Result<Measure, ArgError> {
     Measure::from_key(key).ok_or_else(|| {
+        let keys: Vec<&str> = Measure::ALL.iter().map(|m| m.key()).collect();
         ArgError::new(
             "--measure",
-            format!(
-                "unknown measure '{key}' (expected shear, normal-max, normal-min, traction, slip-tendency, dilation-tendency, mohr-coulomb)"
-            ),
+            format!("unknown measure '{key}' (expected {})", keys.join(", ")),
         )
     })
 }
 
-/// The search settings for `measure`; mohr-coulomb without a material is bad input.
+/// The search settings for `measure`; mohr-coulomb without a material, or a material argument
+/// the measure does not use, is bad input. `envelope`: the command also draws the Mohr–Coulomb
+/// envelope from the material.
 pub fn search_settings(
     measure: Measure,
     material: &MaterialArgs,
     input: &StressInput,
+    envelope: bool,
 ) -> Result<SearchSettings, ArgError> {
-    let (pore_pressure_pa, material) = material.read(input)?;
+    let (pore_pressure_pa, material) = material.read(input, Some(measure), envelope)?;
     if measure == Measure::MohrCoulomb && material.is_none() {
         return Err(ArgError::new(
             "--measure",
@@ -106,6 +150,14 @@ pub fn search_settings(
         pore_pressure_pa,
         material,
     })
+}
+
+/// Refuses material arguments when no measure uses them (commands whose measure is optional).
+pub fn no_material(material: &MaterialArgs, input: &StressInput) -> Result<(), ArgError> {
+    if material.any() {
+        material.read(input, None, false)?;
+    }
+    Ok(())
 }
 
 /// The measure and its parameters, shared by `worst-plane` and `map`.
@@ -121,7 +173,7 @@ pub struct MeasureArgs {
 impl MeasureArgs {
     /// Reads the measure and its parameters (stresses in `input.unit`).
     pub fn read(&self, input: &StressInput) -> Result<SearchSettings, ArgError> {
-        search_settings(parse_measure(&self.measure)?, &self.material, input)
+        search_settings(parse_measure(&self.measure)?, &self.material, input, false)
     }
 }
 
@@ -141,14 +193,29 @@ pub struct WorstPlaneArgs {
 #[derive(Debug, Serialize)]
 pub struct WorstPlaneJson {
     pub measure: String,
+    /// Unit of the planes' stresses.
     pub unit: String,
+    /// Unit of `value`: the stress unit for stress measures, null for dimensionless ones.
+    pub value_unit: Option<String>,
     pub convention: String,
-    /// The worst value (input unit for stress measures, dimensionless otherwise); null when some
-    /// plane has no frictional capacity left or the measure is undefined.
+    /// The worst value, the measure itself (for normal-min the smallest normal stress); null
+    /// when some plane has no frictional capacity left or the measure is undefined.
     pub value: Option<f64>,
-    /// "defined", "effective-tension" or "undefined".
-    pub condition: Condition,
+    /// "defined", "effective-tension", "undefined", "every-plane" or "cone".
+    pub condition: WorstCondition,
+    /// With "cone": every plane whose normal makes `half_angle_deg` with `axis` is worst.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub cone: Option<ConeJson>,
     pub planes: Vec<PlaneJson>,
+}
+
+/// A cone of worst normals.
+#[derive(Debug, Serialize)]
+pub struct ConeJson {
+    /// Unit axis, z ≥ 0.
+    pub axis: [f64; 3],
+    /// Angle between each worst normal and the axis, degrees.
+    pub half_angle_deg: f64,
 }
 
 /// One plane.
@@ -159,6 +226,30 @@ pub struct PlaneJson {
     pub dip_direction_deg: f64,
     pub normal_stress: f64,
     pub shear_stress: f64,
+    /// Rake of the hanging wall's slip (Aki & Richards), degrees; null without shear or strike.
+    pub rake_deg: Option<f64>,
+}
+
+/// What the condition says in the text output, after the value.
+fn condition_text(condition: WorstCondition, cone: Option<&ConeJson>, measure: Measure) -> String {
+    match (condition, cone) {
+        (WorstCondition::EveryPlane, _) => {
+            "every plane carries the same stress (hydrostatic state); one plane is listed"
+                .to_owned()
+        }
+        (WorstCondition::Cone, Some(c)) => format!(
+            "attained on a cone of planes: every normal at {}° from the axis ({}, {}, {}); representatives listed",
+            sig(c.half_angle_deg, 5),
+            sig(c.axis[0], 6),
+            sig(c.axis[1], 6),
+            sig(c.axis[2], 6)
+        ),
+        (WorstCondition::EffectiveTension, _) => format!(
+            "planes with zero or tensile effective normal stress have no frictional capacity ({} undefined); the plane normal to the least compressive principal stress, which has the least effective normal stress, is listed",
+            measure.key()
+        ),
+        _ => String::new(),
+    }
 }
 
 /// Runs the subcommand.
@@ -173,22 +264,30 @@ pub fn run(args: &WorstPlaneArgs) -> Result<String, CliError> {
     let json = WorstPlaneJson {
         measure: measure.key().to_owned(),
         unit: unit.symbol().to_owned(),
+        value_unit: measure.is_stress().then(|| unit.symbol().to_owned()),
         convention: input.convention.key().to_owned(),
         value: result
             .value
-            .map(|v| if measure.is_stress() { v / u } else { v }),
+            .map(|v| clean(if measure.is_stress() { v / u } else { v })),
         condition: result.condition,
+        cone: result.cone.map(|c| ConeJson {
+            axis: c.axis.map(clean).into(),
+            half_angle_deg: clean(c.half_angle_deg),
+        }),
         planes: result
             .planes
             .iter()
             .map(|p| {
                 let n = p.normal.vector();
+                let rake_deg =
+                    PlaneStress::new(&input.tensor, p.normal, input.convention).rake_deg();
                 PlaneJson {
-                    normal: [n.x, n.y, n.z],
-                    dip_deg: p.dip_deg,
-                    dip_direction_deg: p.dip_direction_deg,
-                    normal_stress: p.normal_stress_pa / u,
-                    shear_stress: p.shear_stress_pa / u,
+                    normal: [n.x, n.y, n.z].map(clean),
+                    dip_deg: clean(p.dip_deg),
+                    dip_direction_deg: clean(p.dip_direction_deg),
+                    normal_stress: clean(p.normal_stress_pa / u),
+                    shear_stress: clean(p.shear_stress_pa / u),
+                    rake_deg: rake_deg.map(clean),
                 }
             })
             .collect(),
@@ -199,21 +298,28 @@ pub fn run(args: &WorstPlaneArgs) -> Result<String, CliError> {
         return Ok(text);
     }
     let mut s = String::new();
-    let value = match (json.value, json.condition) {
-        (Some(v), _) if measure.is_stress() => format!("{} {}", sig(v, 6), json.unit),
-        (Some(v), _) => sig(v, 6),
-        (None, Condition::EffectiveTension) => "undefined: some planes have zero or tensile effective normal stress (no frictional capacity); those are listed".to_owned(),
-        (None, _) => "undefined for this state".to_owned(),
+    let value = match json.value {
+        Some(v) if measure.is_stress() => format!("{} {}", sig(v, 6), json.unit),
+        Some(v) => format!("{} (dimensionless)", sig(v, 6)),
+        None => "undefined".to_owned(),
     };
-    let _ = writeln!(
-        s,
-        "Worst plane for {} ({}, {}): {value}",
-        json.measure, json.unit, json.convention
-    );
+    let heading = if measure.is_stress() {
+        format!("{}, {}", json.unit, json.convention)
+    } else {
+        format!("a ratio; stresses in {}, {}", json.unit, json.convention)
+    };
+    let _ = writeln!(s, "Worst plane for {} ({heading}): {value}", json.measure);
+    let note = condition_text(json.condition, json.cone.as_ref(), measure);
+    if !note.is_empty() {
+        let _ = writeln!(s, "  {note}");
+    }
     for p in &json.planes {
+        let rake = p
+            .rake_deg
+            .map_or_else(|| "undefined".to_owned(), |r| format!("{}°", sig(r, 5)));
         let _ = writeln!(
             s,
-            "  normal ({}, {}, {})  dip {}° / dip direction {}°  σn {} {u}  τ {} {u}",
+            "  normal ({}, {}, {})  dip {}° / dip direction {}°  σn {} {u}  τ {} {u}  rake {rake}",
             sig(p.normal[0], 6),
             sig(p.normal[1], 6),
             sig(p.normal[2], 6),

@@ -6,8 +6,10 @@ use std::sync::Arc;
 use nalgebra::Vector3;
 
 use super::{Anchor, Frame, Prim, Sizes, marker};
-use crate::mechanics::PlaneNormal;
+use crate::format::{distinct_digits, sig};
+use crate::mechanics::search::{Cone, Measure, cone_normals};
 use crate::mechanics::stereonet::{OrientationMap, project_pole, viridis};
+use crate::mechanics::{PlaneNormal, SignConvention, StressUnit};
 use crate::scene::style;
 
 /// What is marked on the map besides the colours.
@@ -19,6 +21,54 @@ pub struct MapMarks {
     pub plane: Option<PlaneNormal>,
     /// The worst planes.
     pub worst: Vec<PlaneNormal>,
+    /// A cone of worst planes (two equal principal values): its poles are drawn as a circle.
+    pub cone: Option<Cone>,
+}
+
+/// What the map shows and in which unit and convention.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct MapMeasure {
+    /// The measure.
+    pub measure: Measure,
+    /// Unit of stress measures.
+    pub unit: StressUnit,
+    /// Display convention (normal-max, normal-min).
+    pub convention: SignConvention,
+}
+
+impl MapMeasure {
+    /// The map's title, the same in the window and in `planewise map`.
+    #[must_use]
+    pub fn title(&self) -> String {
+        let key = self.measure.key();
+        if self.measure.is_stress() {
+            format!(
+                "Orientation map: {key} ({}, {})",
+                self.unit.symbol(),
+                match self.measure {
+                    Measure::NormalMax | Measure::NormalMin => self.convention.key(),
+                    _ => "magnitude",
+                }
+            )
+        } else {
+            format!("Orientation map: {key} (dimensionless; compression-positive effective stress)")
+        }
+    }
+
+    /// A value as the colour bar and hover text print it: with the unit for stress measures,
+    /// without for ratios.
+    #[must_use]
+    pub fn value_text(&self, value: f64, digits: usize) -> String {
+        if self.measure.is_stress() {
+            format!(
+                "{} {}",
+                sig(self.unit.from_pa(value), digits),
+                self.unit.symbol()
+            )
+        } else {
+            sig(value, digits)
+        }
+    }
 }
 
 /// Where the disc sits in a `width` × `height` figure: centre and radius in pixels.
@@ -34,13 +84,12 @@ fn to_px(centre: [f32; 2], r: f32, xy: [f64; 2]) -> [f32; 2] {
     [centre[0] + xy[0] as f32 * r, centre[1] - xy[1] as f32 * r]
 }
 
-/// The figure. `value_label` formats a value with its unit; `title` names the measure.
+/// The figure of `map`, a map of `what`.
 #[must_use]
 pub fn map_frame(
     map: &OrientationMap,
     marks: &MapMarks,
-    title: &str,
-    value_label: &dyn Fn(f64) -> String,
+    what: &MapMeasure,
     width: u32,
     height: u32,
     sizes: Sizes,
@@ -54,7 +103,9 @@ pub fn map_frame(
     };
     let (centre, r) = disc_geometry(w, h);
     let (lo, hi) = map.range.unwrap_or((0.0, 1.0));
-    let span = if hi > lo { hi - lo } else { 1.0 };
+    // A uniform map (every plane alike) has one colour and one label, not an invented range.
+    let uniform = hi - lo <= 1e-12 * lo.abs().max(hi.abs());
+    let span = if uniform { 1.0 } else { hi - lo };
     // The coloured cells, as one image (transparent outside the disc and where undefined).
     let mut rgba = vec![0u8; map.size * map.size * 4];
     for (i, v) in map.values.iter().enumerate() {
@@ -120,8 +171,27 @@ pub fn map_frame(
             color: style::INK,
         });
     }
-    // Marks: principal axes (squares), current plane (ring-like hexagon), worst planes (stars
-    // drawn as diamonds).
+    // The cone of worst planes, as the small circle of its poles (broken where it crosses the
+    // rim, since a pole that leaves the lower hemisphere comes back on the opposite side).
+    if let Some(cone) = &marks.cone {
+        let points: Vec<[f32; 2]> = cone_normals(cone, 240)
+            .iter()
+            .filter_map(|n| PlaneNormal::from_vector(*n).ok())
+            .map(|n| to_px(centre, r, project_pole(&n)))
+            .collect();
+        let closed = points.iter().chain(points.first());
+        for (a, b) in points.iter().zip(closed.skip(1)) {
+            if (a[0] - b[0]).hypot(a[1] - b[1]) < 0.5 * r {
+                frame.prims.push(Prim::Line {
+                    a: *a,
+                    b: *b,
+                    width: 2.4 * sizes.line,
+                    color: style::WORST_PLANE,
+                });
+            }
+        }
+    }
+    // Marks: principal axes (white diamonds), current plane (disc), worst planes (triangles).
     for (i, d) in marks.principal.iter().enumerate() {
         if let Ok(n) = PlaneNormal::from_vector(*d) {
             let at = to_px(centre, r, project_pole(&n));
@@ -174,8 +244,24 @@ pub fn map_frame(
         pixels: [1, steps as u32],
         rgba: Arc::new(bar),
     });
-    for k in 0..=4 {
-        let f = k as f32 / 4.0;
+    let label_values: Vec<f64> = if uniform {
+        vec![lo]
+    } else {
+        (0..=4).map(|k| lo + span * f64::from(k) / 4.0).collect()
+    };
+    let shown: Vec<f64> = label_values
+        .iter()
+        .map(|&v| {
+            if what.measure.is_stress() {
+                what.unit.from_pa(v)
+            } else {
+                v
+            }
+        })
+        .collect();
+    let digits = distinct_digits(&shown, 4);
+    for (k, &v) in label_values.iter().enumerate() {
+        let f = if uniform { 0.5 } else { k as f32 / 4.0 };
         let y = bar_top + bar_h * (1.0 - f);
         frame.prims.push(Prim::Line {
             a: [bar_x + bar_w, y],
@@ -184,7 +270,7 @@ pub fn map_frame(
             color: style::INK,
         });
         let v = if map.range.is_some() {
-            value_label(lo + span * f64::from(f))
+            what.value_text(v, digits)
         } else {
             "undefined".to_owned()
         };
@@ -198,19 +284,32 @@ pub fn map_frame(
     // Title and conventions.
     let x0 = 12.0 * sizes.line;
     let mut y = 16.0 * sizes.line;
+    let blank = if what.measure.uses_friction() {
+        "; blank: undefined (no frictional capacity)"
+    } else {
+        ""
+    };
+    let worst_key = if marks.cone.is_some() {
+        "▲ worst planes (circle: the cone of worst poles)"
+    } else {
+        "▲ worst planes"
+    };
     for line in [
-        title.to_owned(),
+        what.title(),
         "Poles to planes, lower-hemisphere equal-area projection; x = east, y = north, z = up"
             .to_owned(),
         match map.range {
+            Some((a, _)) if uniform => {
+                format!("every plane: {}", what.value_text(a, digits))
+            }
             Some((a, b)) => format!(
-                "range {} to {}; blank: undefined (no frictional capacity)",
-                value_label(a),
-                value_label(b)
+                "range {} to {}{blank}",
+                what.value_text(a, digits),
+                what.value_text(b, digits)
             ),
             None => "the measure is undefined for every plane".to_owned(),
         },
-        "□ principal axes   ● cut plane   ▲ worst planes".to_owned(),
+        format!("◇ principal axes   ● cut plane   {worst_key}"),
     ] {
         frame.prims.push(Prim::Text {
             at: [x0, y],

@@ -4,10 +4,9 @@
 
 use super::{Anchor, Frame, Prim, Sizes, marker};
 use crate::format::{dip_text, sig};
-use crate::mechanics::criteria::Condition;
 use crate::mechanics::criteria::MohrCoulomb;
 use crate::mechanics::mohr::{Circle, MohrCircles};
-use crate::mechanics::search::{SearchResult, WorstPlane};
+use crate::mechanics::search::{SearchResult, WorstCondition, WorstPlane};
 use crate::mechanics::{PlaneNormal, SignConvention, StressTensor, StressUnit};
 use crate::scene::style::{self, Rgba};
 
@@ -68,12 +67,17 @@ impl MohrPoint {
 /// worst planes are those without frictional capacity.
 #[must_use]
 pub fn worst_label(result: &SearchResult) -> String {
-    match result.condition {
-        Condition::EffectiveTension => format!(
-            "{}: effective tension, no frictional capacity",
-            result.measure.key()
+    let key = result.measure.key();
+    match (result.condition, result.cone) {
+        (WorstCondition::EffectiveTension, _) => {
+            format!("{key}: effective tension, no frictional capacity")
+        }
+        (WorstCondition::EveryPlane, _) => format!("{key}: every plane alike"),
+        (WorstCondition::Cone, Some(cone)) => format!(
+            "{key}: a cone of planes at {}° to its axis",
+            sig(cone.half_angle_deg, 4)
         ),
-        _ => result.measure.key().to_owned(),
+        _ => key.to_owned(),
     }
 }
 

@@ -39,7 +39,9 @@ pub struct Analysis {
     /// (0° for uniaxial tension, 60° for uniaxial compression in the tension-positive
     /// convention). `None` when J2 is negligible.
     pub lode_angle_deg: Option<f64>,
-    /// Stress triaxiality η = mean stress / von Mises. `None` when J2 is negligible.
+    /// Stress triaxiality η = σm / σvM with the tension-positive mean stress, whatever the
+    /// display convention (so it is negative under compression, as fracture mechanics defines
+    /// it; e.g. Bao & Wierzbicki, IJMS 46:81, 2004). `None` when J2 is negligible.
     pub triaxiality: Option<f64>,
 }
 
@@ -53,10 +55,13 @@ impl Analysis {
         };
         let principal = principal(&shown);
         let invariants = Invariants::from_principal(&principal);
-        let [s1, s2, s3] = principal.values_pa;
+        let [s1, _, s3] = principal.values_pa;
+        // Every deviatoric quantity from the deviator's own principal values (see
+        // `Principal::deviatoric_pa`), never from differences of the full values.
+        let [d1, d2, d3] = principal.deviatoric_pa;
         let [n1, _, n3] = principal.directions;
         let von_mises_pa = (3.0 * invariants.j2).sqrt();
-        let mean_stress_pa = invariants.i1 / 3.0;
+        let mean_stress_pa = principal.mean_pa;
         let scale = s1.abs().max(s3.abs());
         let deviator_negligible =
             von_mises_pa <= NEGLIGIBLE_RELATIVE * scale || von_mises_pa == 0.0;
@@ -64,12 +69,14 @@ impl Analysis {
         // cosine form is ill-conditioned: tan θ = √3 (σ2 − σ3) / (2σ1 − σ2 − σ3). It is the same
         // angle as cos 3θ = (3√3/2) J3 / J2^{3/2} (Nayak & Zienkiewicz, IJNME 4:579, 1972).
         let lode_angle_deg = (!deviator_negligible).then(|| {
-            (3.0_f64.sqrt() * (s2 - s3))
-                .atan2(2.0 * s1 - s2 - s3)
+            (3.0_f64.sqrt() * (d2 - d3))
+                .atan2(2.0 * d1 - d2 - d3)
                 .to_degrees()
                 .clamp(0.0, 60.0)
         });
-        let triaxiality = (!deviator_negligible).then(|| mean_stress_pa / von_mises_pa);
+        // Tension-positive mean whatever the display convention (see the field's doc).
+        let triaxiality =
+            (!deviator_negligible).then(|| convention.sign() * mean_stress_pa / von_mises_pa);
         let sqrt_half = std::f64::consts::FRAC_1_SQRT_2;
         Self {
             convention,
@@ -77,8 +84,8 @@ impl Analysis {
             invariants,
             mean_stress_pa,
             von_mises_pa,
-            tresca_pa: s1 - s3,
-            max_shear_pa: 0.5 * (s1 - s3),
+            tresca_pa: d1 - d3,
+            max_shear_pa: 0.5 * (d1 - d3),
             max_shear_normals: [(n1 + n3) * sqrt_half, (n1 - n3) * sqrt_half],
             octahedral_normal_pa: mean_stress_pa,
             octahedral_shear_pa: (2.0 * invariants.j2 / 3.0).sqrt(),

@@ -22,18 +22,18 @@ pub struct Invariants {
 }
 
 impl Invariants {
-    /// The invariants from the principal values (exact for the solved values; no cancellation
-    /// beyond that of the principal values themselves).
+    /// The invariants from the principal values. I1, I2, I3 come from the full values; J2 and
+    /// J3 from the deviator's own principal values ([`Principal::deviatoric_pa`]), so they keep
+    /// their digits when the mean stress is many orders larger than the deviator.
     #[must_use]
     pub fn from_principal(p: &Principal) -> Self {
         let [s1, s2, s3] = p.values_pa;
-        let mean = (s1 + s2 + s3) / 3.0;
-        let [d1, d2, d3] = [s1 - mean, s2 - mean, s3 - mean];
-        // J2 from the differences of principal values: 1/6 [(σ1−σ2)² + (σ2−σ3)² + (σ3−σ1)²],
-        // which is free of the mean stress and so keeps tiny deviators with a large mean.
-        let j2 = ((s1 - s2).powi(2) + (s2 - s3).powi(2) + (s3 - s1).powi(2)) / 6.0;
+        let [d1, d2, d3] = p.deviatoric_pa;
+        // J2 = 1/6 [(s1−s2)² + (s2−s3)² + (s3−s1)²] on the deviatoric values: free of the mean,
+        // and of any rounding in their sum.
+        let j2 = ((d1 - d2).powi(2) + (d2 - d3).powi(2) + (d3 - d1).powi(2)) / 6.0;
         Self {
-            i1: s1 + s2 + s3,
+            i1: 3.0 * p.mean_pa,
             i2: s1 * s2 + s2 * s3 + s3 * s1,
             i3: s1 * s2 * s3,
             j2,

@@ -142,31 +142,43 @@ impl PlaneNormal {
 }
 
 /// The stress on one plane.
+///
+/// Which side is which (common practice, no source): t = σ·n is the traction that the material
+/// on the side n points into exerts on the material behind the plane (the side n points away
+/// from). The shear direction is the direction of its tangential part in tension-positive
+/// physics, whatever the display convention: the way the material in front of the plane is
+/// pushed to slide relative to the material behind it. With n pointing up, that is the
+/// hanging wall's slip relative to the footwall (slip parallel to the resolved shear stress, the
+/// Wallace–Bott assumption).
 #[derive(Clone, Copy, Debug, PartialEq)]
 pub struct PlaneStress {
     /// The plane's unit normal.
     pub normal: PlaneNormal,
-    /// Traction t = σ n, in pascals, in the sign of the tensor that was used.
+    /// Traction t = σ·n, in pascals, with σ as shown in the convention that was used (so
+    /// σn = t · n holds in that convention).
     pub traction_pa: Vector3<f64>,
-    /// Normal stress σn = t · n, in pascals.
+    /// Normal stress σn = t · n, in pascals, in the convention that was used.
     pub normal_stress_pa: f64,
     /// Shear stress magnitude τ = |t − σn n| (≥ 0), in pascals; zero when negligible.
     pub shear_stress_pa: f64,
-    /// Unit direction of the shear traction in the plane; `None` when the shear is negligible.
+    /// Unit direction of the shear traction in the plane, independent of the display convention
+    /// (see the type's doc); `None` when the shear is negligible.
     pub shear_direction: Option<Vector3<f64>>,
 }
 
 impl PlaneStress {
     /// The stress on the plane of normal `normal`, with tensor `t` expressed in `convention`
-    /// (compression-positive negates every stress and traction).
+    /// (compression-positive negates the traction and the normal stress, not the shear
+    /// direction).
     #[must_use]
     pub fn new(t: &StressTensor, normal: PlaneNormal, convention: SignConvention) -> Self {
         let n = normal.vector();
-        let traction_pa = t.traction_pa(&n) * convention.sign();
+        let physical_pa = t.traction_pa(&n);
+        let traction_pa = physical_pa * convention.sign();
         let normal_stress_pa = traction_pa.dot(&n);
         // The shear vector is formed directly; √(|t|² − σn²) would cancel badly when the shear
         // is small next to the normal stress.
-        let shear = traction_pa - n * normal_stress_pa;
+        let shear = physical_pa - n * physical_pa.dot(&n);
         let magnitude = shear.norm();
         let scale = t.max_abs_component_pa();
         let (shear_stress_pa, shear_direction) =
@@ -184,17 +196,44 @@ impl PlaneStress {
         }
     }
 
-    /// The normal part of the traction, σn n, in pascals.
+    /// The normal part of the traction, σn n, in pascals, in the convention that was used.
     #[must_use]
     pub fn normal_traction_pa(&self) -> Vector3<f64> {
         self.normal.vector() * self.normal_stress_pa
     }
 
-    /// The shear part of the traction, τ s, in pascals (zero when negligible).
+    /// The shear part of the traction, τ s, in pascals, in tension-positive physics (zero when
+    /// negligible).
     #[must_use]
     pub fn shear_traction_pa(&self) -> Vector3<f64> {
         self.shear_direction
             .map_or_else(Vector3::zeros, |s| s * self.shear_stress_pa)
+    }
+
+    /// The rake of the slip direction in the plane, degrees in (−180°, 180°]: the angle from the
+    /// strike direction (dip direction − 90°, right-hand rule) to the hanging wall's slip,
+    /// counter-clockwise seen from the hanging wall; +90° reverse, −90° normal, 0° left-lateral,
+    /// 180° right-lateral (Aki & Richards, Quantitative Seismology, 1980, §4.2; from memory).
+    /// The slip is the shear direction for the upward normal (see the type's doc). `None` when
+    /// the shear is negligible or the plane is horizontal (no strike).
+    #[must_use]
+    pub fn rake_deg(&self) -> Option<f64> {
+        let direction = self.shear_direction?;
+        let n = self.normal.vector();
+        // The upward normal points into the hanging wall; the same choice as `dip_deg`.
+        let (n_up, slip) = if n.z < 0.0 {
+            (-n, -direction)
+        } else {
+            (n, direction)
+        };
+        let horizontal = n_up.x.hypot(n_up.y);
+        if horizontal <= 1e-9 {
+            return None;
+        }
+        let strike = Vector3::new(-n_up.y, n_up.x, 0.0) / horizontal;
+        let across = n_up.cross(&strike);
+        let rake = slip.dot(&across).atan2(slip.dot(&strike)).to_degrees();
+        Some(if rake <= -180.0 { 180.0 } else { rake })
     }
 }
 

@@ -19,8 +19,17 @@ use super::tensor::StressTensor;
 pub struct Principal {
     /// σ1 ≥ σ2 ≥ σ3 in pascals, in the sign of the tensor that was solved.
     pub values_pa: [f64; 3],
+    /// Mean stress σm = tr σ / 3, Pa, from the components (not from the rounded σi).
+    pub mean_pa: f64,
+    /// Principal values of the deviator, σi − σm, Pa, solved from the deviator itself: a state
+    /// whose mean is many orders above its deviator keeps the deviator's digits here, where
+    /// differences of `values_pa` would lose them. Every deviatoric quantity (J2, J3, von
+    /// Mises, Tresca, maximum shear) is computed from these.
+    pub deviatoric_pa: [f64; 3],
     /// Unit directions n1, n2, n3 of σ1, σ2, σ3; orthonormal and right-handed (n1 × n2 = n3).
-    /// With repeated values any orthonormal basis of the repeated space is valid.
+    /// n1 and n2 have their largest component positive (so a diagonal tensor gives +x, +y, +z
+    /// in some order); n3 = n1 × n2 then fixes the sign of the third. With repeated values any
+    /// orthonormal basis of the repeated space is valid.
     pub directions: [Vector3<f64>; 3],
 }
 
@@ -202,13 +211,39 @@ pub fn principal(t: &StressTensor) -> Principal {
     if s.max_abs_pa == 0.0 {
         return Principal {
             values_pa: [s.mean_pa; 3],
+            mean_pa: s.mean_pa,
+            deviatoric_pa: [0.0; 3],
             directions: [Vector3::x(), Vector3::y(), Vector3::z()],
         };
     }
     let (l, _) = s.trig_eigenvalues();
     let mut p = solve_with_vectors(&s, l);
+    p.mean_pa = s.mean_pa;
+    p.deviatoric_pa = p.values_pa;
     p.values_pa = add_mean(p.values_pa, s.mean_pa);
+    p.directions = canonical_signs(p.directions);
     p
+}
+
+/// The largest component of `v` made positive (the first of equal ones, within rounding).
+#[inline]
+fn largest_positive(v: Vector3<f64>) -> (Vector3<f64>, bool) {
+    let m = v.amax();
+    let first = v.iter().find(|c| c.abs() >= m * (1.0 - 1e-12)).copied();
+    if first.is_some_and(|c| c < 0.0) {
+        (-v, true)
+    } else {
+        (v, false)
+    }
+}
+
+/// Signs users expect: n1 and n2 with their largest component positive, n3 flipped with them so
+/// the set stays right-handed (n1 × n2 = n3).
+#[inline]
+fn canonical_signs([n1, n2, n3]: [Vector3<f64>; 3]) -> [Vector3<f64>; 3] {
+    let (n1, f1) = largest_positive(n1);
+    let (n2, f2) = largest_positive(n2);
+    [n1, n2, if f1 == f2 { n3 } else { -n3 }]
 }
 
 /// Adds the mean stress back to deviatoric values. A sum that is zero to working precision is
@@ -228,7 +263,8 @@ fn add_mean(deviatoric_pa: [f64; 3], mean_pa: f64) -> [f64; 3] {
 }
 
 /// Directions, and the values refined, for the scaled deviator `s.b` with trigonometric
-/// eigenvalues `l` (descending). Returned values are deviatoric, in pascals.
+/// eigenvalues `l` (descending). Returned values are deviatoric, in pascals (in `values_pa`;
+/// the caller fills in the mean and the other fields).
 fn solve_with_vectors(s: &Scaled, l: [f64; 3]) -> Principal {
     let b = &s.b;
     // Start from the eigenvalue farthest from the other two: it is simple (unless the deviator
@@ -287,6 +323,8 @@ fn solve_with_vectors(s: &Scaled, l: [f64; 3]) -> Principal {
     }
     Principal {
         values_pa: [v1, v2, v3].map(|x| x * s.unit_pa),
+        mean_pa: 0.0,
+        deviatoric_pa: [0.0; 3],
         directions: [n1, n2, n3],
     }
 }

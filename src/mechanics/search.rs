@@ -18,7 +18,7 @@ use nalgebra::Vector3;
 use serde::{Deserialize, Serialize};
 
 use super::analysis::Analysis;
-use super::criteria::{Condition, CriterionError, MohrCoulomb};
+use super::criteria::{CriterionError, MohrCoulomb};
 use super::plane::{PlaneNormal, PlaneStress};
 use super::tensor::StressTensor;
 use super::units::SignConvention;
@@ -31,7 +31,8 @@ pub enum Measure {
     Shear,
     /// Largest normal stress, in the chosen sign convention (closed form: n1).
     NormalMax,
-    /// Smallest normal stress, in the chosen sign convention (closed form: n3).
+    /// Smallest normal stress, in the chosen sign convention (closed form: n3). Its value is
+    /// the normal stress itself; the worst plane is where it is smallest.
     NormalMin,
     /// Traction magnitude |t| (closed form: the principal direction of largest |σi|).
     Traction,
@@ -85,6 +86,31 @@ impl Measure {
         )
     }
 
+    /// Whether the worst plane is where the measure is smallest (normal-min) rather than largest.
+    #[must_use]
+    pub fn worst_is_smallest(self) -> bool {
+        self == Self::NormalMin
+    }
+
+    /// Whether the measure uses the pore pressure (effective normal stress σn − p).
+    #[must_use]
+    pub fn uses_pore_pressure(self) -> bool {
+        matches!(self, Self::SlipTendency | Self::MohrCoulomb)
+    }
+
+    /// Whether the measure uses a cohesion and a friction angle.
+    #[must_use]
+    pub fn uses_material(self) -> bool {
+        self == Self::MohrCoulomb
+    }
+
+    /// Whether a plane can be without frictional capacity for this measure (the only case in
+    /// which the measure is undefined on some planes but not others).
+    #[must_use]
+    pub fn uses_friction(self) -> bool {
+        matches!(self, Self::SlipTendency | Self::MohrCoulomb)
+    }
+
     /// The convention the measure's formula uses: the geomechanics measures are always
     /// compression positive; normal-max and normal-min follow the chosen display convention.
     fn convention(self, display: SignConvention) -> SignConvention {
@@ -136,21 +162,52 @@ pub struct WorstPlane {
     pub shear_stress_pa: f64,
 }
 
+/// How the worst planes of a search are to be read.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "kebab-case")]
+pub enum WorstCondition {
+    /// The value is attained on the listed planes (a finite set).
+    Defined,
+    /// Some planes have zero or tensile effective normal stress (no frictional capacity): they
+    /// are worst of all; the one with the least effective normal stress (normal to the least
+    /// compressive principal stress) is listed, and the value is undefined.
+    EffectiveTension,
+    /// The measure is undefined for this state (dilation tendency when σ1 = σ3).
+    Undefined,
+    /// Every plane carries the same normal and shear stress (a hydrostatic state): one
+    /// representative plane is listed.
+    EveryPlane,
+    /// Two principal values are equal, and the worst planes form a cone: every plane whose
+    /// normal makes [`Cone::half_angle_deg`] with [`Cone::axis`]. Representative planes are
+    /// listed.
+    Cone,
+}
+
+/// A cone of plane normals: every normal at `half_angle_deg` from `axis` (90° is the great
+/// circle of normals perpendicular to the axis).
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct Cone {
+    /// Unit axis (the principal direction of the distinct principal value), with z ≥ 0.
+    pub axis: Vector3<f64>,
+    /// Angle between every worst normal and the axis, degrees, in (0°, 90°].
+    pub half_angle_deg: f64,
+}
+
 /// The outcome of a search.
 #[derive(Clone, Debug, PartialEq)]
 pub struct SearchResult {
     /// The measure.
     pub measure: Measure,
-    /// The worst value (Pa for stress measures, else dimensionless); `None` when some plane
-    /// has no frictional capacity left (see `condition`).
+    /// The worst value: the measure itself (Pa for stress measures, else dimensionless; for
+    /// normal-min the smallest normal stress). `None` when some plane has no frictional
+    /// capacity left or the measure is undefined (see `condition`).
     pub value: Option<f64>,
-    /// [`Condition::Defined`], or [`Condition::EffectiveTension`] when some planes have zero or
-    /// tensile effective normal stress (slip tendency) or no Mohr–Coulomb capacity: those planes
-    /// are worst of all and are the ones reported, never divided by.
-    pub condition: Condition,
-    /// Every distinct plane that attains the value within tolerance, symmetric equivalents
-    /// included. Repeated principal stresses make the optimum a continuum of planes; then only
-    /// its principal-frame representatives are listed.
+    /// How to read `planes` (see [`WorstCondition`]).
+    pub condition: WorstCondition,
+    /// With [`WorstCondition::Cone`], the cone of worst normals.
+    pub cone: Option<Cone>,
+    /// The distinct planes that attain the value, symmetric equivalents included; for a cone or
+    /// every plane, representatives.
     pub planes: Vec<WorstPlane>,
 }
 
@@ -160,6 +217,8 @@ pub struct SearchResult {
 pub struct Objective {
     measure: Measure,
     s: [f64; 3],
+    /// Deviatoric principal values (differences of principal values come from these).
+    d: [f64; 3],
     directions: [Vector3<f64>; 3],
     pore_pa: f64,
     cohesion_pa: f64,
@@ -178,6 +237,7 @@ impl Objective {
         Self {
             measure: settings.measure,
             s: principal.values_pa,
+            d: principal.deviatoric_pa,
             directions: principal.directions,
             pore_pa: settings.pore_pressure_pa,
             cohesion_pa,
@@ -185,7 +245,8 @@ impl Objective {
         }
     }
 
-    /// The measure on the plane with unit normal `n` (either sign).
+    /// The measure on the plane with unit normal `n` (either sign): the value itself (for
+    /// normal-min, the normal stress), `None` where it is undefined.
     #[must_use]
     pub fn at_normal(&self, n: &Vector3<f64>) -> Option<f64> {
         let [l, m, k] = self.directions.map(|d| n.dot(&d));
@@ -196,20 +257,24 @@ impl Objective {
     /// frictional capacity.
     fn value(&self, a: f64, b: f64, c: f64) -> Option<f64> {
         let [s1, s2, s3] = self.s;
+        let [d1, d2, d3] = self.d;
         let sn = s1 * a + s2 * b + s3 * c;
+        // Differences from the deviatoric values keep their digits under a large mean stress.
         let tau2 =
-            (s1 - s2).powi(2) * a * b + (s2 - s3).powi(2) * b * c + (s1 - s3).powi(2) * a * c;
+            (d1 - d2).powi(2) * a * b + (d2 - d3).powi(2) * b * c + (d1 - d3).powi(2) * a * c;
         let tau = tau2.max(0.0).sqrt();
         match self.measure {
             Measure::Shear => Some(tau),
-            Measure::NormalMax => Some(sn),
-            Measure::NormalMin => Some(-sn),
+            Measure::NormalMax | Measure::NormalMin => Some(sn),
             Measure::Traction => Some((s1 * s1 * a + s2 * s2 * b + s3 * s3 * c).max(0.0).sqrt()),
             Measure::SlipTendency => {
                 let eff = sn - self.pore_pa;
                 (eff > 0.0).then(|| tau / eff)
             }
-            Measure::DilationTendency => (s1 > s3).then(|| (s1 - sn) / (s1 - s3)),
+            Measure::DilationTendency => {
+                let dn = d1 * a + d2 * b + d3 * c;
+                (d1 > d3).then(|| (d1 - dn) / (d1 - d3))
+            }
             Measure::MohrCoulomb => {
                 let capacity = self.cohesion_pa + (sn - self.pore_pa) * self.tan_phi;
                 (capacity > 0.0).then(|| tau / capacity)
@@ -217,10 +282,20 @@ impl Objective {
         }
     }
 
-    /// `value` for the search: planes without capacity rank above every defined value.
+    /// A value turned into a rank: larger is worse (normal-min is worst where smallest).
+    fn rank(&self, value: f64) -> f64 {
+        if self.measure.worst_is_smallest() {
+            -value
+        } else {
+            value
+        }
+    }
+
+    /// The rank of the plane at (a, c) for the search: planes without capacity rank above every
+    /// defined value.
     fn score(&self, a: f64, c: f64) -> f64 {
         let b = (1.0 - a - c).max(0.0);
-        self.value(a, b, c).unwrap_or(f64::INFINITY)
+        self.value(a, b, c).map_or(f64::INFINITY, |v| self.rank(v))
     }
 }
 
@@ -306,12 +381,49 @@ fn numerical_candidates(obj: &Objective) -> Vec<(f64, f64)> {
 
 /// The best value the numerical search alone finds (no closed form, no capacity check): for
 /// checking the closed forms against the search. `None` when the best point has no capacity.
+#[must_use]
 pub fn numerical_value(tensor: &StressTensor, settings: &SearchSettings) -> Option<f64> {
     let obj = Objective::new(tensor, settings);
     numerical_candidates(&obj)
         .into_iter()
         .filter_map(|(a, c)| obj.value(a, (1.0 - a - c).max(0.0), c))
-        .max_by(f64::total_cmp)
+        .max_by(|x, y| obj.rank(*x).total_cmp(&obj.rank(*y)))
+}
+
+/// Which principal values the measure cannot tell apart: the measure depends on σ1..σ3 only
+/// through these keys (the traction magnitude through σi², the others through σi).
+fn symmetry(obj: &Objective, scale: f64) -> Symmetry {
+    let keys = if obj.measure == Measure::Traction {
+        obj.s.map(|v| v * v)
+    } else {
+        obj.d
+    };
+    let key_scale = if obj.measure == Measure::Traction {
+        scale * scale
+    } else {
+        scale
+    };
+    let tie =
+        |i: usize, j: usize| (keys[i] - keys[j]).abs() <= 1e-12 * key_scale.max(f64::MIN_POSITIVE);
+    match (tie(0, 1), tie(1, 2), tie(0, 2)) {
+        (true, true, _) | (_, true, true) | (true, _, true) => Symmetry::Full,
+        (true, false, false) => Symmetry::Axis(2),
+        (false, true, false) => Symmetry::Axis(0),
+        (false, false, true) => Symmetry::Axis(1),
+        (false, false, false) => Symmetry::None,
+    }
+}
+
+/// See [`symmetry`].
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+enum Symmetry {
+    /// Every principal value alike: every plane is the same.
+    Full,
+    /// The two values other than this index are alike: the measure depends only on the squared
+    /// cosine between the normal and this principal direction.
+    Axis(usize),
+    /// No two alike.
+    None,
 }
 
 /// Runs the search for `tensor` (stored, tension positive).
@@ -329,7 +441,7 @@ pub fn worst_plane(
     let s = obj.s;
     let (cohesion_pa, tan_phi) = (obj.cohesion_pa, obj.tan_phi);
     let scale = s[0].abs().max(s[2].abs());
-    let tie = |x: f64, y: f64| (x - y).abs() <= 1e-12 * scale.max(f64::MIN_POSITIVE);
+    let symmetry = symmetry(&obj, scale);
 
     // Planes without frictional capacity: the least compressive plane (σn = σ3) has the least
     // effective normal stress, so it is the first to lose its capacity.
@@ -338,6 +450,40 @@ pub fn worst_plane(
         Measure::MohrCoulomb => cohesion_pa + (s[2] - settings.pore_pressure_pa) * tan_phi <= 0.0,
         _ => false,
     };
+    let plane = |n: PlaneNormal| {
+        let ps = PlaneStress::new(tensor, n, settings.convention);
+        let (dip_deg, dip_direction_deg) = n.dip_deg();
+        WorstPlane {
+            normal: n,
+            dip_deg,
+            dip_direction_deg,
+            normal_stress_pa: ps.normal_stress_pa,
+            shear_stress_pa: ps.shear_stress_pa,
+        }
+    };
+    if symmetry == Symmetry::Full {
+        // Every plane carries the same (σn, τ): one representative, the horizontal plane.
+        let value = obj.value(1.0, 0.0, 0.0);
+        let (value, condition) = if no_capacity {
+            (None, WorstCondition::EffectiveTension)
+        } else if value.is_none() {
+            (None, WorstCondition::Undefined)
+        } else {
+            (value, WorstCondition::EveryPlane)
+        };
+        let planes = if condition == WorstCondition::Undefined {
+            Vec::new()
+        } else {
+            vec![plane(PlaneNormal::Z)]
+        };
+        return Ok(SearchResult {
+            measure: settings.measure,
+            value,
+            condition,
+            cone: None,
+            planes,
+        });
+    }
     let candidates: Vec<(f64, f64)> = if no_capacity {
         vec![(0.0, 1.0)]
     } else {
@@ -355,41 +501,53 @@ pub fn worst_plane(
             Measure::SlipTendency | Measure::MohrCoulomb => numerical_candidates(&obj),
         }
     };
-    // Repeated principal values give more representatives of the same optimum.
-    let mut candidates = candidates;
-    if !no_capacity {
-        let extra: Vec<(f64, f64)> = match settings.measure {
-            Measure::Shear if tie(s[0], s[1]) => vec![(0.0, 0.5)],
-            Measure::Shear if tie(s[1], s[2]) => vec![(0.5, 0.0)],
-            Measure::NormalMax if tie(s[0], s[1]) => vec![(0.0, 0.0)],
-            Measure::NormalMin | Measure::DilationTendency if tie(s[1], s[2]) => vec![(0.0, 0.0)],
-            Measure::Traction if tie(s[0].abs(), s[2].abs()) => vec![(0.0, 1.0)],
-            _ => vec![],
-        };
-        candidates.extend(extra);
-    }
     let value = if no_capacity {
         None
     } else {
         candidates
             .iter()
             .filter_map(|&(a, c)| obj.value(a, (1.0 - a - c).max(0.0), c))
-            .max_by(f64::total_cmp)
+            .max_by(|x, y| obj.rank(*x).total_cmp(&obj.rank(*y)))
     };
-    let best = value.unwrap_or(f64::INFINITY);
+    let best = value.map_or(f64::INFINITY, |v| obj.rank(v));
     let tolerance =
         1e-9 * best.abs().max(if settings.measure.is_stress() {
             scale
         } else {
             1.0
         }) + 1e-300;
-    let mut planes: Vec<WorstPlane> = Vec::new();
-    for (a, c) in candidates {
-        let b = (1.0 - a - c).max(0.0);
-        let attains = no_capacity || obj.value(a, b, c).is_some_and(|v| v >= best - tolerance);
-        if !attains {
-            continue;
+    let attaining: Vec<(f64, f64, f64)> = candidates
+        .into_iter()
+        .map(|(a, c)| (a, (1.0 - a - c).max(0.0), c))
+        .filter(|&(a, b, c)| {
+            no_capacity
+                || obj
+                    .value(a, b, c)
+                    .is_some_and(|v| obj.rank(v) >= best - tolerance)
+        })
+        .collect();
+    // With two alike principal values the measure depends only on the squared cosine q between
+    // the normal and the distinct axis, so a worst plane with q < 1 is one of a whole cone.
+    let cone = match (symmetry, attaining.first()) {
+        (Symmetry::Axis(k), Some(&(a, b, c))) if !no_capacity => {
+            let q = [a, b, c][k].clamp(0.0, 1.0);
+            (q < 1.0 - 1e-9).then(|| {
+                let axis = obj.directions[k];
+                Cone {
+                    axis: if axis.z < 0.0 { -axis } else { axis },
+                    half_angle_deg: q.sqrt().acos().to_degrees(),
+                }
+            })
         }
+        _ => None,
+    };
+    let representatives = if cone.is_some() {
+        &attaining[..1]
+    } else {
+        &attaining[..]
+    };
+    let mut planes: Vec<WorstPlane> = Vec::new();
+    for &(a, b, c) in representatives {
         for n in sign_equivalents(a, b, c, &obj.directions) {
             if planes
                 .iter()
@@ -400,31 +558,38 @@ pub fn worst_plane(
             let Ok(normal) = PlaneNormal::from_vector(if n.z < 0.0 { -n } else { n }) else {
                 continue;
             };
-            let ps = PlaneStress::new(tensor, normal, settings.convention);
-            let (dip_deg, dip_direction_deg) = normal.dip_deg();
-            planes.push(WorstPlane {
-                normal,
-                dip_deg,
-                dip_direction_deg,
-                normal_stress_pa: ps.normal_stress_pa,
-                shear_stress_pa: ps.shear_stress_pa,
-            });
+            planes.push(plane(normal));
         }
     }
     let condition = if no_capacity {
-        Condition::EffectiveTension
+        WorstCondition::EffectiveTension
     } else if value.is_none() {
-        // Dilation tendency of an isotropic state: no plane is preferred.
-        Condition::Undefined
+        WorstCondition::Undefined
+    } else if cone.is_some() {
+        WorstCondition::Cone
     } else {
-        Condition::Defined
+        WorstCondition::Defined
     };
     Ok(SearchResult {
         measure: settings.measure,
         value,
         condition,
+        cone,
         planes,
     })
+}
+
+/// Unit normals on `cone`, `count` of them evenly round it (for drawing its poles).
+#[must_use]
+pub fn cone_normals(cone: &Cone, count: usize) -> Vec<Vector3<f64>> {
+    let (u, v) = super::principal::orthogonal_complement(&cone.axis);
+    let (sin_h, cos_h) = cone.half_angle_deg.to_radians().sin_cos();
+    (0..count)
+        .map(|i| {
+            let t = std::f64::consts::TAU * i as f64 / count as f64;
+            cone.axis * cos_h + (u * t.cos() + v * t.sin()) * sin_h
+        })
+        .collect()
 }
 
 /// The normals (x d1 + y d2 + z d3) with x = ±√a, y = ±√b, z = ±√c: every sign choice, one per

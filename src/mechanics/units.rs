@@ -85,20 +85,22 @@ impl fmt::Display for StressUnit {
 
 /// The unit text was none of Pa, kPa, MPa, GPa, psi, ksi.
 #[derive(Debug, Clone, PartialEq, Eq, thiserror::Error)]
-#[error("unknown stress unit '{0}' (expected one of Pa, kPa, MPa, GPa, psi, ksi)")]
+#[error(
+    "unknown stress unit '{0}' (expected one of Pa, kPa, MPa, GPa, psi, ksi, N/mm², written exactly so)"
+)]
 pub struct UnknownUnit(pub String);
 
 impl FromStr for StressUnit {
     type Err = UnknownUnit;
 
-    /// Parses a unit symbol. Case matters only where SI makes it matter: `mpa` is accepted
-    /// as MPa because no unit "millipascal" is offered and users type it that way.
+    /// Parses a unit symbol exactly as SI writes it (`mPa` would be millipascals, so it is not
+    /// read as MPa); `N/mm²`, `N/mm2` and `N/mm^2` are read as MPa.
     fn from_str(text: &str) -> Result<Self, Self::Err> {
-        let unit = match text.trim().to_ascii_lowercase().as_str() {
-            "pa" => Self::Pa,
-            "kpa" => Self::KPa,
-            "mpa" | "n/mm2" | "n/mm^2" => Self::MPa,
-            "gpa" => Self::GPa,
+        let unit = match text.trim() {
+            "Pa" => Self::Pa,
+            "kPa" => Self::KPa,
+            "MPa" | "N/mm²" | "N/mm2" | "N/mm^2" => Self::MPa,
+            "GPa" => Self::GPa,
             "psi" => Self::Psi,
             "ksi" => Self::Ksi,
             _ => return Err(UnknownUnit(text.to_owned())),
@@ -170,5 +172,11 @@ mod tests {
             assert!((back - 123.456).abs() < 1e-12);
         }
         assert!("bar".parse::<StressUnit>().is_err());
+        // Exact symbols only: mPa is a millipascal, not MPa.
+        for wrong in ["mPa", "mpa", "MPA", "kpa", "PSI", "Ksi", "gpa"] {
+            assert!(wrong.parse::<StressUnit>().is_err(), "{wrong}");
+        }
+        assert_eq!("N/mm²".parse::<StressUnit>(), Ok(StressUnit::MPa));
+        assert_eq!("N/mm2".parse::<StressUnit>(), Ok(StressUnit::MPa));
     }
 }

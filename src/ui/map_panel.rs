@@ -4,10 +4,10 @@
 
 use crate::app::{Command, Document, Settings};
 use crate::draw::egui_backend;
-use crate::draw::map::{MapMarks, disc_geometry, map_frame};
+use crate::draw::map::{MapMarks, MapMeasure, disc_geometry, map_frame};
 use crate::format::{dip_text, sig};
 use crate::mechanics::criteria::MohrCoulomb;
-use crate::mechanics::search::{Measure, SearchSettings, worst_plane};
+use crate::mechanics::search::{Measure, SearchSettings, WorstCondition, worst_plane};
 use crate::mechanics::stereonet::{orientation_map, pole_at};
 use crate::mechanics::{Analysis, PlaneNormal};
 
@@ -126,15 +126,35 @@ pub fn worst_plane_ui(
     let search = settings.measure.settings(settings);
     match worst_plane(&doc.tensor, &search) {
         Ok(result) => {
-            let text = result.value.map_or_else(
-                || {
+            let text = match (result.value, result.condition) {
+                (Some(v), _) => value_text(search.measure, v, settings),
+                (None, WorstCondition::EffectiveTension) => {
                     "undefined — planes with no frictional capacity exist (effective tension)"
                         .to_owned()
-                },
-                |v| value_text(search.measure, v, settings),
-            );
-            ui.label(format!("worst value: {text}"));
-            ui.label(format!("{} plane(s) attain it", result.planes.len()));
+                }
+                (None, _) => "undefined for this state".to_owned(),
+            };
+            let which = if search.measure.worst_is_smallest() {
+                "smallest"
+            } else {
+                "worst"
+            };
+            ui.label(format!("{which} value: {text}"))
+                .on_hover_text(measure_formula(search.measure));
+            ui.label(match (result.condition, result.cone) {
+                (WorstCondition::EveryPlane, _) => {
+                    "every plane carries the same stress (hydrostatic)".to_owned()
+                }
+                (WorstCondition::Cone, Some(cone)) => format!(
+                    "a cone of planes attains it: normals at {}° to the axis; {} shown",
+                    sig(cone.half_angle_deg, 4),
+                    result.planes.len()
+                ),
+                (WorstCondition::EffectiveTension, _) => {
+                    "the plane normal to the least compressive stress is shown".to_owned()
+                }
+                _ => format!("{} plane(s) attain it", result.planes.len()),
+            });
             ui.horizontal_wrapped(|ui| {
                 for (i, p) in result.planes.iter().enumerate() {
                     let tip = format!(
@@ -165,6 +185,25 @@ pub fn worst_plane_ui(
     }
 }
 
+/// The measure's formula, for tooltips.
+fn measure_formula(measure: Measure) -> &'static str {
+    match measure {
+        Measure::Shear => "τ = |t − σn n|; largest on normals (n1 ± n3)/√2",
+        Measure::NormalMax => "σn = n·σ·n; largest on the plane normal to n1",
+        Measure::NormalMin => "σn = n·σ·n; smallest on the plane normal to n3",
+        Measure::Traction => {
+            "|t| = |σ·n|; largest normal to the principal stress of largest magnitude"
+        }
+        Measure::SlipTendency => {
+            "Ts = τ / (σn − p), compression positive (Morris et al. 1996); dimensionless"
+        }
+        Measure::DilationTendency => {
+            "Td = (σ1 − σn) / (σ1 − σ3), compression positive (Ferrill et al. 1999); dimensionless"
+        }
+        Measure::MohrCoulomb => "U = τ / (c + (σn − p) tan φ), compression positive; dimensionless",
+    }
+}
+
 /// A stress or ratio value with its unit, at `digits` significant digits.
 fn label_for(measure: Measure, settings: &Settings, digits: usize) -> impl Fn(f64) -> String {
     let unit = settings.unit;
@@ -191,22 +230,32 @@ pub fn map_figure(
 ) -> crate::draw::Frame {
     let search = settings.measure.settings(settings);
     let map = orientation_map(&doc.tensor, &search, resolution);
-    let worst = worst_plane(&doc.tensor, &search)
-        .map(|r| r.planes)
-        .unwrap_or_default();
+    let worst = worst_plane(&doc.tensor, &search);
     let shown = Analysis::new(&doc.tensor, settings.convention);
+    let (worst, cone) = worst.map_or_else(|_| (Vec::new(), None), |r| (r.planes, r.cone));
     let marks = MapMarks {
         principal: shown.principal.directions,
         plane: Some(doc.plane),
         worst: worst.iter().map(|p| p.normal).collect(),
+        cone,
     };
-    let title = format!(
-        "Orientation map: {} ({})",
-        search.measure.key(),
-        settings.convention.key()
-    );
-    let label = label_for(search.measure, settings, 4);
-    map_frame(&map, &marks, &title, &label, width, height, sizes)
+    map_frame(
+        &map,
+        &marks,
+        &map_measure(&search, settings),
+        width,
+        height,
+        sizes,
+    )
+}
+
+/// The measure of the map in the window's unit and convention.
+fn map_measure(search: &SearchSettings, settings: &Settings) -> MapMeasure {
+    MapMeasure {
+        measure: search.measure,
+        unit: settings.unit,
+        convention: settings.convention,
+    }
 }
 
 /// The orientation map tab.
@@ -222,7 +271,8 @@ pub fn map_ui(ui: &mut egui::Ui, doc: &Document, settings: &Settings, out: &mut 
         rect.height() as u32,
         crate::draw::Sizes::default(),
     );
-    let label = label_for(search.measure, settings, 4);
+    let what = map_measure(&search, settings);
+    let label = |v: f64| what.value_text(v, 5);
     ui.painter_at(rect)
         .extend(egui_backend::shapes(&frame, rect, ui.ctx()));
 
