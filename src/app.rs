@@ -2,6 +2,7 @@
 //! persistence, figure export and the `--screenshot` mode.
 
 use std::path::{Path, PathBuf};
+
 use std::sync::{Arc, Mutex};
 
 use serde::{Deserialize, Serialize};
@@ -13,6 +14,12 @@ use crate::ui;
 
 /// Version of the saved state; bump it when a change needs migration.
 pub const FORMAT_VERSION: u32 = 1;
+
+/// The name a document gets once it is no longer the demo.
+pub const UNTITLED: &str = "Untitled";
+
+/// The file name the save dialog and the in-window path entry suggest.
+const SUGGESTED_FIGURE_NAME: &str = "planewise-figure.png";
 
 /// Key of the saved state in eframe's storage.
 const STORAGE_KEY: &str = "planewise-state";
@@ -224,24 +231,7 @@ impl History {
     }
 }
 
-/// Native file dialogs, behind a trait so tests never open one.
-pub trait Dialogs {
-    /// Asks where to save a figure; `None` when cancelled.
-    fn save_figure(&self, suggested_name: &str) -> Option<PathBuf>;
-}
-
-/// Dialogs through the desktop portal (rfd).
-pub struct NativeDialogs;
-
-impl Dialogs for NativeDialogs {
-    fn save_figure(&self, suggested_name: &str) -> Option<PathBuf> {
-        rfd::FileDialog::new()
-            .add_filter("PNG image", &["png"])
-            .add_filter("SVG drawing", &["svg"])
-            .set_file_name(suggested_name)
-            .save_file()
-    }
-}
+pub use crate::dialogs::{DialogOutcome, Dialogs, NativeDialogs};
 
 /// A message in the status bar.
 #[derive(Clone, Debug, PartialEq, Eq)]
@@ -277,7 +267,9 @@ pub struct PlanewiseApp {
     pub about_open: bool,
     /// The last status message.
     pub status: Option<Status>,
-    dialogs: Box<dyn Dialogs>,
+    dialogs: Arc<dyn Dialogs>,
+    /// The answer of a save dialog running on a worker thread.
+    pending_dialog: Option<std::sync::mpsc::Receiver<DialogOutcome>>,
     frames: u64,
     screenshot: Option<ScreenshotJob>,
     /// Outcome of a `--screenshot` run, read by `main` after the window closes.
@@ -298,7 +290,8 @@ impl PlanewiseApp {
             export_panel: ui::export_panel::ExportPanel::default(),
             about_open: false,
             status: None,
-            dialogs,
+            dialogs: Arc::from(dialogs),
+            pending_dialog: None,
             frames: 0,
             screenshot: None,
             screenshot_outcome: Arc::new(Mutex::new(None)),
@@ -382,20 +375,96 @@ impl PlanewiseApp {
         });
     }
 
-    /// Exports the figure to `path` (format from the extension).
+    /// Exports the figure to `path` (format from the extension). A failure is said in the
+    /// status bar and in the export window.
     pub fn export_to(&mut self, path: &Path) {
         let frame = self.export_frame();
         let title = format!("{} — {}", self.document.name, crate::SAFETY_NOTE);
         match crate::export::write_figure(path, &frame, &title) {
-            Ok(()) => self.set_status(format!("Figure written to {}", path.display()), false),
-            Err(e) => self.set_status(format!("Export failed: {e}"), true),
+            Ok(()) => {
+                self.export_panel.error = None;
+                self.set_status(format!("Figure written to {}", path.display()), false);
+            }
+            Err(e) => {
+                self.export_panel.error = Some(e.to_string());
+                self.set_status(format!("Export failed: {e}"), true);
+            }
+        }
+    }
+
+    /// Whether a native save dialog is open (on its worker thread).
+    #[must_use]
+    pub fn dialog_open(&self) -> bool {
+        self.pending_dialog.is_some()
+    }
+
+    /// Opens the save dialog on a worker thread, so the window keeps drawing meanwhile.
+    fn start_save_dialog(&mut self, ctx: &egui::Context) {
+        if self.pending_dialog.is_some() {
+            return;
+        }
+        let (tx, rx) = std::sync::mpsc::channel();
+        let dialogs = Arc::clone(&self.dialogs);
+        let repaint = ctx.clone();
+        let spawned = std::thread::Builder::new()
+            .name("save-dialog".into())
+            .spawn(move || {
+                let _ = tx.send(dialogs.save_figure(SUGGESTED_FIGURE_NAME));
+                repaint.request_repaint();
+            });
+        match spawned {
+            Ok(_) => self.pending_dialog = Some(rx),
+            Err(e) => self.dialog_answered(DialogOutcome::Unavailable(e.to_string())),
+        }
+    }
+
+    /// Picks up the save dialog's answer, if it has come.
+    fn poll_save_dialog(&mut self) {
+        let Some(rx) = &self.pending_dialog else {
+            return;
+        };
+        let outcome = match rx.try_recv() {
+            Ok(outcome) => outcome,
+            Err(std::sync::mpsc::TryRecvError::Empty) => return,
+            Err(std::sync::mpsc::TryRecvError::Disconnected) => {
+                DialogOutcome::Unavailable("the file dialog ended without an answer".to_owned())
+            }
+        };
+        self.pending_dialog = None;
+        self.dialog_answered(outcome);
+    }
+
+    fn dialog_answered(&mut self, outcome: DialogOutcome) {
+        match outcome {
+            DialogOutcome::Chosen(path) => self.export_to(&path),
+            DialogOutcome::Cancelled => {}
+            DialogOutcome::Unavailable(why) => {
+                self.export_panel.open = true;
+                self.export_panel.offer_path_entry(
+                    &crate::dialogs::fallback_path(SUGGESTED_FIGURE_NAME),
+                    why.clone(),
+                );
+                self.set_status(
+                    format!("No file dialog ({why}): type the path in the export window"),
+                    true,
+                );
+            }
         }
     }
 
     /// Applies one command.
     pub fn apply(&mut self, ctx: &egui::Context, command: Command) {
         match command {
-            Command::Edit { document, coalesce } => {
+            Command::Edit {
+                mut document,
+                coalesce,
+            } => {
+                // Once the demo's stress state is changed, the document is no longer the
+                // invented scenario: do not keep its name.
+                let demo = Document::demo();
+                if document.name == demo.name && document.tensor != demo.tensor {
+                    UNTITLED.clone_into(&mut document.name);
+                }
                 if document != self.document {
                     self.history.record(&self.document, coalesce);
                     self.document = document;
@@ -442,7 +511,9 @@ impl PlanewiseApp {
                 ));
                 self.set_status("Results copied as tab-separated text", false);
             }
-            Command::CopyFigure => match crate::draw::png::to_pixmap(&self.export_frame()) {
+            Command::CopyFigure => match crate::draw::png::to_pixmap(&crate::export::with_caution(
+                &self.export_frame(),
+            )) {
                 Ok(pixmap) => {
                     let image = egui::ColorImage::from_rgba_premultiplied(
                         [pixmap.width() as usize, pixmap.height() as usize],
@@ -457,12 +528,7 @@ impl PlanewiseApp {
                 Err(e) => self.set_status(format!("Copy figure failed: {e}"), true),
             },
             Command::OpenExport => self.export_panel.open = true,
-            Command::ExportWithDialog => {
-                let suggested = "planewise-figure.png";
-                if let Some(path) = self.dialogs.save_figure(suggested) {
-                    self.export_to(&path);
-                }
-            }
+            Command::ExportWithDialog => self.start_save_dialog(ctx),
             Command::ExportTo(path) => self.export_to(&path),
             Command::ShowAbout => self.about_open = true,
         }
@@ -555,6 +621,7 @@ impl PlanewiseApp {
     pub fn show(&mut self, ui: &mut egui::Ui) {
         let ctx = ui.ctx().clone();
         self.install_fonts(&ctx);
+        self.poll_save_dialog();
         let mut commands = Self::shortcuts(&ctx);
         ui::menus_ui(self, ui, &mut commands);
         ui::status_bar_ui(self, ui);
@@ -607,8 +674,9 @@ impl PlanewiseApp {
                 }
             }
         });
+        let dialog_open = self.pending_dialog.is_some();
         self.export_panel
-            .ui(&ctx, &mut self.settings, &mut commands);
+            .ui(&ctx, &mut self.settings, dialog_open, &mut commands);
         ui::about_ui(&ctx, &mut self.about_open);
         for command in commands {
             self.apply(&ctx, command);
@@ -666,6 +734,15 @@ impl eframe::App for PlanewiseApp {
 
 /// Opens the window. With `screenshot`, writes a PNG of the first complete frame there and exits.
 pub fn run(screenshot: Option<&Path>, tab: Option<Central>) -> anyhow::Result<()> {
+    const HEADLESS: &str = "the headless subcommands analyze, figure, worst-plane, map and mohr need none (see planewise --help)";
+    if cfg!(target_os = "linux")
+        && std::env::var_os("DISPLAY").is_none()
+        && std::env::var_os("WAYLAND_DISPLAY").is_none()
+    {
+        anyhow::bail!(
+            "no display found (neither DISPLAY nor WAYLAND_DISPLAY is set), so the window cannot open; {HEADLESS}"
+        );
+    }
     let options = eframe::NativeOptions {
         viewport: egui::ViewportBuilder::default()
             .with_inner_size([1280.0, 800.0])
@@ -698,7 +775,17 @@ pub fn run(screenshot: Option<&Path>, tab: Option<Central>) -> anyhow::Result<()
             Ok(Box::new(app))
         }),
     )
-    .map_err(|e| anyhow::anyhow!("could not open the window: {e}"))?;
+    .map_err(|e| {
+        // Some back-end errors end in the library's source location; the user needs neither.
+        let text = e.to_string();
+        let text = text
+            .split(" at /")
+            .next()
+            .unwrap_or(&text)
+            .trim()
+            .to_owned();
+        anyhow::anyhow!("could not open the window ({text}); {HEADLESS}")
+    })?;
     if screenshot.is_some() {
         let result = outcome
             .lock()

@@ -4,7 +4,7 @@
 use std::io::Write as _;
 use std::path::{Path, PathBuf};
 
-use crate::draw::{Frame, png, svg};
+use crate::draw::{Anchor, Frame, Prim, png, svg};
 
 /// Picture formats we write.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
@@ -51,11 +51,33 @@ impl ImageFormat {
     }
 }
 
-/// The bytes of `frame` in `format`.
+/// `frame` with the caution ([`crate::SAFETY_NOTE`]) printed small at its foot, as every
+/// exported or copied figure carries it.
+#[must_use]
+pub fn with_caution(frame: &Frame) -> Frame {
+    let mut out = frame.clone();
+    let chars = crate::SAFETY_NOTE.chars().count() as f32;
+    // Small, but the whole line fits the width (DejaVu Sans averages about 0.55 em a char).
+    let size = (frame.width / (0.56 * chars))
+        .min(frame.height / 70.0)
+        .max(5.0);
+    out.prims.push(Prim::Text {
+        at: [0.5 * size, frame.height - 0.8 * size],
+        text: crate::SAFETY_NOTE.to_owned(),
+        size,
+        color: crate::scene::style::INK,
+        anchor: Anchor::LeftCenter,
+        halo: true,
+    });
+    out
+}
+
+/// The bytes of `frame` in `format`, with the caution at its foot.
 pub fn encode(frame: &Frame, format: ImageFormat, title: &str) -> Result<Vec<u8>, ExportError> {
+    let frame = with_caution(frame);
     Ok(match format {
-        ImageFormat::Svg => svg::to_svg(frame, title).into_bytes(),
-        ImageFormat::Png => png::to_png(frame)?,
+        ImageFormat::Svg => svg::to_svg(&frame, title).into_bytes(),
+        ImageFormat::Png => png::to_png(&frame)?,
     })
 }
 

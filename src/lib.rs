@@ -6,6 +6,7 @@
 
 pub mod app;
 pub mod cli;
+pub mod dialogs;
 pub mod draw;
 pub mod export;
 pub mod format;
@@ -16,5 +17,6 @@ pub mod scene;
 pub mod ui;
 
 /// The caution every output that can feed a decision carries (README, About, reports, figures).
-pub const SAFETY_NOTE: &str = "Planewise is an aid for engineers. Check inputs and results independently; \
-design decisions follow the applicable codes and licensed engineering practice.";
+pub const SAFETY_NOTE: &str = "Planewise is an aid for engineers, not a substitute for engineering \
+judgement. Check every input and result independently; design decisions follow the applicable \
+design codes and licensed engineering practice.";

@@ -210,3 +210,22 @@ fn bad_input_is_rejected_with_one_line() {
     ];
     common::assert_bad_input("analyze", cases);
 }
+
+#[test]
+fn without_a_display_the_window_says_so_in_one_line() {
+    let out = std::process::Command::new(env!("CARGO_BIN_EXE_planewise"))
+        .env_remove("DISPLAY")
+        .env_remove("WAYLAND_DISPLAY")
+        .output()
+        .unwrap();
+    assert_eq!(out.status.code(), Some(1));
+    assert!(out.stdout.is_empty());
+    let stderr = String::from_utf8_lossy(&out.stderr);
+    assert_eq!(stderr.trim_end().lines().count(), 1, "{stderr}");
+    assert!(stderr.contains("no display found"), "{stderr}");
+    assert!(
+        stderr.contains("analyze") && stderr.contains("figure"),
+        "{stderr}"
+    );
+    assert!(!stderr.contains(".rs"), "{stderr}");
+}

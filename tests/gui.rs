@@ -6,20 +6,19 @@
     reason = "a test helper that fails should panic loudly"
 )]
 
-use std::path::PathBuf;
-
 use egui::accesskit::Role;
 use egui_kittest::Harness;
 use egui_kittest::kittest::{Queryable as _, by};
-use planewise::app::{Dialogs, PlanewiseApp};
+use planewise::app::{DialogOutcome, Dialogs, PlanewiseApp};
 use planewise::mechanics::{Analysis, Component, SignConvention};
 
-/// Tests never open a native dialog.
+/// Tests never open a native dialog: this one answers as a machine without a desktop portal
+/// or zenity does.
 struct NoDialogs;
 
 impl Dialogs for NoDialogs {
-    fn save_figure(&self, _suggested_name: &str) -> Option<PathBuf> {
-        None
+    fn save_figure(&self, _suggested_name: &str) -> DialogOutcome {
+        DialogOutcome::Unavailable("test machine: no desktop portal".to_owned())
     }
 }
 
@@ -217,7 +216,12 @@ fn export_to_a_path_writes_the_same_figure_as_the_command_line() {
     h.state_mut()
         .apply(&ctx, planewise::app::Command::ExportTo(path.clone()));
     let written = std::fs::read_to_string(&path).unwrap();
-    let expected = planewise::draw::svg::to_svg(&h.state().export_frame(), "");
+    let expected = planewise::draw::svg::to_svg(
+        &planewise::export::with_caution(&h.state().export_frame()),
+        "",
+    );
+    // The caution is printed on the figure itself, not only in its metadata.
+    assert!(written.contains(&format!(">{}</text>", planewise::SAFETY_NOTE)));
     // Same primitives; only the title differs.
     let body = |s: &str| {
         s.lines()
@@ -408,3 +412,84 @@ fn dragging_the_normal_handle_turns_the_plane_in_one_undo_step() {
     );
     assert_ne!(h.state().settings.camera, camera);
 }
+
+/// Runs frames until `done` holds (the dialog answers on a worker thread), at most 200.
+fn run_until(h: &mut Harness<'static, PlanewiseApp>, done: impl Fn(&PlanewiseApp) -> bool) {
+    for _ in 0..200 {
+        h.run();
+        if done(h.state()) {
+            return;
+        }
+        std::thread::sleep(std::time::Duration::from_millis(5));
+    }
+    panic!("condition not reached");
+}
+
+#[test]
+fn without_a_file_dialog_the_window_offers_a_path_entry_that_saves() {
+    let mut h = harness();
+    h.key_press_modifiers(egui::Modifiers::COMMAND, egui::Key::E);
+    h.run();
+    h.get_by_label("Save as PNG or SVG…").click();
+    run_until(&mut h, |app| app.export_panel.path_entry.is_some());
+    assert!(!h.state().dialog_open());
+    // The reason is said, and a path field with the suggested name is offered.
+    h.get_by_label_contains("No file dialog could open (test machine: no desktop portal)");
+    let entry = h.state().export_panel.path_entry.as_ref().unwrap();
+    assert!(
+        entry.path.ends_with("planewise-figure.png"),
+        "{}",
+        entry.path
+    );
+
+    let dir = std::env::temp_dir().join(format!("planewise-fallback-{}", std::process::id()));
+    std::fs::create_dir_all(&dir).unwrap();
+    let path = dir.join("typed.svg");
+    type_into(&mut h, PATH_FIELD, path.to_str().unwrap());
+    h.get_by_label("Save").click();
+    h.run();
+    let written = std::fs::read_to_string(&path).unwrap();
+    assert!(written.starts_with("<?xml") || written.starts_with("<svg"));
+    assert!(h.state().status.as_ref().is_some_and(|s| !s.error));
+
+    // A path that cannot be written shows the error in the window, and keeps the entry.
+    type_into(&mut h, PATH_FIELD, "/nonexistent-planewise/x.svg");
+    h.get_by_label("Save").click();
+    h.run();
+    assert!(h.state().export_panel.error.is_some());
+    // Said twice: in the export window and in the status bar.
+    assert_eq!(h.query_all_by_label_contains("could not write").count(), 2);
+    let _ = std::fs::remove_dir_all(&dir);
+}
+
+#[test]
+fn editing_the_demo_renames_it_and_undo_brings_the_name_back() {
+    let mut h = harness();
+    let demo_name = planewise::app::Document::demo().name;
+    assert_eq!(h.state().document.name, demo_name);
+    type_into(&mut h, "σxx", "80");
+    assert_eq!(h.state().document.name, planewise::app::UNTITLED);
+    h.key_press_modifiers(egui::Modifiers::COMMAND, egui::Key::Z);
+    h.run();
+    assert_eq!(h.state().document.name, demo_name);
+}
+
+#[test]
+fn the_status_bar_says_the_same_caution_as_the_readme() {
+    let h = harness();
+    h.get_by_label(planewise::SAFETY_NOTE);
+    let readme =
+        std::fs::read_to_string(concat!(env!("CARGO_MANIFEST_DIR"), "/README.md")).unwrap();
+    let readme: String = readme
+        .lines()
+        .map(|l| l.trim_start_matches('>').trim())
+        .collect::<Vec<_>>()
+        .join(" ");
+    assert!(
+        readme.contains(planewise::SAFETY_NOTE),
+        "README's caution differs from SAFETY_NOTE"
+    );
+}
+
+/// The accessible name of the export window's path field.
+const PATH_FIELD: &str = "Path of the figure file, ending in .png or .svg";

@@ -277,3 +277,62 @@ fn cli_bad_input() {
         ],
     );
 }
+
+/// The σn tick labels of a Mohr frame: the small texts centred below the plot.
+fn tick_labels(figure: &MohrFigure) -> Vec<String> {
+    let frame = mohr_frame(figure, 1200, 800, Sizes::default());
+    let mut ticks: Vec<(f32, String)> = frame
+        .prims
+        .iter()
+        .filter_map(|p| match p {
+            planewise::draw::Prim::Text {
+                at, text, anchor, ..
+            } if *anchor == planewise::draw::Anchor::Center && text.parse::<f64>().is_ok() => {
+                Some((at[0], text.clone()))
+            }
+            _ => None,
+        })
+        .collect();
+    ticks.sort_by(|a, b| a.0.total_cmp(&b.0));
+    ticks.into_iter().map(|(_, t)| t).collect()
+}
+
+#[test]
+fn ticks_are_round_in_the_users_unit_and_tell_neighbours_apart() {
+    // 1, 2 or 5 × 10^k steps in psi (common practice for axis ticks, no source).
+    let t = StressTensor::from_components(
+        [4500.0, -1300.0, 700.0, 900.0, 0.0, 0.0],
+        StressUnit::Psi,
+        1.0,
+    )
+    .unwrap();
+    let mut figure = figure_for(&t, None);
+    figure.unit = StressUnit::Psi;
+    let labels = tick_labels(&figure);
+    assert!(labels.len() >= 4, "{labels:?}");
+    let values: Vec<f64> = labels.iter().map(|l| l.parse().unwrap()).collect();
+    let step = values[1] - values[0];
+    let mantissa = step / 10f64.powf(step.log10().floor());
+    assert!(
+        [1.0, 2.0, 5.0].iter().any(|m| (mantissa - m).abs() < 1e-9),
+        "step {step} in {labels:?}"
+    );
+    for v in &values {
+        assert!(
+            ((v / step) - (v / step).round()).abs() < 1e-9,
+            "{v} is not a multiple of {step}"
+        );
+    }
+    // A hydrostatic state and a state whose circles are tiny next to the mean: no two
+    // neighbouring labels alike.
+    for c in [
+        [-100.0, -100.0, -100.0, 0.0, 0.0, 0.0],
+        [100.0, 100.01, 99.99, 0.0, 0.0, 0.0],
+    ] {
+        let labels = tick_labels(&figure_for(&mpa(c), None));
+        assert!(labels.len() >= 2, "{c:?}: {labels:?}");
+        for w in labels.windows(2) {
+            assert_ne!(w[0], w[1], "{c:?}: {labels:?}");
+        }
+    }
+}

@@ -242,15 +242,27 @@ fn arc(frame: &mut Frame, layout: &MohrLayout, circle: &Circle, width: f32, colo
     }
 }
 
-/// Tick positions: multiples of a round step between `lo` and `hi`.
-fn ticks(lo: f64, hi: f64, target_count: f64) -> Vec<f64> {
+/// Tick positions in pascals: multiples of a round step (1, 2 or 5 × 10ᵏ) *in the display
+/// unit*, between `lo_pa` and `hi_pa`, so that psi ticks read 500, 1000… psi rather than
+/// converted round pascals.
+fn ticks(lo_pa: f64, hi_pa: f64, target_count: f64, unit: StressUnit) -> Vec<f64> {
+    let (lo, hi) = (unit.from_pa(lo_pa), unit.from_pa(hi_pa));
     let step = crate::scene::nice_round((hi - lo) / target_count);
     if step <= 0.0 {
         return Vec::new();
     }
     let first = (lo / step).ceil() as i64;
     let last = (hi / step).floor() as i64;
-    (first..=last).map(|k| k as f64 * step).collect()
+    (first..=last)
+        .map(|k| unit.to_pa(k as f64 * step))
+        .collect()
+}
+
+/// Tick labels in `unit` with enough digits to tell neighbours apart.
+fn tick_labels(ticks_pa: &[f64], unit: StressUnit) -> Vec<String> {
+    let shown: Vec<f64> = ticks_pa.iter().map(|&v| unit.from_pa(v)).collect();
+    let digits = crate::format::distinct_digits(&shown, 4);
+    shown.iter().map(|&v| sig(v, digits)).collect()
 }
 
 /// The figure at `width` × `height` pixels, with text and lines of `sizes` (on screen the
@@ -291,8 +303,8 @@ pub fn mohr_frame(figure: &MohrFigure, width: u32, height: u32, sizes: Sizes) ->
 
     // Grid and tick labels.
     let value = |pa: f64| sig(unit.from_pa(pa), 4);
-    let x_ticks = ticks(layout.normal_min_pa, layout.normal_max_pa, 7.0);
-    for &x in &x_ticks {
+    let x_ticks = ticks(layout.normal_min_pa, layout.normal_max_pa, 7.0, unit);
+    for (&x, label) in x_ticks.iter().zip(tick_labels(&x_ticks, unit)) {
         let [px, _] = layout.to_px(x, 0.0);
         frame.prims.push(Prim::Line {
             a: [px, top],
@@ -302,17 +314,19 @@ pub fn mohr_frame(figure: &MohrFigure, width: u32, height: u32, sizes: Sizes) ->
         });
         frame.prims.push(Prim::Text {
             at: [px, bottom + 12.0 * sizes.line],
-            text: value(x),
+            text: label,
             size: 0.9 * sizes.text,
             color: style::INK,
             anchor: Anchor::Center,
             halo: false,
         });
     }
+    // τ ticks: the same step as σn (one scale on both axes), from 0 up.
     let step = x_ticks.windows(2).next().map_or(0.0, |p| p[1] - p[0]);
     if step > 0.0 {
-        let mut y = step;
-        while y <= layout.shear_max_pa {
+        let count = (layout.shear_max_pa / step).floor() as usize;
+        let y_ticks: Vec<f64> = (1..=count).map(|k| k as f64 * step).collect();
+        for (&y, label) in y_ticks.iter().zip(tick_labels(&y_ticks, unit)) {
             let [_, py] = layout.to_px(0.0, y);
             frame.prims.push(Prim::Line {
                 a: [left, py],
@@ -322,13 +336,12 @@ pub fn mohr_frame(figure: &MohrFigure, width: u32, height: u32, sizes: Sizes) ->
             });
             frame.prims.push(Prim::Text {
                 at: [left - 6.0 * sizes.line, py],
-                text: value(y),
+                text: label,
                 size: 0.9 * sizes.text,
                 color: style::INK,
                 anchor: Anchor::RightCenter,
                 halo: false,
             });
-            y += step;
         }
     }
     // Axes: σn along τ = 0; the τ axis at σn = 0 when it is in view, else the left edge.

@@ -739,7 +739,9 @@ impl Scene {
 
     fn add_legend(&mut self, cx: &Context<'_>) {
         let sym = cx.input.unit.symbol();
-        let bar_pa = nice_round(cx.max_abs_pa * 0.5);
+        // Round in the display unit (500 psi, not a converted round number of pascals).
+        let unit = cx.input.unit;
+        let bar_pa = unit.to_pa(nice_round(unit.from_pa(cx.max_abs_pa * 0.5)));
         self.legend = Some(Legend {
             lines: vec![
                 format!("Stress unit: {sym}"),

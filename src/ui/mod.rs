@@ -119,7 +119,7 @@ pub fn status_bar_ui(app: &PlanewiseApp, ui: &mut egui::Ui) {
                 };
                 ui.colored_label(color, &status.text);
             } else {
-                ui.weak("Aid for engineers: check inputs and results; codes and licensed practice govern design.");
+                ui.weak(crate::SAFETY_NOTE);
             }
         });
     });
