@@ -42,6 +42,14 @@ fn analysis(c: &mut Criterion) {
             }
         });
     });
+    // Values and directions, as the window and the analysis need them.
+    group.bench_function("principal_with_directions", |b| {
+        b.iter(|| {
+            for t in &tensors {
+                black_box(planewise::mechanics::principal(black_box(t)));
+            }
+        });
+    });
     group.bench_function("full_analysis", |b| {
         b.iter(|| {
             for t in &tensors {

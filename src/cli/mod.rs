@@ -18,7 +18,12 @@ const CONVENTIONS: &str = "\
 Conventions: stresses are tension-positive unless --compression-positive is given, in which case \
 the components you type and every stress printed are compression-positive and σ1 is the most \
 compressive principal stress. Axes x, y, z are right-handed; for dip and dip direction x = east, \
-y = north, z = up, and the dip direction is measured clockwise from north.
+y = north, z = up, and the dip direction is measured clockwise from north. The traction \
+t = σ·n is what the material on the side n points into exerts on the material behind the \
+plane; the shear direction is its tangential part in tension-positive physics whatever the \
+convention (with n pointing up: the hanging wall's slip). The rake is the angle in the plane \
+from strike (dip direction − 90°) to that slip, −180° to 180°, reverse +90°, normal −90° \
+(Aki & Richards 1980). Triaxiality is σm/σvM on the tension-positive mean stress.
 
 Planewise is an aid for engineers. Check inputs and results independently; design decisions \
 follow the applicable codes and licensed engineering practice.";

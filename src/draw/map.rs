@@ -110,7 +110,9 @@ pub fn map_frame(
     let mut rgba = vec![0u8; map.size * map.size * 4];
     for (i, v) in map.values.iter().enumerate() {
         if let Some(v) = v {
-            let [cr, cg, cb] = viridis((v - lo) / span);
+            // A uniform map takes the colour bar's middle, where its one label sits.
+            let t = if uniform { 0.5 } else { (v - lo) / span };
+            let [cr, cg, cb] = viridis(t);
             rgba[i * 4..i * 4 + 4].copy_from_slice(&[cr, cg, cb, 255]);
         }
     }
@@ -235,7 +237,12 @@ pub fn map_frame(
     let steps = 128usize;
     let mut bar = vec![0u8; steps * 4];
     for i in 0..steps {
-        let [cr, cg, cb] = viridis(1.0 - i as f64 / (steps - 1) as f64);
+        let t = if uniform {
+            0.5
+        } else {
+            1.0 - i as f64 / (steps - 1) as f64
+        };
+        let [cr, cg, cb] = viridis(t);
         bar[i * 4..i * 4 + 4].copy_from_slice(&[cr, cg, cb, 255]);
     }
     frame.prims.push(Prim::Image {
@@ -290,7 +297,7 @@ pub fn map_frame(
         ""
     };
     let worst_key = if marks.cone.is_some() {
-        "▲ worst planes (circle: the cone of worst poles)"
+        "▲ worst planes (line: their cone)"
     } else {
         "▲ worst planes"
     };

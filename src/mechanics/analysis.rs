@@ -88,7 +88,8 @@ impl Analysis {
             max_shear_pa: 0.5 * (d1 - d3),
             max_shear_normals: [(n1 + n3) * sqrt_half, (n1 - n3) * sqrt_half],
             octahedral_normal_pa: mean_stress_pa,
-            octahedral_shear_pa: (2.0 * invariants.j2 / 3.0).sqrt(),
+            // √(2 J2 / 3) = σvM √2 / 3, without a second square root.
+            octahedral_shear_pa: von_mises_pa * (std::f64::consts::SQRT_2 / 3.0),
             lode_angle_deg,
             triaxiality,
         }

@@ -766,7 +766,7 @@ fn legend_entries(layers: Layers, worst_planes: bool) -> Vec<LegendEntry> {
     };
     let mut out = Vec::new();
     if layers.face_tractions || layers.cut_plane {
-        out.push(entry(style::TRACTION, "traction t"));
+        out.push(entry(style::TRACTION, "traction t = σ·n"));
         out.push(entry(style::NORMAL_PART, "normal part σn·n"));
         out.push(entry(style::SHEAR_PART, "shear part τ"));
     }

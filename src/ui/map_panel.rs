@@ -157,8 +157,15 @@ pub fn worst_plane_ui(
             });
             ui.horizontal_wrapped(|ui| {
                 for (i, p) in result.planes.iter().enumerate() {
+                    let rake = crate::mechanics::PlaneStress::new(
+                        &doc.tensor,
+                        p.normal,
+                        settings.convention,
+                    )
+                    .rake_deg()
+                    .map_or_else(|| "undefined".to_owned(), |r| format!("{}°", sig(r, 4)));
                     let tip = format!(
-                        "{}, σn {}, τ {}",
+                        "{}, σn {}, τ {}, rake {rake}",
                         dip_text(p.dip_deg, p.dip_direction_deg),
                         value_text(Measure::Shear, p.normal_stress_pa, settings),
                         value_text(Measure::Shear, p.shear_stress_pa, settings)
