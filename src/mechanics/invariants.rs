@@ -26,6 +26,7 @@ impl Invariants {
     /// J3 from the deviator's own principal values ([`Principal::deviatoric_pa`]), so they keep
     /// their digits when the mean stress is many orders larger than the deviator.
     #[must_use]
+    #[inline]
     pub fn from_principal(p: &Principal) -> Self {
         let [s1, s2, s3] = p.values_pa;
         let [d1, d2, d3] = p.deviatoric_pa;

@@ -50,6 +50,7 @@ struct Scaled {
 }
 
 impl Scaled {
+    #[inline]
     fn new(t: &StressTensor) -> Self {
         let mean_pa = t.mean_pa();
         let [xx, yy, zz, xy, yz, zx] = t.components_pa();
@@ -82,6 +83,7 @@ impl Scaled {
     /// cos θ = 1 − d is solved for the root farther from the others, where d in [0, 1 − √3/2]
     /// satisfies 4d³ − 12d² + 9d = 1 − |cos 3θ| (the triple-angle identity written in d, which
     /// keeps small d, and so sin θ = √(d(2 − d)), to full relative precision).
+    #[inline]
     fn trig_eigenvalues(&self) -> ([f64; 3], f64) {
         let b = &self.b;
         let j2 = deviator_j2([
@@ -206,6 +208,7 @@ pub fn principal_values_pa(t: &StressTensor) -> [f64; 3] {
 
 /// Principal stresses and directions of `t`.
 #[must_use]
+#[inline]
 pub fn principal(t: &StressTensor) -> Principal {
     let s = Scaled::new(t);
     if s.max_abs_pa == 0.0 {
@@ -249,6 +252,7 @@ fn canonical_signs([n1, n2, n3]: [Vector3<f64>; 3]) -> [Vector3<f64>; 3] {
 /// Adds the mean stress back to deviatoric values. A sum that is zero to working precision is
 /// made exactly zero, so that a plane-stress state reports 0 rather than 4e-15 (the values are
 /// only known to a few ulp of the largest one anyway).
+#[inline]
 fn add_mean(deviatoric_pa: [f64; 3], mean_pa: f64) -> [f64; 3] {
     let values = deviatoric_pa.map(|v| v + mean_pa);
     // The values are in descending order, so the largest magnitude is at one end.
@@ -265,6 +269,7 @@ fn add_mean(deviatoric_pa: [f64; 3], mean_pa: f64) -> [f64; 3] {
 /// Directions, and the values refined, for the scaled deviator `s.b` with trigonometric
 /// eigenvalues `l` (descending). Returned values are deviatoric, in pascals (in `values_pa`;
 /// the caller fills in the mean and the other fields).
+#[inline]
 fn solve_with_vectors(s: &Scaled, l: [f64; 3]) -> Principal {
     let b = &s.b;
     // Start from the eigenvalue farthest from the other two: it is simple (unless the deviator
@@ -331,6 +336,7 @@ fn solve_with_vectors(s: &Scaled, l: [f64; 3]) -> Principal {
 
 /// Unit direction of the simple eigenvalue `lambda` of symmetric `b`: the longest cross product
 /// of two rows of b − λI.
+#[inline]
 fn isolated_direction(b: &Matrix3<f64>, lambda: f64) -> Vector3<f64> {
     let m = b - Matrix3::identity() * lambda;
     let r0 = m.row(0).transpose();
@@ -354,6 +360,7 @@ fn isolated_direction(b: &Matrix3<f64>, lambda: f64) -> Vector3<f64> {
 
 /// Two unit vectors that complete unit `w` to a right-handed orthonormal basis (u, v, w).
 #[must_use]
+#[inline]
 pub fn orthogonal_complement(w: &Vector3<f64>) -> (Vector3<f64>, Vector3<f64>) {
     let u = if w.x.abs() > w.y.abs() {
         Vector3::new(-w.z, 0.0, w.x) / (w.x * w.x + w.z * w.z).sqrt()
