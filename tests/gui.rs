@@ -413,11 +413,14 @@ fn dragging_the_normal_handle_turns_the_plane_in_one_undo_step() {
     assert_ne!(h.state().settings.camera, camera);
 }
 
-/// Runs frames until `done` holds (the dialog answers on a worker thread), at most 200.
+/// Runs frames until `done` holds (the dialog answers on a worker thread), for up to 10 s.
 fn run_until(h: &mut Harness<'static, PlanewiseApp>, done: impl Fn(&PlanewiseApp) -> bool) {
-    for _ in 0..200 {
-        h.run();
+    for _ in 0..2000 {
+        // Single steps: while the dialog is pending the window shows a spinner, which keeps
+        // asking for repaints, so `run` would never settle.
+        h.step();
         if done(h.state()) {
+            h.run();
             return;
         }
         std::thread::sleep(std::time::Duration::from_millis(5));
@@ -431,6 +434,7 @@ fn without_a_file_dialog_the_window_offers_a_path_entry_that_saves() {
     h.key_press_modifiers(egui::Modifiers::COMMAND, egui::Key::E);
     h.run();
     h.get_by_label("Save as PNG or SVG…").click();
+    h.step();
     run_until(&mut h, |app| app.export_panel.path_entry.is_some());
     assert!(!h.state().dialog_open());
     // The reason is said, and a path field with the suggested name is offered.
