@@ -14,6 +14,7 @@ pub mod mechanics;
 pub mod parse;
 pub mod results;
 pub mod scene;
+pub mod study;
 pub mod ui;
 
 /// The caution every output that can feed a decision carries (README, About, reports, figures).

@@ -4,10 +4,14 @@
 //! the argument's name and what is wrong, on one line, with exit status 2 and nothing on stdout.
 
 pub mod analyze;
+pub mod envelope;
 pub mod figure;
 pub mod map;
 pub mod mohr;
+pub mod project;
 pub mod worst_plane;
+
+use std::path::Path;
 
 use clap::{Args, Parser, Subcommand};
 
@@ -63,6 +67,11 @@ pub enum Command {
     /// of a measure and the Mohr–Coulomb envelope, as SVG or PNG.
     #[command(after_help = CONVENTIONS)]
     Mohr(mohr::MohrArgs),
+    /// Create a project file and add load cases and factored combinations to it.
+    Project(project::ProjectArgs),
+    /// One measure over every load case and combination of a project, worst first.
+    #[command(after_help = CONVENTIONS)]
+    Envelope(envelope::EnvelopeArgs),
 }
 
 /// The stress state, as every subcommand takes it.
@@ -71,14 +80,52 @@ pub struct StressArgs {
     /// Components as key=value pairs, e.g. xx=120,yy=-35,zz=15,xy=48,yz=-12,zx=22. Omitted
     /// components are 0; yx, zy, xz are accepted for xy, yz, zx.
     #[arg(long, value_name = "KEY=VALUE,…", allow_hyphen_values = true)]
-    pub stress: String,
+    pub stress: Option<String>,
     /// Unit of every stress typed and printed, exactly as written: Pa, kPa, MPa, GPa, psi or
     /// ksi (N/mm² and N/mm2 are read as MPa).
-    #[arg(long, value_name = "UNIT", default_value = "MPa")]
-    pub unit: String,
+    /// [default: MPa, or the project's unit with --project]
+    #[arg(long, value_name = "UNIT")]
+    pub unit: Option<String>,
     /// Stresses typed and printed are compression-positive (geomechanics).
     #[arg(long)]
     pub compression_positive: bool,
+}
+
+impl StressArgs {
+    /// The unit given with `--unit`, or `default`.
+    pub fn unit_or(&self, default: StressUnit) -> Result<StressUnit, ArgError> {
+        self.unit
+            .as_deref()
+            .map_or(Ok(default), str::parse)
+            .map_err(|e| ArgError::new("--unit", e))
+    }
+
+    /// The state of load case or combination `case` of the project in `file` (shown in the
+    /// project's unit and convention unless `--unit` or `--compression-positive` say otherwise);
+    /// `--stress` must then be absent.
+    pub fn read_from_project(&self, file: &Path, case: &str) -> Result<StressInput, ArgError> {
+        if self.stress.is_some() {
+            return Err(ArgError::new(
+                "--stress",
+                "cannot be given together with --project",
+            ));
+        }
+        let (project, _) = crate::study::load(file).map_err(|e| ArgError::new("--project", e))?;
+        let tensor = project
+            .tensor(case)
+            .map_err(|e| ArgError::new("--case", e))?;
+        let project_unit = project.unit().map_err(|e| ArgError::new("--project", e))?;
+        let convention = if self.compression_positive {
+            SignConvention::CompressionPositive
+        } else {
+            project.convention()
+        };
+        Ok(StressInput {
+            tensor,
+            unit: self.unit_or(project_unit)?,
+            convention,
+        })
+    }
 }
 
 /// The tensor, unit and convention read from [`StressArgs`].
@@ -95,13 +142,19 @@ pub struct StressInput {
 impl StressArgs {
     /// Reads and checks the arguments.
     pub fn read(&self) -> Result<StressInput, ArgError> {
-        let unit: StressUnit = self.unit.parse().map_err(|e| ArgError::new("--unit", e))?;
+        let unit = self.unit_or(StressUnit::MPa)?;
         let convention = if self.compression_positive {
             SignConvention::CompressionPositive
         } else {
             SignConvention::TensionPositive
         };
-        let values = parse::stress_list(&self.stress).map_err(|e| ArgError::new("--stress", e))?;
+        let Some(stress) = &self.stress else {
+            return Err(ArgError::new(
+                "--stress",
+                "is required (key=value pairs such as xx=120,xy=-35)",
+            ));
+        };
+        let values = parse::stress_list(stress).map_err(|e| ArgError::new("--stress", e))?;
         let tensor = StressTensor::from_components(values, unit, convention.sign())
             .map_err(|e| ArgError::new("--stress", e))?;
         Ok(StressInput {
@@ -208,5 +261,7 @@ pub fn run(command: &Command) -> Result<String, CliError> {
         Command::WorstPlane(args) => worst_plane::run(args),
         Command::Map(args) => map::run(args),
         Command::Mohr(args) => mohr::run(args),
+        Command::Project(args) => project::run(args),
+        Command::Envelope(args) => envelope::run(args),
     }
 }

@@ -1,0 +1,168 @@
+//! The envelope: one measure over every load case and combination, sorted worst first, with
+//! the governing one named.
+
+use super::model::{Project, StudyError};
+use crate::mechanics::Analysis;
+use crate::mechanics::search::{Measure, SearchSettings, WorstCondition, WorstPlane, worst_plane};
+
+/// What the envelope ranks.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum EnvelopeMeasure {
+    /// von Mises equivalent stress.
+    VonMises,
+    /// Tresca equivalent stress σ1 − σ3.
+    Tresca,
+    /// Maximum shear stress (σ1 − σ3) / 2.
+    MaxShear,
+    /// The largest principal stress σ1 (in the project's convention); worst is largest.
+    Sigma1,
+    /// The smallest principal stress σ3 (in the project's convention); worst is smallest.
+    Sigma3,
+    /// A worst-plane measure: its worst value over every plane.
+    Plane(Measure),
+}
+
+impl EnvelopeMeasure {
+    /// Every key, in help order.
+    #[must_use]
+    pub fn keys() -> Vec<&'static str> {
+        let mut keys = vec!["von-mises", "tresca", "max-shear", "sigma1", "sigma3"];
+        keys.extend(Measure::ALL.iter().map(|m| m.key()));
+        keys
+    }
+
+    /// Parses a key.
+    #[must_use]
+    pub fn from_key(key: &str) -> Option<Self> {
+        Some(match key.trim() {
+            "von-mises" => Self::VonMises,
+            "tresca" => Self::Tresca,
+            "max-shear" => Self::MaxShear,
+            "sigma1" => Self::Sigma1,
+            "sigma3" => Self::Sigma3,
+            other => Self::Plane(Measure::from_key(other)?),
+        })
+    }
+
+    /// The key.
+    #[must_use]
+    pub fn key(self) -> &'static str {
+        match self {
+            Self::VonMises => "von-mises",
+            Self::Tresca => "tresca",
+            Self::MaxShear => "max-shear",
+            Self::Sigma1 => "sigma1",
+            Self::Sigma3 => "sigma3",
+            Self::Plane(m) => m.key(),
+        }
+    }
+
+    /// Whether the value is a stress (else a ratio).
+    #[must_use]
+    pub fn is_stress(self) -> bool {
+        match self {
+            Self::Plane(m) => m.is_stress(),
+            _ => true,
+        }
+    }
+
+    /// Whether the worst value is the smallest.
+    #[must_use]
+    pub fn worst_is_smallest(self) -> bool {
+        match self {
+            Self::Sigma3 => true,
+            Self::Plane(m) => m.worst_is_smallest(),
+            _ => false,
+        }
+    }
+}
+
+/// One case or combination in the envelope.
+#[derive(Clone, Debug, PartialEq)]
+pub struct EnvelopeRow {
+    /// Its name.
+    pub name: String,
+    /// Whether it is a combination.
+    pub combination: bool,
+    /// The value (Pa for stresses, in the project's convention; else dimensionless); `None`
+    /// where undefined (see `condition`).
+    pub value: Option<f64>,
+    /// For worst-plane measures, how to read the value and planes.
+    pub condition: Option<WorstCondition>,
+    /// For worst-plane measures, the worst planes.
+    pub planes: Vec<WorstPlane>,
+}
+
+/// The envelope: rows sorted worst first.
+#[derive(Clone, Debug, PartialEq)]
+pub struct Envelope {
+    /// The measure.
+    pub measure: EnvelopeMeasure,
+    /// Worst first.
+    pub rows: Vec<EnvelopeRow>,
+    /// The governing row's name (the first row), if there is any row.
+    pub governing: Option<String>,
+}
+
+/// The envelope of `measure` over every case and combination of `project`. `plane_settings`
+/// gives the pore pressure and material of worst-plane measures (its measure and convention are
+/// overwritten).
+pub fn envelope(
+    project: &Project,
+    measure: EnvelopeMeasure,
+    plane_settings: &SearchSettings,
+) -> Result<Envelope, StudyError> {
+    let convention = project.convention();
+    let mut rows = Vec::new();
+    for (name, combination) in project.names() {
+        let tensor = project.tensor(name)?;
+        let (value, condition, planes) = match measure {
+            EnvelopeMeasure::Plane(m) => {
+                let settings = SearchSettings {
+                    measure: m,
+                    convention,
+                    ..*plane_settings
+                };
+                let r = worst_plane(&tensor, &settings)
+                    .map_err(|e| StudyError::Invalid(e.to_string()))?;
+                (r.value, Some(r.condition), r.planes)
+            }
+            other => {
+                let a = Analysis::new(&tensor, convention);
+                let v = match other {
+                    EnvelopeMeasure::VonMises => a.von_mises_pa,
+                    EnvelopeMeasure::Tresca => a.tresca_pa,
+                    EnvelopeMeasure::MaxShear => a.max_shear_pa,
+                    EnvelopeMeasure::Sigma1 => a.principal.values_pa[0],
+                    _ => a.principal.values_pa[2],
+                };
+                (Some(v), None, Vec::new())
+            }
+        };
+        rows.push(EnvelopeRow {
+            name: name.to_owned(),
+            combination,
+            value,
+            condition,
+            planes,
+        });
+    }
+    rows.sort_by(|a, b| rank(measure, b).total_cmp(&rank(measure, a)));
+    let governing = rows.first().map(|r| r.name.clone());
+    Ok(Envelope {
+        measure,
+        rows,
+        governing,
+    })
+}
+
+/// Larger is worse. Planes without frictional capacity are worst of all; an undefined value
+/// (dilation tendency of an isotropic state) least.
+fn rank(measure: EnvelopeMeasure, row: &EnvelopeRow) -> f64 {
+    match (row.value, row.condition) {
+        (Some(v), _) if measure.worst_is_smallest() => -v,
+        (Some(v), _) => v,
+        (None, Some(WorstCondition::EffectiveTension)) => f64::INFINITY,
+        (None, _) => f64::NEG_INFINITY,
+    }
+}

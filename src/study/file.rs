@@ -1,0 +1,157 @@
+//! The project file: JSON with our own schema and a `format_version`, written atomically.
+//!
+//! ```json
+//! { "format_version": 1, "name": "…", "unit": "MPa", "compression_positive": false,
+//!   "cases": [ { "name": "dead", "description": "…",
+//!                "input": { "kind": "tensor", "unit": "MPa", "compression_positive": false,
+//!                           "components": [xx, yy, zz, xy, yz, zx] } } ],
+//!   "combinations": [ { "name": "ULS", "terms": [ { "case": "dead", "factor": 1.35 } ] } ],
+//!   "notes": "" }
+//! ```
+
+use std::path::{Path, PathBuf};
+
+use serde::{Deserialize, Serialize};
+
+use super::model::{Project, StudyError};
+
+/// The version this program writes; files with a larger number are refused.
+pub const FORMAT_VERSION: u32 = 1;
+
+/// Top-level keys this version knows; others are ignored with a warning.
+const KNOWN_KEYS: [&str; 7] = [
+    "format_version",
+    "name",
+    "unit",
+    "compression_positive",
+    "cases",
+    "combinations",
+    "notes",
+];
+
+#[derive(Serialize, Deserialize)]
+struct OnDisk {
+    format_version: u32,
+    #[serde(flatten)]
+    project: Project,
+}
+
+/// Why a project file cannot be read or written.
+#[derive(Debug, thiserror::Error)]
+pub enum FileError {
+    /// The file could not be read or written.
+    #[error("{}: {cause}", .path.display())]
+    Io {
+        /// The file.
+        path: PathBuf,
+        /// The operating system's error.
+        cause: std::io::Error,
+    },
+    /// The file is empty.
+    #[error("{}: the file is empty", .0.display())]
+    Empty(PathBuf),
+    /// Not JSON, or not our schema.
+    #[error("{}: {message}", .path.display())]
+    Malformed {
+        /// The file.
+        path: PathBuf,
+        /// What is wrong, with line and column where JSON says so.
+        message: String,
+    },
+    /// Written by a newer program.
+    #[error("{}: format version {found} is newer than this Planewise reads ({FORMAT_VERSION}); update Planewise", .path.display())]
+    Future {
+        /// The file.
+        path: PathBuf,
+        /// The file's version.
+        found: u64,
+    },
+    /// The content is inconsistent (unknown case in a combination, duplicate name…).
+    #[error("{}: {source}", .path.display())]
+    Study {
+        /// The file.
+        path: PathBuf,
+        /// What is wrong.
+        source: StudyError,
+    },
+}
+
+/// Reads a project. Returns it with warnings (unknown keys that were ignored).
+pub fn load(path: &Path) -> Result<(Project, Vec<String>), FileError> {
+    let text = std::fs::read_to_string(path).map_err(|cause| FileError::Io {
+        path: path.to_owned(),
+        cause,
+    })?;
+    if text.trim().is_empty() {
+        return Err(FileError::Empty(path.to_owned()));
+    }
+    let malformed = |message: String| FileError::Malformed {
+        path: path.to_owned(),
+        message,
+    };
+    let value: serde_json::Value = serde_json::from_str(&text).map_err(|e| {
+        malformed(format!(
+            "not a Planewise project file (JSON error at line {}, column {}: {e})",
+            e.line(),
+            e.column()
+        ))
+    })?;
+    let Some(object) = value.as_object() else {
+        return Err(malformed(
+            "not a Planewise project file (expected a JSON object)".to_owned(),
+        ));
+    };
+    let Some(version) = object
+        .get("format_version")
+        .and_then(serde_json::Value::as_u64)
+    else {
+        return Err(malformed(
+            "not a Planewise project file (no format_version)".to_owned(),
+        ));
+    };
+    if version > u64::from(FORMAT_VERSION) {
+        return Err(FileError::Future {
+            path: path.to_owned(),
+            found: version,
+        });
+    }
+    let warnings = object
+        .keys()
+        .filter(|k| !KNOWN_KEYS.contains(&k.as_str()))
+        .map(|k| format!("{}: unknown key '{k}' ignored", path.display()))
+        .collect();
+    let on_disk: OnDisk = serde_json::from_value(value).map_err(|e| malformed(e.to_string()))?;
+    on_disk
+        .project
+        .validate()
+        .map_err(|source| FileError::Study {
+            path: path.to_owned(),
+            source,
+        })?;
+    Ok((on_disk.project, warnings))
+}
+
+/// Writes a project atomically: a temporary file in the same folder, synced, then renamed over
+/// the old one, so a crash or a killed process leaves either the old file or the new one.
+pub fn save(path: &Path, project: &Project) -> Result<(), FileError> {
+    project.validate().map_err(|source| FileError::Study {
+        path: path.to_owned(),
+        source,
+    })?;
+    let on_disk = OnDisk {
+        format_version: FORMAT_VERSION,
+        project: project.clone(),
+    };
+    let mut text = serde_json::to_string_pretty(&on_disk).map_err(|e| FileError::Malformed {
+        path: path.to_owned(),
+        message: e.to_string(),
+    })?;
+    text.push('\n');
+    crate::export::write_atomic(path, text.as_bytes()).map_err(|e| match e {
+        crate::export::ExportError::Io { path, cause } => FileError::Io { path, cause },
+        other => FileError::Malformed {
+            path: path.to_owned(),
+            message: other.to_string(),
+        },
+    })
+}
