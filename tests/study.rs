@@ -300,6 +300,31 @@ fn cli_builds_a_project_and_analyses_its_combinations() {
     assert!(env["rows"][0]["planes"].as_array().is_some());
     let text = run_ok(&["envelope", "--project", f, "--measure", "sigma3"]);
     assert!(text.contains("← governs"), "{text}");
+    // Every state-taking subcommand reads a case or combination the same way, and gives the
+    // same result as for the hand-summed tensor.
+    let worst = |state: &[&str]| {
+        let mut args = vec!["worst-plane", "--measure", "shear", "--json"];
+        args.extend_from_slice(state);
+        let j: serde_json::Value = serde_json::from_str(&run_ok(&args)).unwrap();
+        j["value"].as_f64().unwrap()
+    };
+    let a = worst(&["--project", f, "--case", "ULS"]);
+    let b = worst(&["--stress", "xx=144,yy=-6,xy=61.2"]);
+    assert!((a - b).abs() < 1e-9, "{a} vs {b}");
+    let svg = temp("uls.svg");
+    for sub in [&["figure"][..], &["map", "--measure", "shear"], &["mohr"]] {
+        let mut args = sub.to_vec();
+        args.extend_from_slice(&[
+            "--project",
+            f,
+            "--case",
+            "ULS",
+            "--out",
+            svg.to_str().unwrap(),
+        ]);
+        run_ok(&args);
+        assert!(std::fs::read_to_string(&svg).unwrap().contains("<svg"));
+    }
 }
 
 #[test]

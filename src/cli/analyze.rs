@@ -17,12 +17,6 @@ pub struct AnalyzeArgs {
     pub stress: StressArgs,
     #[command(flatten)]
     pub plane: PlaneArgs,
-    /// Take the state from this project file (with --case) instead of --stress.
-    #[arg(long, value_name = "FILE", requires = "case")]
-    pub project: Option<std::path::PathBuf>,
-    /// The load case or combination of --project to analyse.
-    #[arg(long, value_name = "NAME", requires = "project")]
-    pub case: Option<String>,
     /// Print one JSON object instead of the table.
     #[arg(long)]
     pub json: bool,
@@ -271,10 +265,7 @@ pub fn to_text(j: &AnalyzeJson) -> String {
 
 /// Runs the subcommand.
 pub fn run(args: &AnalyzeArgs) -> Result<String, CliError> {
-    let input = match (&args.project, &args.case) {
-        (Some(file), Some(case)) => args.stress.read_from_project(file, case)?,
-        _ => args.stress.read()?,
-    };
+    let input = args.stress.read()?;
     let plane = args.plane.read()?;
     let json = to_json(&input, plane);
     if args.json {

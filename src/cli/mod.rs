@@ -78,7 +78,7 @@ pub enum Command {
 #[derive(Debug, Clone, Args)]
 pub struct StressArgs {
     /// Components as key=value pairs, e.g. xx=120,yy=-35,zz=15,xy=48,yz=-12,zx=22. Omitted
-    /// components are 0; yx, zy, xz are accepted for xy, yz, zx.
+    /// components are 0; yx, zy, xz are accepted for xy, yz, zx. Or --project with --case.
     #[arg(long, value_name = "KEY=VALUE,…", allow_hyphen_values = true)]
     pub stress: Option<String>,
     /// Unit of every stress typed and printed, exactly as written: Pa, kPa, MPa, GPa, psi or
@@ -89,6 +89,12 @@ pub struct StressArgs {
     /// Stresses typed and printed are compression-positive (geomechanics).
     #[arg(long)]
     pub compression_positive: bool,
+    /// Take the state from this project file (with --case) instead of --stress.
+    #[arg(long, value_name = "FILE", requires = "case")]
+    pub project: Option<std::path::PathBuf>,
+    /// The load case or combination of --project.
+    #[arg(long, value_name = "NAME", requires = "project")]
+    pub case: Option<String>,
 }
 
 impl StressArgs {
@@ -142,6 +148,9 @@ pub struct StressInput {
 impl StressArgs {
     /// Reads and checks the arguments.
     pub fn read(&self) -> Result<StressInput, ArgError> {
+        if let (Some(file), Some(case)) = (&self.project, &self.case) {
+            return self.read_from_project(file, case);
+        }
         let unit = self.unit_or(StressUnit::MPa)?;
         let convention = if self.compression_positive {
             SignConvention::CompressionPositive
