@@ -14,6 +14,7 @@ pub mod mechanics;
 pub mod parse;
 pub mod results;
 pub mod scene;
+pub mod session;
 pub mod study;
 pub mod ui;
 

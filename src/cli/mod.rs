@@ -45,7 +45,7 @@ pub struct Cli {
     pub screenshot: Option<std::path::PathBuf>,
     /// The picture the window opens on.
     #[arg(long, value_name = "TAB")]
-    pub tab: Option<crate::app::Central>,
+    pub tab: Option<crate::session::Central>,
 }
 
 /// The subcommands.

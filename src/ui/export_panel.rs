@@ -4,7 +4,7 @@
 
 use std::path::PathBuf;
 
-use crate::app::{Command, Settings};
+use crate::session::{Command, Settings};
 
 /// The in-window path entry offered when no native dialog can open.
 #[derive(Debug, Default)]

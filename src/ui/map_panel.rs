@@ -2,52 +2,13 @@
 //! net coloured by the chosen measure; hover names the plane and its value; a click sets the cut
 //! plane.
 
-use crate::app::{Command, Document, Settings};
 use crate::draw::egui_backend;
 use crate::draw::map::{MapMarks, MapMeasure, disc_geometry, map_frame};
 use crate::format::{dip_text, sig};
-use crate::mechanics::criteria::MohrCoulomb;
 use crate::mechanics::search::{Measure, SearchSettings, WorstCondition, worst_plane};
 use crate::mechanics::stereonet::{orientation_map, pole_at};
 use crate::mechanics::{Analysis, PlaneNormal};
-
-/// The measure and its parameters as the user set them (stresses in pascals).
-#[derive(Clone, Copy, Debug, PartialEq, serde::Serialize, serde::Deserialize)]
-#[serde(default)]
-pub struct MeasureChoice {
-    /// The measure.
-    pub measure: Measure,
-    /// Pore pressure, Pa (compression positive).
-    pub pore_pressure_pa: f64,
-    /// Cohesion, Pa.
-    pub cohesion_pa: f64,
-    /// Friction angle, degrees.
-    pub friction_angle_deg: f64,
-}
-
-impl Default for MeasureChoice {
-    fn default() -> Self {
-        Self {
-            measure: Measure::Shear,
-            pore_pressure_pa: 0.0,
-            cohesion_pa: 5e6,
-            friction_angle_deg: 30.0,
-        }
-    }
-}
-
-impl MeasureChoice {
-    /// The search settings in the display convention.
-    #[must_use]
-    pub fn settings(&self, settings: &Settings) -> SearchSettings {
-        SearchSettings {
-            measure: self.measure,
-            convention: settings.convention,
-            pore_pressure_pa: self.pore_pressure_pa,
-            material: MohrCoulomb::new(self.cohesion_pa, self.friction_angle_deg).ok(),
-        }
-    }
-}
+use crate::session::{Command, Document, MeasureChoice, Settings};
 
 /// Value text for a measure.
 fn value_text(measure: Measure, v: f64, settings: &Settings) -> String {

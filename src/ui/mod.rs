@@ -9,8 +9,8 @@ pub mod results_panel;
 pub mod stress_panel;
 pub mod view_panel;
 
-use crate::app::{Command, PlanewiseApp};
 use crate::draw::camera::{Projection, ViewPreset};
+use crate::session::{Command, Settings, Status};
 
 /// A number that stays the same for the whole of one drag on `response` and differs between
 /// drags, so that the edits of one drag merge into one undo step and the next drag starts
@@ -30,8 +30,13 @@ pub fn drag_serial(ui: &egui::Ui, response: &egui::Response) -> u64 {
     ui.data(|d| d.get_temp::<u64>(key).unwrap_or(0))
 }
 
-/// The menu bar.
-pub fn menus_ui(app: &mut PlanewiseApp, ui: &mut egui::Ui, out: &mut Vec<Command>) {
+/// The menu bar. `can_undo` / `can_redo` enable the Edit entries.
+pub fn menus_ui(
+    ui: &mut egui::Ui,
+    settings: &mut Settings,
+    (can_undo, can_redo): (bool, bool),
+    out: &mut Vec<Command>,
+) {
     egui::Panel::top("menus").show(ui, |ui| {
         egui::MenuBar::new().ui(ui, |ui| {
             ui.menu_button("File", |ui| {
@@ -65,11 +70,11 @@ pub fn menus_ui(app: &mut PlanewiseApp, ui: &mut egui::Ui, out: &mut Vec<Command
             });
             ui.menu_button("Edit", |ui| {
                 let undo = egui::Button::new("Undo").shortcut_text("Ctrl+Z");
-                if ui.add_enabled(app.history.can_undo(), undo).clicked() {
+                if ui.add_enabled(can_undo, undo).clicked() {
                     out.push(Command::Undo);
                 }
                 let redo = egui::Button::new("Redo").shortcut_text("Ctrl+Shift+Z / Ctrl+Y");
-                if ui.add_enabled(app.history.can_redo(), redo).clicked() {
+                if ui.add_enabled(can_redo, redo).clicked() {
                     out.push(Command::Redo);
                 }
             });
@@ -82,7 +87,7 @@ pub fn menus_ui(app: &mut PlanewiseApp, ui: &mut egui::Ui, out: &mut Vec<Command
                     }
                 }
                 ui.separator();
-                let cam = &mut app.settings.camera;
+                let cam = &mut settings.camera;
                 ui.radio_value(
                     &mut cam.projection,
                     Projection::Orthographic,
@@ -90,7 +95,7 @@ pub fn menus_ui(app: &mut PlanewiseApp, ui: &mut egui::Ui, out: &mut Vec<Command
                 );
                 ui.radio_value(&mut cam.projection, Projection::Perspective, "Perspective");
                 ui.separator();
-                view_panel::layers_ui(ui, &mut app.settings.layers);
+                view_panel::layers_ui(ui, &mut settings.layers);
             });
             ui.menu_button("Help", |ui| {
                 if ui.button("About Planewise").clicked() {
@@ -102,16 +107,16 @@ pub fn menus_ui(app: &mut PlanewiseApp, ui: &mut egui::Ui, out: &mut Vec<Command
 }
 
 /// The status bar: the last message, and the conventions in force.
-pub fn status_bar_ui(app: &PlanewiseApp, ui: &mut egui::Ui) {
+pub fn status_bar_ui(ui: &mut egui::Ui, settings: &Settings, status: Option<&Status>) {
     egui::Panel::bottom("status").show(ui, |ui| {
         ui.horizontal(|ui| {
             ui.label(format!(
                 "{} · {} · x, y, z right-handed",
-                app.settings.unit,
-                app.settings.convention.key()
+                settings.unit,
+                settings.convention.key()
             ));
             ui.separator();
-            if let Some(status) = &app.status {
+            if let Some(status) = status {
                 let color = if status.error {
                     ui.visuals().error_fg_color
                 } else {

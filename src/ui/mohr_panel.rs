@@ -3,7 +3,6 @@
 //! plane; clicking or dragging inside the shaded region moves the cut plane to a plane with
 //! that (σn, τ).
 
-use crate::app::{Coalesce, Command, Document, Settings};
 use crate::draw::mohr::{
     Envelope, MohrFigure, MohrLayout, MohrPoint, mohr_frame, worst_label, worst_points,
 };
@@ -12,6 +11,7 @@ use crate::format::sig;
 use crate::mechanics::criteria::MohrCoulomb;
 use crate::mechanics::mohr::MohrCircles;
 use crate::mechanics::search::{Measure, worst_plane};
+use crate::session::{Coalesce, Command, Document, Settings};
 
 /// The figure for the current state, as the tab and its export show it.
 #[must_use]

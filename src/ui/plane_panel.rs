@@ -3,10 +3,10 @@
 
 use nalgebra::Vector3;
 
-use crate::app::{Coalesce, Command, Document, Settings};
 use crate::format::sig;
 use crate::mechanics::{Analysis, PlaneNormal, SignConvention};
 use crate::parse;
+use crate::session::{Coalesce, Command, Document, Settings};
 
 /// Plane entry state.
 #[derive(Debug, Default)]

@@ -1,7 +1,7 @@
 //! The results panel: every number with its unit; hovering shows the formula.
 
-use crate::app::{Command, Document, Settings};
 use crate::results::rows;
+use crate::session::{Command, Document, Settings};
 
 /// Draws the results.
 pub fn results_ui(ui: &mut egui::Ui, doc: &Document, settings: &Settings, out: &mut Vec<Command>) {

@@ -1,9 +1,9 @@
 //! The stress-state panel: the 3×3 grid, unit, sign convention, presets and paste.
 
-use crate::app::{Coalesce, Command, Document, Settings};
 use crate::format::sig;
 use crate::mechanics::{Component, SignConvention, StressTensor, StressUnit};
 use crate::parse;
+use crate::session::{Coalesce, Command, Document, Settings};
 
 /// Grid editing state: the text in each cell and what is wrong with it.
 #[derive(Debug, Default)]

@@ -1,12 +1,12 @@
 //! The 3D view: a toolbar (view presets, projection, layers) and the CPU-rendered picture,
 //! which the user turns by dragging.
 
-use crate::app::{Coalesce, Command, Document, Settings};
 use crate::draw::camera::{Camera, Projection, ViewPreset};
 use crate::draw::{Sizes, egui_backend, render};
 use crate::mechanics::PlaneNormal;
 use crate::mechanics::search::worst_plane;
 use crate::scene::{FaceChoice, Layers, NORMAL_LENGTH, Scene, SceneInput};
+use crate::session::{Coalesce, Command, Document, Settings};
 
 /// How close (pixels) a press must be to the normal's handle to grab it.
 pub const HANDLE_GRAB_PX: f32 = 12.0;
