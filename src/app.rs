@@ -404,25 +404,21 @@ impl PlanewiseApp {
 
     /// Keyboard shortcuts that work anywhere in the window.
     fn shortcuts(ctx: &egui::Context) -> Vec<Command> {
-        use egui::{Key, KeyboardShortcut, Modifiers};
+        use egui::{Key, Modifiers};
+        use ui::shortcuts::{COPY_RESULTS, EXPORT, REDO, REDO_ALT, UNDO};
         let mut out = Vec::new();
         ctx.input_mut(|i| {
-            let redo_shift = KeyboardShortcut::new(Modifiers::COMMAND | Modifiers::SHIFT, Key::Z);
-            if i.consume_shortcut(&redo_shift)
-                || i.consume_shortcut(&KeyboardShortcut::new(Modifiers::COMMAND, Key::Y))
-            {
+            // Redo first: Ctrl+Shift+Z must not be taken as Ctrl+Z.
+            if i.consume_shortcut(&REDO) || i.consume_shortcut(&REDO_ALT) {
                 out.push(Command::Redo);
             }
-            if i.consume_shortcut(&KeyboardShortcut::new(Modifiers::COMMAND, Key::Z)) {
+            if i.consume_shortcut(&UNDO) {
                 out.push(Command::Undo);
             }
-            if i.consume_shortcut(&KeyboardShortcut::new(Modifiers::COMMAND, Key::E)) {
+            if i.consume_shortcut(&EXPORT) {
                 out.push(Command::OpenExport);
             }
-            if i.consume_shortcut(&KeyboardShortcut::new(
-                Modifiers::COMMAND | Modifiers::SHIFT,
-                Key::C,
-            )) {
+            if i.consume_shortcut(&COPY_RESULTS) {
                 out.push(Command::CopyResults);
             }
         });

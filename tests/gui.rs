@@ -497,3 +497,24 @@ fn the_status_bar_says_the_same_caution_as_the_readme() {
 
 /// The accessible name of the export window's path field.
 const PATH_FIELD: &str = "Path of the figure file, ending in .png or .svg";
+
+#[test]
+fn menu_shortcut_text_comes_from_the_bindings() {
+    let mut h = harness();
+    h.get_by_label("Edit").click();
+    h.run();
+    let undo = h.ctx.format_shortcut(&planewise::ui::shortcuts::UNDO);
+    assert!(!undo.is_empty());
+    assert!(h.query_all_by_label_contains(&undo).count() >= 1, "{undo}");
+    // The binding the menu names is the one the window obeys.
+    type_into(&mut h, "σxx", "80");
+    h.key_press_modifiers(
+        planewise::ui::shortcuts::UNDO.modifiers,
+        planewise::ui::shortcuts::UNDO.logical_key,
+    );
+    h.run();
+    assert_eq!(
+        h.state().document.tensor,
+        planewise::app::Document::demo().tensor
+    );
+}

@@ -12,6 +12,25 @@ pub mod view_panel;
 use crate::draw::camera::{Projection, ViewPreset};
 use crate::session::{Command, Settings, Status};
 
+/// The window's keyboard shortcuts, declared once: the app listens for these and the menus
+/// print them with `ctx.format_shortcut`, so the text is right on every platform (⌘ on macOS).
+pub mod shortcuts {
+    use egui::{Key, KeyboardShortcut, Modifiers};
+
+    /// Undo.
+    pub const UNDO: KeyboardShortcut = KeyboardShortcut::new(Modifiers::COMMAND, Key::Z);
+    /// Redo.
+    pub const REDO: KeyboardShortcut =
+        KeyboardShortcut::new(Modifiers::COMMAND.plus(Modifiers::SHIFT), Key::Z);
+    /// Redo, the other common binding.
+    pub const REDO_ALT: KeyboardShortcut = KeyboardShortcut::new(Modifiers::COMMAND, Key::Y);
+    /// Open the export window.
+    pub const EXPORT: KeyboardShortcut = KeyboardShortcut::new(Modifiers::COMMAND, Key::E);
+    /// Copy the results as text.
+    pub const COPY_RESULTS: KeyboardShortcut =
+        KeyboardShortcut::new(Modifiers::COMMAND.plus(Modifiers::SHIFT), Key::C);
+}
+
 /// A number that stays the same for the whole of one drag on `response` and differs between
 /// drags, so that the edits of one drag merge into one undo step and the next drag starts
 /// another.
@@ -41,7 +60,10 @@ pub fn menus_ui(
         egui::MenuBar::new().ui(ui, |ui| {
             ui.menu_button("File", |ui| {
                 if ui
-                    .add(egui::Button::new("Export figure…").shortcut_text("Ctrl+E"))
+                    .add(
+                        egui::Button::new("Export figure…")
+                            .shortcut_text(ui.ctx().format_shortcut(&shortcuts::EXPORT)),
+                    )
                     .clicked()
                 {
                     out.push(Command::OpenExport);
@@ -50,7 +72,10 @@ pub fn menus_ui(
                     out.push(Command::CopyFigure);
                 }
                 if ui
-                    .add(egui::Button::new("Copy results").shortcut_text("Ctrl+Shift+C"))
+                    .add(
+                        egui::Button::new("Copy results")
+                            .shortcut_text(ui.ctx().format_shortcut(&shortcuts::COPY_RESULTS)),
+                    )
                     .clicked()
                 {
                     out.push(Command::CopyResults);
@@ -69,11 +94,16 @@ pub fn menus_ui(
                 }
             });
             ui.menu_button("Edit", |ui| {
-                let undo = egui::Button::new("Undo").shortcut_text("Ctrl+Z");
+                let undo = egui::Button::new("Undo")
+                    .shortcut_text(ui.ctx().format_shortcut(&shortcuts::UNDO));
                 if ui.add_enabled(can_undo, undo).clicked() {
                     out.push(Command::Undo);
                 }
-                let redo = egui::Button::new("Redo").shortcut_text("Ctrl+Shift+Z / Ctrl+Y");
+                let redo = egui::Button::new("Redo").shortcut_text(format!(
+                    "{} / {}",
+                    ui.ctx().format_shortcut(&shortcuts::REDO),
+                    ui.ctx().format_shortcut(&shortcuts::REDO_ALT)
+                ));
                 if ui.add_enabled(can_redo, redo).clicked() {
                     out.push(Command::Redo);
                 }
