@@ -8,9 +8,8 @@ use clap::Args;
 use serde::Serialize;
 
 use super::worst_plane::MaterialArgs;
-use super::{ArgError, CliError, StressInput};
+use super::{ArgError, CliError};
 use crate::format::{clean, sig};
-use crate::mechanics::StressTensor;
 use crate::mechanics::search::{SearchSettings, WorstCondition};
 use crate::study::{self, EnvelopeMeasure};
 
@@ -75,16 +74,11 @@ pub fn run(args: &EnvelopeArgs) -> Result<String, CliError> {
     let (project, _) = study::load(&args.project).map_err(|e| ArgError::new("--project", e))?;
     let unit = project.unit().map_err(|e| ArgError::new("--project", e))?;
     let convention = project.convention();
-    let input = StressInput {
-        tensor: StressTensor::ZERO,
-        unit,
-        convention,
-    };
     let plane_measure = match measure {
         EnvelopeMeasure::Plane(m) => Some(m),
         _ => None,
     };
-    let (pore_pressure_pa, material) = args.material.read(&input, plane_measure, false)?;
+    let (pore_pressure_pa, material) = args.material.read(unit, plane_measure, false)?;
     if let Some(m) = plane_measure
         && m.uses_material()
         && material.is_none()

@@ -41,7 +41,7 @@ pub fn run(args: &MohrArgs) -> Result<String, CliError> {
     let input = args.stress.read()?;
     let plane = args.plane.read()?;
     let measure = args.measure.as_deref().map(parse_measure).transpose()?;
-    let (pore_pressure_pa, material) = args.material.read(&input, measure, true)?;
+    let (pore_pressure_pa, material) = args.material.read(input.unit, measure, true)?;
     let (w, h) = parse_size(&args.size)?;
     ImageFormat::from_path(&args.out).map_err(|e| ArgError::new("--out", e))?;
     let circles = MohrCircles::new(&input.tensor, input.convention);

@@ -7,9 +7,9 @@ use serde::Serialize;
 
 use super::{ArgError, CliError, StressArgs, StressInput};
 use crate::format::{clean, sig};
-use crate::mechanics::PlaneStress;
 use crate::mechanics::criteria::{CriterionError, MohrCoulomb};
 use crate::mechanics::search::{Measure, SearchSettings, WorstCondition, worst_plane};
+use crate::mechanics::{PlaneStress, StressUnit};
 use crate::parse;
 
 /// Pore pressure and Mohr–Coulomb material, shared by `worst-plane`, `map` and `mohr`.
@@ -34,16 +34,15 @@ impl MaterialArgs {
     }
 
     /// The pore pressure (Pa, 0 when not given) and the material, if both cohesion and friction
-    /// angle are given (stresses in `input.unit`). `measure` is the measure in use, if any;
+    /// angle are given (stresses in `unit`). `measure` is the measure in use, if any;
     /// `envelope` says whether the command also draws a Mohr–Coulomb envelope from the material.
     /// An argument that nothing uses is bad input, not silently ignored.
     pub fn read(
         &self,
-        input: &StressInput,
+        unit: StressUnit,
         measure: Option<Measure>,
         envelope: bool,
     ) -> Result<(f64, Option<MohrCoulomb>), ArgError> {
-        let unit = input.unit;
         let stress_arg =
             |name: &'static str, text: &Option<String>| -> Result<Option<f64>, ArgError> {
                 text.as_deref()
@@ -99,7 +98,7 @@ impl MaterialArgs {
             }
         };
         let pore_used =
-            measure.is_some_and(Measure::uses_pore_pressure) || (envelope && material.is_some());
+            measure.is_some_and(Measure::uses_friction) || (envelope && material.is_some());
         if pore_pressure_pa.is_some() && !pore_used {
             let also = if envelope {
                 " or to the Mohr–Coulomb envelope (--cohesion and --friction-angle)"
@@ -137,7 +136,7 @@ pub fn search_settings(
     input: &StressInput,
     envelope: bool,
 ) -> Result<SearchSettings, ArgError> {
-    let (pore_pressure_pa, material) = material.read(input, Some(measure), envelope)?;
+    let (pore_pressure_pa, material) = material.read(input.unit, Some(measure), envelope)?;
     if measure == Measure::MohrCoulomb && material.is_none() {
         return Err(ArgError::new(
             "--measure",
@@ -155,7 +154,7 @@ pub fn search_settings(
 /// Refuses material arguments when no measure uses them (commands whose measure is optional).
 pub fn no_material(material: &MaterialArgs, input: &StressInput) -> Result<(), ArgError> {
     if material.any() {
-        material.read(input, None, false)?;
+        material.read(input.unit, None, false)?;
     }
     Ok(())
 }

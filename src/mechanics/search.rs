@@ -92,20 +92,15 @@ impl Measure {
         self == Self::NormalMin
     }
 
-    /// Whether the measure uses the pore pressure (effective normal stress σn − p).
-    #[must_use]
-    pub fn uses_pore_pressure(self) -> bool {
-        matches!(self, Self::SlipTendency | Self::MohrCoulomb)
-    }
-
     /// Whether the measure uses a cohesion and a friction angle.
     #[must_use]
     pub fn uses_material(self) -> bool {
         self == Self::MohrCoulomb
     }
 
-    /// Whether a plane can be without frictional capacity for this measure (the only case in
-    /// which the measure is undefined on some planes but not others).
+    /// Whether the measure is frictional: it uses the effective normal stress σn − p (so the pore
+    /// pressure), and a plane can be without frictional capacity (the only case in which the
+    /// measure is undefined on some planes but not others).
     #[must_use]
     pub fn uses_friction(self) -> bool {
         matches!(self, Self::SlipTendency | Self::MohrCoulomb)

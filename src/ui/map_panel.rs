@@ -12,7 +12,12 @@ use crate::session::{Command, Document, MeasureChoice, Settings};
 
 /// Value text for a measure.
 fn value_text(measure: Measure, v: f64, settings: &Settings) -> String {
-    label_for(measure, settings, 5)(v)
+    MapMeasure {
+        measure,
+        unit: settings.unit,
+        convention: settings.convention,
+    }
+    .value_text(v, 5)
 }
 
 /// Pore pressure (when `pore`) and cohesion and friction angle (when `material`), edited in the
@@ -169,19 +174,6 @@ fn measure_formula(measure: Measure) -> &'static str {
             "Td = (σ1 − σn) / (σ1 − σ3), compression positive (Ferrill et al. 1999); dimensionless"
         }
         Measure::MohrCoulomb => "U = τ / (c + (σn − p) tan φ), compression positive; dimensionless",
-    }
-}
-
-/// A stress or ratio value with its unit, at `digits` significant digits.
-fn label_for(measure: Measure, settings: &Settings, digits: usize) -> impl Fn(f64) -> String {
-    let unit = settings.unit;
-    let is_stress = measure.is_stress();
-    move |v: f64| {
-        if is_stress {
-            format!("{} {unit}", sig(unit.from_pa(v), digits))
-        } else {
-            sig(v, digits)
-        }
     }
 }
 
