@@ -1,5 +1,6 @@
-//! The desktop program: state, the commands the panels return, undo and redo, shortcuts,
-//! persistence, figure export and the `--screenshot` mode.
+//! The desktop program: the open project and its file, undo and redo, the commands the panels
+//! return, shortcuts, the unsaved-changes question, autosave and recovery, the view settings
+//! kept between runs, figure export and the `--screenshot` mode.
 
 use std::path::{Path, PathBuf};
 
@@ -8,12 +9,14 @@ use std::sync::{Arc, Mutex};
 use serde::{Deserialize, Serialize};
 
 use crate::draw::camera::{Camera, ViewPreset};
-use crate::mechanics::PlaneNormal;
+use crate::mechanics::StressTensor;
 use crate::scene::SceneInput;
+use crate::study::{self, Derived, DerivedCache, Edit, Project};
 use crate::ui;
+use crate::ui::file_prompt::PromptPurpose;
 
-/// Version of the saved state; bump it when a change needs migration.
-pub const FORMAT_VERSION: u32 = 1;
+/// Version of the saved view state; bump it when a change needs migration.
+pub const FORMAT_VERSION: u32 = 2;
 
 /// The file name the save dialog and the in-window path entry suggest.
 const SUGGESTED_FIGURE_NAME: &str = "planewise-figure.png";
@@ -21,73 +24,64 @@ const SUGGESTED_FIGURE_NAME: &str = "planewise-figure.png";
 /// Key of the saved state in eframe's storage.
 const STORAGE_KEY: &str = "planewise-state";
 
-/// What is saved between runs.
+/// What is kept between runs in the window's own storage: view settings and the project file
+/// that was open. The project itself lives in its file (and, while unsaved, the working copy).
 #[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
 #[serde(default)]
 pub struct Saved {
     /// Format version.
     pub format_version: u32,
-    /// The load case.
-    pub document: Document,
     /// Display settings.
     pub settings: Settings,
+    /// The project file open at exit, reopened at start.
+    pub file: Option<PathBuf>,
 }
 
 impl Default for Saved {
     fn default() -> Self {
         Self {
             format_version: FORMAT_VERSION,
-            document: Document::demo(),
             settings: Settings::default(),
+            file: None,
         }
-    }
-}
-
-/// Undo and redo stacks of documents.
-#[derive(Debug, Default)]
-pub struct History {
-    undo: Vec<Document>,
-    redo: Vec<Document>,
-    last: Option<Coalesce>,
-}
-
-impl History {
-    /// Records `before` as the state to return to, unless this edit continues the previous
-    /// one in the same field.
-    pub fn record(&mut self, before: &Document, coalesce: Option<Coalesce>) {
-        const LIMIT: usize = 500;
-        if coalesce.is_none() || coalesce != self.last || self.undo.is_empty() {
-            self.undo.push(before.clone());
-            if self.undo.len() > LIMIT {
-                self.undo.remove(0);
-            }
-        }
-        self.last = coalesce;
-        self.redo.clear();
-    }
-
-    /// Ends any run of merged edits (the next edit starts a new undo step).
-    pub fn break_run(&mut self) {
-        self.last = None;
-    }
-
-    /// Whether there is anything to undo.
-    #[must_use]
-    pub fn can_undo(&self) -> bool {
-        !self.undo.is_empty()
-    }
-
-    /// Whether there is anything to redo.
-    #[must_use]
-    pub fn can_redo(&self) -> bool {
-        !self.redo.is_empty()
     }
 }
 
 pub use crate::dialogs::{DialogOutcome, Dialogs, NativeDialogs};
-pub use crate::session::{
-    Central, Coalesce, Command, Document, MeasureChoice, Settings, Status, UNTITLED,
-};
+pub use crate::session::{Central, Coalesce, Command, Settings, Status, UNTITLED};
+
+/// Undo and redo of the project.
+pub type History = study::History<Project, Coalesce>;
+
+/// What waits for the answer to "save the changes first?".
+#[derive(Clone, Debug, PartialEq)]
+pub enum Leaving {
+    /// Start a new project.
+    New,
+    /// Ask for a project file to open.
+    Open,
+    /// Open this file.
+    OpenPath(PathBuf),
+    /// Open the demo project.
+    Demo,
+    /// Close the window.
+    Quit,
+}
+
+/// What needs the egui context after the unsaved-changes question was answered.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+enum FollowUp {
+    OpenDialog,
+    Close,
+}
+
+/// What a native dialog running on the worker thread was asked for.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+enum DialogPurpose {
+    Figure,
+    OpenProject,
+    SaveProject,
+}
 
 /// The `--screenshot` job: when to take it, where to write it, and how it went.
 struct ScreenshotJob {
@@ -98,25 +92,51 @@ struct ScreenshotJob {
 
 /// The application.
 pub struct PlanewiseApp {
-    /// The load case.
-    pub document: Document,
+    /// The open project (what undo acts on).
+    pub project: Project,
+    /// Its file, once opened from or saved to one.
+    pub file: Option<PathBuf>,
+    /// The project as last opened or saved: unsaved changes are the difference.
+    clean: Project,
     /// Display settings.
     pub settings: Settings,
     /// Undo and redo.
     pub history: History,
+    /// The shown state's results, computed once per change.
+    pub derived: DerivedCache,
     /// Grid editing state.
     pub stress_panel: ui::stress_panel::StressPanel,
     /// Plane entry state.
     pub plane_panel: ui::plane_panel::PlanePanel,
+    /// Load cases and combinations.
+    pub cases_panel: ui::cases_panel::CasesPanel,
+    /// The envelope tab.
+    pub envelope_panel: ui::envelope_panel::EnvelopePanel,
     /// Export window state.
     pub export_panel: ui::export_panel::ExportPanel,
+    /// The in-window path entry for projects when no dialog opens.
+    pub file_prompt: ui::file_prompt::FilePrompt,
     /// Whether the About window is open.
     pub about_open: bool,
     /// The last status message.
     pub status: Option<Status>,
+    /// The unsaved-changes question, while it is asked.
+    pub leaving: Option<Leaving>,
+    /// What to do once the project is saved (the answer "Save" to the question).
+    after_save: Option<Leaving>,
+    /// The window may close (no unsaved changes, or the user said so).
+    close_allowed: bool,
+    /// Where the working copy is autosaved (`None`: no autosave).
+    autosave_dir: Option<PathBuf>,
+    /// The working copy found at start, offered back.
+    pub recovery: Option<crate::autosave::WorkingCopy>,
+    /// What `go` left to do once the current command is done.
+    follow_up: Option<FollowUp>,
+    /// Time (egui seconds) and content of the last autosave.
+    last_autosave: (f64, Option<Project>),
     dialogs: Arc<dyn Dialogs>,
-    /// The answer of a save dialog running on a worker thread.
-    pending_dialog: Option<std::sync::mpsc::Receiver<DialogOutcome>>,
+    /// The answer of a native dialog running on a worker thread.
+    pending_dialog: Option<(DialogPurpose, std::sync::mpsc::Receiver<DialogOutcome>)>,
     frames: u64,
     screenshot: Option<ScreenshotJob>,
     /// Outcome of a `--screenshot` run, read by `main` after the window closes.
@@ -125,18 +145,36 @@ pub struct PlanewiseApp {
 }
 
 impl PlanewiseApp {
-    /// A new app on `saved` state, with the given dialogs.
+    /// A new app on `project` (from `file`, if any) with `settings` and the given dialogs.
     #[must_use]
-    pub fn new(saved: Saved, dialogs: Box<dyn Dialogs>) -> Self {
+    pub fn new(
+        project: Project,
+        file: Option<PathBuf>,
+        settings: Settings,
+        dialogs: Box<dyn Dialogs>,
+    ) -> Self {
         Self {
-            document: saved.document,
-            settings: saved.settings,
+            clean: project.clone(),
+            project,
+            file,
+            settings,
             history: History::default(),
+            derived: DerivedCache::default(),
             stress_panel: ui::stress_panel::StressPanel::default(),
             plane_panel: ui::plane_panel::PlanePanel::default(),
+            cases_panel: ui::cases_panel::CasesPanel::default(),
+            envelope_panel: ui::envelope_panel::EnvelopePanel::default(),
             export_panel: ui::export_panel::ExportPanel::default(),
+            file_prompt: ui::file_prompt::FilePrompt::default(),
             about_open: false,
             status: None,
+            leaving: None,
+            after_save: None,
+            close_allowed: false,
+            autosave_dir: None,
+            recovery: None,
+            last_autosave: (0.0, None),
+            follow_up: None,
             dialogs: Arc::from(dialogs),
             pending_dialog: None,
             frames: 0,
@@ -146,21 +184,44 @@ impl PlanewiseApp {
         }
     }
 
-    /// The app on the demo, for tests and first runs.
+    /// The app on the demo project, for tests and first runs.
     #[must_use]
     pub fn demo(dialogs: Box<dyn Dialogs>) -> Self {
-        Self::new(Saved::default(), dialogs)
+        Self::new(Project::demo(), None, Settings::default(), dialogs)
     }
 
-    /// Restores the saved state from eframe's storage (the demo when there is none or it cannot
-    /// be read).
+    /// Restores the view settings from eframe's storage and opens, in this order: `project`
+    /// (from the command line), the project open at the last exit, or the demo. A working copy
+    /// left by a run that did not end cleanly is offered back.
     #[must_use]
-    pub fn from_storage(storage: Option<&dyn eframe::Storage>) -> Self {
+    pub fn start(
+        storage: Option<&dyn eframe::Storage>,
+        project: Option<(Project, PathBuf)>,
+        autosave_dir: Option<PathBuf>,
+    ) -> Self {
         let saved = storage
             .and_then(|s| eframe::get_value::<Saved>(s, STORAGE_KEY))
             .filter(|s| s.format_version <= FORMAT_VERSION)
             .unwrap_or_default();
-        Self::new(saved, Box::new(NativeDialogs))
+        let (project, file) = match project {
+            Some((p, path)) => (p, Some(path)),
+            None => saved
+                .file
+                .as_ref()
+                .and_then(|path| study::load(path).ok().map(|(p, _)| (p, Some(path.clone()))))
+                .unwrap_or_else(|| (Project::demo(), None)),
+        };
+        let mut app = Self::new(project, file, saved.settings, Box::new(NativeDialogs));
+        if let Some(dir) = autosave_dir {
+            app.recovery = crate::autosave::read(&dir);
+            app.autosave_dir = Some(dir);
+        }
+        app
+    }
+
+    /// Autosave the working copy to `dir` (tests point it at a temporary folder).
+    pub fn set_autosave_dir(&mut self, dir: Option<PathBuf>) {
+        self.autosave_dir = dir;
     }
 
     /// Asks the app to write a PNG of its window once the first frames are complete, then close.
@@ -172,45 +233,80 @@ impl PlanewiseApp {
         });
     }
 
-    /// What is saved.
+    /// What is saved in the window's storage.
     #[must_use]
     pub fn saved(&self) -> Saved {
         Saved {
             format_version: FORMAT_VERSION,
-            document: self.document.clone(),
             settings: self.settings.clone(),
+            file: self.file.clone(),
         }
     }
 
-    /// The scene input for the current state, with the worst planes to draw.
+    /// Whether the project has changes not saved to its file.
     #[must_use]
-    pub fn scene_input<'a>(&'a self, worst_planes: &'a [PlaneNormal]) -> SceneInput<'a> {
+    pub fn dirty(&self) -> bool {
+        self.project != self.clean
+    }
+
+    /// The tensor of the shown case or combination (pascals, tension positive).
+    #[must_use]
+    pub fn tensor(&self) -> StressTensor {
+        self.project
+            .active_name()
+            .and_then(|n| self.project.tensor(n).ok())
+            .unwrap_or_default()
+    }
+
+    /// The window title: an unsaved-changes mark, the project's name and its file.
+    #[must_use]
+    pub fn title(&self) -> String {
+        let file = self.file.as_ref().map_or_else(
+            || "not saved to a file".to_owned(),
+            |p| {
+                p.file_name()
+                    .map_or_else(|| p.display().to_string(), |n| n.to_string_lossy().into())
+            },
+        );
+        let mark = if self.dirty() { "● " } else { "" };
+        format!("{mark}{} ({file}) — Planewise", self.project.name)
+    }
+
+    /// The scene input for `d`, with the worst planes to draw.
+    #[must_use]
+    pub fn scene_input<'a>(
+        &'a self,
+        d: &'a Derived,
+        worst_planes: &'a [crate::mechanics::PlaneNormal],
+    ) -> SceneInput<'a> {
         SceneInput {
-            tensor: &self.document.tensor,
-            plane: self.document.plane,
-            unit: self.settings.unit,
-            convention: self.settings.convention,
+            tensor: &d.tensor,
+            plane: d.plane,
+            unit: d.unit,
+            convention: d.convention,
             layers: self.settings.layers,
             faces: self.settings.faces,
             worst_planes,
         }
     }
 
-    /// The picture the central area shows (3D view, orientation map or Mohr circles) at the
-    /// export size, from the same drawing code as the screen and the command line.
+    /// The picture the central area shows (3D view, orientation map or Mohr circles; the 3D
+    /// view from the envelope tab) at the export size, from the same drawing code as the screen
+    /// and the command line.
     #[must_use]
     pub fn export_frame(&self) -> crate::draw::Frame {
         let [w, h] = self.settings.export_size;
-        let (doc, settings) = (&self.document, &self.settings);
+        let d = Derived::new(&self.project);
+        let settings = &self.settings;
         let sizes = crate::draw::Sizes::for_export(w as f32, h as f32);
         match settings.central {
-            Central::View3d => {
-                let worst = ui::view_panel::worst_normals(doc, settings);
-                crate::draw::figure(&self.scene_input(&worst), &settings.camera, w, h)
+            Central::View3d | Central::Envelope => {
+                let worst = ui::view_panel::worst_normals(&d, settings);
+                crate::draw::figure(&self.scene_input(&d, &worst), &settings.camera, w, h)
             }
-            Central::Map => ui::map_panel::map_figure(doc, settings, 256, w, h, sizes),
+            Central::Map => ui::map_panel::map_figure(&d, 256, w, h, sizes),
             Central::Mohr => {
-                crate::draw::mohr::mohr_frame(&ui::mohr_panel::figure(doc, settings), w, h, sizes)
+                crate::draw::mohr::mohr_frame(&ui::mohr_panel::figure(&d, settings), w, h, sizes)
             }
         }
     }
@@ -226,7 +322,8 @@ impl PlanewiseApp {
     /// status bar and in the export window.
     pub fn export_to(&mut self, path: &Path) {
         let frame = self.export_frame();
-        let title = format!("{} — {}", self.document.name, crate::SAFETY_NOTE);
+        let shown = self.project.active_name().unwrap_or_default();
+        let title = format!("{} — {shown} — {}", self.project.name, crate::SAFETY_NOTE);
         match crate::export::write_figure(path, &frame, &title) {
             Ok(()) => {
                 self.export_panel.error = None;
@@ -239,37 +336,63 @@ impl PlanewiseApp {
         }
     }
 
-    /// Whether a native save dialog is open (on its worker thread).
+    /// Whether a native dialog is open (on its worker thread).
     #[must_use]
     pub fn dialog_open(&self) -> bool {
         self.pending_dialog.is_some()
     }
 
-    /// Opens the save dialog on a worker thread, so the window keeps drawing meanwhile.
-    fn start_save_dialog(&mut self, ctx: &egui::Context) {
+    /// The file name the project's save dialog suggests.
+    fn suggested_project_name(&self) -> String {
+        let stem: String = self
+            .project
+            .name
+            .chars()
+            .map(|c| {
+                if c.is_alphanumeric() || c == '-' {
+                    c
+                } else {
+                    '-'
+                }
+            })
+            .collect();
+        let stem = stem.trim_matches('-');
+        let stem = if stem.is_empty() { "project" } else { stem };
+        format!("{}.json", stem.chars().take(60).collect::<String>())
+    }
+
+    /// Opens a native dialog on a worker thread, so the window keeps drawing meanwhile.
+    fn start_dialog(&mut self, ctx: &egui::Context, purpose: DialogPurpose) {
         if self.pending_dialog.is_some() {
             return;
         }
         let (tx, rx) = std::sync::mpsc::channel();
         let dialogs = Arc::clone(&self.dialogs);
         let repaint = ctx.clone();
+        let project_name = self.suggested_project_name();
         let spawned = std::thread::Builder::new()
-            .name("save-dialog".into())
+            .name("file-dialog".into())
             .spawn(move || {
-                let _ = tx.send(dialogs.save_figure(SUGGESTED_FIGURE_NAME));
+                let outcome = match purpose {
+                    DialogPurpose::Figure => dialogs.save_figure(SUGGESTED_FIGURE_NAME),
+                    DialogPurpose::OpenProject => dialogs.open_project(),
+                    DialogPurpose::SaveProject => dialogs.save_project(&project_name),
+                };
+                let _ = tx.send(outcome);
                 repaint.request_repaint();
             });
         match spawned {
-            Ok(_) => self.pending_dialog = Some(rx),
-            Err(e) => self.dialog_answered(DialogOutcome::Unavailable(e.to_string())),
+            Ok(_) => self.pending_dialog = Some((purpose, rx)),
+            Err(e) => self.dialog_answered(purpose, DialogOutcome::Unavailable(e.to_string())),
         }
     }
 
-    /// Picks up the save dialog's answer, if it has come.
-    fn poll_save_dialog(&mut self) {
-        let Some(rx) = &self.pending_dialog else {
+    /// Picks up the dialog's answer, if it has come.
+    fn poll_dialog(&mut self) {
+        let Some((purpose, rx)) = &self.pending_dialog else {
             return;
         };
+        let purpose = *purpose;
         let outcome = match rx.try_recv() {
             Ok(outcome) => outcome,
             Err(std::sync::mpsc::TryRecvError::Empty) => return,
@@ -278,14 +401,17 @@ impl PlanewiseApp {
             }
         };
         self.pending_dialog = None;
-        self.dialog_answered(outcome);
+        self.dialog_answered(purpose, outcome);
     }
 
-    fn dialog_answered(&mut self, outcome: DialogOutcome) {
-        match outcome {
-            DialogOutcome::Chosen(path) => self.export_to(&path),
-            DialogOutcome::Cancelled => {}
-            DialogOutcome::Unavailable(why) => {
+    fn dialog_answered(&mut self, purpose: DialogPurpose, outcome: DialogOutcome) {
+        match (purpose, outcome) {
+            (DialogPurpose::Figure, DialogOutcome::Chosen(path)) => self.export_to(&path),
+            (DialogPurpose::OpenProject, DialogOutcome::Chosen(path)) => self.open_path(&path),
+            (DialogPurpose::SaveProject, DialogOutcome::Chosen(path)) => self.save_to(&path),
+            (DialogPurpose::SaveProject, DialogOutcome::Cancelled) => self.after_save = None,
+            (_, DialogOutcome::Cancelled) => {}
+            (DialogPurpose::Figure, DialogOutcome::Unavailable(why)) => {
                 self.export_panel.open = true;
                 self.export_panel.offer_path_entry(
                     &crate::dialogs::fallback_path(SUGGESTED_FIGURE_NAME),
@@ -296,47 +422,127 @@ impl PlanewiseApp {
                     true,
                 );
             }
+            (project_purpose, DialogOutcome::Unavailable(why)) => {
+                let (prompt, suggested) = if project_purpose == DialogPurpose::OpenProject {
+                    (PromptPurpose::Open, crate::dialogs::fallback_path(""))
+                } else {
+                    let name = self.suggested_project_name();
+                    let path = self
+                        .file
+                        .clone()
+                        .unwrap_or_else(|| crate::dialogs::fallback_path(&name));
+                    (PromptPurpose::SaveAs, path)
+                };
+                self.file_prompt.offer(prompt, &suggested, why.clone());
+                self.set_status(format!("No file dialog ({why}): type the path"), true);
+            }
+        }
+    }
+
+    /// Opens a project file; a failure is said and changes nothing.
+    pub fn open_path(&mut self, path: &Path) {
+        match study::load(path) {
+            Ok((project, warnings)) => {
+                self.replace_project(project, Some(path.to_owned()));
+                self.settings.remember(path);
+                self.file_prompt.close();
+                if warnings.is_empty() {
+                    self.set_status(format!("Opened {}", path.display()), false);
+                } else {
+                    self.set_status(
+                        format!("Opened {} ({})", path.display(), warnings.join("; ")),
+                        true,
+                    );
+                }
+            }
+            Err(e) => {
+                self.file_prompt.error = Some(e.to_string());
+                self.set_status(format!("Not opened: {e}"), true);
+            }
+        }
+    }
+
+    /// Saves the project to `path`; on success the file becomes the project's file, and what
+    /// waited for the save (new, open, quit) goes ahead.
+    pub fn save_to(&mut self, path: &Path) {
+        match study::save(path, &self.project) {
+            Ok(()) => {
+                self.file = Some(path.to_owned());
+                self.clean = self.project.clone();
+                self.settings.remember(path);
+                self.file_prompt.close();
+                if let Some(dir) = &self.autosave_dir {
+                    crate::autosave::clear(dir);
+                }
+                self.set_status(format!("Saved {}", path.display()), false);
+                if let Some(next) = self.after_save.take() {
+                    self.go(next);
+                }
+            }
+            Err(e) => {
+                self.after_save = None;
+                self.file_prompt.error = Some(e.to_string());
+                self.set_status(format!("Not saved: {e}"), true);
+            }
+        }
+    }
+
+    /// A project replaces the open one: no undo across projects.
+    fn replace_project(&mut self, project: Project, file: Option<PathBuf>) {
+        self.clean = project.clone();
+        self.project = project;
+        self.file = file;
+        self.history.clear();
+        self.after_external_change();
+    }
+
+    /// Does what the unsaved-changes question was about (or what needed no question).
+    fn go(&mut self, what: Leaving) {
+        self.leaving = None;
+        match what {
+            Leaving::New => {
+                let mut project = Project::new(
+                    UNTITLED,
+                    self.project.unit().unwrap_or_default(),
+                    self.project.convention(),
+                );
+                if let Ok(p) = Edit::AddCase.apply(&project) {
+                    project = p;
+                }
+                self.replace_project(project, None);
+                self.set_status("New project with one load case (zero stress)", false);
+            }
+            Leaving::Open => self.follow_up = Some(FollowUp::OpenDialog),
+            Leaving::OpenPath(path) => self.open_path(&path),
+            Leaving::Demo => {
+                self.replace_project(Project::demo(), None);
+                self.set_status("Opened the demo project (an invented scenario)", false);
+            }
+            Leaving::Quit => {
+                self.close_allowed = true;
+                if let Some(dir) = &self.autosave_dir {
+                    crate::autosave::clear(dir);
+                }
+                self.follow_up = Some(FollowUp::Close);
+            }
+        }
+    }
+
+    /// Goes ahead at once when nothing is unsaved; asks first otherwise.
+    fn leave(&mut self, what: Leaving) {
+        if self.dirty() {
+            self.leaving = Some(what);
+        } else {
+            self.go(what);
         }
     }
 
     /// Applies one command.
     pub fn apply(&mut self, ctx: &egui::Context, command: Command) {
         match command {
-            Command::Edit {
-                mut document,
-                coalesce,
-            } => {
-                // Once the demo's stress state is changed, the document is no longer the
-                // invented scenario: do not keep its name.
-                let demo = Document::demo();
-                if document.name == demo.name && document.tensor != demo.tensor {
-                    UNTITLED.clone_into(&mut document.name);
-                }
-                if document != self.document {
-                    self.history.record(&self.document, coalesce);
-                    self.document = document;
-                }
-            }
+            Command::Edit { edit, coalesce } => self.edit(&edit, coalesce),
             Command::Undo => self.step_history(true),
             Command::Redo => self.step_history(false),
-            Command::ResetToDemo => {
-                let demo = Document::demo();
-                if demo != self.document {
-                    self.history.record(&self.document, None);
-                    self.document = demo;
-                }
-                self.settings = Settings::default();
-                self.after_external_change();
-                self.set_status("Reset to the demo load case (an invented scenario)", false);
-            }
-            Command::SetUnit(unit) => {
-                self.settings.unit = unit;
-                self.after_external_change();
-            }
-            Command::SetConvention(convention) => {
-                self.settings.convention = convention;
-                self.after_external_change();
-            }
             Command::SetView(preset) => {
                 let projection = self.settings.camera.projection;
                 self.settings.camera = Camera {
@@ -344,18 +550,27 @@ impl PlanewiseApp {
                     ..Camera::from_preset(preset)
                 };
             }
+            Command::NewProject => self.leave(Leaving::New),
+            Command::OpenProject => self.leave(Leaving::Open),
+            Command::OpenPath(path) => {
+                if self.file_prompt.purpose == Some(PromptPurpose::Open) {
+                    // Typed in the path entry, after any question was answered.
+                    self.open_path(&path);
+                } else {
+                    self.leave(Leaving::OpenPath(path));
+                }
+            }
+            Command::OpenDemo => self.leave(Leaving::Demo),
+            Command::Save => match self.file.clone() {
+                Some(path) => self.save_to(&path),
+                None => self.start_dialog(ctx, DialogPurpose::SaveProject),
+            },
+            Command::SaveAs => self.start_dialog(ctx, DialogPurpose::SaveProject),
+            Command::SaveTo(path) => self.save_to(&path),
             Command::CopyResults => {
-                let rows = crate::results::rows(
-                    &self.document.tensor,
-                    self.document.plane,
-                    self.settings.unit,
-                    self.settings.convention,
-                );
-                ctx.copy_text(crate::results::to_tsv(
-                    &rows,
-                    self.settings.unit,
-                    self.settings.convention,
-                ));
+                let d = Derived::new(&self.project);
+                let rows = crate::results::rows(&d.tensor, d.plane, d.unit, d.convention);
+                ctx.copy_text(crate::results::to_tsv(&rows, d.unit, d.convention));
                 self.set_status("Results copied as tab-separated text", false);
             }
             Command::CopyFigure => match crate::draw::png::to_pixmap(&crate::export::with_caution(
@@ -375,45 +590,110 @@ impl PlanewiseApp {
                 Err(e) => self.set_status(format!("Copy figure failed: {e}"), true),
             },
             Command::OpenExport => self.export_panel.open = true,
-            Command::ExportWithDialog => self.start_save_dialog(ctx),
+            Command::ExportWithDialog => self.start_dialog(ctx, DialogPurpose::Figure),
             Command::ExportTo(path) => self.export_to(&path),
             Command::ShowAbout => self.about_open = true,
+        }
+        self.follow_up(ctx);
+    }
+
+    /// What `go` left to do with the context: show the open dialog, close the window.
+    fn follow_up(&mut self, ctx: &egui::Context) {
+        match self.follow_up.take() {
+            Some(FollowUp::OpenDialog) => self.start_dialog(ctx, DialogPurpose::OpenProject),
+            Some(FollowUp::Close) => ctx.send_viewport_cmd(egui::ViewportCommand::Close),
+            None => {}
+        }
+    }
+
+    /// One study edit: one undo step (or merged into the last), or a message saying why not.
+    fn edit(&mut self, edit: &Edit, coalesce: Option<Coalesce>) {
+        match edit.apply(&self.project) {
+            Ok(mut next) => {
+                // Once the demo's stresses are changed, the project is no longer the invented
+                // scenario: do not keep its name.
+                let demo = Project::demo();
+                if next.name == demo.name
+                    && (next.cases != demo.cases || next.combinations != demo.combinations)
+                {
+                    UNTITLED.clone_into(&mut next.name);
+                }
+                if next != self.project {
+                    self.history.record(&self.project, coalesce);
+                    self.project = next;
+                }
+                if !matches!(
+                    edit,
+                    Edit::SetTensor(_) | Edit::SetPlane(_) | Edit::SetMeasure(_)
+                ) {
+                    self.after_external_change();
+                }
+            }
+            Err(e) => self.set_status(format!("Not changed: {e}"), true),
         }
     }
 
     /// Moves one step back (undo) or forward (redo) through the history.
     fn step_history(&mut self, back: bool) {
-        let history = &mut self.history;
-        let (from, to) = if back {
-            (&mut history.undo, &mut history.redo)
+        let current = self.project.clone();
+        let to = if back {
+            self.history.undo(current)
         } else {
-            (&mut history.redo, &mut history.undo)
+            self.history.redo(current)
         };
-        if let Some(document) = from.pop() {
-            to.push(std::mem::replace(&mut self.document, document));
-            self.history.break_run();
+        if let Some(project) = to {
+            self.project = project;
             self.after_external_change();
         }
     }
 
-    /// The grid and plane fields show the document again (after undo, presets, unit changes).
+    /// The grid and plane fields show the project again (after undo, presets, unit changes).
     fn after_external_change(&mut self) {
         self.stress_panel.reset();
         self.plane_panel.reset();
     }
 
+    /// Writes the working copy when it has unsaved changes and the interval has passed.
+    fn autosave(&mut self, now: f64) {
+        let Some(dir) = self.autosave_dir.clone() else {
+            return;
+        };
+        if !self.dirty()
+            || now - self.last_autosave.0 < crate::autosave::INTERVAL_S
+            || self.last_autosave.1.as_ref() == Some(&self.project)
+        {
+            return;
+        }
+        self.last_autosave = (now, Some(self.project.clone()));
+        if let Err(e) = crate::autosave::write(&dir, &self.project, self.file.as_deref()) {
+            self.set_status(format!("Autosave failed: {e}"), true);
+        }
+    }
+
     /// Keyboard shortcuts that work anywhere in the window.
     fn shortcuts(ctx: &egui::Context) -> Vec<Command> {
         use egui::{Key, Modifiers};
-        use ui::shortcuts::{COPY_RESULTS, EXPORT, REDO, REDO_ALT, UNDO};
+        use ui::shortcuts::{COPY_RESULTS, EXPORT, NEW, OPEN, REDO, REDO_ALT, SAVE, SAVE_AS, UNDO};
         let mut out = Vec::new();
         ctx.input_mut(|i| {
-            // Redo first: Ctrl+Shift+Z must not be taken as Ctrl+Z.
+            // Longer chords first: Ctrl+Shift+Z must not be taken as Ctrl+Z.
             if i.consume_shortcut(&REDO) || i.consume_shortcut(&REDO_ALT) {
                 out.push(Command::Redo);
             }
             if i.consume_shortcut(&UNDO) {
                 out.push(Command::Undo);
+            }
+            if i.consume_shortcut(&SAVE_AS) {
+                out.push(Command::SaveAs);
+            }
+            if i.consume_shortcut(&SAVE) {
+                out.push(Command::Save);
+            }
+            if i.consume_shortcut(&NEW) {
+                out.push(Command::NewProject);
+            }
+            if i.consume_shortcut(&OPEN) {
+                out.push(Command::OpenProject);
             }
             if i.consume_shortcut(&EXPORT) {
                 out.push(Command::OpenExport);
@@ -459,32 +739,105 @@ impl PlanewiseApp {
         ctx.set_fonts(fonts);
     }
 
+    /// The unsaved-changes question and the recovery offer.
+    fn questions_ui(&mut self, ctx: &egui::Context, commands: &mut Vec<Command>) {
+        if let Some(what) = self.leaving.clone() {
+            let verb = match what {
+                Leaving::New => "starting a new project",
+                Leaving::Open | Leaving::OpenPath(_) => "opening another project",
+                Leaving::Demo => "opening the demo project",
+                Leaving::Quit => "closing Planewise",
+            };
+            egui::Modal::new(egui::Id::unique("unsaved-changes")).show(ctx, |ui| {
+                ui.heading("Unsaved changes");
+                ui.label(format!(
+                    "'{}' has changes that are not saved. Save them before {verb}?",
+                    self.project.name
+                ));
+                ui.horizontal(|ui| {
+                    if ui.button("Save").clicked() {
+                        self.leaving = None;
+                        self.after_save = Some(what.clone());
+                        commands.push(Command::Save);
+                    }
+                    if ui.button("Don't save").clicked() {
+                        self.go(what.clone());
+                    }
+                    if ui.button("Cancel").clicked() {
+                        self.leaving = None;
+                    }
+                });
+            });
+        }
+        if let Some(copy) = self.recovery.clone() {
+            egui::Modal::new(egui::Id::unique("recovery")).show(ctx, |ui| {
+                ui.heading("Recover unsaved work?");
+                ui.label(format!(
+                    "Planewise did not close normally last time. A working copy of '{}'{} was autosaved {}.",
+                    copy.project.name,
+                    copy.source
+                        .as_ref()
+                        .map(|p| format!(" ({})", p.display()))
+                        .unwrap_or_default(),
+                    crate::autosave::age_text(copy.written)
+                ));
+                ui.horizontal(|ui| {
+                    if ui.button("Recover").clicked() {
+                        self.recovery = None;
+                        let clean = copy
+                            .source
+                            .as_ref()
+                            .and_then(|p| study::load(p).ok())
+                            .map(|(p, _)| p);
+                        self.replace_project(copy.project.clone(), copy.source.clone());
+                        // Recovered work is unsaved until the user saves it.
+                        self.clean = clean.unwrap_or_else(|| {
+                            Project::new("", crate::mechanics::StressUnit::MPa, crate::mechanics::SignConvention::TensionPositive)
+                        });
+                        self.set_status("Recovered the autosaved working copy; save it to keep it", false);
+                    }
+                    if ui.button("Discard").clicked() {
+                        self.recovery = None;
+                        if let Some(dir) = &self.autosave_dir {
+                            crate::autosave::clear(dir);
+                        }
+                    }
+                });
+            });
+        }
+    }
+
     /// Draws the whole window into `ui` and applies what the user asked for. Used by the real
     /// window and by the interaction tests.
     pub fn show(&mut self, ui: &mut egui::Ui) {
         let ctx = ui.ctx().clone();
         self.install_fonts(&ctx);
-        self.poll_save_dialog();
+        self.poll_dialog();
+        if ctx.input(|i| i.viewport().close_requested()) {
+            if self.dirty() && !self.close_allowed {
+                ctx.send_viewport_cmd(egui::ViewportCommand::CancelClose);
+                self.leaving = Some(Leaving::Quit);
+            } else if let Some(dir) = &self.autosave_dir {
+                crate::autosave::clear(dir);
+            }
+        }
         let mut commands = Self::shortcuts(&ctx);
         let history = (self.history.can_undo(), self.history.can_redo());
+        let d = self.derived.get(&self.project).clone();
         ui::menus_ui(ui, &mut self.settings, history, &mut commands);
-        ui::status_bar_ui(ui, &self.settings, self.status.as_ref());
+        ui::status_bar_ui(ui, &d, self.status.as_ref());
         egui::Panel::left("stress-state")
             .resizable(true)
             .default_size(330.0)
             .show(ui, |ui| {
                 egui::ScrollArea::vertical().show(ui, |ui| {
-                    let (doc, settings) = (&self.document, &self.settings);
-                    self.stress_panel.ui(ui, doc, settings, &mut commands);
+                    self.cases_panel.ui(ui, &self.project, &d, &mut commands);
                     ui.separator();
-                    self.plane_panel.ui(ui, doc, settings, &mut commands);
+                    self.stress_panel.ui(ui, &d, &mut commands);
                     ui.separator();
-                    ui::map_panel::worst_plane_ui(
-                        ui,
-                        &self.document,
-                        &mut self.settings,
-                        &mut commands,
-                    );
+                    self.plane_panel.ui(ui, &d, &mut commands);
+                    ui.separator();
+                    ui::map_panel::worst_plane_ui(ui, &d, &mut commands);
                 });
             });
         egui::Panel::right("results")
@@ -492,12 +845,7 @@ impl PlanewiseApp {
             .default_size(330.0)
             .show(ui, |ui| {
                 egui::ScrollArea::vertical().show(ui, |ui| {
-                    ui::results_panel::results_ui(
-                        ui,
-                        &self.document,
-                        &self.settings,
-                        &mut commands,
-                    );
+                    ui::results_panel::results_ui(ui, &d, &mut commands);
                 });
             });
         egui::CentralPanel::default().show(ui, |ui| {
@@ -505,25 +853,38 @@ impl PlanewiseApp {
                 ui.selectable_value(&mut self.settings.central, Central::View3d, "3D view");
                 ui.selectable_value(&mut self.settings.central, Central::Map, "Orientation map");
                 ui.selectable_value(&mut self.settings.central, Central::Mohr, "Mohr circles");
+                ui.selectable_value(&mut self.settings.central, Central::Envelope, "Envelope");
             });
             match self.settings.central {
                 Central::View3d => {
-                    ui::view_panel::view_ui(ui, &self.document, &mut self.settings, &mut commands);
+                    ui::view_panel::view_ui(ui, &d, &mut self.settings, &mut commands);
                 }
-                Central::Map => {
-                    ui::map_panel::map_ui(ui, &self.document, &self.settings, &mut commands);
-                }
+                Central::Map => ui::map_panel::map_ui(ui, &d, &mut commands),
                 Central::Mohr => {
-                    ui::mohr_panel::mohr_ui(ui, &self.document, &mut self.settings, &mut commands);
+                    ui::mohr_panel::mohr_ui(ui, &d, &mut self.settings, &mut commands);
+                }
+                Central::Envelope => {
+                    self.envelope_panel
+                        .ui(ui, &self.project, &d, &mut self.settings, &mut commands)
                 }
             }
         });
         let dialog_open = self.pending_dialog.is_some();
         self.export_panel
             .ui(&ctx, &mut self.settings, dialog_open, &mut commands);
+        self.file_prompt.ui(&ctx, &mut commands);
         ui::about_ui(&ctx, &mut self.about_open);
+        self.questions_ui(&ctx, &mut commands);
         for command in commands {
             self.apply(&ctx, command);
+        }
+        self.follow_up(&ctx);
+        let now = ctx.input(|i| i.time);
+        self.autosave(now);
+        if self.autosave_dir.is_some() && self.dirty() {
+            ctx.request_repaint_after(std::time::Duration::from_secs_f64(
+                crate::autosave::INTERVAL_S,
+            ));
         }
         self.frames += 1;
     }
@@ -565,8 +926,7 @@ impl eframe::App for PlanewiseApp {
         self.show(ui);
         let ctx = ui.ctx().clone();
         self.screenshot_step(&ctx);
-        let title = format!("Planewise — {}", self.document.name);
-        ctx.send_viewport_cmd(egui::ViewportCommand::Title(title));
+        ctx.send_viewport_cmd(egui::ViewportCommand::Title(self.title()));
     }
 
     fn save(&mut self, storage: &mut dyn eframe::Storage) {
@@ -577,7 +937,11 @@ impl eframe::App for PlanewiseApp {
 }
 
 /// Opens the window. With `screenshot`, writes a PNG of the first complete frame there and exits.
-pub fn run(screenshot: Option<&Path>, tab: Option<Central>) -> anyhow::Result<()> {
+pub fn run(
+    screenshot: Option<&Path>,
+    tab: Option<Central>,
+    project: Option<&Path>,
+) -> anyhow::Result<()> {
     const HEADLESS: &str = "the headless subcommands analyze, figure, worst-plane, map and mohr need none (see planewise --help)";
     if cfg!(target_os = "linux")
         && std::env::var_os("DISPLAY").is_none()
@@ -587,6 +951,15 @@ pub fn run(screenshot: Option<&Path>, tab: Option<Central>) -> anyhow::Result<()
             "no display found (neither DISPLAY nor WAYLAND_DISPLAY is set), so the window cannot open; {HEADLESS}"
         );
     }
+    // A project named on the command line must load before the window opens: a bad file is
+    // said on one line, as for every other bad input.
+    let project = project
+        .map(|path| {
+            study::load(path)
+                .map(|(p, _)| (p, path.to_path_buf()))
+                .map_err(|e| anyhow::anyhow!(e))
+        })
+        .transpose()?;
     let options = eframe::NativeOptions {
         viewport: egui::ViewportBuilder::default()
             .with_inner_size([1280.0, 800.0])
@@ -605,9 +978,17 @@ pub fn run(screenshot: Option<&Path>, tab: Option<Central>) -> anyhow::Result<()
             // A screenshot run starts from the demo so README images do not depend on what the
             // machine last saved.
             let mut app = if shot.is_some() {
-                PlanewiseApp::demo(Box::new(NativeDialogs))
+                match project {
+                    Some((p, path)) => PlanewiseApp::new(
+                        p,
+                        Some(path),
+                        Settings::default(),
+                        Box::new(NativeDialogs),
+                    ),
+                    None => PlanewiseApp::demo(Box::new(NativeDialogs)),
+                }
             } else {
-                PlanewiseApp::from_storage(cc.storage)
+                PlanewiseApp::start(cc.storage, project, eframe::storage_dir("planewise"))
             };
             app.screenshot_outcome = outcome_for_app;
             if let Some(tab) = tab {

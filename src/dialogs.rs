@@ -27,6 +27,10 @@ pub enum DialogOutcome {
 pub trait Dialogs: Send + Sync {
     /// Asks where to save a figure.
     fn save_figure(&self, suggested_name: &str) -> DialogOutcome;
+    /// Asks which project file to open.
+    fn open_project(&self) -> DialogOutcome;
+    /// Asks where to save the project.
+    fn save_project(&self, suggested_name: &str) -> DialogOutcome;
 }
 
 /// Dialogs through the desktop portal or zenity (rfd).
@@ -34,25 +38,50 @@ pub struct NativeDialogs;
 
 impl Dialogs for NativeDialogs {
     fn save_figure(&self, suggested_name: &str) -> DialogOutcome {
-        if let Some(why) = missing_dialog_service() {
-            return DialogOutcome::Unavailable(why);
-        }
-        install_capture();
-        CAPTURED.with(|c| *c.borrow_mut() = Some(Vec::new()));
-        let chosen = rfd::FileDialog::new()
-            .add_filter("PNG image", &["png"])
-            .add_filter("SVG drawing", &["svg"])
-            .set_file_name(suggested_name)
-            .save_file();
-        let errors = CAPTURED.with(|c| c.borrow_mut().take()).unwrap_or_default();
-        match chosen {
-            Some(path) => DialogOutcome::Chosen(path),
-            None if !errors.is_empty() => DialogOutcome::Unavailable(format!(
-                "the system file dialog could not open ({})",
-                errors.join("; ")
-            )),
-            None => DialogOutcome::Cancelled,
-        }
+        native(|| {
+            rfd::FileDialog::new()
+                .add_filter("PNG image", &["png"])
+                .add_filter("SVG drawing", &["svg"])
+                .set_file_name(suggested_name)
+                .save_file()
+        })
+    }
+
+    fn open_project(&self) -> DialogOutcome {
+        native(|| {
+            rfd::FileDialog::new()
+                .add_filter("Planewise project", &["json"])
+                .pick_file()
+        })
+    }
+
+    fn save_project(&self, suggested_name: &str) -> DialogOutcome {
+        native(|| {
+            rfd::FileDialog::new()
+                .add_filter("Planewise project", &["json"])
+                .set_file_name(suggested_name)
+                .save_file()
+        })
+    }
+}
+
+/// Runs one native dialog with rfd's error records captured, telling a cancel from a dialog
+/// that could not open.
+fn native(show: impl FnOnce() -> Option<PathBuf>) -> DialogOutcome {
+    if let Some(why) = missing_dialog_service() {
+        return DialogOutcome::Unavailable(why);
+    }
+    install_capture();
+    CAPTURED.with(|c| *c.borrow_mut() = Some(Vec::new()));
+    let chosen = show();
+    let errors = CAPTURED.with(|c| c.borrow_mut().take()).unwrap_or_default();
+    match chosen {
+        Some(path) => DialogOutcome::Chosen(path),
+        None if !errors.is_empty() => DialogOutcome::Unavailable(format!(
+            "the system file dialog could not open ({})",
+            errors.join("; ")
+        )),
+        None => DialogOutcome::Cancelled,
     }
 }
 

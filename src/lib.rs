@@ -5,6 +5,7 @@
 //! axes; see [`mechanics::units`] for display units and the compression-positive convention.
 
 pub mod app;
+pub mod autosave;
 pub mod cli;
 pub mod dialogs;
 pub mod draw;

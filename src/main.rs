@@ -31,7 +31,8 @@ fn main() -> ExitCode {
         }
     };
     let Some(command) = cli.command else {
-        return match planewise::app::run(cli.screenshot.as_deref(), cli.tab) {
+        return match planewise::app::run(cli.screenshot.as_deref(), cli.tab, cli.project.as_deref())
+        {
             Ok(()) => ExitCode::SUCCESS,
             Err(e) => {
                 eprintln!("planewise: {e:#}");

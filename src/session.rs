@@ -1,67 +1,24 @@
-//! The window's session state that panels read and edit through commands: the document (what
-//! undo acts on), display settings, the measure choice, and the commands panels return. No
-//! egui here, so panels depend on this module and not on the app shell.
-//!
-//! TODO(study): `Document` is to become a `study::Project` with its active case (issue 9).
+//! The window's session state that panels read and change through commands: display settings
+//! (not part of undo) and the commands panels return. The project itself, what undo acts on,
+//! is [`crate::study::Project`]. No egui here, so panels depend on this module and the study,
+//! not on the app shell.
 
 use std::path::PathBuf;
 
 use serde::{Deserialize, Serialize};
 
 use crate::draw::camera::{Camera, ViewPreset};
-use crate::mechanics::criteria::MohrCoulomb;
-use crate::mechanics::search::{Measure, SearchSettings};
-use crate::mechanics::{PlaneNormal, SignConvention, StressTensor, StressUnit};
 use crate::scene::{FaceChoice, Layers};
+use crate::study::{Edit, EnvelopeMeasure};
 
-/// The name a document gets once it is no longer the demo.
+/// The name the demo project gets once its stresses are changed: it is no longer the invented
+/// scenario.
 pub const UNTITLED: &str = "Untitled";
-
-/// The part of the state that undo and redo act on.
-#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
-pub struct Document {
-    /// A name for the load case, shown in the title.
-    pub name: String,
-    /// The stress state.
-    pub tensor: StressTensor,
-    /// The cut plane.
-    pub plane: PlaneNormal,
-}
-
-impl Default for Document {
-    fn default() -> Self {
-        Self::demo()
-    }
-}
-
-impl Document {
-    /// The built-in demo: an invented scenario, not data from any real part.
-    #[must_use]
-    pub fn demo() -> Self {
-        let tensor = StressTensor::from_components(
-            [120.0, -35.0, 15.0, 48.0, -12.0, 22.0],
-            StressUnit::MPa,
-            1.0,
-        )
-        .unwrap_or_default();
-        let plane = PlaneNormal::from_vector(nalgebra::Vector3::new(1.0, 0.5, 0.3))
-            .unwrap_or(PlaneNormal::X);
-        Self {
-            name: "Demo (invented scenario): fillet of a steel bracket".to_owned(),
-            tensor,
-            plane,
-        }
-    }
-}
 
 /// Display settings; saved, but not part of undo.
 #[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
 #[serde(default)]
 pub struct Settings {
-    /// Unit of every stress shown and typed.
-    pub unit: StressUnit,
-    /// Sign convention of every stress shown and typed.
-    pub convention: SignConvention,
     /// Layers of the 3D view.
     pub layers: Layers,
     /// Faces with traction arrows.
@@ -70,12 +27,26 @@ pub struct Settings {
     pub camera: Camera,
     /// Size of exported figures, pixels.
     pub export_size: [u32; 2],
-    /// The measure for the worst-plane search and the orientation map.
-    pub measure: MeasureChoice,
     /// Which picture the central area shows.
     pub central: Central,
     /// Draw the Mohr–Coulomb envelope on the Mohr circles.
     pub mohr_envelope: bool,
+    /// What the envelope view ranks by.
+    pub envelope_measure: EnvelopeMeasure,
+    /// Project files opened or saved lately, newest first.
+    pub recent: Vec<PathBuf>,
+}
+
+/// How many recent files File → Open recent lists.
+pub const RECENT_LIMIT: usize = 8;
+
+impl Settings {
+    /// Puts `path` first in the recent files.
+    pub fn remember(&mut self, path: &std::path::Path) {
+        self.recent.retain(|p| p != path);
+        self.recent.insert(0, path.to_owned());
+        self.recent.truncate(RECENT_LIMIT);
+    }
 }
 
 /// The pictures the central area can show (`--tab 3d|map|mohr`).
@@ -89,20 +60,21 @@ pub enum Central {
     Map,
     /// The Mohr circles.
     Mohr,
+    /// The envelope over every case and combination.
+    Envelope,
 }
 
 impl Default for Settings {
     fn default() -> Self {
         Self {
-            unit: StressUnit::MPa,
-            convention: SignConvention::TensionPositive,
             layers: Layers::default(),
             faces: FaceChoice::FacingViewer,
             camera: Camera::default(),
             export_size: [1600, 1200],
-            measure: MeasureChoice::default(),
             central: Central::View3d,
             mohr_envelope: false,
+            envelope_measure: EnvelopeMeasure::VonMises,
+            recent: Vec::new(),
         }
     }
 }
@@ -122,16 +94,22 @@ pub enum Coalesce {
     MohrDrag(u64),
     /// One drag of the normal's handle in the 3D view (the drag's serial number).
     NormalHandle(u64),
+    /// Typing in the measure and material fields.
+    MeasureFields,
+    /// Typing a combination's factors.
+    Factors,
+    /// Typing a case's description.
+    Description,
 }
 
 /// What a panel asks for; applied by the app after the frame.
 #[must_use]
 #[derive(Clone, Debug, PartialEq)]
 pub enum Command {
-    /// Replace the document (undoable).
+    /// Change the project (one undoable step, or merged into the last with `coalesce`).
     Edit {
-        /// The new document.
-        document: Document,
+        /// The change.
+        edit: Edit,
         /// Merge with the previous edit of the same field.
         coalesce: Option<Coalesce>,
     },
@@ -139,14 +117,22 @@ pub enum Command {
     Undo,
     /// Redo the last undone edit.
     Redo,
-    /// Go back to the demo load case and default settings (undoable for the document).
-    ResetToDemo,
-    /// Change the display unit.
-    SetUnit(StressUnit),
-    /// Change the sign convention.
-    SetConvention(SignConvention),
     /// Look from a preset direction.
     SetView(ViewPreset),
+    /// Start a new project (asks first when there are unsaved changes).
+    NewProject,
+    /// Ask for a project file and open it (asks first when there are unsaved changes).
+    OpenProject,
+    /// Open this project file (asks first when there are unsaved changes).
+    OpenPath(PathBuf),
+    /// Open the built-in demo project (asks first when there are unsaved changes).
+    OpenDemo,
+    /// Save to the project's file, or ask for one.
+    Save,
+    /// Ask for a file name and save there.
+    SaveAs,
+    /// Save to this path.
+    SaveTo(PathBuf),
     /// Put the results on the clipboard as tab-separated text.
     CopyResults,
     /// Put the figure on the clipboard as an image.
@@ -168,42 +154,4 @@ pub struct Status {
     pub text: String,
     /// Whether it reports a failure.
     pub error: bool,
-}
-
-/// The measure and its parameters as the user set them (stresses in pascals).
-#[derive(Clone, Copy, Debug, PartialEq, serde::Serialize, serde::Deserialize)]
-#[serde(default)]
-pub struct MeasureChoice {
-    /// The measure.
-    pub measure: Measure,
-    /// Pore pressure, Pa (compression positive).
-    pub pore_pressure_pa: f64,
-    /// Cohesion, Pa.
-    pub cohesion_pa: f64,
-    /// Friction angle, degrees.
-    pub friction_angle_deg: f64,
-}
-
-impl Default for MeasureChoice {
-    fn default() -> Self {
-        Self {
-            measure: Measure::Shear,
-            pore_pressure_pa: 0.0,
-            cohesion_pa: 5e6,
-            friction_angle_deg: 30.0,
-        }
-    }
-}
-
-impl MeasureChoice {
-    /// The search settings in the display convention.
-    #[must_use]
-    pub fn settings(&self, settings: &Settings) -> SearchSettings {
-        SearchSettings {
-            measure: self.measure,
-            convention: settings.convention,
-            pore_pressure_pa: self.pore_pressure_pa,
-            material: MohrCoulomb::new(self.cohesion_pa, self.friction_angle_deg).ok(),
-        }
-    }
 }

@@ -9,8 +9,11 @@
 use egui::accesskit::Role;
 use egui_kittest::Harness;
 use egui_kittest::kittest::{Queryable as _, by};
-use planewise::app::{DialogOutcome, Dialogs, PlanewiseApp};
-use planewise::mechanics::{Analysis, Component, SignConvention};
+use planewise::app::{DialogOutcome, Dialogs, PlanewiseApp, Settings};
+use planewise::mechanics::{
+    Analysis, Component, PlaneNormal, SignConvention, StressTensor, StressUnit,
+};
+use planewise::study::{CaseInput, Derived, LoadCase, Project, TypedTensor};
 
 /// Tests never open a native dialog: this one answers as a machine without a desktop portal
 /// or zenity does.
@@ -20,10 +23,49 @@ impl Dialogs for NoDialogs {
     fn save_figure(&self, _suggested_name: &str) -> DialogOutcome {
         DialogOutcome::Unavailable("test machine: no desktop portal".to_owned())
     }
+    fn open_project(&self) -> DialogOutcome {
+        DialogOutcome::Unavailable("test machine: no desktop portal".to_owned())
+    }
+    fn save_project(&self, _suggested_name: &str) -> DialogOutcome {
+        DialogOutcome::Unavailable("test machine: no desktop portal".to_owned())
+    }
+}
+
+/// A one-case project for these tests. Its numbers are a fixture, not check values: every
+/// check compares the window with the mechanics core or with itself.
+fn fixture() -> Project {
+    let mut p = Project::new("fixture", StressUnit::MPa, SignConvention::TensionPositive);
+    p.add_case(
+        LoadCase {
+            name: "fillet".to_owned(),
+            description: String::new(),
+            input: CaseInput::Tensor(TypedTensor {
+                unit: "MPa".to_owned(),
+                compression_positive: false,
+                components: [120.0, -35.0, 15.0, 48.0, -12.0, 22.0],
+            }),
+        },
+        false,
+    )
+    .unwrap();
+    p.plane = PlaneNormal::from_vector(nalgebra::Vector3::new(1.0, 0.5, 0.3)).unwrap();
+    p
+}
+
+fn fixture_tensor() -> StressTensor {
+    fixture().tensor("fillet").unwrap()
 }
 
 fn harness() -> Harness<'static, PlanewiseApp> {
-    let app = PlanewiseApp::demo(Box::new(NoDialogs));
+    harness_on(PlanewiseApp::new(
+        fixture(),
+        None,
+        Settings::default(),
+        Box::new(NoDialogs),
+    ))
+}
+
+fn harness_on(app: PlanewiseApp) -> Harness<'static, PlanewiseApp> {
     let mut h = Harness::builder()
         .with_size(egui::vec2(1280.0, 1400.0))
         .build_ui_state(|ui, app: &mut PlanewiseApp| app.show(ui), app);
@@ -32,7 +74,7 @@ fn harness() -> Harness<'static, PlanewiseApp> {
 }
 
 fn mpa(app: &PlanewiseApp, comp: Component) -> f64 {
-    app.document.tensor.component_pa(comp) / 1e6
+    app.tensor().component_pa(comp) / 1e6
 }
 
 /// The text field whose accessible name (its tooltip) starts with `name`.
@@ -61,21 +103,16 @@ fn type_into(h: &mut Harness<'static, PlanewiseApp>, name: &str, text: &str) {
 fn undo_restores_the_demo_plane(h: &mut Harness<'static, PlanewiseApp>) {
     h.key_press_modifiers(egui::Modifiers::COMMAND, egui::Key::Z);
     h.run();
-    assert_eq!(
-        h.state().document.plane,
-        planewise::app::Document::demo().plane
-    );
+    assert_eq!(h.state().project.plane, fixture().plane);
 }
 
 #[test]
 fn typing_a_cell_changes_the_results_and_its_mirror() {
     let mut h = harness();
-    let before =
-        Analysis::new(&h.state().document.tensor, SignConvention::TensionPositive).von_mises_pa;
+    let before = Analysis::new(&h.state().tensor(), SignConvention::TensionPositive).von_mises_pa;
     type_into(&mut h, "σxy", "10");
     assert!((mpa(h.state(), Component::Xy) - 10.0).abs() < 1e-12);
-    let after =
-        Analysis::new(&h.state().document.tensor, SignConvention::TensionPositive).von_mises_pa;
+    let after = Analysis::new(&h.state().tensor(), SignConvention::TensionPositive).von_mises_pa;
     assert!(
         (after - before).abs() > 1.0,
         "von Mises did not follow the edit"
@@ -97,9 +134,9 @@ fn typing_a_cell_changes_the_results_and_its_mirror() {
 fn bad_text_shows_an_error_and_keeps_the_state() {
     for bad in ["abc", "1e999", ""] {
         let mut h = harness();
-        let before = h.state().document.clone();
+        let before = h.state().project.clone();
         type_into(&mut h, "σzz", bad);
-        assert_eq!(h.state().document, before, "{bad:?} changed the state");
+        assert_eq!(h.state().project, before, "{bad:?} changed the state");
         let error = h.state().stress_panel.first_error().unwrap_or_default();
         assert!(error.starts_with("σzz:"), "{bad:?}: error '{error}'");
         assert!(
@@ -113,10 +150,10 @@ fn bad_text_shows_an_error_and_keeps_the_state() {
 #[test]
 fn undo_restores_the_previous_state_and_redo_reapplies() {
     let mut h = harness();
-    let original = h.state().document.clone();
+    let original = h.state().project.clone();
     type_into(&mut h, "σxx", "5");
     type_into(&mut h, "σyy", "7");
-    let edited = h.state().document.clone();
+    let edited = h.state().project.clone();
     assert_ne!(edited, original);
     // Leave the text field so the shortcut reaches the app.
     h.key_press(egui::Key::Escape);
@@ -133,14 +170,14 @@ fn undo_restores_the_previous_state_and_redo_reapplies() {
     );
     h.key_press_modifiers(egui::Modifiers::COMMAND, egui::Key::Z);
     h.run();
-    assert_eq!(h.state().document, original);
+    assert_eq!(h.state().project, original);
     h.key_press_modifiers(
         egui::Modifiers::COMMAND | egui::Modifiers::SHIFT,
         egui::Key::Z,
     );
     h.key_press_modifiers(egui::Modifiers::COMMAND, egui::Key::Y);
     h.run();
-    assert_eq!(h.state().document, edited);
+    assert_eq!(h.state().project, edited);
 }
 
 #[test]
@@ -148,22 +185,22 @@ fn face_and_principal_plane_buttons_set_the_plane() {
     let mut h = harness();
     h.get_by_label("+y face").click();
     h.run();
-    assert_eq!(h.state().document.plane.vector(), nalgebra::Vector3::y());
+    assert_eq!(h.state().project.plane.vector(), nalgebra::Vector3::y());
     h.get_by_label("σ1 plane").click();
     h.run();
-    let n1 = Analysis::new(&h.state().document.tensor, SignConvention::TensionPositive)
+    let n1 = Analysis::new(&h.state().tensor(), SignConvention::TensionPositive)
         .principal
         .directions[0];
-    assert!((h.state().document.plane.vector() - n1).norm() < 1e-12);
+    assert!((h.state().project.plane.vector() - n1).norm() < 1e-12);
     h.get_by_label("max shear A").click();
     h.run();
-    let a = Analysis::new(&h.state().document.tensor, SignConvention::TensionPositive);
+    let a = Analysis::new(&h.state().tensor(), SignConvention::TensionPositive);
     let expected = a.max_shear_normals[0];
-    assert!((h.state().document.plane.vector() - expected).norm() < 1e-12);
+    assert!((h.state().project.plane.vector() - expected).norm() < 1e-12);
     // Plane changes are undoable too.
     h.key_press_modifiers(egui::Modifiers::COMMAND, egui::Key::Z);
     h.run();
-    assert!((h.state().document.plane.vector() - n1).norm() < 1e-12);
+    assert!((h.state().project.plane.vector() - n1).norm() < 1e-12);
 }
 
 #[test]
@@ -172,9 +209,9 @@ fn a_zero_normal_is_rejected_with_a_message() {
     type_into(&mut h, "nx", "0");
     type_into(&mut h, "ny", "0");
     // (0, 0, nz) is still a plane; making nz zero too must be refused and keep it.
-    let before = h.state().document.plane;
+    let before = h.state().project.plane;
     type_into(&mut h, "nz", "0");
-    assert_eq!(h.state().document.plane, before);
+    assert_eq!(h.state().project.plane, before);
     assert!(
         h.query_by_label_contains("the normal vector is zero")
             .is_some()
@@ -258,7 +295,7 @@ fn clicking_the_orientation_map_sets_the_plane() {
     });
     h.run();
     let expected = planewise::mechanics::stereonet::pole_at(0.5, 0.0).unwrap();
-    let got = h.state().document.plane.vector();
+    let got = h.state().project.plane.vector();
     assert!(
         (got.dot(&expected).abs() - 1.0).abs() < 1e-3,
         "plane {got} vs pole {expected}"
@@ -272,8 +309,8 @@ fn go_to_worst_plane_sets_a_worst_plane() {
     let mut h = harness();
     h.get_by_label("go to worst plane 1").click();
     h.run();
-    let a = Analysis::new(&h.state().document.tensor, SignConvention::TensionPositive);
-    let n = h.state().document.plane.vector();
+    let a = Analysis::new(&h.state().tensor(), SignConvention::TensionPositive);
+    let n = h.state().project.plane.vector();
     let expected = a.max_shear_normals;
     assert!(
         expected
@@ -318,7 +355,8 @@ fn clicking_the_mohr_diagram_moves_the_plane_to_that_point() {
     let rect = h
         .get_by_label_contains("hover a point to name its plane")
         .rect();
-    let figure = planewise::ui::mohr_panel::figure(&h.state().document, &h.state().settings);
+    let figure =
+        planewise::ui::mohr_panel::figure(&Derived::new(&h.state().project), &h.state().settings);
     let layout = MohrLayout::new(
         &figure,
         rect.width().floor(),
@@ -326,7 +364,7 @@ fn clicking_the_mohr_diagram_moves_the_plane_to_that_point() {
         planewise::draw::Sizes::default(),
     );
     // Aim at the point of the horizontal plane.
-    let t = h.state().document.tensor;
+    let t = h.state().tensor();
     let circles = MohrCircles::new(&t, SignConvention::TensionPositive);
     let (sn, tau) = circles.point(&t, PlaneNormal::Z);
     let at = layout.to_px(sn, tau);
@@ -344,13 +382,14 @@ fn clicking_the_mohr_diagram_moves_the_plane_to_that_point() {
     // The new plane's point is drawn under the pointer. The side panels grow and shrink a few
     // pixels with the width of the numbers they show, which rescales the picture a little after
     // the click, so allow a few pixels.
-    let (sn2, tau2) = circles.point(&t, h.state().document.plane);
+    let (sn2, tau2) = circles.point(&t, h.state().project.plane);
     h.event(egui::Event::PointerGone);
     h.run();
     let rect_now = h
         .get_by_label_contains("hover a point to name its plane")
         .rect();
-    let figure = planewise::ui::mohr_panel::figure(&h.state().document, &h.state().settings);
+    let figure =
+        planewise::ui::mohr_panel::figure(&Derived::new(&h.state().project), &h.state().settings);
     let layout_now = MohrLayout::new(
         &figure,
         rect_now.width().floor(),
@@ -362,10 +401,7 @@ fn clicking_the_mohr_diagram_moves_the_plane_to_that_point() {
         drawn.distance(pos) < 6.0,
         "point drawn at {drawn:?}, clicked at {pos:?}"
     );
-    assert_ne!(
-        h.state().document.plane,
-        planewise::app::Document::demo().plane
-    );
+    assert_ne!(h.state().project.plane, fixture().plane);
     undo_restores_the_demo_plane(&mut h);
 }
 
@@ -376,14 +412,15 @@ fn dragging_the_normal_handle_turns_the_plane_in_one_undo_step() {
     let rect = h.get_by_label_contains("Drag the white handle").rect();
     let app = h.state();
     let camera = app.settings.camera;
-    let scene = Scene::build(&app.scene_input(&[]), &camera.towards_eye());
+    let d = Derived::new(&app.project);
+    let scene = Scene::build(&app.scene_input(&d, &[]), &camera.towards_eye());
     let view = camera.screen_from_world(
         f64::from(rect.width()),
         f64::from(rect.height()),
         scene.radius(),
     );
     let tip = view.project(&nalgebra::Point3::from(
-        app.document.plane.vector() * NORMAL_LENGTH,
+        app.project.plane.vector() * NORMAL_LENGTH,
     ));
     let origin = view.project(&nalgebra::Point3::origin());
     let from = rect.min + egui::vec2(tip.x as f32, tip.y as f32);
@@ -397,7 +434,7 @@ fn dragging_the_normal_handle_turns_the_plane_in_one_undo_step() {
     let expected = view
         .sphere_direction_at(target[0], target[1], NORMAL_LENGTH)
         .unwrap();
-    let got = h.state().document.plane.vector();
+    let got = h.state().project.plane.vector();
     assert!((got - expected).norm() < 0.02, "plane {got} vs {expected}");
     // The drag turned the plane, not the camera.
     assert_eq!(h.state().settings.camera, camera);
@@ -406,10 +443,7 @@ fn dragging_the_normal_handle_turns_the_plane_in_one_undo_step() {
     // A drag that starts away from the handle orbits instead.
     let away = rect.min + egui::vec2(20.0, rect.height() - 20.0);
     press_move_release(&mut h, away, away + egui::vec2(60.0, 0.0));
-    assert_eq!(
-        h.state().document.plane,
-        planewise::app::Document::demo().plane
-    );
+    assert_eq!(h.state().project.plane, fixture().plane);
     assert_ne!(h.state().settings.camera, camera);
 }
 
@@ -468,14 +502,17 @@ fn without_a_file_dialog_the_window_offers_a_path_entry_that_saves() {
 
 #[test]
 fn editing_the_demo_renames_it_and_undo_brings_the_name_back() {
-    let mut h = harness();
-    let demo_name = planewise::app::Document::demo().name;
-    assert_eq!(h.state().document.name, demo_name);
+    let mut h = harness_on(PlanewiseApp::demo(Box::new(NoDialogs)));
+    let demo_name = Project::demo().name;
+    assert_eq!(h.state().project.name, demo_name);
+    // The demo opens on a combination; show a load case to edit it.
+    h.get_by_label("dead").click();
+    h.run();
     type_into(&mut h, "σxx", "80");
-    assert_eq!(h.state().document.name, planewise::app::UNTITLED);
+    assert_eq!(h.state().project.name, planewise::app::UNTITLED);
     h.key_press_modifiers(egui::Modifiers::COMMAND, egui::Key::Z);
     h.run();
-    assert_eq!(h.state().document.name, demo_name);
+    assert_eq!(h.state().project.name, demo_name);
 }
 
 #[test]
@@ -513,8 +550,5 @@ fn menu_shortcut_text_comes_from_the_bindings() {
         planewise::ui::shortcuts::UNDO.logical_key,
     );
     h.run();
-    assert_eq!(
-        h.state().document.tensor,
-        planewise::app::Document::demo().tensor
-    );
+    assert_eq!(h.state().tensor(), fixture_tensor());
 }

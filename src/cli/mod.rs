@@ -39,13 +39,16 @@ pub struct Cli {
     /// What to do; without a subcommand the desktop window opens.
     #[command(subcommand)]
     pub command: Option<Command>,
-    /// Open the window on the demo, write a PNG of it to PATH once the first frame is complete,
-    /// and exit (for README images and smoke tests).
+    /// Open the window on the demo project (or --project), write a PNG of it to PATH once the
+    /// first frame is complete, and exit (for README images and smoke tests).
     #[arg(long, value_name = "PATH")]
     pub screenshot: Option<std::path::PathBuf>,
     /// The picture the window opens on.
     #[arg(long, value_name = "TAB")]
     pub tab: Option<crate::session::Central>,
+    /// Open the window on this project file.
+    #[arg(long, value_name = "FILE")]
+    pub project: Option<std::path::PathBuf>,
 }
 
 /// The subcommands.

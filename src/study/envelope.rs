@@ -6,7 +6,7 @@ use crate::mechanics::Analysis;
 use crate::mechanics::search::{Measure, SearchSettings, WorstCondition, WorstPlane, worst_plane};
 
 /// What the envelope ranks.
-#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+#[derive(Clone, Copy, Debug, PartialEq, Eq, serde::Serialize, serde::Deserialize)]
 pub enum EnvelopeMeasure {
     /// von Mises equivalent stress.
     VonMises,

@@ -6,8 +6,13 @@
 //!                "input": { "kind": "tensor", "unit": "MPa", "compression_positive": false,
 //!                           "components": [xx, yy, zz, xy, yz, zx] } } ],
 //!   "combinations": [ { "name": "ULS", "terms": [ { "case": "dead", "factor": 1.35 } ] } ],
-//!   "notes": "" }
+//!   "notes": "", "active": "ULS", "plane": [nx, ny, nz],
+//!   "measure": { "measure": "shear", "pore_pressure_pa": 0, "cohesion_pa": 5e6,
+//!                "friction_angle_deg": 30 } }
 //! ```
+//!
+//! `active`, `plane` and `measure` were added within version 1 and are optional (the first
+//! case, the x face and the shear measure when absent), so files written before them load.
 
 use std::path::{Path, PathBuf};
 
@@ -19,7 +24,7 @@ use super::model::{Project, StudyError};
 pub const FORMAT_VERSION: u32 = 1;
 
 /// Top-level keys this version knows; others are ignored with a warning.
-const KNOWN_KEYS: [&str; 7] = [
+const KNOWN_KEYS: [&str; 10] = [
     "format_version",
     "name",
     "unit",
@@ -27,6 +32,9 @@ const KNOWN_KEYS: [&str; 7] = [
     "cases",
     "combinations",
     "notes",
+    "active",
+    "plane",
+    "measure",
 ];
 
 #[derive(Serialize, Deserialize)]

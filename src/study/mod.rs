@@ -1,13 +1,20 @@
-//! The study: a project's load cases, factored combinations and their envelope — the model that
-//! the command line uses today and the window and reports are to share. No egui here.
-//!
-//! TODO(study): the window still keeps its own one-tensor document; moving it onto [`Project`]
-//! (cases list, combinations editor, envelope view, File → Open/Save) is the next step.
+//! The study: a project's load cases, factored combinations, cut plane and measure, the edits
+//! that change it, undo and redo, the results every panel reads, the envelope and the project
+//! file. The window and the command line are both front ends of it. No egui here.
 
+pub mod derived;
+pub mod edit;
 pub mod envelope;
 pub mod file;
+pub mod history;
 pub mod model;
+
+pub use derived::{Derived, DerivedCache};
+pub use edit::Edit;
+pub use history::History;
 
 pub use envelope::{Envelope, EnvelopeMeasure, EnvelopeRow, envelope};
 pub use file::{FORMAT_VERSION, FileError, load, save};
-pub use model::{CaseInput, Combination, LoadCase, Project, StudyError, Term, TypedTensor};
+pub use model::{
+    CaseInput, Combination, LoadCase, MeasureChoice, Project, StudyError, Term, TypedTensor,
+};

@@ -2,7 +2,9 @@
 
 use serde::{Deserialize, Serialize};
 
-use crate::mechanics::{SignConvention, StressTensor, StressUnit};
+use crate::mechanics::criteria::MohrCoulomb;
+use crate::mechanics::search::{Measure, SearchSettings};
+use crate::mechanics::{PlaneNormal, SignConvention, StressTensor, StressUnit};
 
 /// A stress tensor as the user typed it: six components in a unit and a sign convention.
 /// Kept as typed (not converted to pascals) so that a file shows the numbers its author wrote.
@@ -71,7 +73,50 @@ pub struct Combination {
     pub terms: Vec<Term>,
 }
 
-/// A project: load cases and combinations, with the unit and convention its numbers are shown in.
+/// The worst-plane measure and its parameters as the user set them (stresses in pascals).
+#[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
+#[serde(default)]
+pub struct MeasureChoice {
+    /// The measure.
+    pub measure: Measure,
+    /// Pore pressure, Pa (compression positive).
+    pub pore_pressure_pa: f64,
+    /// Cohesion, Pa.
+    pub cohesion_pa: f64,
+    /// Friction angle, degrees.
+    pub friction_angle_deg: f64,
+}
+
+impl Default for MeasureChoice {
+    fn default() -> Self {
+        Self {
+            measure: Measure::Shear,
+            pore_pressure_pa: 0.0,
+            cohesion_pa: 5e6,
+            friction_angle_deg: 30.0,
+        }
+    }
+}
+
+impl MeasureChoice {
+    /// The search settings in `convention`.
+    #[must_use]
+    pub fn settings(&self, convention: SignConvention) -> SearchSettings {
+        SearchSettings {
+            measure: self.measure,
+            convention,
+            pore_pressure_pa: self.pore_pressure_pa,
+            material: MohrCoulomb::new(self.cohesion_pa, self.friction_angle_deg).ok(),
+        }
+    }
+}
+
+fn default_plane() -> PlaneNormal {
+    PlaneNormal::X
+}
+
+/// A project: load cases and combinations, with the unit and convention its numbers are shown
+/// in, the case or combination being looked at, its cut plane and the worst-plane measure.
 #[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
 pub struct Project {
     /// Name shown in titles and reports.
@@ -91,6 +136,15 @@ pub struct Project {
     /// Free text.
     #[serde(default)]
     pub notes: String,
+    /// The case or combination the window shows (empty or unknown: the first one).
+    #[serde(default)]
+    pub active: String,
+    /// The cut plane.
+    #[serde(default = "default_plane")]
+    pub plane: PlaneNormal,
+    /// The worst-plane measure, pore pressure and Mohr–Coulomb material.
+    #[serde(default)]
+    pub measure: MeasureChoice,
 }
 
 fn default_unit() -> String {
@@ -130,7 +184,60 @@ impl Project {
             cases: Vec::new(),
             combinations: Vec::new(),
             notes: String::new(),
+            active: String::new(),
+            plane: default_plane(),
+            measure: MeasureChoice::default(),
         }
+    }
+
+    /// The built-in demo project (an invented scenario, said so in its name and notes).
+    #[must_use]
+    pub fn demo() -> Self {
+        serde_json::from_str::<serde_json::Value>(DEMO_JSON)
+            .ok()
+            .and_then(|mut v| {
+                v.as_object_mut()?.remove("format_version");
+                serde_json::from_value(v).ok()
+            })
+            .unwrap_or_else(|| Self::new("Demo", StressUnit::MPa, SignConvention::TensionPositive))
+    }
+
+    /// The name of the case or combination shown: `active` when it names one, else the first
+    /// case, else the first combination.
+    #[must_use]
+    pub fn active_name(&self) -> Option<&str> {
+        if self.name_used(&self.active) {
+            return Some(&self.active);
+        }
+        self.names().first().map(|(n, _)| *n)
+    }
+
+    /// The load case of that name.
+    #[must_use]
+    pub fn case(&self, name: &str) -> Option<&LoadCase> {
+        self.cases.iter().find(|c| c.name == name)
+    }
+
+    /// The combination of that name.
+    #[must_use]
+    pub fn combination(&self, name: &str) -> Option<&Combination> {
+        self.combinations.iter().find(|c| c.name == name)
+    }
+
+    /// Whether `name` is a combination.
+    #[must_use]
+    pub fn is_combination(&self, name: &str) -> bool {
+        self.combination(name).is_some()
+    }
+
+    /// A name not used yet: `stem 1`, `stem 2`, …
+    #[must_use]
+    pub fn unused_name(&self, stem: &str) -> String {
+        // One of the first n + 1 numbers is free when n names are used.
+        (1..=self.names().len() + 1)
+            .map(|i| format!("{stem} {i}"))
+            .find(|n| !self.name_used(n))
+            .unwrap_or_else(|| stem.to_owned())
     }
 
     /// The display unit.
@@ -150,7 +257,9 @@ impl Project {
         }
     }
 
-    fn name_used(&self, name: &str) -> bool {
+    /// Whether a case or combination has this name.
+    #[must_use]
+    pub fn name_used(&self, name: &str) -> bool {
         self.cases.iter().any(|c| c.name == name)
             || self.combinations.iter().any(|c| c.name == name)
     }
@@ -301,7 +410,10 @@ fn case_tensor(case: &LoadCase) -> Result<StressTensor, StudyError> {
     }
 }
 
-fn check_name(name: &str) -> Result<(), StudyError> {
+/// The demo project's file, built in.
+const DEMO_JSON: &str = include_str!("../../assets/demo-bracket-project.json");
+
+pub(crate) fn check_name(name: &str) -> Result<(), StudyError> {
     if name.trim().is_empty() {
         return Err(StudyError::Invalid("a name must not be empty".to_owned()));
     }

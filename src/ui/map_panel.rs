@@ -5,17 +5,18 @@
 use crate::draw::egui_backend;
 use crate::draw::map::{MapMarks, MapMeasure, disc_geometry, map_frame};
 use crate::format::{dip_text, sig};
-use crate::mechanics::search::{Measure, SearchSettings, WorstCondition, worst_plane};
+use crate::mechanics::PlaneNormal;
+use crate::mechanics::search::{Measure, WorstCondition};
 use crate::mechanics::stereonet::{orientation_map, pole_at};
-use crate::mechanics::{Analysis, PlaneNormal};
-use crate::session::{Command, Document, MeasureChoice, Settings};
+use crate::session::{Coalesce, Command};
+use crate::study::{Derived, Edit, MeasureChoice};
 
 /// Value text for a measure.
-fn value_text(measure: Measure, v: f64, settings: &Settings) -> String {
+fn value_text(measure: Measure, v: f64, d: &Derived) -> String {
     MapMeasure {
         measure,
-        unit: settings.unit,
-        convention: settings.convention,
+        unit: d.unit,
+        convention: d.convention,
     }
     .value_text(v, 5)
 }
@@ -70,14 +71,10 @@ pub fn material_ui(
 }
 
 /// The worst-plane controls (in the cut-plane column).
-pub fn worst_plane_ui(
-    ui: &mut egui::Ui,
-    doc: &Document,
-    settings: &mut Settings,
-    out: &mut Vec<Command>,
-) {
+pub fn worst_plane_ui(ui: &mut egui::Ui, d: &Derived, out: &mut Vec<Command>) {
     ui.heading("Worst plane");
-    let choice = &mut settings.measure;
+    let mut edited = d.measure;
+    let choice = &mut edited;
     egui::ComboBox::from_label("measure")
         .selected_text(choice.measure.key())
         .show_ui(ui, |ui| {
@@ -85,15 +82,21 @@ pub fn worst_plane_ui(
                 ui.selectable_value(&mut choice.measure, m, m.key());
             }
         });
-    let unit = settings.unit;
+    let unit = d.unit;
     let needs_pore = matches!(choice.measure, Measure::SlipTendency | Measure::MohrCoulomb);
     let needs_material = choice.measure == Measure::MohrCoulomb;
     material_ui(ui, choice, unit, needs_pore, needs_material);
-    let search = settings.measure.settings(settings);
-    match worst_plane(&doc.tensor, &search) {
+    if edited != d.measure {
+        out.push(Command::Edit {
+            edit: Edit::SetMeasure(edited),
+            coalesce: Some(Coalesce::MeasureFields),
+        });
+    }
+    let search = d.search;
+    match &d.worst {
         Ok(result) => {
             let text = match (result.value, result.condition) {
-                (Some(v), _) => value_text(search.measure, v, settings),
+                (Some(v), _) => value_text(search.measure, v, d),
                 (None, WorstCondition::EffectiveTension) => {
                     "undefined — planes with no frictional capacity exist (effective tension)"
                         .to_owned()
@@ -123,18 +126,15 @@ pub fn worst_plane_ui(
             });
             ui.horizontal_wrapped(|ui| {
                 for (i, p) in result.planes.iter().enumerate() {
-                    let rake = crate::mechanics::PlaneStress::new(
-                        &doc.tensor,
-                        p.normal,
-                        settings.convention,
-                    )
-                    .rake_deg()
-                    .map_or_else(|| "undefined".to_owned(), |r| format!("{}°", sig(r, 4)));
+                    let rake =
+                        crate::mechanics::PlaneStress::new(&d.tensor, p.normal, d.convention)
+                            .rake_deg()
+                            .map_or_else(|| "undefined".to_owned(), |r| format!("{}°", sig(r, 4)));
                     let tip = format!(
                         "{}, σn {}, τ {}, rake {rake}",
                         dip_text(p.dip_deg, p.dip_direction_deg),
-                        value_text(Measure::Shear, p.normal_stress_pa, settings),
-                        value_text(Measure::Shear, p.shear_stress_pa, settings)
+                        value_text(Measure::Shear, p.normal_stress_pa, d),
+                        value_text(Measure::Shear, p.shear_stress_pa, d)
                     );
                     if ui
                         .small_button(format!("go to worst plane {}", i + 1))
@@ -142,10 +142,7 @@ pub fn worst_plane_ui(
                         .clicked()
                     {
                         out.push(Command::Edit {
-                            document: Document {
-                                plane: p.normal,
-                                ..doc.clone()
-                            },
+                            edit: Edit::SetPlane(p.normal),
                             coalesce: None,
                         });
                     }
@@ -181,57 +178,49 @@ fn measure_formula(measure: Measure) -> &'static str {
 /// its export).
 #[must_use]
 pub fn map_figure(
-    doc: &Document,
-    settings: &Settings,
+    d: &Derived,
     resolution: usize,
     width: u32,
     height: u32,
     sizes: crate::draw::Sizes,
 ) -> crate::draw::Frame {
-    let search = settings.measure.settings(settings);
-    let map = orientation_map(&doc.tensor, &search, resolution);
-    let worst = worst_plane(&doc.tensor, &search);
-    let shown = Analysis::new(&doc.tensor, settings.convention);
-    let (worst, cone) = worst.map_or_else(|_| (Vec::new(), None), |r| (r.planes, r.cone));
+    let search = d.search;
+    let map = orientation_map(&d.tensor, &search, resolution);
+    let (worst, cone) = d
+        .worst
+        .as_ref()
+        .map_or_else(|_| (Vec::new(), None), |r| (r.planes.clone(), r.cone));
     let marks = MapMarks {
-        principal: shown.principal.directions,
-        plane: Some(doc.plane),
+        principal: d.analysis.principal.directions,
+        plane: Some(d.plane),
         worst: worst.iter().map(|p| p.normal).collect(),
         cone,
     };
-    map_frame(
-        &map,
-        &marks,
-        &map_measure(&search, settings),
-        width,
-        height,
-        sizes,
-    )
+    map_frame(&map, &marks, &map_measure(d), width, height, sizes)
 }
 
 /// The measure of the map in the window's unit and convention.
-fn map_measure(search: &SearchSettings, settings: &Settings) -> MapMeasure {
+fn map_measure(d: &Derived) -> MapMeasure {
     MapMeasure {
-        measure: search.measure,
-        unit: settings.unit,
-        convention: settings.convention,
+        measure: d.search.measure,
+        unit: d.unit,
+        convention: d.convention,
     }
 }
 
 /// The orientation map tab.
-pub fn map_ui(ui: &mut egui::Ui, doc: &Document, settings: &Settings, out: &mut Vec<Command>) {
-    let search = settings.measure.settings(settings);
+pub fn map_ui(ui: &mut egui::Ui, d: &Derived, out: &mut Vec<Command>) {
+    let search = d.search;
     let size = ui.available_size().max(egui::vec2(200.0, 160.0));
     let (rect, response) = ui.allocate_exact_size(size, egui::Sense::click());
     let frame = map_figure(
-        doc,
-        settings,
+        d,
         128,
         rect.width() as u32,
         rect.height() as u32,
         crate::draw::Sizes::default(),
     );
-    let what = map_measure(&search, settings);
+    let what = map_measure(d);
     let label = |v: f64| what.value_text(v, 5);
     ui.painter_at(rect)
         .extend(egui_backend::shapes(&frame, rect, ui.ctx()));
@@ -246,7 +235,7 @@ pub fn map_ui(ui: &mut egui::Ui, doc: &Document, settings: &Settings, out: &mut 
     let response = response.on_hover_text(match hover {
         Some(n) => {
             let (dip, dd) = n.dip_deg();
-            let value = crate::mechanics::search::Objective::new(&doc.tensor, &search)
+            let value = crate::mechanics::search::Objective::new(&d.tensor, &search)
                 .at_normal(&n.vector())
                 .map_or_else(|| "undefined (no frictional capacity)".to_owned(), label);
             format!(
@@ -264,10 +253,7 @@ pub fn map_ui(ui: &mut egui::Ui, doc: &Document, settings: &Settings, out: &mut 
         && let Some(n) = response.interact_pointer_pos().and_then(to_map)
     {
         out.push(Command::Edit {
-            document: Document {
-                plane: n,
-                ..doc.clone()
-            },
+            edit: Edit::SetPlane(n),
             coalesce: None,
         });
     }

@@ -1,7 +1,10 @@
 //! The window's panels. Each draws from the state it is given and returns what the user asked
 //! for as [`Command`]s; no mechanics is computed here beyond what a panel shows.
 
+pub mod cases_panel;
+pub mod envelope_panel;
 pub mod export_panel;
+pub mod file_prompt;
 pub mod map_panel;
 pub mod mohr_panel;
 pub mod plane_panel;
@@ -11,6 +14,7 @@ pub mod view_panel;
 
 use crate::draw::camera::{Projection, ViewPreset};
 use crate::session::{Command, Settings, Status};
+use crate::study::Derived;
 
 /// The window's keyboard shortcuts, declared once: the app listens for these and the menus
 /// print them with `ctx.format_shortcut`, so the text is right on every platform (⌘ on macOS).
@@ -26,6 +30,15 @@ pub mod shortcuts {
     pub const REDO_ALT: KeyboardShortcut = KeyboardShortcut::new(Modifiers::COMMAND, Key::Y);
     /// Open the export window.
     pub const EXPORT: KeyboardShortcut = KeyboardShortcut::new(Modifiers::COMMAND, Key::E);
+    /// New project.
+    pub const NEW: KeyboardShortcut = KeyboardShortcut::new(Modifiers::COMMAND, Key::N);
+    /// Open a project.
+    pub const OPEN: KeyboardShortcut = KeyboardShortcut::new(Modifiers::COMMAND, Key::O);
+    /// Save the project.
+    pub const SAVE: KeyboardShortcut = KeyboardShortcut::new(Modifiers::COMMAND, Key::S);
+    /// Save the project under a new name.
+    pub const SAVE_AS: KeyboardShortcut =
+        KeyboardShortcut::new(Modifiers::COMMAND.plus(Modifiers::SHIFT), Key::S);
     /// Copy the results as text.
     pub const COPY_RESULTS: KeyboardShortcut =
         KeyboardShortcut::new(Modifiers::COMMAND.plus(Modifiers::SHIFT), Key::C);
@@ -59,6 +72,50 @@ pub fn menus_ui(
     egui::Panel::top("menus").show(ui, |ui| {
         egui::MenuBar::new().ui(ui, |ui| {
             ui.menu_button("File", |ui| {
+                let item = |ui: &mut egui::Ui, text: &str, key: &egui::KeyboardShortcut| {
+                    ui.add(egui::Button::new(text).shortcut_text(ui.ctx().format_shortcut(key)))
+                        .clicked()
+                };
+                if item(ui, "New project", &shortcuts::NEW) {
+                    out.push(Command::NewProject);
+                }
+                if item(ui, "Open project…", &shortcuts::OPEN) {
+                    out.push(Command::OpenProject);
+                }
+                ui.add_enabled_ui(!settings.recent.is_empty(), |ui| {
+                    ui.menu_button("Open recent", |ui| {
+                        for path in &settings.recent {
+                            let name = path.file_name().map_or_else(
+                                || path.display().to_string(),
+                                |n| n.to_string_lossy().into_owned(),
+                            );
+                            if ui
+                                .button(name)
+                                .on_hover_text(path.display().to_string())
+                                .clicked()
+                            {
+                                out.push(Command::OpenPath(path.clone()));
+                            }
+                        }
+                    });
+                });
+                if ui
+                    .button("Open demo project")
+                    .on_hover_text(
+                        "The built-in invented bracket: three load cases and two combinations",
+                    )
+                    .clicked()
+                {
+                    out.push(Command::OpenDemo);
+                }
+                ui.separator();
+                if item(ui, "Save", &shortcuts::SAVE) {
+                    out.push(Command::Save);
+                }
+                if item(ui, "Save as…", &shortcuts::SAVE_AS) {
+                    out.push(Command::SaveAs);
+                }
+                ui.separator();
                 if ui
                     .add(
                         egui::Button::new("Export figure…")
@@ -79,14 +136,6 @@ pub fn menus_ui(
                     .clicked()
                 {
                     out.push(Command::CopyResults);
-                }
-                ui.separator();
-                if ui
-                    .button("Reset to demo")
-                    .on_hover_text("The built-in invented load case and default settings")
-                    .clicked()
-                {
-                    out.push(Command::ResetToDemo);
                 }
                 ui.separator();
                 if ui.button("Quit").clicked() {
@@ -137,13 +186,19 @@ pub fn menus_ui(
 }
 
 /// The status bar: the last message, and the conventions in force.
-pub fn status_bar_ui(ui: &mut egui::Ui, settings: &Settings, status: Option<&Status>) {
+pub fn status_bar_ui(ui: &mut egui::Ui, d: &Derived, status: Option<&Status>) {
     egui::Panel::bottom("status").show(ui, |ui| {
         ui.horizontal(|ui| {
+            let kind = if d.combination {
+                "combination"
+            } else {
+                "load case"
+            };
             ui.label(format!(
-                "{} · {} · x, y, z right-handed",
-                settings.unit,
-                settings.convention.key()
+                "{kind} '{}' · {} · {} · x, y, z right-handed",
+                d.name,
+                d.unit,
+                d.convention.key()
             ));
             ui.separator();
             if let Some(status) = status {
@@ -172,6 +227,6 @@ pub fn about_ui(ctx: &egui::Context, open: &mut bool) {
         ui.strong("Conventions");
         ui.label("Stresses are stored in pascals, tension positive, in right-handed x, y, z axes. In the compression-positive convention every stress shown or typed is negated, and σ1 is the most compressive. Dip / dip direction: x = east, y = north, z = up; dip direction clockwise from north.");
         ui.add_space(6.0);
-        ui.label("The demo load case is an invented scenario, not data from a real part.");
+        ui.label("The demo project is an invented scenario, not data from a real part; its combination factors are illustrative only.");
     });
 }

@@ -10,18 +10,20 @@ use crate::draw::{Sizes, egui_backend};
 use crate::format::sig;
 use crate::mechanics::criteria::MohrCoulomb;
 use crate::mechanics::mohr::MohrCircles;
-use crate::mechanics::search::{Measure, worst_plane};
-use crate::session::{Coalesce, Command, Document, Settings};
+use crate::mechanics::search::Measure;
+use crate::session::{Coalesce, Command, Settings};
+use crate::study::{Derived, Edit};
 
 /// The figure for the current state, as the tab and its export show it.
 #[must_use]
-pub fn figure(doc: &Document, settings: &Settings) -> MohrFigure {
-    let circles = MohrCircles::new(&doc.tensor, settings.convention);
-    let search = settings.measure.settings(settings);
-    let (worst, worst_label) = worst_plane(&doc.tensor, &search)
-        .map(|r| (worst_points(&r.planes), worst_label(&r)))
+pub fn figure(d: &Derived, settings: &Settings) -> MohrFigure {
+    let circles = MohrCircles::new(&d.tensor, d.convention);
+    let (worst, worst_label) = d
+        .worst
+        .as_ref()
+        .map(|r| (worst_points(&r.planes), worst_label(r)))
         .unwrap_or_default();
-    let choice = &settings.measure;
+    let choice = &d.measure;
     let show_envelope = settings.mohr_envelope || choice.measure == Measure::MohrCoulomb;
     let envelope = show_envelope
         .then(|| MohrCoulomb::new(choice.cohesion_pa, choice.friction_angle_deg).ok())
@@ -32,11 +34,11 @@ pub fn figure(doc: &Document, settings: &Settings) -> MohrFigure {
         });
     MohrFigure {
         circles,
-        unit: settings.unit,
+        unit: d.unit,
         plane: Some(MohrPoint::of_plane(
             &circles,
-            &doc.tensor,
-            doc.plane,
+            &d.tensor,
+            d.plane,
             "cut plane",
         )),
         worst,
@@ -60,18 +62,24 @@ pub fn point_near<'a>(
 }
 
 /// The Mohr tab.
-pub fn mohr_ui(ui: &mut egui::Ui, doc: &Document, settings: &mut Settings, out: &mut Vec<Command>) {
+pub fn mohr_ui(ui: &mut egui::Ui, d: &Derived, settings: &mut Settings, out: &mut Vec<Command>) {
     ui.horizontal_wrapped(|ui| {
         ui.checkbox(&mut settings.mohr_envelope, "Mohr–Coulomb envelope")
             .on_hover_text(
                 "Draw τ = c + (σn − p) tan φ (compression positive); always drawn when the worst-plane measure is mohr-coulomb",
             );
-        if settings.mohr_envelope || settings.measure.measure == Measure::MohrCoulomb {
-            let unit = settings.unit;
-            super::map_panel::material_ui(ui, &mut settings.measure, unit, true, true);
+        if settings.mohr_envelope || d.measure.measure == Measure::MohrCoulomb {
+            let mut edited = d.measure;
+            super::map_panel::material_ui(ui, &mut edited, d.unit, true, true);
+            if edited != d.measure {
+                out.push(Command::Edit {
+                    edit: Edit::SetMeasure(edited),
+                    coalesce: Some(Coalesce::MeasureFields),
+                });
+            }
         }
     });
-    let figure = figure(doc, settings);
+    let figure = figure(d, settings);
     let size = ui.available_size().max(egui::vec2(240.0, 180.0));
     let (rect, response) = ui.allocate_exact_size(size, egui::Sense::click_and_drag());
     let frame = mohr_frame(
@@ -89,7 +97,7 @@ pub fn mohr_ui(ui: &mut egui::Ui, doc: &Document, settings: &mut Settings, out: 
         Sizes::default(),
     );
     let local = |pos: egui::Pos2| [pos.x - rect.min.x, pos.y - rect.min.y];
-    let unit = settings.unit;
+    let unit = d.unit;
     let stress = |pa: f64| format!("{} {unit}", sig(unit.from_pa(pa), 5));
 
     let hover = response.hover_pos().map(local);
@@ -130,14 +138,11 @@ pub fn mohr_ui(ui: &mut egui::Ui, doc: &Document, settings: &mut Settings, out: 
         && let Some(at) = response.interact_pointer_pos().map(local)
     {
         let (sn, tau) = layout.from_px(at);
-        if let Some(plane) = figure.circles.plane_at(sn, tau.max(0.0), doc.plane) {
+        if let Some(plane) = figure.circles.plane_at(sn, tau.max(0.0), d.plane) {
             // One undo step per drag; a click is a step of its own.
             let coalesce = dragging.then_some(Coalesce::MohrDrag(serial));
             out.push(Command::Edit {
-                document: Document {
-                    plane,
-                    ..doc.clone()
-                },
+                edit: Edit::SetPlane(plane),
                 coalesce,
             });
         }

@@ -6,7 +6,8 @@ use nalgebra::Vector3;
 use crate::format::sig;
 use crate::mechanics::{Analysis, PlaneNormal, SignConvention};
 use crate::parse;
-use crate::session::{Coalesce, Command, Document, Settings};
+use crate::session::{Coalesce, Command};
+use crate::study::{Derived, Edit};
 
 /// Plane entry state.
 #[derive(Debug, Default)]
@@ -47,22 +48,13 @@ impl PlanePanel {
     }
 
     /// Draws the panel.
-    pub fn ui(
-        &mut self,
-        ui: &mut egui::Ui,
-        doc: &Document,
-        settings: &Settings,
-        out: &mut Vec<Command>,
-    ) {
+    pub fn ui(&mut self, ui: &mut egui::Ui, d: &Derived, out: &mut Vec<Command>) {
         ui.heading("Cut plane");
         let ids: [egui::Id; 5] = std::array::from_fn(|i| egui::Id::unique(("plane-field", i)));
-        self.refresh(ui, &ids, doc.plane);
+        self.refresh(ui, &ids, d.plane);
         let set = |plane: PlaneNormal, coalesce: Option<Coalesce>, out: &mut Vec<Command>| {
             out.push(Command::Edit {
-                document: Document {
-                    plane,
-                    ..doc.clone()
-                },
+                edit: Edit::SetPlane(plane),
                 coalesce,
             });
         };
@@ -103,7 +95,7 @@ impl PlanePanel {
         }
 
         ui.label("Angles of the normal");
-        let (mut polar, mut azimuth) = doc.plane.spherical_deg();
+        let (mut polar, mut azimuth) = d.plane.spherical_deg();
         let polar_changed = ui
             .add(
                 egui::Slider::new(&mut polar, 0.0..=180.0)
@@ -191,8 +183,8 @@ impl PlanePanel {
                 }
             }
         });
-        let a = Analysis::new(&doc.tensor, SignConvention::TensionPositive);
-        let shown = Analysis::new(&doc.tensor, settings.convention);
+        let a = Analysis::new(&d.tensor, SignConvention::TensionPositive);
+        let shown = &d.analysis;
         ui.horizontal_wrapped(|ui| {
             for (i, n) in shown.principal.directions.iter().enumerate() {
                 let label = format!("σ{} plane", i + 1);

@@ -1,10 +1,11 @@
 //! The results panel: every number with its unit; hovering shows the formula.
 
 use crate::results::rows;
-use crate::session::{Command, Document, Settings};
+use crate::session::Command;
+use crate::study::Derived;
 
 /// Draws the results.
-pub fn results_ui(ui: &mut egui::Ui, doc: &Document, settings: &Settings, out: &mut Vec<Command>) {
+pub fn results_ui(ui: &mut egui::Ui, d: &Derived, out: &mut Vec<Command>) {
     ui.horizontal(|ui| {
         ui.heading("Results");
         if ui
@@ -15,8 +16,8 @@ pub fn results_ui(ui: &mut egui::Ui, doc: &Document, settings: &Settings, out: &
             out.push(Command::CopyResults);
         }
     });
-    ui.small(format!("{}, {}", settings.unit, settings.convention.key()));
-    let all = rows(&doc.tensor, doc.plane, settings.unit, settings.convention);
+    ui.small(format!("{}, {}", d.unit, d.convention.key()));
+    let all = rows(&d.tensor, d.plane, d.unit, d.convention);
     let mut group = "";
     let mut grid_rows: Vec<&crate::results::ResultRow> = Vec::new();
     let flush = |ui: &mut egui::Ui, title: &str, items: &mut Vec<&crate::results::ResultRow>| {

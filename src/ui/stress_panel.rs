@@ -3,7 +3,8 @@
 use crate::format::sig;
 use crate::mechanics::{Component, SignConvention, StressTensor, StressUnit};
 use crate::parse;
-use crate::session::{Coalesce, Command, Document, Settings};
+use crate::session::{Coalesce, Command};
+use crate::study::{Derived, Edit};
 
 /// Grid editing state: the text in each cell and what is wrong with it.
 #[derive(Debug, Default)]
@@ -94,20 +95,14 @@ impl StressPanel {
         None
     }
 
-    fn refresh(
-        &mut self,
-        ui: &egui::Ui,
-        ids: &[[egui::Id; 3]; 3],
-        doc: &Document,
-        settings: &Settings,
-    ) {
-        let key = (doc.tensor, settings.unit, settings.convention);
+    fn refresh(&mut self, ui: &egui::Ui, ids: &[[egui::Id; 3]; 3], d: &Derived) {
+        let key = (d.tensor, d.unit, d.convention);
         let force = self.shown.is_none();
         if self.shown == Some(key) {
             return;
         }
         self.shown = Some(key);
-        let sign = settings.convention.sign();
+        let sign = d.convention.sign();
         for r in 0..3 {
             for c in 0..3 {
                 let focused = ui.memory(|m| m.has_focus(ids[r][c]));
@@ -117,7 +112,7 @@ impl StressPanel {
                 let Some(comp) = Component::at(r, c) else {
                     continue;
                 };
-                let value = sign * settings.unit.from_pa(doc.tensor.component_pa(comp));
+                let value = sign * d.unit.from_pa(d.tensor.component_pa(comp));
                 self.cells[r][c] = sig(value, 8);
                 self.errors[r][c] = None;
             }
@@ -125,17 +120,11 @@ impl StressPanel {
     }
 
     /// Draws the panel.
-    pub fn ui(
-        &mut self,
-        ui: &mut egui::Ui,
-        doc: &Document,
-        settings: &Settings,
-        out: &mut Vec<Command>,
-    ) {
+    pub fn ui(&mut self, ui: &mut egui::Ui, d: &Derived, out: &mut Vec<Command>) {
         ui.heading("Stress state");
         ui.horizontal(|ui| {
             ui.label("Unit");
-            let mut unit = settings.unit;
+            let mut unit = d.unit;
             egui::ComboBox::from_id_salt("unit")
                 .selected_text(unit.symbol())
                 .show_ui(ui, |ui| {
@@ -145,12 +134,15 @@ impl StressPanel {
                 })
                 .response
                 .on_hover_text("Changes the numbers shown, not the physical state");
-            if unit != settings.unit {
-                out.push(Command::SetUnit(unit));
+            if unit != d.unit {
+                out.push(Command::Edit {
+                    edit: Edit::SetUnit(unit),
+                    coalesce: None,
+                });
             }
         });
         ui.horizontal(|ui| {
-            let mut conv = settings.convention;
+            let mut conv = d.convention;
             ui.radio_value(&mut conv, SignConvention::TensionPositive, "tension +")
                 .on_hover_text("Tension positive (solid mechanics, finite-element output)");
             ui.radio_value(
@@ -159,31 +151,38 @@ impl StressPanel {
                 "compression +",
             )
             .on_hover_text("Compression positive (geomechanics): σ1 is the most compressive");
-            if conv != settings.convention {
-                out.push(Command::SetConvention(conv));
+            if conv != d.convention {
+                out.push(Command::Edit {
+                    edit: Edit::SetConvention(conv),
+                    coalesce: None,
+                });
             }
         });
 
         let ids: [[egui::Id; 3]; 3] = std::array::from_fn(|r| {
             std::array::from_fn(|c| egui::Id::unique(("stress-cell", r, c)))
         });
-        self.refresh(ui, &ids, doc, settings);
-        egui::Grid::new("stress-grid")
-            .spacing([6.0, 4.0])
-            .show(ui, |ui| {
-                ui.label("");
-                for a in AXES {
-                    ui.label(a);
-                }
-                ui.end_row();
-                for r in 0..3 {
-                    ui.label(AXES[r]);
-                    for c in 0..3 {
-                        self.cell_ui(ui, ids[r][c], r, c, doc, settings, out);
-                    }
-                    ui.end_row();
-                }
-            });
+        self.refresh(ui, &ids, d);
+        if d.combination {
+            ui.label(format!(
+                "'{}' is a combination: its tensor is the factored sum of its load cases, shown here read-only.",
+                d.name
+            ));
+        }
+        ui.add_enabled_ui(!d.combination, |ui| self.grid_ui(ui, &ids, d, out));
+        if d.combination {
+            if ui
+                .button("Make a load case from it")
+                .on_hover_text("Adds a load case holding this combination's summed tensor, to edit")
+                .clicked()
+            {
+                out.push(Command::Edit {
+                    edit: Edit::CaseFromActive,
+                    coalesce: None,
+                });
+            }
+            return;
+        }
         if let Some(e) = self.first_error() {
             ui.colored_label(
                 ui.visuals().error_fg_color,
@@ -192,38 +191,22 @@ impl StressPanel {
         }
         ui.small(format!(
             "σij in {} ({}); off-diagonal cells edit their mirror too.",
-            settings.unit,
-            settings.convention.key()
+            d.unit,
+            d.convention.key()
         ));
 
         ui.horizontal_wrapped(|ui| {
             for preset in Preset::ALL {
                 if ui.small_button(preset.label()).clicked() {
                     let components = preset.components();
-                    if let Ok(tensor) =
-                        StressTensor::from_components(components, settings.unit, 1.0)
-                    {
+                    if let Ok(tensor) = StressTensor::from_components(components, d.unit, 1.0) {
                         out.push(Command::Edit {
-                            document: Document {
-                                tensor,
-                                ..doc.clone()
-                            },
+                            edit: Edit::SetTensor(tensor),
                             coalesce: None,
                         });
                         self.reset();
                     }
                 }
-            }
-            if ui
-                .small_button("Demo")
-                .on_hover_text("The built-in invented load case")
-                .clicked()
-            {
-                out.push(Command::Edit {
-                    document: Document::demo(),
-                    coalesce: None,
-                });
-                self.reset();
             }
         });
 
@@ -241,7 +224,7 @@ impl StressPanel {
                 .clicked()
                 || enter
             {
-                self.fill_from_paste(doc, settings, out);
+                self.fill_from_paste(d, out);
             }
         });
         if let Some(e) = &self.paste_error {
@@ -249,43 +232,59 @@ impl StressPanel {
         }
     }
 
-    fn fill_from_paste(&mut self, doc: &Document, settings: &Settings, out: &mut Vec<Command>) {
-        match parse::numbers::<6>(&self.paste) {
-            Ok(values) => match StressTensor::from_components(
-                values,
-                settings.unit,
-                settings.convention.sign(),
-            ) {
-                Ok(tensor) => {
-                    out.push(Command::Edit {
-                        document: Document {
-                            tensor,
-                            ..doc.clone()
-                        },
-                        coalesce: None,
-                    });
-                    self.paste_error = None;
-                    self.paste.clear();
-                    self.reset();
+    /// The 3×3 grid of cells.
+    fn grid_ui(
+        &mut self,
+        ui: &mut egui::Ui,
+        ids: &[[egui::Id; 3]; 3],
+        d: &Derived,
+        out: &mut Vec<Command>,
+    ) {
+        egui::Grid::new("stress-grid")
+            .spacing([6.0, 4.0])
+            .show(ui, |ui| {
+                ui.label("");
+                for a in AXES {
+                    ui.label(a);
                 }
-                Err(e) => self.paste_error = Some(e.to_string()),
-            },
+                ui.end_row();
+                for r in 0..3 {
+                    ui.label(AXES[r]);
+                    for c in 0..3 {
+                        self.cell_ui(ui, ids[r][c], r, c, d, out);
+                    }
+                    ui.end_row();
+                }
+            });
+    }
+
+    fn fill_from_paste(&mut self, d: &Derived, out: &mut Vec<Command>) {
+        match parse::numbers::<6>(&self.paste) {
+            Ok(values) => {
+                match StressTensor::from_components(values, d.unit, d.convention.sign()) {
+                    Ok(tensor) => {
+                        out.push(Command::Edit {
+                            edit: Edit::SetTensor(tensor),
+                            coalesce: None,
+                        });
+                        self.paste_error = None;
+                        self.paste.clear();
+                        self.reset();
+                    }
+                    Err(e) => self.paste_error = Some(e.to_string()),
+                }
+            }
             Err(e) => self.paste_error = Some(e.to_string()),
         }
     }
 
-    #[expect(
-        clippy::too_many_arguments,
-        reason = "one cell needs its place, its id and the state"
-    )]
     fn cell_ui(
         &mut self,
         ui: &mut egui::Ui,
         id: egui::Id,
         r: usize,
         c: usize,
-        doc: &Document,
-        settings: &Settings,
+        d: &Derived,
         out: &mut Vec<Command>,
     ) {
         let name = cell_name(r, c);
@@ -302,7 +301,7 @@ impl StressPanel {
             Some(e) => format!("{name}: {e}"),
             None => format!(
                 "{name} in {}; σ{}{} = σ{}{}",
-                settings.unit, AXES[r], AXES[c], AXES[c], AXES[r]
+                d.unit, AXES[r], AXES[c], AXES[c], AXES[r]
             ),
         };
         let response = response.on_hover_text(tip);
@@ -315,17 +314,14 @@ impl StressPanel {
         let (mr, mc) = (c, r);
         match parse::number(&self.cells[r][c]) {
             Ok(value) => {
-                let pa = settings.convention.sign() * settings.unit.to_pa(value);
-                match doc.tensor.with_component_pa(comp, pa) {
+                let pa = d.convention.sign() * d.unit.to_pa(value);
+                match d.tensor.with_component_pa(comp, pa) {
                     Ok(tensor) => {
                         self.errors[r][c] = None;
                         self.errors[mr][mc] = None;
                         let (ur, uc) = comp.index();
                         out.push(Command::Edit {
-                            document: Document {
-                                tensor,
-                                ..doc.clone()
-                            },
+                            edit: Edit::SetTensor(tensor),
                             coalesce: Some(Coalesce::Cell(ur, uc)),
                         });
                     }

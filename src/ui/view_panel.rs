@@ -4,9 +4,9 @@
 use crate::draw::camera::{Camera, Projection, ViewPreset};
 use crate::draw::{Sizes, egui_backend, render};
 use crate::mechanics::PlaneNormal;
-use crate::mechanics::search::worst_plane;
 use crate::scene::{FaceChoice, Layers, NORMAL_LENGTH, Scene, SceneInput};
-use crate::session::{Coalesce, Command, Document, Settings};
+use crate::session::{Coalesce, Command, Settings};
+use crate::study::{Derived, Edit};
 
 /// How close (pixels) a press must be to the normal's handle to grab it.
 pub const HANDLE_GRAB_PX: f32 = 12.0;
@@ -49,19 +49,16 @@ fn faces_ui(ui: &mut egui::Ui, faces: &mut FaceChoice) {
 /// The normals of the worst planes for the chosen measure when the worst-planes layer is on
 /// (empty otherwise, or when the measure cannot be evaluated).
 #[must_use]
-pub fn worst_normals(doc: &Document, settings: &Settings) -> Vec<PlaneNormal> {
+pub fn worst_normals(d: &Derived, settings: &Settings) -> Vec<PlaneNormal> {
     if !settings.layers.worst_planes {
         return Vec::new();
     }
-    let search = settings.measure.settings(settings);
-    worst_plane(&doc.tensor, &search)
-        .map(|r| r.planes.iter().map(|p| p.normal).collect())
-        .unwrap_or_default()
+    d.worst_normals()
 }
 
 /// Draws the toolbar and the view; camera moves change `settings.camera` directly (the view
 /// is not part of undo).
-pub fn view_ui(ui: &mut egui::Ui, doc: &Document, settings: &mut Settings, out: &mut Vec<Command>) {
+pub fn view_ui(ui: &mut egui::Ui, d: &Derived, settings: &mut Settings, out: &mut Vec<Command>) {
     ui.horizontal_wrapped(|ui| {
         for (i, preset) in ViewPreset::ALL.into_iter().enumerate() {
             let text = match preset {
@@ -94,12 +91,12 @@ pub fn view_ui(ui: &mut egui::Ui, doc: &Document, settings: &mut Settings, out: 
 
     let size = ui.available_size().max(egui::vec2(64.0, 64.0));
     let (rect, response) = ui.allocate_exact_size(size, egui::Sense::click_and_drag());
-    let worst = worst_normals(doc, settings);
+    let worst = worst_normals(d, settings);
     let input = |settings: &Settings| SceneInput {
-        tensor: &doc.tensor,
-        plane: doc.plane,
-        unit: settings.unit,
-        convention: settings.convention,
+        tensor: &d.tensor,
+        plane: d.plane,
+        unit: d.unit,
+        convention: d.convention,
         layers: settings.layers,
         faces: settings.faces,
         worst_planes: &worst,
@@ -115,7 +112,7 @@ pub fn view_ui(ui: &mut egui::Ui, doc: &Document, settings: &mut Settings, out: 
         scene.radius(),
     );
     let handle_px = settings.layers.cut_plane.then(|| {
-        let p = view.project(&nalgebra::Point3::from(doc.plane.vector() * NORMAL_LENGTH));
+        let p = view.project(&nalgebra::Point3::from(d.plane.vector() * NORMAL_LENGTH));
         rect.min + egui::vec2(p.x as f32, p.y as f32)
     });
     let near_handle = |pos: Option<egui::Pos2>| matches!((pos, handle_px), (Some(p), Some(h)) if p.distance(h) <= HANDLE_GRAB_PX);
@@ -147,10 +144,7 @@ pub fn view_ui(ui: &mut egui::Ui, doc: &Document, settings: &mut Settings, out: 
                 && let Ok(plane) = PlaneNormal::from_vector(direction)
             {
                 out.push(Command::Edit {
-                    document: Document {
-                        plane,
-                        ..doc.clone()
-                    },
+                    edit: Edit::SetPlane(plane),
                     // One undo step per drag.
                     coalesce: Some(Coalesce::NormalHandle(serial)),
                 });

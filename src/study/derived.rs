@@ -1,0 +1,92 @@
+//! What every panel reads about the shown case or combination, computed once per change of the
+//! project: its tensor, the analysis in the display convention and the worst-plane search.
+//! Before this, each panel searched for itself, two or three times a frame.
+
+use super::model::{MeasureChoice, Project};
+use crate::mechanics::search::{SearchError, SearchResult, SearchSettings, worst_plane};
+use crate::mechanics::{Analysis, PlaneNormal, SignConvention, StressTensor, StressUnit};
+
+/// The shown state and its results.
+#[derive(Clone, Debug, PartialEq)]
+pub struct Derived {
+    /// The case or combination shown.
+    pub name: String,
+    /// Whether it is a combination (its tensor is a sum, not typed).
+    pub combination: bool,
+    /// Its tensor (pascals, tension positive).
+    pub tensor: StressTensor,
+    /// The cut plane.
+    pub plane: PlaneNormal,
+    /// Display unit.
+    pub unit: StressUnit,
+    /// Display convention.
+    pub convention: SignConvention,
+    /// The measure as the user set it.
+    pub measure: MeasureChoice,
+    /// The search settings in the display convention.
+    pub search: SearchSettings,
+    /// Principal stresses, invariants and equivalent stresses in the display convention.
+    pub analysis: Analysis,
+    /// The worst planes for the measure.
+    pub worst: Result<SearchResult, SearchError>,
+    /// Why the tensor could not be formed, if so (the zero tensor is shown meanwhile).
+    pub problem: Option<String>,
+}
+
+impl Derived {
+    /// Computes everything for the project's shown case or combination.
+    #[must_use]
+    pub fn new(project: &Project) -> Self {
+        let unit = project.unit().unwrap_or(StressUnit::MPa);
+        let convention = project.convention();
+        let name = project.active_name().unwrap_or_default().to_owned();
+        let (tensor, problem) = match project.tensor(&name) {
+            Ok(t) => (t, None),
+            Err(e) => (StressTensor::default(), Some(e.to_string())),
+        };
+        let search = project.measure.settings(convention);
+        Self {
+            combination: project.is_combination(&name),
+            name,
+            plane: project.plane,
+            unit,
+            convention,
+            measure: project.measure,
+            analysis: Analysis::new(&tensor, convention),
+            worst: worst_plane(&tensor, &search),
+            search,
+            tensor,
+            problem,
+        }
+    }
+
+    /// The worst planes' normals (empty when the search cannot run).
+    #[must_use]
+    pub fn worst_normals(&self) -> Vec<PlaneNormal> {
+        self.worst
+            .as_ref()
+            .map(|r| r.planes.iter().map(|p| p.normal).collect())
+            .unwrap_or_default()
+    }
+}
+
+/// Keeps the derived results of the last project it was given, recomputing only on change.
+#[derive(Debug, Default)]
+pub struct DerivedCache {
+    key: Option<Project>,
+    value: Option<Derived>,
+    /// How many times the results were computed (tests read it to prove one search per change).
+    pub computations: u64,
+}
+
+impl DerivedCache {
+    /// The results for `project`.
+    pub fn get(&mut self, project: &Project) -> &Derived {
+        if self.key.as_ref() != Some(project) || self.value.is_none() {
+            self.key = Some(project.clone());
+            self.computations += 1;
+            self.value = Some(Derived::new(project));
+        }
+        self.value.get_or_insert_with(|| Derived::new(project))
+    }
+}

@@ -1,0 +1,298 @@
+//! Every change of a project as a value. The window sends each through one path (one undo step
+//! each); the command line's `project` subcommands use the same model functions.
+
+use super::model::{
+    CaseInput, Combination, LoadCase, MeasureChoice, Project, StudyError, Term, TypedTensor,
+    check_name,
+};
+use crate::mechanics::{PlaneNormal, SignConvention, StressTensor, StressUnit};
+
+/// One change of a project.
+#[derive(Clone, Debug, PartialEq)]
+pub enum Edit {
+    /// The active load case's stress (stored as typed in the project's unit and convention).
+    SetTensor(StressTensor),
+    /// The cut plane.
+    SetPlane(PlaneNormal),
+    /// The worst-plane measure, pore pressure and material.
+    SetMeasure(MeasureChoice),
+    /// The unit every stress is shown and typed in.
+    SetUnit(StressUnit),
+    /// The sign convention every stress is shown and typed in.
+    SetConvention(SignConvention),
+    /// The project's name.
+    SetName(String),
+    /// Show this case or combination.
+    Activate(String),
+    /// A new load case with a zero stress, shown at once.
+    AddCase,
+    /// A copy of a case or combination, shown at once.
+    Duplicate(String),
+    /// The active combination's summed tensor as a new load case.
+    CaseFromActive,
+    /// A new name for a case or combination (combinations follow a renamed case).
+    Rename {
+        /// The old name.
+        from: String,
+        /// The new name.
+        to: String,
+    },
+    /// Remove a case (and its terms in combinations) or a combination.
+    Delete(String),
+    /// Move a case or combination one place up or down in its list.
+    Move {
+        /// Which.
+        name: String,
+        /// Up (towards the start) or down.
+        up: bool,
+    },
+    /// A new combination of every case with factor 1, shown at once.
+    AddCombination,
+    /// A combination's terms.
+    SetTerms {
+        /// The combination.
+        name: String,
+        /// Its new terms.
+        terms: Vec<Term>,
+    },
+    /// A case's description.
+    SetDescription {
+        /// The case.
+        name: String,
+        /// The text.
+        text: String,
+    },
+    /// Replace the whole project (reset to the demo).
+    Replace(Box<Project>),
+}
+
+impl Edit {
+    /// The project after this edit, or why it cannot be made (the project is not changed).
+    pub fn apply(&self, project: &Project) -> Result<Project, StudyError> {
+        let mut p = project.clone();
+        match self {
+            Self::SetTensor(tensor) => {
+                let name = active(&p)?;
+                let unit = p.unit()?;
+                let sign = p.convention().sign();
+                let components = tensor.components_pa().map(|v| sign * unit.from_pa(v));
+                let compression_positive = p.compression_positive;
+                let case = p.cases.iter_mut().find(|c| c.name == name).ok_or_else(|| {
+                    StudyError::Invalid(format!(
+                        "'{name}' is a combination: edit its load cases or factors, or make a load case from it"
+                    ))
+                })?;
+                case.input = CaseInput::Tensor(TypedTensor {
+                    unit: unit.symbol().to_owned(),
+                    compression_positive,
+                    components,
+                });
+            }
+            Self::SetPlane(plane) => p.plane = *plane,
+            Self::SetMeasure(choice) => p.measure = *choice,
+            Self::SetUnit(unit) => unit.symbol().clone_into(&mut p.unit),
+            Self::SetConvention(c) => {
+                p.compression_positive = *c == SignConvention::CompressionPositive;
+            }
+            Self::SetName(name) => {
+                if name.trim().is_empty() {
+                    return Err(StudyError::Invalid(
+                        "a project name must not be empty".to_owned(),
+                    ));
+                }
+                name.clone_into(&mut p.name);
+            }
+            Self::Activate(name) => {
+                if !p.name_used(name) {
+                    return Err(StudyError::Unknown(name.clone()));
+                }
+                name.clone_into(&mut p.active);
+            }
+            Self::AddCase => {
+                let name = p.unused_name("case");
+                let unit = p.unit()?;
+                p.cases.push(LoadCase {
+                    name: name.clone(),
+                    description: String::new(),
+                    input: CaseInput::Tensor(TypedTensor {
+                        unit: unit.symbol().to_owned(),
+                        compression_positive: p.compression_positive,
+                        components: [0.0; 6],
+                    }),
+                });
+                p.active = name;
+            }
+            Self::Duplicate(name) => {
+                let copy = copy_name(&p, name);
+                if let Some(i) = p.cases.iter().position(|c| &c.name == name) {
+                    let mut case = p.cases[i].clone();
+                    case.name.clone_from(&copy);
+                    p.cases.insert(i + 1, case);
+                } else if let Some(i) = p.combinations.iter().position(|c| &c.name == name) {
+                    let mut combination = p.combinations[i].clone();
+                    combination.name.clone_from(&copy);
+                    p.combinations.insert(i + 1, combination);
+                } else {
+                    return Err(StudyError::Unknown(name.clone()));
+                }
+                p.active = copy;
+            }
+            Self::CaseFromActive => {
+                let name = active(&p)?;
+                let tensor = p.tensor(&name)?;
+                let case_name = copy_name(&p, &format!("{name} as case"));
+                let unit = p.unit()?;
+                let sign = p.convention().sign();
+                p.cases.push(LoadCase {
+                    name: case_name.clone(),
+                    description: format!("The summed tensor of '{name}', made a load case"),
+                    input: CaseInput::Tensor(TypedTensor {
+                        unit: unit.symbol().to_owned(),
+                        compression_positive: p.compression_positive,
+                        components: tensor.components_pa().map(|v| sign * unit.from_pa(v)),
+                    }),
+                });
+                p.active = case_name;
+            }
+            Self::Rename { from, to } => rename(&mut p, from, to)?,
+            Self::Delete(name) => delete(&mut p, name)?,
+            Self::Move { name, up } => {
+                fn shift<T>(list: &mut [T], i: usize, up: bool) {
+                    let j = if up { i.checked_sub(1) } else { Some(i + 1) };
+                    if let Some(j) = j.filter(|&j| j < list.len()) {
+                        list.swap(i, j);
+                    }
+                }
+                if let Some(i) = p.cases.iter().position(|c| &c.name == name) {
+                    shift(&mut p.cases, i, *up);
+                } else if let Some(i) = p.combinations.iter().position(|c| &c.name == name) {
+                    shift(&mut p.combinations, i, *up);
+                } else {
+                    return Err(StudyError::Unknown(name.clone()));
+                }
+            }
+            Self::AddCombination => {
+                if p.cases.is_empty() {
+                    return Err(StudyError::Invalid(
+                        "add a load case before a combination".to_owned(),
+                    ));
+                }
+                let name = p.unused_name("combination");
+                let terms = p
+                    .cases
+                    .iter()
+                    .map(|c| Term {
+                        case: c.name.clone(),
+                        factor: 1.0,
+                    })
+                    .collect();
+                p.add_combination(
+                    Combination {
+                        name: name.clone(),
+                        terms,
+                    },
+                    false,
+                )?;
+                p.active = name;
+            }
+            Self::SetTerms { name, terms } => {
+                if !p.is_combination(name) {
+                    return Err(StudyError::Unknown(name.clone()));
+                }
+                p.add_combination(
+                    Combination {
+                        name: name.clone(),
+                        terms: terms.clone(),
+                    },
+                    true,
+                )?;
+            }
+            Self::SetDescription { name, text } => {
+                let case = p
+                    .cases
+                    .iter_mut()
+                    .find(|c| &c.name == name)
+                    .ok_or_else(|| StudyError::Unknown(name.clone()))?;
+                text.clone_into(&mut case.description);
+            }
+            Self::Replace(project) => p = (**project).clone(),
+        }
+        Ok(p)
+    }
+}
+
+fn active(p: &Project) -> Result<String, StudyError> {
+    p.active_name()
+        .map(str::to_owned)
+        .ok_or_else(|| StudyError::Invalid("the project has no load case".to_owned()))
+}
+
+/// `name (copy)`, `name (copy 2)`, … whichever is free.
+fn copy_name(p: &Project, name: &str) -> String {
+    std::iter::once(format!("{name} (copy)"))
+        .chain((2..=p.names().len() + 2).map(|i| format!("{name} (copy {i})")))
+        .find(|n| !p.name_used(n))
+        .unwrap_or_default()
+}
+
+fn rename(p: &mut Project, from: &str, to: &str) -> Result<(), StudyError> {
+    let to = to.trim();
+    if from == to {
+        return Ok(());
+    }
+    check_name(to)?;
+    if p.name_used(to) {
+        return Err(StudyError::Duplicate(to.to_owned()));
+    }
+    if let Some(case) = p.cases.iter_mut().find(|c| c.name == from) {
+        to.clone_into(&mut case.name);
+        for term in p.combinations.iter_mut().flat_map(|c| c.terms.iter_mut()) {
+            if term.case == from {
+                to.clone_into(&mut term.case);
+            }
+        }
+    } else if let Some(combination) = p.combinations.iter_mut().find(|c| c.name == from) {
+        to.clone_into(&mut combination.name);
+    } else {
+        return Err(StudyError::Unknown(from.to_owned()));
+    }
+    if p.active == from {
+        to.clone_into(&mut p.active);
+    }
+    Ok(())
+}
+
+fn delete(p: &mut Project, name: &str) -> Result<(), StudyError> {
+    let shown = p.active_name().map(str::to_owned);
+    if let Some(i) = p.cases.iter().position(|c| c.name == name) {
+        if p.cases.len() == 1 {
+            return Err(StudyError::Invalid(
+                "a project keeps at least one load case".to_owned(),
+            ));
+        }
+        for combination in &mut p.combinations {
+            combination.terms.retain(|t| t.case != name);
+            if combination.terms.is_empty() {
+                return Err(StudyError::Invalid(format!(
+                    "'{name}' is the only term of combination '{}': delete or change that combination first",
+                    combination.name
+                )));
+            }
+        }
+        p.cases.remove(i);
+    } else if let Some(i) = p.combinations.iter().position(|c| c.name == name) {
+        p.combinations.remove(i);
+    } else {
+        return Err(StudyError::Unknown(name.to_owned()));
+    }
+    if shown.as_deref() == Some(name) {
+        // Show the first load case instead.
+        p.active = p
+            .cases
+            .iter()
+            .map(|c| c.name.clone())
+            .next()
+            .unwrap_or_default();
+    }
+    Ok(())
+}

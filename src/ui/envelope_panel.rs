@@ -1,0 +1,212 @@
+//! The envelope tab: one measure over every load case and combination, worst first, with the
+//! governing one marked and a bar per row to compare at a glance. Clicking a row shows it.
+
+use crate::draw::map::MapMeasure;
+use crate::format::dip_text;
+use crate::mechanics::search::WorstCondition;
+use crate::session::{Command, Settings};
+use crate::study::{Derived, Edit, Envelope, EnvelopeMeasure, Project, envelope};
+
+/// The last envelope computed and what it was computed from.
+#[derive(Debug, Default)]
+pub struct EnvelopePanel {
+    cache: Option<((Project, EnvelopeMeasure), Result<Envelope, String>)>,
+}
+
+/// Every measure the envelope can rank by, in menu order.
+#[must_use]
+pub fn measures() -> Vec<EnvelopeMeasure> {
+    EnvelopeMeasure::keys()
+        .into_iter()
+        .filter_map(EnvelopeMeasure::from_key)
+        .collect()
+}
+
+impl EnvelopePanel {
+    /// The envelope for `project` and `measure`, computed once per change.
+    pub fn envelope(
+        &mut self,
+        project: &Project,
+        measure: EnvelopeMeasure,
+    ) -> &Result<Envelope, String> {
+        let fresh = matches!(&self.cache, Some((key, _)) if key.0 == *project && key.1 == measure);
+        if !fresh {
+            let result = envelope(
+                project,
+                measure,
+                &project.measure.settings(project.convention()),
+            )
+            .map_err(|e| e.to_string());
+            self.cache = Some(((project.clone(), measure), result));
+        }
+        match &self.cache {
+            Some((_, result)) => result,
+            None => &EMPTY,
+        }
+    }
+
+    /// Draws the tab.
+    pub fn ui(
+        &mut self,
+        ui: &mut egui::Ui,
+        project: &Project,
+        d: &Derived,
+        settings: &mut Settings,
+        out: &mut Vec<Command>,
+    ) {
+        ui.horizontal_wrapped(|ui| {
+            ui.label("Rank every load case and combination by");
+            egui::ComboBox::from_id_salt("envelope-measure")
+                .selected_text(settings.envelope_measure.key())
+                .show_ui(ui, |ui| {
+                    for m in measures() {
+                        ui.selectable_value(&mut settings.envelope_measure, m, m.key());
+                    }
+                })
+                .response
+                .widget_info(|| {
+                    egui::WidgetInfo::labeled(egui::Role::ComboBox, true, "Envelope measure")
+                });
+            ui.weak("(worst first; click a row to show it)");
+        });
+        let measure = settings.envelope_measure;
+        if matches!(measure, EnvelopeMeasure::Plane(m) if m.uses_friction()) {
+            ui.small(format!(
+                "Pore pressure, cohesion and friction angle from the worst-plane settings: p = {} {unit}, c = {} {unit}, φ = {}°",
+                crate::format::sig(d.unit.from_pa(project.measure.pore_pressure_pa), 5),
+                crate::format::sig(d.unit.from_pa(project.measure.cohesion_pa), 5),
+                crate::format::sig(project.measure.friction_angle_deg, 5),
+                unit = d.unit
+            ));
+        }
+        let shown = MapMeasure {
+            measure: match measure {
+                EnvelopeMeasure::Plane(m) => m,
+                _ => crate::mechanics::search::Measure::Shear,
+            },
+            unit: d.unit,
+            convention: d.convention,
+        };
+        let value_text = |v: f64| {
+            if measure.is_stress() {
+                format!("{} {}", crate::format::sig(d.unit.from_pa(v), 6), d.unit)
+            } else {
+                shown.value_text(v, 4)
+            }
+        };
+        let result = self.envelope(project, measure);
+        let env = match result {
+            Ok(env) => env.clone(),
+            Err(e) => {
+                ui.colored_label(ui.visuals().error_fg_color, format!("⚠ {e}"));
+                return;
+            }
+        };
+        let planes = matches!(measure, EnvelopeMeasure::Plane(_));
+        let largest = env
+            .rows
+            .iter()
+            .filter_map(|r| r.value)
+            .map(f64::abs)
+            .fold(0.0, f64::max);
+        egui::ScrollArea::vertical().show(ui, |ui| {
+            egui::Grid::new("envelope-rows")
+                .num_columns(if planes { 6 } else { 5 })
+                .striped(true)
+                .spacing([12.0, 6.0])
+                .show(ui, |ui| {
+                    let heads = [
+                        "#",
+                        "case or combination",
+                        "kind",
+                        "value",
+                        "",
+                        "worst plane",
+                    ];
+                    for head in &heads[..if planes { 6 } else { 5 }] {
+                        ui.strong(*head);
+                    }
+                    ui.end_row();
+                    for (i, row) in env.rows.iter().enumerate() {
+                        ui.label(format!("{}", i + 1));
+                        let governs = env.governing.as_deref() == Some(row.name.as_str());
+                        let text = if governs {
+                            egui::RichText::new(format!("{}  ◆ governs", row.name)).strong()
+                        } else {
+                            egui::RichText::new(&row.name)
+                        };
+                        if ui
+                            .selectable_label(row.name == d.name, text)
+                            .on_hover_text("Show this one in every view")
+                            .clicked()
+                            && row.name != d.name
+                        {
+                            out.push(Command::Edit {
+                                edit: Edit::Activate(row.name.clone()),
+                                coalesce: None,
+                            });
+                        }
+                        ui.label(if row.combination {
+                            "combination"
+                        } else {
+                            "load case"
+                        });
+                        match (row.value, row.condition) {
+                            (Some(v), _) => {
+                                ui.monospace(value_text(v));
+                            }
+                            (None, Some(WorstCondition::EffectiveTension)) => {
+                                ui.label("no frictional capacity (effective tension)");
+                            }
+                            (None, _) => {
+                                ui.label("undefined");
+                            }
+                        }
+                        bar(
+                            ui,
+                            row.value.map(|v| v.abs() / largest.max(f64::MIN_POSITIVE)),
+                            governs,
+                        );
+                        if planes {
+                            let first = row
+                                .planes
+                                .first()
+                                .map(|p| dip_text(p.dip_deg, p.dip_direction_deg))
+                                .unwrap_or_default();
+                            let more = row.planes.len().saturating_sub(1);
+                            if more > 0 {
+                                ui.label(format!("{first} (+{more} equivalent)"));
+                            } else {
+                                ui.label(first);
+                            }
+                        }
+                        ui.end_row();
+                    }
+                });
+        });
+    }
+}
+
+static EMPTY: Result<Envelope, String> = Err(String::new());
+
+/// A horizontal bar, `fraction` of its full width (none for an undefined value).
+fn bar(ui: &mut egui::Ui, fraction: Option<f64>, governs: bool) {
+    let (rect, _) = ui.allocate_exact_size(egui::vec2(120.0, 12.0), egui::Sense::hover());
+    let painter = ui.painter_at(rect);
+    painter.rect_stroke(
+        rect,
+        2.0,
+        egui::Stroke::new(1.0, ui.visuals().weak_text_color()),
+        egui::StrokeKind::Inside,
+    );
+    if let Some(f) = fraction {
+        let mut filled = rect;
+        filled.set_width(rect.width() * f.clamp(0.0, 1.0) as f32);
+        let color = if governs {
+            egui::Color32::from_rgb(200, 70, 50)
+        } else {
+            egui::Color32::from_rgb(90, 130, 190)
+        };
+        painter.rect_filled(filled, 2.0, color);
+    }
+}
