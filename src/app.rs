@@ -246,7 +246,12 @@ impl PlanewiseApp {
     /// Whether the project has changes not saved to its file.
     #[must_use]
     pub fn dirty(&self) -> bool {
+        // Which case is shown is saved in the file but is not a change worth a question.
         self.project != self.clean
+            && Project {
+                active: self.clean.active.clone(),
+                ..self.project.clone()
+            } != self.clean
     }
 
     /// The tensor of the shown case or combination (pascals, tension positive).
@@ -619,7 +624,13 @@ impl PlanewiseApp {
                     UNTITLED.clone_into(&mut next.name);
                 }
                 if next != self.project {
-                    self.history.record(&self.project, coalesce);
+                    // Showing another case is navigation, not a change: no undo step of its
+                    // own (undo of a later edit comes back to the case it was made on).
+                    if matches!(edit, Edit::Activate(_)) {
+                        self.history.break_run();
+                    } else {
+                        self.history.record(&self.project, coalesce);
+                    }
                     self.project = next;
                 }
                 if !matches!(
@@ -653,8 +664,9 @@ impl PlanewiseApp {
         self.plane_panel.reset();
     }
 
-    /// Writes the working copy when it has unsaved changes and the interval has passed.
-    fn autosave(&mut self, now: f64) {
+    /// Writes the working copy when it has unsaved changes and the interval has passed since
+    /// the last write (`now` in seconds on the window's clock; called every frame).
+    pub fn autosave(&mut self, now: f64) {
         let Some(dir) = self.autosave_dir.clone() else {
             return;
         };
@@ -943,14 +955,6 @@ pub fn run(
     project: Option<&Path>,
 ) -> anyhow::Result<()> {
     const HEADLESS: &str = "the headless subcommands analyze, figure, worst-plane, map and mohr need none (see planewise --help)";
-    if cfg!(target_os = "linux")
-        && std::env::var_os("DISPLAY").is_none()
-        && std::env::var_os("WAYLAND_DISPLAY").is_none()
-    {
-        anyhow::bail!(
-            "no display found (neither DISPLAY nor WAYLAND_DISPLAY is set), so the window cannot open; {HEADLESS}"
-        );
-    }
     // A project named on the command line must load before the window opens: a bad file is
     // said on one line, as for every other bad input.
     let project = project
@@ -960,6 +964,14 @@ pub fn run(
                 .map_err(|e| anyhow::anyhow!(e))
         })
         .transpose()?;
+    if cfg!(target_os = "linux")
+        && std::env::var_os("DISPLAY").is_none()
+        && std::env::var_os("WAYLAND_DISPLAY").is_none()
+    {
+        anyhow::bail!(
+            "no display found (neither DISPLAY nor WAYLAND_DISPLAY is set), so the window cannot open; {HEADLESS}"
+        );
+    }
     let options = eframe::NativeOptions {
         viewport: egui::ViewportBuilder::default()
             .with_inner_size([1280.0, 800.0])

@@ -1,0 +1,325 @@
+//! The window on a project, through egui_kittest: load cases, combinations, the envelope, undo
+//! of structural edits, saving through the in-window path entry, the unsaved-changes question
+//! and the autosaved working copy.
+
+#![allow(
+    clippy::unwrap_used,
+    reason = "a test helper that fails should panic loudly"
+)]
+
+mod common;
+
+use std::path::PathBuf;
+
+use egui::accesskit::Role;
+use egui_kittest::Harness;
+use egui_kittest::kittest::{Queryable as _, by};
+use planewise::app::{DialogOutcome, Dialogs, PlanewiseApp, Settings};
+use planewise::mechanics::{Analysis, Component, SignConvention};
+use planewise::study::Project;
+
+/// Answers as a machine without a desktop portal or zenity does.
+struct NoDialogs;
+
+impl Dialogs for NoDialogs {
+    fn save_figure(&self, _suggested_name: &str) -> DialogOutcome {
+        DialogOutcome::Unavailable("test machine: no desktop portal".to_owned())
+    }
+    fn open_project(&self) -> DialogOutcome {
+        DialogOutcome::Unavailable("test machine: no desktop portal".to_owned())
+    }
+    fn save_project(&self, _suggested_name: &str) -> DialogOutcome {
+        DialogOutcome::Unavailable("test machine: no desktop portal".to_owned())
+    }
+}
+
+fn harness_on(app: PlanewiseApp) -> Harness<'static, PlanewiseApp> {
+    let mut h = Harness::builder()
+        .with_size(egui::vec2(1280.0, 1400.0))
+        .build_ui_state(|ui, app: &mut PlanewiseApp| app.show(ui), app);
+    h.run();
+    h
+}
+
+fn demo() -> Harness<'static, PlanewiseApp> {
+    harness_on(PlanewiseApp::demo(Box::new(NoDialogs)))
+}
+
+fn temp(name: &str) -> PathBuf {
+    let dir = std::env::temp_dir().join(format!("planewise-gui-project-{}", std::process::id()));
+    std::fs::create_dir_all(&dir).unwrap();
+    dir.join(name)
+}
+
+/// Replaces the text of the field whose accessible name starts with `name`.
+fn type_into(h: &mut Harness<'static, PlanewiseApp>, name: &str, text: &str) {
+    fn field<'a>(h: &'a Harness<'static, PlanewiseApp>, name: &'a str) -> egui_kittest::Node<'a> {
+        h.get(
+            by().role(Role::TextInput)
+                .predicate(move |n| n.label().is_some_and(|l| l.starts_with(name))),
+        )
+    }
+    field(h, name).focus();
+    h.run();
+    h.key_press_modifiers(egui::Modifiers::COMMAND, egui::Key::A);
+    h.key_press(egui::Key::Backspace);
+    h.run();
+    field(h, name).type_text(text);
+    h.run();
+}
+
+fn leave_text_field(h: &mut Harness<'static, PlanewiseApp>) {
+    h.key_press(egui::Key::Escape);
+    h.run();
+}
+
+#[test]
+fn add_a_case_edit_it_combine_and_the_envelope_marks_the_governing_row() {
+    let mut h = demo();
+    h.get_by_label("+ load case").click();
+    h.run();
+    assert_eq!(h.state().project.active, "case 1");
+    type_into(&mut h, "σxx", "400");
+    assert!((h.state().tensor().component_pa(Component::Xx) - 400e6).abs() < 1e-3);
+    leave_text_field(&mut h);
+    h.get_by_label("+ combination").click();
+    h.run();
+    let combination = h.state().project.active.clone();
+    assert_eq!(combination, "combination 1");
+    // Every case with factor 1: its tensor is the plain sum (superposition of tensors).
+    let p = &h.state().project;
+    let mut sum = [0.0; 6];
+    for case in &p.cases {
+        for (s, v) in sum
+            .iter_mut()
+            .zip(p.tensor(&case.name).unwrap().components_pa())
+        {
+            *s += v;
+        }
+    }
+    let got = h.state().tensor().components_pa();
+    for (a, b) in got.iter().zip(sum) {
+        assert!(
+            (a - b).abs() <= 1e-6 * b.abs().max(1.0),
+            "{got:?} vs {sum:?}"
+        );
+    }
+
+    h.get_by_label("Envelope").click();
+    h.run();
+    // The governing row is the largest von Mises over every case and combination, found here by
+    // a plain loop over the project.
+    let p = &h.state().project;
+    let worst = p
+        .names()
+        .into_iter()
+        .map(|(n, _)| {
+            let vm =
+                Analysis::new(&p.tensor(n).unwrap(), SignConvention::TensionPositive).von_mises_pa;
+            (n.to_owned(), vm)
+        })
+        .max_by(|a, b| a.1.total_cmp(&b.1))
+        .unwrap();
+    h.get_by_label(&format!("{}  ◆ governs", worst.0));
+    // Clicking a row shows it (the envelope's row is drawn after the cases list).
+    assert_eq!(h.get_all_by_label("dead").count(), 2);
+    h.get_all_by_label("dead").last().unwrap().click();
+    h.run();
+    assert_eq!(h.state().project.active, "dead");
+}
+
+#[test]
+fn combination_factors_and_terms_are_edited_in_the_window() {
+    let mut h = demo();
+    assert_eq!(h.state().project.active, "ULS 1");
+    // Remove the second term (live) of ULS 1: the combination is then 1.35 × dead.
+    assert_eq!(h.get_all_by_label("✕").count(), 2);
+    h.get_all_by_label("✕").nth(1).unwrap().click();
+    h.run();
+    let p = &h.state().project;
+    let dead = p.tensor("dead").unwrap().components_pa();
+    let uls = p.tensor("ULS 1").unwrap().components_pa();
+    for (u, d) in uls.iter().zip(dead) {
+        assert!((u - 1.35 * d).abs() <= 1e-9 * d.abs().max(1.0));
+    }
+    // One undo step brings the term back.
+    h.key_press_modifiers(egui::Modifiers::COMMAND, egui::Key::Z);
+    h.run();
+    assert_eq!(h.state().project, Project::demo());
+}
+
+#[test]
+fn undo_restores_a_deleted_case_and_its_terms() {
+    let mut h = demo();
+    h.get_by_label("thermal").click();
+    h.run();
+    h.get_by_label("Delete").click();
+    h.run();
+    let p = &h.state().project;
+    assert!(p.case("thermal").is_none());
+    assert!(
+        p.combination("ULS 2")
+            .unwrap()
+            .terms
+            .iter()
+            .all(|t| t.case != "thermal")
+    );
+    h.key_press_modifiers(egui::Modifiers::COMMAND, egui::Key::Z);
+    h.run();
+    let p = &h.state().project;
+    assert!(p.case("thermal").is_some());
+    assert_eq!(p.combination("ULS 2"), Project::demo().combination("ULS 2"));
+    // Once live is gone, dead is the only term of ULS 1: deleting it is refused with a message.
+    h.get_by_label("live").click();
+    h.run();
+    h.get_by_label("Delete").click();
+    h.run();
+    assert!(h.state().project.case("live").is_none());
+    h.get_by_label("dead").click();
+    h.run();
+    h.get_by_label("Delete").click();
+    h.run();
+    assert!(h.state().project.case("dead").is_some());
+    let status = h.state().status.clone().unwrap();
+    assert!(
+        status.error && status.text.contains("only term"),
+        "{status:?}"
+    );
+}
+
+#[test]
+fn save_through_the_path_entry_writes_a_file_the_command_line_reads() {
+    let mut h = demo();
+    h.get_by_label("dead").click();
+    h.run();
+    // Showing another case is navigation: no question on leaving, no undo step.
+    assert!(!h.state().dirty());
+    assert!(!h.state().history.can_undo());
+    type_into(&mut h, "σxx", "41");
+    leave_text_field(&mut h);
+    assert!(h.state().dirty());
+    assert!(h.state().title().starts_with("● "), "{}", h.state().title());
+    h.key_press_modifiers(egui::Modifiers::COMMAND, egui::Key::S);
+    // The dialog runs on a worker thread; wait for its answer.
+    for _ in 0..2000 {
+        h.step();
+        if h.state().file_prompt.purpose.is_some() {
+            break;
+        }
+        std::thread::sleep(std::time::Duration::from_millis(5));
+    }
+    h.run();
+    h.get_by_label_contains("No file dialog is available (test machine");
+    let path = temp("saved.json");
+    let _ = std::fs::remove_file(&path);
+    type_into(&mut h, "Project file path", path.to_str().unwrap());
+    h.get_by_label("Save").click();
+    h.run();
+    assert!(!h.state().dirty(), "{:?}", h.state().status);
+    assert_eq!(h.state().file.as_deref(), Some(path.as_path()));
+    assert!(!h.state().title().starts_with('●'));
+    assert_eq!(h.state().settings.recent.first(), Some(&path));
+
+    let out = common::planewise(&["project", "show", path.to_str().unwrap(), "--json"]);
+    assert!(
+        out.status.success(),
+        "{}",
+        String::from_utf8_lossy(&out.stderr)
+    );
+    let shown: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
+    let text = shown.to_string();
+    for name in ["dead", "live", "thermal", "ULS 1", "ULS 2"] {
+        assert!(text.contains(name), "{name} missing in {text}");
+    }
+    // The saved file loads back equal to the window's project.
+    let (loaded, warnings) = planewise::study::load(&path).unwrap();
+    assert!(warnings.is_empty());
+    assert_eq!(loaded, h.state().project);
+}
+
+#[test]
+fn leaving_with_unsaved_changes_asks_first() {
+    let mut h = demo();
+    h.get_by_label("dead").click();
+    h.run();
+    type_into(&mut h, "σxx", "41");
+    leave_text_field(&mut h);
+    let edited = h.state().project.clone();
+    h.key_press_modifiers(egui::Modifiers::COMMAND, egui::Key::N);
+    h.run();
+    h.get_by_label_contains("has changes that are not saved");
+    h.get_by_label("Cancel").click();
+    h.run();
+    assert_eq!(h.state().project, edited);
+    h.key_press_modifiers(egui::Modifiers::COMMAND, egui::Key::N);
+    h.run();
+    h.get_by_label("Don't save").click();
+    h.run();
+    let p = &h.state().project;
+    assert_eq!(p.name, planewise::app::UNTITLED);
+    assert_eq!(p.cases.len(), 1);
+    assert!(!h.state().dirty());
+    assert!(!h.state().history.can_undo());
+}
+
+#[test]
+fn the_autosaved_working_copy_is_offered_back_after_a_crash() {
+    let dir = temp("autosave");
+    let _ = std::fs::remove_dir_all(&dir);
+    let mut app = PlanewiseApp::demo(Box::new(NoDialogs));
+    app.set_autosave_dir(Some(dir.clone()));
+    let mut h = harness_on(app);
+    h.get_by_label("dead").click();
+    h.run();
+    type_into(&mut h, "σxx", "41");
+    leave_text_field(&mut h);
+    // Nothing is written before the interval has passed…
+    h.state_mut().autosave(1.0);
+    assert!(planewise::autosave::read(&dir).is_none());
+    // …and the working copy after it.
+    h.state_mut()
+        .autosave(planewise::autosave::INTERVAL_S + 1.0);
+    let edited = h.state().project.clone();
+    let copy = planewise::autosave::read(&dir).unwrap();
+    assert_eq!(copy.project, edited);
+    drop(h); // the "crash": no clean exit, so the copy stays
+
+    let mut app = PlanewiseApp::new(
+        Project::demo(),
+        None,
+        Settings::default(),
+        Box::new(NoDialogs),
+    );
+    app.set_autosave_dir(Some(dir.clone()));
+    app.recovery = planewise::autosave::read(&dir);
+    let mut h = harness_on(app);
+    h.get_by_label_contains("did not close normally");
+    h.get_by_label("Recover").click();
+    h.run();
+    assert_eq!(h.state().project, edited);
+    assert!(h.state().dirty(), "recovered work counts as unsaved");
+    let _ = std::fs::remove_dir_all(&dir);
+}
+
+#[test]
+fn the_window_refuses_a_bad_project_file_in_one_line_before_opening() {
+    let path = temp("not-a-project.json");
+    std::fs::write(&path, "{ this is not json").unwrap();
+    let out = std::process::Command::new(env!("CARGO_BIN_EXE_planewise"))
+        .arg("--project")
+        .arg(&path)
+        .env_remove("DISPLAY")
+        .env_remove("WAYLAND_DISPLAY")
+        .output()
+        .unwrap();
+    assert_eq!(out.status.code(), Some(1));
+    let stderr = String::from_utf8_lossy(&out.stderr);
+    assert_eq!(stderr.trim_end().lines().count(), 1, "{stderr}");
+    assert!(stderr.contains("not-a-project.json"), "{stderr}");
+    assert!(stderr.contains("not a Planewise project file"), "{stderr}");
+    // The file is left as it was.
+    assert_eq!(
+        std::fs::read_to_string(&path).unwrap(),
+        "{ this is not json"
+    );
+}
