@@ -876,8 +876,13 @@ impl PlanewiseApp {
                     ui::mohr_panel::mohr_ui(ui, &d, &mut self.settings, &mut commands);
                 }
                 Central::Envelope => {
-                    self.envelope_panel
-                        .ui(ui, &self.project, &d, &mut self.settings, &mut commands)
+                    self.envelope_panel.ui(
+                        ui,
+                        &self.project,
+                        &d,
+                        &mut self.settings,
+                        &mut commands,
+                    );
                 }
             }
         });
