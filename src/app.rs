@@ -300,20 +300,33 @@ impl PlanewiseApp {
     /// and the command line.
     #[must_use]
     pub fn export_frame(&self) -> crate::draw::Frame {
+        use crate::study::figures::{self, FigureInput};
         let [w, h] = self.settings.export_size;
         let d = Derived::new(&self.project);
         let settings = &self.settings;
+        let input = FigureInput::from_derived(&d, settings.mohr_envelope);
         let sizes = crate::draw::Sizes::for_export(w as f32, h as f32);
         match settings.central {
-            Central::View3d | Central::Envelope => {
-                let worst = ui::view_panel::worst_normals(&d, settings);
-                crate::draw::figure(&self.scene_input(&d, &worst), &settings.camera, w, h)
-            }
-            Central::Map => ui::map_panel::map_figure(&d, 256, w, h, sizes),
-            Central::Mohr => {
-                crate::draw::mohr::mohr_frame(&ui::mohr_panel::figure(&d, settings), w, h, sizes)
-            }
+            Central::View3d | Central::Envelope => figures::view_3d(
+                &input,
+                settings.layers,
+                settings.faces,
+                &settings.camera,
+                w,
+                h,
+            ),
+            Central::Map => figures::map(&input, &d.search, 256, w, h, sizes),
+            Central::Mohr => figures::mohr(&input, w, h, sizes),
         }
+    }
+
+    /// The title exported figures carry: project, shown case and the caution.
+    #[must_use]
+    pub fn export_title(&self) -> String {
+        crate::study::figures::title(Some((
+            &self.project.name,
+            self.project.active_name().unwrap_or_default(),
+        )))
     }
 
     fn set_status(&mut self, text: impl Into<String>, error: bool) {
@@ -327,9 +340,7 @@ impl PlanewiseApp {
     /// status bar and in the export window.
     pub fn export_to(&mut self, path: &Path) {
         let frame = self.export_frame();
-        let shown = self.project.active_name().unwrap_or_default();
-        let title = format!("{} — {shown} — {}", self.project.name, crate::SAFETY_NOTE);
-        match crate::export::write_figure(path, &frame, &title) {
+        match crate::export::write_figure(path, &frame, &self.export_title()) {
             Ok(()) => {
                 self.export_panel.error = None;
                 self.set_status(format!("Figure written to {}", path.display()), false);

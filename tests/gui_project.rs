@@ -323,3 +323,63 @@ fn the_window_refuses_a_bad_project_file_in_one_line_before_opening() {
         "{ this is not json"
     );
 }
+
+#[test]
+fn window_export_and_the_command_line_give_identical_svg_for_a_project() {
+    use planewise::app::Central;
+    let project_path = temp("same-figures.json");
+    let mut project = Project::demo();
+    // A measure with a material, so that the map, the worst planes and the Mohr envelope all
+    // depend on what the project stores.
+    project.measure.measure = planewise::mechanics::search::Measure::MohrCoulomb;
+    project.measure.pore_pressure_pa = 2e6;
+    planewise::study::save(&project_path, &project).unwrap();
+    let (project, _) = planewise::study::load(&project_path).unwrap();
+    let mut app = PlanewiseApp::new(
+        project,
+        Some(project_path.clone()),
+        Settings::default(),
+        Box::new(NoDialogs),
+    );
+    for (tab, subcommand) in [
+        (Central::View3d, "figure"),
+        (Central::Map, "map"),
+        (Central::Mohr, "mohr"),
+    ] {
+        app.settings.central = tab;
+        let from_window = temp(&format!("window-{subcommand}.svg"));
+        app.export_to(&from_window);
+        assert!(
+            app.status.as_ref().is_some_and(|s| !s.error),
+            "{:?}",
+            app.status
+        );
+        let from_cli = temp(&format!("cli-{subcommand}.svg"));
+        let out = common::planewise(&[
+            subcommand,
+            "--project",
+            project_path.to_str().unwrap(),
+            "--case",
+            "ULS 1",
+            "--size",
+            "1600x1200",
+            "--out",
+            from_cli.to_str().unwrap(),
+        ]);
+        assert!(
+            out.status.success(),
+            "{}",
+            String::from_utf8_lossy(&out.stderr)
+        );
+        let a = std::fs::read_to_string(&from_window).unwrap();
+        let b = std::fs::read_to_string(&from_cli).unwrap();
+        assert!(
+            a == b,
+            "{subcommand}: the window's SVG and the command line's differ"
+        );
+        assert!(
+            a.contains("ULS 1"),
+            "{subcommand}: the title names the case"
+        );
+    }
+}

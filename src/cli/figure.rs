@@ -4,13 +4,13 @@ use std::path::PathBuf;
 
 use clap::Args;
 
-use super::worst_plane::{MaterialArgs, no_material, parse_measure, search_settings};
-use super::{ArgError, CliError, PlaneArgs, StressArgs};
+use super::worst_plane::{MaterialArgs, no_material, parse_measure, search_settings_in};
+use super::{ArgError, CliError, PlaneArgs, ProjectView, StressArgs};
 use crate::draw::camera::{Camera, Projection, ViewPreset};
 use crate::export::{self, ImageFormat};
-use crate::mechanics::PlaneNormal;
 use crate::mechanics::search::worst_plane;
-use crate::scene::{FaceChoice, Layers, SceneInput};
+use crate::scene::{FaceChoice, Layers};
+use crate::study::figures::{self, FigureInput};
 
 /// Arguments of `planewise figure`.
 #[derive(Debug, Clone, Args)]
@@ -95,7 +95,8 @@ pub fn parse_layers(text: &str) -> Result<Layers, ArgError> {
 /// Runs the subcommand; prints the path written.
 pub fn run(args: &FigureArgs) -> Result<String, CliError> {
     let input = args.stress.read()?;
-    let plane = args.plane.read()?;
+    let view = args.stress.project_view()?;
+    let plane = args.plane.read()?.or(view.as_ref().map(|v| v.plane));
     let (w, h) = parse_size(&args.size)?;
     let preset = ViewPreset::from_key(&args.view).ok_or_else(|| {
         ArgError::new(
@@ -111,36 +112,37 @@ pub fn run(args: &FigureArgs) -> Result<String, CliError> {
         Some(list) => parse_layers(list)?,
         None => Layers::default(),
     };
-    if plane.is_none() {
-        layers.cut_plane = false;
-    }
     let mut camera = Camera::from_preset(preset);
     if args.perspective {
         camera.projection = Projection::Perspective;
     }
-    let worst: Vec<PlaneNormal> = if let Some(key) = &args.measure {
-        let settings = search_settings(parse_measure(key)?, &args.material, &input, false)?;
+    let (search, worst) = if let Some(key) = &args.measure {
+        let settings = search_settings_in(
+            parse_measure(key)?,
+            &args.material,
+            &input,
+            false,
+            view.as_ref(),
+        )?;
         layers.worst_planes = true;
-        worst_plane(&input.tensor, &settings)
-            .map_err(|e| ArgError::new("--measure", e))?
-            .planes
-            .iter()
-            .map(|p| p.normal)
-            .collect()
+        let result =
+            worst_plane(&input.tensor, &settings).map_err(|e| ArgError::new("--measure", e))?;
+        (Some(settings), Some(result))
     } else {
         no_material(&args.material, &input)?;
-        Vec::new()
+        (None, None)
     };
-    let scene_input = SceneInput {
-        tensor: &input.tensor,
-        plane: plane.unwrap_or(PlaneNormal::Z),
+    let figure = FigureInput {
+        tensor: input.tensor,
         unit: input.unit,
         convention: input.convention,
-        layers,
-        faces: FaceChoice::FacingViewer,
-        worst_planes: &worst,
+        plane,
+        search,
+        worst,
+        envelope: None,
     };
-    let frame = crate::draw::figure(&scene_input, &camera, w, h);
-    export::write_figure(&args.out, &frame, crate::SAFETY_NOTE).map_err(anyhow::Error::from)?;
+    let frame = figures::view_3d(&figure, layers, FaceChoice::FacingViewer, &camera, w, h);
+    export::write_figure(&args.out, &frame, &ProjectView::title(view.as_ref()))
+        .map_err(anyhow::Error::from)?;
     Ok(format!("wrote {}\n", args.out.display()))
 }

@@ -7,12 +7,10 @@ use clap::Args;
 
 use super::figure::parse_size;
 use super::worst_plane::MeasureArgs;
-use super::{ArgError, CliError, PlaneArgs, StressArgs};
-use crate::draw::map::{MapMarks, MapMeasure, map_frame};
+use super::{ArgError, CliError, PlaneArgs, ProjectView, StressArgs};
 use crate::export::{self, ImageFormat};
-use crate::mechanics::Analysis;
 use crate::mechanics::search::worst_plane;
-use crate::mechanics::stereonet::orientation_map;
+use crate::study::figures::{self, FigureInput};
 
 /// Arguments of `planewise map`.
 #[derive(Debug, Clone, Args)]
@@ -37,8 +35,9 @@ pub struct MapArgs {
 /// Runs the subcommand.
 pub fn run(args: &MapArgs) -> Result<String, CliError> {
     let input = args.stress.read()?;
-    let settings = args.measure.read(&input)?;
-    let plane = args.plane.read()?;
+    let view = args.stress.project_view()?;
+    let settings = args.measure.read(&input, view.as_ref())?;
+    let plane = args.plane.read()?.or(view.as_ref().map(|v| v.plane));
     let (w, h) = parse_size(&args.size)?;
     let resolution: usize = args
         .resolution
@@ -56,28 +55,25 @@ pub fn run(args: &MapArgs) -> Result<String, CliError> {
             )
         })?;
     ImageFormat::from_path(&args.out).map_err(|e| ArgError::new("--out", e))?;
-    let map = orientation_map(&input.tensor, &settings, resolution);
     let worst = worst_plane(&input.tensor, &settings).map_err(|e| ArgError::new("--measure", e))?;
-    let shown = Analysis::new(&input.tensor, input.convention);
-    let marks = MapMarks {
-        principal: shown.principal.directions,
-        plane,
-        worst: worst.planes.iter().map(|p| p.normal).collect(),
-        cone: worst.cone,
-    };
-    let what = MapMeasure {
-        measure: settings.measure,
+    let figure = FigureInput {
+        tensor: input.tensor,
         unit: input.unit,
         convention: input.convention,
+        plane,
+        search: Some(settings),
+        worst: Some(worst),
+        envelope: None,
     };
-    let frame = map_frame(
-        &map,
-        &marks,
-        &what,
+    let frame = figures::map(
+        &figure,
+        &settings,
+        resolution,
         w,
         h,
         crate::draw::Sizes::for_export(w as f32, h as f32),
     );
-    export::write_figure(&args.out, &frame, crate::SAFETY_NOTE).map_err(anyhow::Error::from)?;
+    export::write_figure(&args.out, &frame, &ProjectView::title(view.as_ref()))
+        .map_err(anyhow::Error::from)?;
     Ok(format!("wrote {}\n", args.out.display()))
 }

@@ -137,6 +137,45 @@ impl StressArgs {
     }
 }
 
+/// What a project gives the figure and plane subcommands besides the tensor: its name and the
+/// case for titles, and the saved cut plane and measure, used wherever the command line does not
+/// say otherwise — so `figure|map|mohr --project F --case C` draw what the window shows.
+#[derive(Debug, Clone)]
+pub struct ProjectView {
+    /// The project's name.
+    pub name: String,
+    /// The load case or combination.
+    pub case: String,
+    /// The saved cut plane.
+    pub plane: crate::mechanics::PlaneNormal,
+    /// The saved measure, pore pressure and material.
+    pub measure: crate::study::MeasureChoice,
+}
+
+impl ProjectView {
+    /// The figure title (project, case and the caution).
+    #[must_use]
+    pub fn title(view: Option<&Self>) -> String {
+        crate::study::figures::title(view.map(|v| (v.name.as_str(), v.case.as_str())))
+    }
+}
+
+impl StressArgs {
+    /// The project's names, cut plane and measure with `--project`, else `None`.
+    pub fn project_view(&self) -> Result<Option<ProjectView>, ArgError> {
+        let (Some(file), Some(case)) = (&self.project, &self.case) else {
+            return Ok(None);
+        };
+        let (project, _) = crate::study::load(file).map_err(|e| ArgError::new("--project", e))?;
+        Ok(Some(ProjectView {
+            name: project.name,
+            case: case.clone(),
+            plane: project.plane,
+            measure: project.measure,
+        }))
+    }
+}
+
 /// The tensor, unit and convention read from [`StressArgs`].
 #[derive(Debug, Clone, Copy)]
 pub struct StressInput {

@@ -6,13 +6,14 @@ use std::path::PathBuf;
 use clap::Args;
 
 use super::figure::parse_size;
-use super::worst_plane::{MaterialArgs, parse_measure, search_settings};
-use super::{ArgError, CliError, PlaneArgs, StressArgs};
+use super::worst_plane::{MaterialArgs, parse_measure, search_settings_in};
+use super::{ArgError, CliError, PlaneArgs, ProjectView, StressArgs};
 use crate::draw::Sizes;
-use crate::draw::mohr::{Envelope, MohrFigure, MohrPoint, mohr_frame, worst_label, worst_points};
+use crate::draw::mohr::Envelope;
 use crate::export::{self, ImageFormat};
-use crate::mechanics::mohr::MohrCircles;
-use crate::mechanics::search::worst_plane;
+use crate::mechanics::criteria::MohrCoulomb;
+use crate::mechanics::search::{Measure, worst_plane};
+use crate::study::figures::{self, FigureInput};
 
 /// Arguments of `planewise mohr`.
 #[derive(Debug, Clone, Args)]
@@ -22,7 +23,7 @@ pub struct MohrArgs {
     #[command(flatten)]
     pub plane: PlaneArgs,
     /// Mark the worst planes for this measure (shear, normal-max, normal-min, traction,
-    /// slip-tendency, dilation-tendency, mohr-coulomb).
+    /// slip-tendency, dilation-tendency, mohr-coulomb). [default with --project: the project's]
     #[arg(long, value_name = "MEASURE")]
     pub measure: Option<String>,
     /// Draws the Mohr–Coulomb envelope when --cohesion and --friction-angle are given.
@@ -36,36 +37,57 @@ pub struct MohrArgs {
     pub size: String,
 }
 
-/// Runs the subcommand.
+/// Runs the subcommand. With `--project`, the project's cut plane, measure and (for the
+/// mohr-coulomb measure) material are used where the command line does not give them.
 pub fn run(args: &MohrArgs) -> Result<String, CliError> {
     let input = args.stress.read()?;
-    let plane = args.plane.read()?;
-    let measure = args.measure.as_deref().map(parse_measure).transpose()?;
-    let (pore_pressure_pa, material) = args.material.read(input.unit, measure, true)?;
-    let (w, h) = parse_size(&args.size)?;
-    ImageFormat::from_path(&args.out).map_err(|e| ArgError::new("--out", e))?;
-    let circles = MohrCircles::new(&input.tensor, input.convention);
-    let (worst, worst_label) = match measure {
-        Some(measure) => {
-            let settings = search_settings(measure, &args.material, &input, true)?;
-            let result =
-                worst_plane(&input.tensor, &settings).map_err(|e| ArgError::new("--measure", e))?;
-            (worst_points(&result.planes), worst_label(&result))
-        }
-        None => (Vec::new(), String::new()),
+    let view = args.stress.project_view()?;
+    let plane = args.plane.read()?.or(view.as_ref().map(|v| v.plane));
+    let measure = match (&args.measure, &view) {
+        (Some(key), _) => Some(parse_measure(key)?),
+        (None, Some(v)) => Some(v.measure.measure),
+        (None, None) => None,
     };
-    let figure = MohrFigure {
-        circles,
-        unit: input.unit,
-        plane: plane.map(|n| MohrPoint::of_plane(&circles, &input.tensor, n, "cut plane")),
-        worst,
-        worst_label,
-        envelope: material.map(|material| Envelope {
+    let from_project = view.as_ref().filter(|_| !args.material.any());
+    let envelope = if let Some(v) = from_project {
+        // As the window: the project's material draws the envelope for its mohr-coulomb measure.
+        (measure == Some(Measure::MohrCoulomb))
+            .then(|| MohrCoulomb::new(v.measure.cohesion_pa, v.measure.friction_angle_deg).ok())
+            .flatten()
+            .map(|material| Envelope {
+                material,
+                pore_pressure_pa: v.measure.pore_pressure_pa,
+            })
+    } else {
+        let (pore_pressure_pa, material) = args.material.read(input.unit, measure, true)?;
+        material.map(|material| Envelope {
             material,
             pore_pressure_pa,
-        }),
+        })
     };
-    let frame = mohr_frame(&figure, w, h, Sizes::for_export(w as f32, h as f32));
-    export::write_figure(&args.out, &frame, crate::SAFETY_NOTE).map_err(anyhow::Error::from)?;
+    let (w, h) = parse_size(&args.size)?;
+    ImageFormat::from_path(&args.out).map_err(|e| ArgError::new("--out", e))?;
+    let (search, worst) = match measure {
+        Some(measure) => {
+            let settings =
+                search_settings_in(measure, &args.material, &input, true, view.as_ref())?;
+            let result =
+                worst_plane(&input.tensor, &settings).map_err(|e| ArgError::new("--measure", e))?;
+            (Some(settings), Some(result))
+        }
+        None => (None, None),
+    };
+    let figure = FigureInput {
+        tensor: input.tensor,
+        unit: input.unit,
+        convention: input.convention,
+        plane,
+        search,
+        worst,
+        envelope,
+    };
+    let frame = figures::mohr(&figure, w, h, Sizes::for_export(w as f32, h as f32));
+    export::write_figure(&args.out, &frame, &ProjectView::title(view.as_ref()))
+        .map_err(anyhow::Error::from)?;
     Ok(format!("wrote {}\n", args.out.display()))
 }

@@ -5,7 +5,7 @@ use std::fmt::Write as _;
 use clap::Args;
 use serde::Serialize;
 
-use super::{ArgError, CliError, StressArgs, StressInput};
+use super::{ArgError, CliError, ProjectView, StressArgs, StressInput};
 use crate::format::{clean, sig};
 use crate::mechanics::criteria::{CriterionError, MohrCoulomb};
 use crate::mechanics::search::{Measure, SearchSettings, WorstCondition, worst_plane};
@@ -29,7 +29,7 @@ pub struct MaterialArgs {
 
 impl MaterialArgs {
     /// Whether any of the three was given.
-    fn any(&self) -> bool {
+    pub(crate) fn any(&self) -> bool {
         self.pore_pressure.is_some() || self.cohesion.is_some() || self.friction_angle.is_some()
     }
 
@@ -151,6 +151,24 @@ pub fn search_settings(
     })
 }
 
+/// Like [`search_settings`]; with `--project` and no material argument, the project's pore
+/// pressure and material are used, as the window does.
+pub fn search_settings_in(
+    measure: Measure,
+    material: &MaterialArgs,
+    input: &StressInput,
+    envelope: bool,
+    view: Option<&ProjectView>,
+) -> Result<SearchSettings, ArgError> {
+    match view {
+        Some(v) if !material.any() => Ok(SearchSettings {
+            measure,
+            ..v.measure.settings(input.convention)
+        }),
+        _ => search_settings(measure, material, input, envelope),
+    }
+}
+
 /// Refuses material arguments when no measure uses them (commands whose measure is optional).
 pub fn no_material(material: &MaterialArgs, input: &StressInput) -> Result<(), ArgError> {
     if material.any() {
@@ -163,16 +181,33 @@ pub fn no_material(material: &MaterialArgs, input: &StressInput) -> Result<(), A
 #[derive(Debug, Clone, Args)]
 pub struct MeasureArgs {
     /// shear, normal-max, normal-min, traction, slip-tendency, dilation-tendency or mohr-coulomb.
+    /// [default with --project: the project's measure, pore pressure and material]
     #[arg(long, value_name = "MEASURE")]
-    pub measure: String,
+    pub measure: Option<String>,
     #[command(flatten)]
     pub material: MaterialArgs,
 }
 
 impl MeasureArgs {
-    /// Reads the measure and its parameters (stresses in `input.unit`).
-    pub fn read(&self, input: &StressInput) -> Result<SearchSettings, ArgError> {
-        search_settings(parse_measure(&self.measure)?, &self.material, input, false)
+    /// Reads the measure and its parameters (stresses in `input.unit`); with a project, what
+    /// the command line leaves out comes from it.
+    pub fn read(
+        &self,
+        input: &StressInput,
+        view: Option<&ProjectView>,
+    ) -> Result<SearchSettings, ArgError> {
+        let measure = match (&self.measure, view) {
+            (Some(key), _) => parse_measure(key)?,
+            (None, Some(v)) => v.measure.measure,
+            (None, None) => {
+                let keys: Vec<&str> = Measure::ALL.iter().map(|m| m.key()).collect();
+                return Err(ArgError::new(
+                    "--measure",
+                    format!("is required (one of {})", keys.join(", ")),
+                ));
+            }
+        };
+        search_settings_in(measure, &self.material, input, false, view)
     }
 }
 
@@ -254,7 +289,9 @@ fn condition_text(condition: WorstCondition, cone: Option<&ConeJson>, measure: M
 /// Runs the subcommand.
 pub fn run(args: &WorstPlaneArgs) -> Result<String, CliError> {
     let input = args.stress.read()?;
-    let settings = args.measure.read(&input)?;
+    let settings = args
+        .measure
+        .read(&input, args.stress.project_view()?.as_ref())?;
     let measure = settings.measure;
     let unit = input.unit;
     let result =

@@ -5,6 +5,7 @@
 pub mod derived;
 pub mod edit;
 pub mod envelope;
+pub mod figures;
 pub mod file;
 pub mod history;
 pub mod model;

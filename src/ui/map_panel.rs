@@ -3,11 +3,11 @@
 //! plane.
 
 use crate::draw::egui_backend;
-use crate::draw::map::{MapMarks, MapMeasure, disc_geometry, map_frame};
+use crate::draw::map::{MapMeasure, disc_geometry};
 use crate::format::{dip_text, sig};
 use crate::mechanics::PlaneNormal;
 use crate::mechanics::search::{Measure, WorstCondition};
-use crate::mechanics::stereonet::{orientation_map, pole_at};
+use crate::mechanics::stereonet::pole_at;
 use crate::session::{Coalesce, Command};
 use crate::study::{Derived, Edit, MeasureChoice};
 
@@ -184,19 +184,14 @@ pub fn map_figure(
     height: u32,
     sizes: crate::draw::Sizes,
 ) -> crate::draw::Frame {
-    let search = d.search;
-    let map = orientation_map(&d.tensor, &search, resolution);
-    let (worst, cone) = d
-        .worst
-        .as_ref()
-        .map_or_else(|_| (Vec::new(), None), |r| (r.planes.clone(), r.cone));
-    let marks = MapMarks {
-        principal: d.analysis.principal.directions,
-        plane: Some(d.plane),
-        worst: worst.iter().map(|p| p.normal).collect(),
-        cone,
-    };
-    map_frame(&map, &marks, &map_measure(d), width, height, sizes)
+    crate::study::figures::map(
+        &crate::study::figures::FigureInput::from_derived(d, false),
+        &d.search,
+        resolution,
+        width,
+        height,
+        sizes,
+    )
 }
 
 /// The measure of the map in the window's unit and convention.

@@ -3,48 +3,18 @@
 //! plane; clicking or dragging inside the shaded region moves the cut plane to a plane with
 //! that (σn, τ).
 
-use crate::draw::mohr::{
-    Envelope, MohrFigure, MohrLayout, MohrPoint, mohr_frame, worst_label, worst_points,
-};
+use crate::draw::mohr::{MohrFigure, MohrLayout, MohrPoint, mohr_frame};
 use crate::draw::{Sizes, egui_backend};
 use crate::format::sig;
-use crate::mechanics::criteria::MohrCoulomb;
-use crate::mechanics::mohr::MohrCircles;
 use crate::mechanics::search::Measure;
 use crate::session::{Coalesce, Command, Settings};
+use crate::study::figures::FigureInput;
 use crate::study::{Derived, Edit};
 
 /// The figure for the current state, as the tab and its export show it.
 #[must_use]
 pub fn figure(d: &Derived, settings: &Settings) -> MohrFigure {
-    let circles = MohrCircles::new(&d.tensor, d.convention);
-    let (worst, worst_label) = d
-        .worst
-        .as_ref()
-        .map(|r| (worst_points(&r.planes), worst_label(r)))
-        .unwrap_or_default();
-    let choice = &d.measure;
-    let show_envelope = settings.mohr_envelope || choice.measure == Measure::MohrCoulomb;
-    let envelope = show_envelope
-        .then(|| MohrCoulomb::new(choice.cohesion_pa, choice.friction_angle_deg).ok())
-        .flatten()
-        .map(|material| Envelope {
-            material,
-            pore_pressure_pa: choice.pore_pressure_pa,
-        });
-    MohrFigure {
-        circles,
-        unit: d.unit,
-        plane: Some(MohrPoint::of_plane(
-            &circles,
-            &d.tensor,
-            d.plane,
-            "cut plane",
-        )),
-        worst,
-        worst_label,
-        envelope,
-    }
+    crate::study::figures::mohr_figure(&FigureInput::from_derived(d, settings.mohr_envelope))
 }
 
 /// The point of `figure` within `radius_px` of `at` (the cut plane first), if any.

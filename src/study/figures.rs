@@ -1,0 +1,166 @@
+//! One builder per figure — the 3D view, the orientation map, the Mohr circles — from the state
+//! and the view options to a [`Frame`]. The window's tabs, its export and Copy figure, and the
+//! `figure`, `map` and `mohr` subcommands all draw through these, so the same project and
+//! options give the same picture and the same titles everywhere.
+
+use super::derived::Derived;
+use crate::draw::Frame;
+use crate::draw::camera::Camera;
+use crate::draw::map::{MapMarks, MapMeasure, map_frame};
+use crate::draw::mohr::{Envelope, MohrFigure, MohrPoint, mohr_frame, worst_label, worst_points};
+use crate::mechanics::criteria::MohrCoulomb;
+use crate::mechanics::mohr::MohrCircles;
+use crate::mechanics::search::{Measure, SearchResult, SearchSettings};
+use crate::mechanics::stereonet::orientation_map;
+use crate::mechanics::{Analysis, PlaneNormal, SignConvention, StressTensor, StressUnit};
+use crate::scene::{FaceChoice, Layers, SceneInput};
+
+/// What every figure shows.
+#[derive(Clone, Debug, PartialEq)]
+pub struct FigureInput {
+    /// The tensor (pascals, tension positive).
+    pub tensor: StressTensor,
+    /// Display unit.
+    pub unit: StressUnit,
+    /// Display convention.
+    pub convention: SignConvention,
+    /// The cut plane, if one is drawn.
+    pub plane: Option<PlaneNormal>,
+    /// The worst-plane measure and its parameters, if any.
+    pub search: Option<SearchSettings>,
+    /// The worst planes of `search`, if they are marked.
+    pub worst: Option<SearchResult>,
+    /// The Mohr–Coulomb envelope on the Mohr circles, if drawn.
+    pub envelope: Option<Envelope>,
+}
+
+impl FigureInput {
+    /// The window's shown state. The envelope is drawn on the Mohr circles when `envelope` is
+    /// asked for or the measure is Mohr–Coulomb.
+    #[must_use]
+    pub fn from_derived(d: &Derived, envelope: bool) -> Self {
+        let choice = &d.measure;
+        let envelope = (envelope || choice.measure == Measure::MohrCoulomb)
+            .then(|| MohrCoulomb::new(choice.cohesion_pa, choice.friction_angle_deg).ok())
+            .flatten()
+            .map(|material| Envelope {
+                material,
+                pore_pressure_pa: choice.pore_pressure_pa,
+            });
+        Self {
+            tensor: d.tensor,
+            unit: d.unit,
+            convention: d.convention,
+            plane: Some(d.plane),
+            search: Some(d.search),
+            worst: d.worst.as_ref().ok().cloned(),
+            envelope,
+        }
+    }
+
+    /// The worst planes' normals (empty when none are marked).
+    #[must_use]
+    pub fn worst_normals(&self) -> Vec<PlaneNormal> {
+        self.worst
+            .as_ref()
+            .map(|r| r.planes.iter().map(|p| p.normal).collect())
+            .unwrap_or_default()
+    }
+}
+
+/// The title written into exported figures: the project and case when there is one, and the
+/// caution.
+#[must_use]
+pub fn title(project_and_case: Option<(&str, &str)>) -> String {
+    match project_and_case {
+        Some((project, case)) => format!("{project} — {case} — {}", crate::SAFETY_NOTE),
+        None => crate::SAFETY_NOTE.to_owned(),
+    }
+}
+
+/// The 3D view: the cube with face tractions, the cut plane (when there is one and the layer
+/// is on), principal axes, and the worst planes when that layer is on.
+#[must_use]
+pub fn view_3d(
+    input: &FigureInput,
+    layers: Layers,
+    faces: FaceChoice,
+    camera: &Camera,
+    width: u32,
+    height: u32,
+) -> Frame {
+    let mut layers = layers;
+    if input.plane.is_none() {
+        layers.cut_plane = false;
+    }
+    let worst = if layers.worst_planes {
+        input.worst_normals()
+    } else {
+        Vec::new()
+    };
+    let scene = SceneInput {
+        tensor: &input.tensor,
+        plane: input.plane.unwrap_or(PlaneNormal::Z),
+        unit: input.unit,
+        convention: input.convention,
+        layers,
+        faces,
+        worst_planes: &worst,
+    };
+    crate::draw::figure(&scene, camera, width, height)
+}
+
+/// The orientation map of `search` with the principal directions, the cut plane and the worst
+/// planes marked.
+#[must_use]
+pub fn map(
+    input: &FigureInput,
+    search: &SearchSettings,
+    resolution: usize,
+    width: u32,
+    height: u32,
+    sizes: crate::draw::Sizes,
+) -> Frame {
+    let values = orientation_map(&input.tensor, search, resolution);
+    let shown = Analysis::new(&input.tensor, input.convention);
+    let marks = MapMarks {
+        principal: shown.principal.directions,
+        plane: input.plane,
+        worst: input.worst_normals(),
+        cone: input.worst.as_ref().and_then(|r| r.cone),
+    };
+    let what = MapMeasure {
+        measure: search.measure,
+        unit: input.unit,
+        convention: input.convention,
+    };
+    map_frame(&values, &marks, &what, width, height, sizes)
+}
+
+/// The Mohr circles' content: circles, the cut plane's point, the worst planes' points and the
+/// envelope.
+#[must_use]
+pub fn mohr_figure(input: &FigureInput) -> MohrFigure {
+    let circles = MohrCircles::new(&input.tensor, input.convention);
+    let (worst, worst_label) = input
+        .worst
+        .as_ref()
+        .map(|r| (worst_points(&r.planes), worst_label(r)))
+        .unwrap_or_default();
+    MohrFigure {
+        circles,
+        unit: input.unit,
+        plane: input
+            .plane
+            .map(|n| MohrPoint::of_plane(&circles, &input.tensor, n, "cut plane")),
+        worst,
+        worst_label,
+        envelope: input.envelope,
+    }
+}
+
+/// The Mohr circles as a frame.
+#[must_use]
+pub fn mohr(input: &FigureInput, width: u32, height: u32, sizes: crate::draw::Sizes) -> Frame {
+    mohr_frame(&mohr_figure(input), width, height, sizes)
+}
