@@ -119,7 +119,9 @@ fn general() -> impl Strategy<Value = StressTensor> {
         .prop_map(|c| StressTensor::from_pa(c.map(|v| v * MPA)).unwrap())
 }
 
-fn check(t: &StressTensor, s: &SearchSettings) -> Result<(), TestCaseError> {
+/// The search's value is at least the brute force's, and every plane it names attains it. With
+/// `close`, the two must also agree to 1e-9: the brute force reaches the maximum.
+fn check(t: &StressTensor, s: &SearchSettings, close: bool) -> Result<(), TestCaseError> {
     let result = worst_plane(t, s).unwrap();
     if result.condition != WorstCondition::Defined {
         return Ok(());
@@ -142,7 +144,7 @@ fn check(t: &StressTensor, s: &SearchSettings) -> Result<(), TestCaseError> {
         s.measure
     );
     prop_assert!(
-        (ours - sampled).abs() <= 1e-9 * sampled.abs().max(1e-3 * scale),
+        !close || (ours - sampled).abs() <= 1e-9 * sampled.abs().max(1e-3 * scale),
         "{:?}: {ours} vs {sampled}",
         s.measure
     );
@@ -169,12 +171,14 @@ proptest! {
         phi in 10.0..45.0_f64,
     ) {
         // Two nearly equal principal stresses make the worst planes an almost-flat ridge around
-        // a cone: the brute force's zoom then stops wherever it met the ridge, up to ~1e-6 below
-        // the maximum (proptest found 3 kPa apart at 85 MPa). Such states are left to the cone
-        // tests; the search is still checked here on every state with distinct values.
+        // a cone: the brute force's zoom then stops wherever it met the ridge, up to ~1e-5 below
+        // the maximum (proptest found 95.41 and 95.26 MPa). There the search is only held to
+        // beating the brute force and attaining its value; closeness is asserted when the
+        // principal stresses are at least 5 % apart.
         let values = planewise::mechanics::principal_values_pa(&t);
         let spread = values[2].abs().max(values[0].abs());
-        prop_assume!((values[1] - values[0]).abs() > 1e-3 * spread && (values[2] - values[1]).abs() > 1e-3 * spread);
+        let close = (values[1] - values[0]).abs() > 0.05 * spread
+            && (values[2] - values[1]).abs() > 0.05 * spread;
         let least = values[0].abs();
         let pore = p_frac * least;
         for measure in [Measure::SlipTendency, Measure::MohrCoulomb] {
@@ -184,7 +188,7 @@ proptest! {
                 pore_pressure_pa: pore,
                 material: Some(MohrCoulomb::new(c * MPA, phi).unwrap()),
             };
-            check(&t, &s)?;
+            check(&t, &s, close)?;
         }
     }
 
@@ -193,7 +197,7 @@ proptest! {
         for measure in [Measure::Shear, Measure::NormalMax, Measure::NormalMin, Measure::Traction, Measure::DilationTendency] {
             for convention in [SignConvention::TensionPositive, SignConvention::CompressionPositive] {
                 let s = SearchSettings { measure, convention, pore_pressure_pa: 0.0, material: None };
-                check(&t, &s)?;
+                check(&t, &s, true)?;
                 let closed = worst_plane(&t, &s).unwrap().value.unwrap();
                 let numeric = numerical_value(&t, &s).unwrap();
                 let scale = if measure.is_stress() { 100.0 * MPA } else { 1.0 };

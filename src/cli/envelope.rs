@@ -19,10 +19,10 @@ pub struct EnvelopeArgs {
     /// The project file.
     #[arg(long, value_name = "FILE")]
     pub project: PathBuf,
-    /// von-mises, tresca, max-shear, sigma1, sigma3, or a worst-plane measure (shear,
-    /// normal-max, normal-min, traction, slip-tendency, dilation-tendency, mohr-coulomb).
+    /// An equivalent or principal stress, or a worst-plane measure (its worst value over every
+    /// plane).
     #[arg(long, value_name = "MEASURE")]
-    pub measure: String,
+    pub measure: EnvelopeMeasure,
     #[command(flatten)]
     pub material: MaterialArgs,
     /// Print one JSON object instead of the table.
@@ -61,16 +61,7 @@ pub struct RowJson {
 
 /// Runs the subcommand.
 pub fn run(args: &EnvelopeArgs) -> Result<String, CliError> {
-    let measure = EnvelopeMeasure::from_key(&args.measure).ok_or_else(|| {
-        ArgError::new(
-            "--measure",
-            format!(
-                "unknown measure '{}' (expected {})",
-                args.measure,
-                EnvelopeMeasure::keys().join(", ")
-            ),
-        )
-    })?;
+    let measure = args.measure;
     let (project, _) = study::load(&args.project).map_err(|e| ArgError::new("--project", e))?;
     let unit = project.unit().map_err(|e| ArgError::new("--project", e))?;
     let convention = project.convention();

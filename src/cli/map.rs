@@ -5,9 +5,8 @@ use std::path::PathBuf;
 
 use clap::Args;
 
-use super::figure::parse_size;
 use super::worst_plane::MeasureArgs;
-use super::{ArgError, CliError, PlaneArgs, ProjectView, StressArgs};
+use super::{ArgError, CliError, PlaneArgs, ProjectView, StressArgs, values};
 use crate::export::{self, ImageFormat};
 use crate::mechanics::search::worst_plane;
 use crate::study::figures::{self, FigureInput};
@@ -25,11 +24,11 @@ pub struct MapArgs {
     #[arg(long, value_name = "FILE")]
     pub out: PathBuf,
     /// Image size in pixels, WIDTHxHEIGHT.
-    #[arg(long, value_name = "WxH", default_value = "1200x900")]
-    pub size: String,
+    #[arg(long, value_name = "WxH", default_value = "1200x900", value_parser = values::size)]
+    pub size: (u32, u32),
     /// Map cells per side (16 to 1024).
-    #[arg(long, value_name = "N", default_value = "256")]
-    pub resolution: String,
+    #[arg(long, value_name = "N", default_value = "256", value_parser = clap::value_parser!(u16).range(16..=1024))]
+    pub resolution: u16,
 }
 
 /// Runs the subcommand.
@@ -38,22 +37,8 @@ pub fn run(args: &MapArgs) -> Result<String, CliError> {
     let view = args.stress.project_view()?;
     let settings = args.measure.read(&input, view.as_ref())?;
     let plane = args.plane.read()?.or(view.as_ref().map(|v| v.plane));
-    let (w, h) = parse_size(&args.size)?;
-    let resolution: usize = args
-        .resolution
-        .trim()
-        .parse()
-        .ok()
-        .filter(|n| (16..=1024).contains(n))
-        .ok_or_else(|| {
-            ArgError::new(
-                "--resolution",
-                format!(
-                    "'{}' is not a whole number from 16 to 1024",
-                    args.resolution
-                ),
-            )
-        })?;
+    let (w, h) = args.size;
+    let resolution = usize::from(args.resolution);
     ImageFormat::from_path(&args.out).map_err(|e| ArgError::new("--out", e))?;
     let worst = worst_plane(&input.tensor, &settings).map_err(|e| ArgError::new("--measure", e))?;
     let figure = FigureInput {

@@ -9,6 +9,7 @@ pub mod figure;
 pub mod map;
 pub mod mohr;
 pub mod project;
+pub mod values;
 pub mod worst_plane;
 
 use std::path::Path;

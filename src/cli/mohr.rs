@@ -5,9 +5,8 @@ use std::path::PathBuf;
 
 use clap::Args;
 
-use super::figure::parse_size;
-use super::worst_plane::{MaterialArgs, parse_measure, search_settings_in};
-use super::{ArgError, CliError, PlaneArgs, ProjectView, StressArgs};
+use super::worst_plane::{MaterialArgs, search_settings_in};
+use super::{ArgError, CliError, PlaneArgs, ProjectView, StressArgs, values};
 use crate::draw::Sizes;
 use crate::draw::mohr::Envelope;
 use crate::export::{self, ImageFormat};
@@ -22,10 +21,9 @@ pub struct MohrArgs {
     pub stress: StressArgs,
     #[command(flatten)]
     pub plane: PlaneArgs,
-    /// Mark the worst planes for this measure (shear, normal-max, normal-min, traction,
-    /// slip-tendency, dilation-tendency, mohr-coulomb). [default with --project: the project's]
+    /// Mark the worst planes for this measure. [default with --project: the project's]
     #[arg(long, value_name = "MEASURE")]
-    pub measure: Option<String>,
+    pub measure: Option<Measure>,
     /// Draws the Mohr–Coulomb envelope when --cohesion and --friction-angle are given.
     #[command(flatten)]
     pub material: MaterialArgs,
@@ -33,8 +31,8 @@ pub struct MohrArgs {
     #[arg(long, value_name = "FILE")]
     pub out: PathBuf,
     /// Image size in pixels, WIDTHxHEIGHT.
-    #[arg(long, value_name = "WxH", default_value = "1200x800")]
-    pub size: String,
+    #[arg(long, value_name = "WxH", default_value = "1200x800", value_parser = values::size)]
+    pub size: (u32, u32),
 }
 
 /// Runs the subcommand. With `--project`, the project's cut plane, measure and (for the
@@ -44,7 +42,7 @@ pub fn run(args: &MohrArgs) -> Result<String, CliError> {
     let view = args.stress.project_view()?;
     let plane = args.plane.read()?.or(view.as_ref().map(|v| v.plane));
     let measure = match (&args.measure, &view) {
-        (Some(key), _) => Some(parse_measure(key)?),
+        (Some(m), _) => Some(*m),
         (None, Some(v)) => Some(v.measure.measure),
         (None, None) => None,
     };
@@ -65,7 +63,7 @@ pub fn run(args: &MohrArgs) -> Result<String, CliError> {
             pore_pressure_pa,
         })
     };
-    let (w, h) = parse_size(&args.size)?;
+    let (w, h) = args.size;
     ImageFormat::from_path(&args.out).map_err(|e| ArgError::new("--out", e))?;
     let (search, worst) = match measure {
         Some(measure) => {

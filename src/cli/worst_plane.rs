@@ -116,17 +116,6 @@ impl MaterialArgs {
     }
 }
 
-/// Parses a measure key; the error names `--measure` and lists the keys.
-pub fn parse_measure(key: &str) -> Result<Measure, ArgError> {
-    Measure::from_key(key).ok_or_else(|| {
-        let keys: Vec<&str> = Measure::ALL.iter().map(|m| m.key()).collect();
-        ArgError::new(
-            "--measure",
-            format!("unknown measure '{key}' (expected {})", keys.join(", ")),
-        )
-    })
-}
-
 /// The search settings for `measure`; mohr-coulomb without a material, or a material argument
 /// the measure does not use, is bad input. `envelope`: the command also draws the Mohr–Coulomb
 /// envelope from the material.
@@ -180,10 +169,10 @@ pub fn no_material(material: &MaterialArgs, input: &StressInput) -> Result<(), A
 /// The measure and its parameters, shared by `worst-plane` and `map`.
 #[derive(Debug, Clone, Args)]
 pub struct MeasureArgs {
-    /// shear, normal-max, normal-min, traction, slip-tendency, dilation-tendency or mohr-coulomb.
-    /// [default with --project: the project's measure, pore pressure and material]
+    /// What makes a plane worst. [default with --project: the project's measure, pore
+    /// pressure and material]
     #[arg(long, value_name = "MEASURE")]
-    pub measure: Option<String>,
+    pub measure: Option<Measure>,
     #[command(flatten)]
     pub material: MaterialArgs,
 }
@@ -197,7 +186,7 @@ impl MeasureArgs {
         view: Option<&ProjectView>,
     ) -> Result<SearchSettings, ArgError> {
         let measure = match (&self.measure, view) {
-            (Some(key), _) => parse_measure(key)?,
+            (Some(m), _) => *m,
             (None, Some(v)) => v.measure.measure,
             (None, None) => {
                 let keys: Vec<&str> = Measure::ALL.iter().map(|m| m.key()).collect();

@@ -23,25 +23,26 @@ pub enum EnvelopeMeasure {
 }
 
 impl EnvelopeMeasure {
-    /// Every key, in help order.
-    #[must_use]
-    pub fn keys() -> Vec<&'static str> {
-        let mut keys = vec!["von-mises", "tresca", "max-shear", "sigma1", "sigma3"];
-        keys.extend(Measure::ALL.iter().map(|m| m.key()));
-        keys
-    }
+    /// Every measure, in menu and help order.
+    pub const ALL: [Self; 12] = [
+        Self::VonMises,
+        Self::Tresca,
+        Self::MaxShear,
+        Self::Sigma1,
+        Self::Sigma3,
+        Self::Plane(Measure::ALL[0]),
+        Self::Plane(Measure::ALL[1]),
+        Self::Plane(Measure::ALL[2]),
+        Self::Plane(Measure::ALL[3]),
+        Self::Plane(Measure::ALL[4]),
+        Self::Plane(Measure::ALL[5]),
+        Self::Plane(Measure::ALL[6]),
+    ];
 
     /// Parses a key.
     #[must_use]
     pub fn from_key(key: &str) -> Option<Self> {
-        Some(match key.trim() {
-            "von-mises" => Self::VonMises,
-            "tresca" => Self::Tresca,
-            "max-shear" => Self::MaxShear,
-            "sigma1" => Self::Sigma1,
-            "sigma3" => Self::Sigma3,
-            other => Self::Plane(Measure::from_key(other)?),
-        })
+        Self::ALL.into_iter().find(|m| m.key() == key.trim())
     }
 
     /// The key.

@@ -16,10 +16,7 @@ pub struct EnvelopePanel {
 /// Every measure the envelope can rank by, in menu order.
 #[must_use]
 pub fn measures() -> Vec<EnvelopeMeasure> {
-    EnvelopeMeasure::keys()
-        .into_iter()
-        .filter_map(EnvelopeMeasure::from_key)
-        .collect()
+    EnvelopeMeasure::ALL.to_vec()
 }
 
 impl EnvelopePanel {
