@@ -72,6 +72,25 @@ pub fn with_unit(value: Option<f64>, unit: &str) -> String {
     }
 }
 
+/// The round step (1, 2 or 5 × 10ᵏ) at or just below `x`, for scale bars and chart ticks; 0 for
+/// a non-positive or non-finite `x`.
+#[must_use]
+pub fn round_step(x: f64) -> f64 {
+    if !(x > 0.0 && x.is_finite()) {
+        return 0.0;
+    }
+    let p = 10f64.powf(x.log10().floor());
+    let m = x / p;
+    let step = if m >= 5.0 {
+        5.0
+    } else if m >= 2.0 {
+        2.0
+    } else {
+        1.0
+    };
+    step * p
+}
+
 #[cfg(test)]
 mod tests {
     use super::sig;

@@ -5,12 +5,12 @@ use std::sync::Arc;
 
 use nalgebra::Vector3;
 
+use super::chart::{self, viridis};
 use super::{Anchor, Frame, Prim, Sizes, marker};
 use crate::format::{distinct_digits, sig};
 use crate::mechanics::search::{Cone, Measure, cone_normals};
-use crate::mechanics::stereonet::{OrientationMap, project_pole, viridis};
+use crate::mechanics::stereonet::{OrientationMap, project_pole};
 use crate::mechanics::{PlaneNormal, SignConvention, StressUnit};
-use crate::scene::style;
 
 /// What is marked on the map besides the colours.
 #[derive(Clone, Debug, PartialEq)]
@@ -98,7 +98,7 @@ pub fn map_frame(
     let mut frame = Frame {
         width: w,
         height: h,
-        background: style::BACKGROUND,
+        background: chart::BACKGROUND,
         prims: Vec::new(),
     };
     let (centre, r) = disc_geometry(w, h);
@@ -134,7 +134,7 @@ pub fn map_frame(
             a: pair[0],
             b: pair[1],
             width: 1.4 * sizes.line,
-            color: style::INK,
+            color: chart::INK,
         });
     }
     let text = |frame: &mut Frame, at: [f32; 2], t: String, anchor: Anchor| {
@@ -142,7 +142,7 @@ pub fn map_frame(
             at,
             text: t,
             size: sizes.text,
-            color: style::INK,
+            color: chart::INK,
             anchor,
             halo: true,
         });
@@ -170,7 +170,7 @@ pub fn map_frame(
             a: [centre[0] + a[0], centre[1] + a[1]],
             b: [centre[0] + b[0], centre[1] + b[1]],
             width: 1.4 * sizes.line,
-            color: style::INK,
+            color: chart::INK,
         });
     }
     // The cone of worst planes, as the small circle of its poles (broken where it crosses the
@@ -188,7 +188,7 @@ pub fn map_frame(
                     a: *a,
                     b: *b,
                     width: 2.4 * sizes.line,
-                    color: style::WORST_PLANE,
+                    color: chart::WORST_PLANE,
                 });
             }
         }
@@ -197,12 +197,9 @@ pub fn map_frame(
     for (i, d) in marks.principal.iter().enumerate() {
         if let Ok(n) = PlaneNormal::from_vector(*d) {
             let at = to_px(centre, r, project_pole(&n));
-            frame.prims.push(marker(
-                at,
-                5.0 * sizes.line,
-                4,
-                style::Rgba::rgb(255, 255, 255),
-            ));
+            frame
+                .prims
+                .push(marker(at, 5.0 * sizes.line, 4, chart::HALO));
             text(
                 &mut frame,
                 [at[0] + 8.0 * sizes.line, at[1] - 8.0 * sizes.line],
@@ -215,7 +212,7 @@ pub fn map_frame(
         let at = to_px(centre, r, project_pole(&n));
         frame
             .prims
-            .push(marker(at, 6.0 * sizes.line, 12, style::PLANE_NORMAL));
+            .push(marker(at, 6.0 * sizes.line, 12, chart::CUT_PLANE));
         text(
             &mut frame,
             [at[0] + 9.0 * sizes.line, at[1] + 9.0 * sizes.line],
@@ -227,7 +224,7 @@ pub fn map_frame(
         let at = to_px(centre, r, project_pole(n));
         frame
             .prims
-            .push(marker(at, 7.0 * sizes.line, 3, style::WORST_PLANE));
+            .push(marker(at, 7.0 * sizes.line, 3, chart::WORST_PLANE));
     }
     // Colour bar.
     let bar_x = centre[0] + r + 0.10 * w.min(h);
@@ -251,30 +248,35 @@ pub fn map_frame(
         pixels: [1, steps as u32],
         rgba: Arc::new(bar),
     });
+    // Round ticks in the unit shown (stresses) or as plain numbers (ratios).
+    let to_shown = |v: f64| {
+        if what.measure.is_stress() {
+            what.unit.from_pa(v)
+        } else {
+            v
+        }
+    };
     let label_values: Vec<f64> = if uniform {
         vec![lo]
+    } else if what.measure.is_stress() {
+        chart::stress_ticks(lo, lo + span, 4.0, what.unit)
     } else {
-        (0..=4).map(|k| lo + span * f64::from(k) / 4.0).collect()
+        chart::round_ticks(lo, lo + span, 4.0)
     };
-    let shown: Vec<f64> = label_values
-        .iter()
-        .map(|&v| {
-            if what.measure.is_stress() {
-                what.unit.from_pa(v)
-            } else {
-                v
-            }
-        })
-        .collect();
+    let shown: Vec<f64> = label_values.iter().map(|&v| to_shown(v)).collect();
     let digits = distinct_digits(&shown, 4);
-    for (k, &v) in label_values.iter().enumerate() {
-        let f = if uniform { 0.5 } else { k as f32 / 4.0 };
+    for &v in &label_values {
+        let f = if uniform {
+            0.5
+        } else {
+            ((v - lo) / span) as f32
+        };
         let y = bar_top + bar_h * (1.0 - f);
         frame.prims.push(Prim::Line {
             a: [bar_x + bar_w, y],
             b: [bar_x + bar_w + tick, y],
             width: 1.2 * sizes.line,
-            color: style::INK,
+            color: chart::INK,
         });
         let v = if map.range.is_some() {
             what.value_text(v, digits)
@@ -322,7 +324,7 @@ pub fn map_frame(
             at: [x0, y],
             text: line,
             size: sizes.text,
-            color: style::INK,
+            color: chart::INK,
             anchor: Anchor::LeftCenter,
             halo: false,
         });

@@ -10,6 +10,7 @@
 //! pieces so that each piece sorts on its own depth.
 
 pub mod camera;
+pub mod chart;
 pub mod egui_backend;
 pub mod map;
 pub mod mohr;

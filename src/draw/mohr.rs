@@ -2,13 +2,14 @@
 //! plane's and the worst planes' points, the Mohr–Coulomb envelope when a material is set, and
 //! axes with units and the sign convention. The same frame goes to the screen, SVG and PNG.
 
+use super::chart;
 use super::{Anchor, Frame, Prim, Sizes, marker};
 use crate::format::{dip_text, sig};
 use crate::mechanics::criteria::MohrCoulomb;
 use crate::mechanics::mohr::{Circle, MohrCircles};
 use crate::mechanics::search::{SearchResult, WorstCondition, WorstPlane};
 use crate::mechanics::{PlaneNormal, SignConvention, StressTensor, StressUnit};
-use crate::scene::style::{self, Rgba};
+use crate::scene::style::Rgba;
 
 /// A Mohr–Coulomb envelope with its pore pressure (compression-positive effective stress, as
 /// in the worst-plane measure).
@@ -242,22 +243,6 @@ fn arc(frame: &mut Frame, layout: &MohrLayout, circle: &Circle, width: f32, colo
     }
 }
 
-/// Tick positions in pascals: multiples of a round step (1, 2 or 5 × 10ᵏ) *in the display
-/// unit*, between `lo_pa` and `hi_pa`, so that psi ticks read 500, 1000… psi rather than
-/// converted round pascals.
-fn ticks(lo_pa: f64, hi_pa: f64, target_count: f64, unit: StressUnit) -> Vec<f64> {
-    let (lo, hi) = (unit.from_pa(lo_pa), unit.from_pa(hi_pa));
-    let step = crate::scene::nice_round((hi - lo) / target_count);
-    if step <= 0.0 {
-        return Vec::new();
-    }
-    let first = (lo / step).ceil() as i64;
-    let last = (hi / step).floor() as i64;
-    (first..=last)
-        .map(|k| unit.to_pa(k as f64 * step))
-        .collect()
-}
-
 /// Tick labels in `unit` with enough digits to tell neighbours apart.
 fn tick_labels(ticks_pa: &[f64], unit: StressUnit) -> Vec<String> {
     let shown: Vec<f64> = ticks_pa.iter().map(|&v| unit.from_pa(v)).collect();
@@ -276,7 +261,7 @@ pub fn mohr_frame(figure: &MohrFigure, width: u32, height: u32, sizes: Sizes) ->
     let mut frame = Frame {
         width: w,
         height: h,
-        background: style::BACKGROUND,
+        background: chart::BACKGROUND,
         prims: Vec::new(),
     };
     let [left, top, right, bottom] = layout.plot;
@@ -298,12 +283,12 @@ pub fn mohr_frame(figure: &MohrFigure, width: u32, height: u32, sizes: Sizes) ->
         .prims
         .extend(half_disc(&layout, &outer, REGION.with_alpha(150)));
     for c in &inner {
-        frame.prims.extend(half_disc(&layout, c, style::BACKGROUND));
+        frame.prims.extend(half_disc(&layout, c, chart::BACKGROUND));
     }
 
     // Grid and tick labels.
     let value = |pa: f64| sig(unit.from_pa(pa), 4);
-    let x_ticks = ticks(layout.normal_min_pa, layout.normal_max_pa, 7.0, unit);
+    let x_ticks = chart::stress_ticks(layout.normal_min_pa, layout.normal_max_pa, 7.0, unit);
     for (&x, label) in x_ticks.iter().zip(tick_labels(&x_ticks, unit)) {
         let [px, _] = layout.to_px(x, 0.0);
         frame.prims.push(Prim::Line {
@@ -316,7 +301,7 @@ pub fn mohr_frame(figure: &MohrFigure, width: u32, height: u32, sizes: Sizes) ->
             at: [px, bottom + 12.0 * sizes.line],
             text: label,
             size: 0.9 * sizes.text,
-            color: style::INK,
+            color: chart::INK,
             anchor: Anchor::Center,
             halo: false,
         });
@@ -338,7 +323,7 @@ pub fn mohr_frame(figure: &MohrFigure, width: u32, height: u32, sizes: Sizes) ->
                 at: [left - 6.0 * sizes.line, py],
                 text: label,
                 size: 0.9 * sizes.text,
-                color: style::INK,
+                color: chart::INK,
                 anchor: Anchor::RightCenter,
                 halo: false,
             });
@@ -349,7 +334,7 @@ pub fn mohr_frame(figure: &MohrFigure, width: u32, height: u32, sizes: Sizes) ->
         a: [left, bottom],
         b: [right, bottom],
         width: 1.4 * sizes.line,
-        color: style::INK,
+        color: chart::INK,
     });
     let zero_x = if (layout.normal_min_pa..=layout.normal_max_pa).contains(&0.0) {
         layout.to_px(0.0, 0.0)[0]
@@ -360,7 +345,7 @@ pub fn mohr_frame(figure: &MohrFigure, width: u32, height: u32, sizes: Sizes) ->
         a: [zero_x, top],
         b: [zero_x, bottom],
         width: 1.4 * sizes.line,
-        color: style::INK,
+        color: chart::INK,
     });
     let sym = unit.symbol();
     text(
@@ -368,20 +353,20 @@ pub fn mohr_frame(figure: &MohrFigure, width: u32, height: u32, sizes: Sizes) ->
         [right, bottom + 30.0 * sizes.line],
         format!("σn ({sym}), {} →", convention.key()),
         Anchor::RightCenter,
-        style::INK,
+        chart::INK,
     );
     text(
         &mut frame,
         [zero_x + 6.0 * sizes.line, top + 8.0 * sizes.line],
         format!("↑ τ ({sym})"),
         Anchor::LeftCenter,
-        style::INK,
+        chart::INK,
     );
 
     // Circles.
-    arc(&mut frame, &layout, &outer, 2.2 * sizes.line, style::INK);
+    arc(&mut frame, &layout, &outer, 2.2 * sizes.line, chart::INK);
     for c in &inner {
-        arc(&mut frame, &layout, c, 1.6 * sizes.line, style::INK);
+        arc(&mut frame, &layout, c, 1.6 * sizes.line, chart::INK);
     }
     for (i, s) in figure.circles.principal_pa.iter().enumerate() {
         let at = layout.to_px(*s, 0.0);
@@ -389,7 +374,7 @@ pub fn mohr_frame(figure: &MohrFigure, width: u32, height: u32, sizes: Sizes) ->
             a: [at[0], at[1] - 5.0 * sizes.line],
             b: [at[0], at[1] + 5.0 * sizes.line],
             width: 2.0 * sizes.line,
-            color: style::INK,
+            color: chart::INK,
         });
         let dy = if i == 1 { -30.0 } else { -14.0 };
         text(
@@ -397,7 +382,7 @@ pub fn mohr_frame(figure: &MohrFigure, width: u32, height: u32, sizes: Sizes) ->
             [at[0], at[1] + dy * sizes.line],
             format!("σ{}", i + 1),
             Anchor::Center,
-            style::INK,
+            chart::INK,
         );
     }
 
@@ -441,19 +426,19 @@ pub fn mohr_frame(figure: &MohrFigure, width: u32, height: u32, sizes: Sizes) ->
         drawn.push(at);
         frame
             .prims
-            .push(marker(at, 8.0 * sizes.line, 3, style::WORST_PLANE));
+            .push(marker(at, 8.0 * sizes.line, 3, chart::WORST_PLANE));
     }
     if let Some(p) = &figure.plane {
         let at = layout.to_px(p.normal_stress_pa, p.shear_stress_pa);
         frame
             .prims
-            .push(marker(at, 6.5 * sizes.line, 16, style::PLANE_NORMAL));
+            .push(marker(at, 6.5 * sizes.line, 16, chart::CUT_PLANE));
         text(
             &mut frame,
             [at[0] + 10.0 * sizes.line, at[1] - 10.0 * sizes.line],
             "cut plane".to_owned(),
             Anchor::LeftCenter,
-            style::PLANE_NORMAL,
+            chart::CUT_PLANE,
         );
     }
 
@@ -491,7 +476,7 @@ pub fn mohr_frame(figure: &MohrFigure, width: u32, height: u32, sizes: Sizes) ->
             at: [x0, y],
             text: line,
             size: sizes.text,
-            color: if i == 3 { ENVELOPE } else { style::INK },
+            color: if i == 3 { ENVELOPE } else { chart::INK },
             anchor: Anchor::LeftCenter,
             halo: false,
         });

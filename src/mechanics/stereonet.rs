@@ -78,38 +78,6 @@ pub fn orientation_map(
     }
 }
 
-/// The viridis colour map (van der Walt & Smith, matplotlib, 2015; CC0), as nine stops
-/// interpolated linearly: perceptually close to uniform and readable in grey and by most
-/// colour-blind readers. `t` in [0, 1].
-#[must_use]
-pub fn viridis(t: f64) -> [u8; 3] {
-    const STOPS: [[u8; 3]; 9] = [
-        [0x44, 0x01, 0x54],
-        [0x48, 0x28, 0x78],
-        [0x3e, 0x49, 0x89],
-        [0x31, 0x68, 0x8e],
-        [0x26, 0x82, 0x8e],
-        [0x1f, 0x9e, 0x89],
-        [0x35, 0xb7, 0x79],
-        [0x6e, 0xce, 0x58],
-        [0xfd, 0xe7, 0x25],
-    ];
-    let t = if t.is_finite() {
-        t.clamp(0.0, 1.0)
-    } else {
-        0.0
-    };
-    let x = t * 8.0;
-    let i = (x.floor() as usize).min(7);
-    let f = x - i as f64;
-    let mix = |a: u8, b: u8| (f64::from(a) + (f64::from(b) - f64::from(a)) * f).round() as u8;
-    [
-        mix(STOPS[i][0], STOPS[i + 1][0]),
-        mix(STOPS[i][1], STOPS[i + 1][1]),
-        mix(STOPS[i][2], STOPS[i + 1][2]),
-    ]
-}
-
 #[cfg(test)]
 mod tests {
     use super::*;

@@ -741,7 +741,7 @@ impl Scene {
         let sym = cx.input.unit.symbol();
         // Round in the display unit (500 psi, not a converted round number of pascals).
         let unit = cx.input.unit;
-        let bar_pa = unit.to_pa(nice_round(unit.from_pa(cx.max_abs_pa * 0.5)));
+        let bar_pa = unit.to_pa(crate::format::round_step(unit.from_pa(cx.max_abs_pa * 0.5)));
         self.legend = Some(Legend {
             lines: vec![
                 format!("Stress unit: {sym}"),
@@ -787,22 +787,4 @@ fn legend_entries(layers: Layers, worst_planes: bool) -> Vec<LegendEntry> {
         ));
     }
     out
-}
-
-/// The largest 1, 2 or 5 × 10ᵏ not above `x` (0 for x ≤ 0): a round length for the scale bar.
-#[must_use]
-pub fn nice_round(x: f64) -> f64 {
-    if !(x > 0.0 && x.is_finite()) {
-        return 0.0;
-    }
-    let p = 10f64.powf(x.log10().floor());
-    let m = x / p;
-    let step = if m >= 5.0 {
-        5.0
-    } else if m >= 2.0 {
-        2.0
-    } else {
-        1.0
-    };
-    step * p
 }
