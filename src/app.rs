@@ -585,7 +585,7 @@ impl PlanewiseApp {
             Command::SaveTo(path) => self.save_to(&path),
             Command::CopyResults => {
                 let d = Derived::new(&self.project);
-                let rows = crate::results::rows(&d.tensor, d.plane, d.unit, d.convention);
+                let rows = crate::results::rows(&d.tensor, d.plane, d.convention);
                 ctx.copy_text(crate::results::to_tsv(&rows, d.unit, d.convention));
                 self.set_status("Results copied as tab-separated text", false);
             }

@@ -3,10 +3,72 @@
 
 use std::fmt::Write as _;
 
-use crate::format::{sig, with_unit};
+use crate::format::sig;
 use crate::mechanics::{
     Analysis, PlaneNormal, PlaneStress, SignConvention, StressTensor, StressUnit,
 };
+
+/// A result's value as computed: stresses in pascals, angles in degrees, directions as unit
+/// vectors. Formatted only at the edges (panel, clipboard, reports) in the unit asked for.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub enum Value {
+    /// A stress, Pa.
+    Stress(f64),
+    /// A power of a stress (invariants), Pa^k.
+    StressPower(f64, i32),
+    /// A traction vector, Pa.
+    StressVector([f64; 3]),
+    /// A unit direction.
+    Direction([f64; 3]),
+    /// An angle, degrees; `None` where undefined.
+    Angle(Option<f64>),
+    /// Dip and dip direction, degrees.
+    DipPair(f64, f64),
+    /// A dimensionless number; `None` where undefined.
+    Ratio(Option<f64>),
+    /// No value, with the reason.
+    Undefined(&'static str),
+}
+
+impl Value {
+    /// The number(s) and the unit, apart (the unit is empty for directions and ratios).
+    #[must_use]
+    pub fn parts(&self, unit: StressUnit) -> (String, String) {
+        let u = unit.pascals();
+        let sym = unit.symbol();
+        let undefined = || ("undefined".to_owned(), String::new());
+        match *self {
+            Self::Stress(pa) if pa.is_finite() => (sig(pa / u, 6), sym.to_owned()),
+            Self::StressPower(v, k) if v.is_finite() => {
+                let power = match k {
+                    2 => "²",
+                    3 => "³",
+                    _ => "",
+                };
+                (sig(v / u.powi(k), 6), format!("{sym}{power}"))
+            }
+            Self::StressVector(v) => (vector(&(nalgebra::Vector3::from(v) / u)), sym.to_owned()),
+            Self::Direction(v) => (vector(&nalgebra::Vector3::from(v)), String::new()),
+            Self::Angle(Some(deg)) if deg.is_finite() => (sig(deg, 6), "°".to_owned()),
+            Self::DipPair(dip, dd) => (format!("{} / {}", sig(dip, 4), sig(dd, 4)), "°".to_owned()),
+            Self::Ratio(Some(r)) if r.is_finite() => (sig(r, 5), String::new()),
+            Self::Undefined(why) => (format!("undefined ({why})"), String::new()),
+            _ => undefined(),
+        }
+    }
+
+    /// Number and unit together, as the panel shows it.
+    #[must_use]
+    pub fn text(&self, unit: StressUnit) -> String {
+        let (number, unit) = self.parts(unit);
+        match (unit.as_str(), self) {
+            ("", _) => number,
+            (_, Self::DipPair(..)) => number.replace(" / ", "° / ") + "°",
+            ("°", _) => format!("{number}°"),
+            (u, _) => format!("{number} {u}"),
+        }
+    }
+}
 
 /// One line of results.
 #[derive(Clone, Debug, PartialEq)]
@@ -15,8 +77,8 @@ pub struct ResultRow {
     pub group: &'static str,
     /// Quantity.
     pub name: String,
-    /// Value with unit, or "undefined".
-    pub value: String,
+    /// The value as computed.
+    pub value: Value,
     /// The formula, for tooltips.
     pub formula: &'static str,
 }
@@ -25,20 +87,17 @@ fn vector(v: &nalgebra::Vector3<f64>) -> String {
     format!("({}, {}, {})", sig(v.x, 5), sig(v.y, 5), sig(v.z, 5))
 }
 
-/// All rows for `tensor` and the cut plane `plane`, with stresses in `unit` and `convention`.
+/// All rows for `tensor` and the cut plane `plane`, with stresses in `convention`.
 #[must_use]
 pub fn rows(
     tensor: &StressTensor,
     plane: PlaneNormal,
-    unit: StressUnit,
     convention: SignConvention,
 ) -> Vec<ResultRow> {
     let a = Analysis::new(tensor, convention);
-    let u = unit.pascals();
-    let sym = unit.symbol();
-    let stress = |pa: f64| with_unit(Some(pa / u), sym);
+    let stress = Value::Stress;
     let mut out = Vec::with_capacity(32);
-    let mut push = |group, name: String, value: String, formula| {
+    let mut push = |group, name: String, value: Value, formula| {
         out.push(ResultRow {
             group,
             name,
@@ -64,41 +123,39 @@ pub fn rows(
         push(
             "Principal stresses",
             format!("n{}", i + 1),
-            vector(d),
+            Value::Direction((*d).into()),
             "Unit eigenvector of σi; n1 × n2 = n3",
         );
     }
     let inv = &a.invariants;
-    let sq = format!("{sym}²");
-    let cu = format!("{sym}³");
     push(
         "Invariants",
         "I1".into(),
-        with_unit(Some(inv.i1 / u), sym),
+        Value::Stress(inv.i1),
         "I1 = tr σ = σ1 + σ2 + σ3",
     );
     push(
         "Invariants",
         "I2".into(),
-        with_unit(Some(inv.i2 / (u * u)), &sq),
+        Value::StressPower(inv.i2, 2),
         "I2 = ½[(tr σ)² − tr σ²] = σ1σ2 + σ2σ3 + σ3σ1",
     );
     push(
         "Invariants",
         "I3".into(),
-        with_unit(Some(inv.i3 / (u * u * u)), &cu),
+        Value::StressPower(inv.i3, 3),
         "I3 = det σ = σ1σ2σ3",
     );
     push(
         "Invariants",
         "J2".into(),
-        with_unit(Some(inv.j2 / (u * u)), &sq),
+        Value::StressPower(inv.j2, 2),
         "J2 = ½ s:s, s = σ − (I1/3) I",
     );
     push(
         "Invariants",
         "J3".into(),
-        with_unit(Some(inv.j3 / (u * u * u)), &cu),
+        Value::StressPower(inv.j3, 3),
         "J3 = det s",
     );
     push(
@@ -140,14 +197,13 @@ pub fn rows(
     push(
         "Equivalent stresses",
         "Lode angle".into(),
-        with_unit(a.lode_angle_deg, "°"),
+        Value::Angle(a.lode_angle_deg),
         "cos 3θ = (3√3/2) J3 / J2^1.5, 0° ≤ θ ≤ 60°; undefined when J2 = 0",
     );
     push(
         "Equivalent stresses",
         "triaxiality".into(),
-        a.triaxiality
-            .map_or_else(|| "undefined".to_owned(), |t| sig(t, 5)),
+        Value::Ratio(a.triaxiality),
         "η = σm / σvM with the tension-positive mean stress in either convention (negative in compression); undefined when J2 = 0",
     );
     let ps = PlaneStress::new(tensor, plane, convention);
@@ -155,19 +211,19 @@ pub fn rows(
     push(
         "Cut plane",
         "normal n".into(),
-        vector(&plane.vector()),
+        Value::Direction(plane.vector().into()),
         "Unit normal of the cut plane",
     );
     push(
         "Cut plane",
         "dip / dip direction".into(),
-        format!("{}° / {}°", sig(dip, 4), sig(dd, 4)),
+        Value::DipPair(dip, dd),
         "x = east, y = north, z = up; n = (sin δ sin α, sin δ cos α, cos δ)",
     );
     push(
         "Cut plane",
         "traction t".into(),
-        format!("{} {sym}", vector(&(ps.traction_pa / u))),
+        Value::StressVector(ps.traction_pa.into()),
         "t = σ·n (Cauchy): the traction the material n points into exerts on the material behind the plane, with σ as shown",
     );
     push(
@@ -186,24 +242,58 @@ pub fn rows(
         "Cut plane",
         "shear direction".into(),
         ps.shear_direction
-            .map_or_else(|| "undefined (no shear)".to_owned(), |d| vector(&d)),
+            .map_or(Value::Undefined("no shear"), |d| Value::Direction(d.into())),
         "Direction of the shear traction on the material behind the plane from the material n points into, in tension-positive physics whatever the convention: (t − σn n) / τ with tension-positive t",
     );
     push(
         "Cut plane",
         "rake".into(),
-        with_unit(ps.rake_deg(), "°"),
+        Value::Angle(ps.rake_deg()),
         "Angle in the plane from strike (dip direction − 90°) to the hanging wall's slip, counter-clockwise seen from above: +90° reverse, −90° normal, 0° left-lateral, 180° right-lateral (Aki & Richards 1980); undefined without shear or for a horizontal plane",
     );
     out
 }
 
-/// The rows as tab-separated text with a header naming the unit and convention.
+/// The rows as tab-separated text: a header naming the unit and convention, then group,
+/// quantity, value and unit in separate columns (so a spreadsheet reads the numbers).
 #[must_use]
 pub fn to_tsv(rows: &[ResultRow], unit: StressUnit, convention: SignConvention) -> String {
-    let mut s = format!("Planewise results\tunit {unit}\t{convention}\n");
+    let mut s =
+        format!("Planewise results\tunit {unit}\t{convention}\ngroup\tquantity\tvalue\tunit\n");
     for r in rows {
-        let _ = writeln!(s, "{}\t{}\t{}", r.group, r.name, r.value);
+        let (number, u) = r.value.parts(unit);
+        let _ = writeln!(s, "{}\t{}\t{number}\t{u}", r.group, r.name);
     }
     s
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn rows_are_typed_and_formatted_only_at_the_edge() {
+        // Uniaxial tension σxx = 100 MPa: σ1 = 100 MPa, I2 = 0, von Mises = 100 MPa (common
+        // practice, no source).
+        let t =
+            StressTensor::from_components([100.0, 0.0, 0.0, 0.0, 0.0, 0.0], StressUnit::MPa, 1.0)
+                .unwrap_or_default();
+        let rows = rows(&t, PlaneNormal::X, SignConvention::TensionPositive);
+        let find = |name: &str| rows.iter().find(|r| r.name == name).map(|r| r.value);
+        assert_eq!(find("σ1"), Some(Value::Stress(100e6)));
+        let vm = find("von Mises").unwrap_or(Value::Undefined("missing"));
+        assert_eq!(
+            vm.parts(StressUnit::KPa),
+            ("100000".to_owned(), "kPa".to_owned())
+        );
+        assert_eq!(vm.text(StressUnit::MPa), "100 MPa");
+        let j2 = find("J2").unwrap_or(Value::Undefined("missing"));
+        assert_eq!(j2.parts(StressUnit::MPa).1, "MPa²");
+        let tsv = to_tsv(&rows, StressUnit::MPa, SignConvention::TensionPositive);
+        assert!(tsv.contains("Principal stresses\tσ1\t100\tMPa\n"), "{tsv}");
+        assert!(
+            tsv.contains("Cut plane\tshear direction\tundefined (no shear)\t\n"),
+            "{tsv}"
+        );
+    }
 }

@@ -17,9 +17,10 @@ pub fn results_ui(ui: &mut egui::Ui, d: &Derived, out: &mut Vec<Command>) {
         }
     });
     ui.small(format!("{}, {}", d.unit, d.convention.key()));
-    let all = rows(&d.tensor, d.plane, d.unit, d.convention);
+    let all = rows(&d.tensor, d.plane, d.convention);
     let mut group = "";
     let mut grid_rows: Vec<&crate::results::ResultRow> = Vec::new();
+    let unit = d.unit;
     let flush = |ui: &mut egui::Ui, title: &str, items: &mut Vec<&crate::results::ResultRow>| {
         if items.is_empty() {
             return;
@@ -32,7 +33,8 @@ pub fn results_ui(ui: &mut egui::Ui, d: &Derived, out: &mut Vec<Command>) {
             .show(ui, |ui| {
                 for row in items.drain(..) {
                     ui.label(&row.name).on_hover_text(row.formula);
-                    ui.monospace(&row.value).on_hover_text(row.formula);
+                    ui.monospace(row.value.text(unit))
+                        .on_hover_text(row.formula);
                     ui.end_row();
                 }
             });
