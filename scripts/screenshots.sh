@@ -6,17 +6,20 @@ cd "$(dirname "$0")/.."
 mkdir -p screenshots
 scripts/gui-smoke.sh screenshots/window-demo.png
 scripts/gui-smoke.sh screenshots/window-mohr.png mohr
-demo="xx=120,yy=-35,zz=15,xy=48,yz=-12,zx=22"   # the built-in demo: an invented scenario
+scripts/gui-smoke.sh screenshots/window-envelope.png envelope
+# The built-in demo project (an invented scenario) and its first factored combination; the cut
+# plane comes from the project.
+demo=(--project assets/demo-bracket-project.json --case "ULS 1")
 bin=target/release/planewise
-$bin figure --stress "$demo" --normal 1,0.5,0.3 --layers cube,plane,labels,legend,triad \
+$bin figure "${demo[@]}" --layers cube,plane,labels,legend,triad \
     --view iso --size 1100x750 --out screenshots/cut-plane-traction.png
-$bin figure --stress "$demo" --normal 1,0.5,0.3 --layers ellipsoid,axes,labels,legend,triad \
+$bin figure "${demo[@]}" --layers ellipsoid,axes,labels,legend,triad \
     --view iso --perspective --size 1100x750 --out screenshots/ellipsoid-principal-axes.png
-$bin map --stress "$demo" --normal 1,0.5,0.3 --measure shear --size 1100x750 \
+$bin map "${demo[@]}" --measure shear --size 1100x750 \
     --out screenshots/orientation-map-shear.png
-$bin mohr --stress "$demo" --normal 1,0.5,0.3 --measure mohr-coulomb --cohesion 10 \
+$bin mohr "${demo[@]}" --measure mohr-coulomb --cohesion 10 \
     --friction-angle 30 --size 1100x750 --out screenshots/mohr-circles.png
-$bin figure --stress "$demo" --normal 1,0.5,0.3 --measure shear \
+$bin figure "${demo[@]}" --measure shear \
     --layers cube,plane,axes,labels,legend,triad --view iso --size 1100x750 \
     --out screenshots/worst-planes-3d.png
 ls -l screenshots

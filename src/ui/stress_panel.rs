@@ -292,7 +292,8 @@ impl StressPanel {
         let mut edit = egui::TextEdit::singleline(&mut self.cells[r][c])
             .id(id)
             .hint_text(name.clone())
-            .desired_width(78.0);
+            .desired_width(78.0)
+            .min_size(egui::vec2(78.0, 0.0));
         if error.is_some() {
             edit = edit.background_color(ui.visuals().error_fg_color.gamma_multiply(0.25));
         }
