@@ -383,3 +383,23 @@ fn window_export_and_the_command_line_give_identical_svg_for_a_project() {
         );
     }
 }
+
+#[test]
+fn the_shown_state_is_analysed_once_per_change_not_per_frame() {
+    let mut h = demo();
+    for _ in 0..5 {
+        h.step();
+    }
+    let before = h.state().derived.computations;
+    for _ in 0..10 {
+        h.step();
+    }
+    assert_eq!(
+        h.state().derived.computations,
+        before,
+        "recomputed without a change"
+    );
+    h.get_by_label("+y face").click();
+    h.run();
+    assert_eq!(h.state().derived.computations, before + 1);
+}

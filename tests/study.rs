@@ -154,6 +154,28 @@ fn the_file_round_trips_and_refuses_what_it_cannot_read() {
     assert_eq!(m.unit, "MPa");
     assert_eq!(warnings.len(), 1);
     assert!(warnings[0].contains("extra"));
+    // A file as the first release of format 1 wrote it (before the shown case, the cut plane and
+    // the measure were kept) loads with their defaults, and saving it back keeps its cases.
+    let early = temp("early.json");
+    std::fs::write(
+        &early,
+        r#"{"format_version": 1, "name": "early", "unit": "kPa", "compression_positive": true,
+            "cases": [{"name": "a", "input": {"kind": "tensor", "unit": "kPa",
+                       "compression_positive": true, "components": [1, 2, 3, 0, 0, 0]}}],
+            "combinations": [{"name": "c", "terms": [{"case": "a", "factor": 2}]}],
+            "notes": ""}"#,
+    )
+    .unwrap();
+    let (e, warnings) = study::load(&early).unwrap();
+    assert!(warnings.is_empty(), "{warnings:?}");
+    assert_eq!(e.active_name(), Some("a"));
+    assert_eq!(e.plane, planewise::mechanics::PlaneNormal::X);
+    assert_eq!(e.measure, study::MeasureChoice::default());
+    // Compression-positive kPa as typed: σxx = −1 kPa stored tension positive.
+    let xx = e.tensor("c").unwrap().components_pa()[0];
+    assert!((xx - -2000.0).abs() < 1e-9, "{xx}");
+    study::save(&early, &e).unwrap();
+    assert_eq!(study::load(&early).unwrap().0, e);
     // Refused, each with a message that names the file, and the file left as it was.
     let text = std::fs::read_to_string(&path).unwrap();
     for (name, content, says) in [
