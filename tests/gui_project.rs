@@ -403,3 +403,22 @@ fn the_shown_state_is_analysed_once_per_change_not_per_frame() {
     h.run();
     assert_eq!(h.state().derived.computations, before + 1);
 }
+
+#[test]
+fn the_measure_and_material_are_undoable_project_edits() {
+    let mut h = demo();
+    let before = h.state().project.measure;
+    h.get_by_label("measure").click();
+    h.run();
+    h.get_by_label("mohr-coulomb").click();
+    h.run();
+    assert_eq!(
+        h.state().project.measure.measure,
+        planewise::mechanics::search::Measure::MohrCoulomb
+    );
+    assert!(h.state().dirty());
+    h.key_press_modifiers(egui::Modifiers::COMMAND, egui::Key::Z);
+    h.run();
+    assert_eq!(h.state().project.measure, before);
+    assert!(!h.state().dirty());
+}
