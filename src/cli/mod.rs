@@ -88,8 +88,8 @@ pub struct StressArgs {
     /// Unit of every stress typed and printed, exactly as written: Pa, kPa, MPa, GPa, psi or
     /// ksi (N/mm² and N/mm2 are read as MPa).
     /// [default: MPa, or the project's unit with --project]
-    #[arg(long, value_name = "UNIT")]
-    pub unit: Option<String>,
+    #[arg(long, value_name = "UNIT", value_parser = values::unit)]
+    pub unit: Option<StressUnit>,
     /// Stresses typed and printed are compression-positive (geomechanics).
     #[arg(long)]
     pub compression_positive: bool,
@@ -103,11 +103,9 @@ pub struct StressArgs {
 
 impl StressArgs {
     /// The unit given with `--unit`, or `default`.
-    pub fn unit_or(&self, default: StressUnit) -> Result<StressUnit, ArgError> {
-        self.unit
-            .as_deref()
-            .map_or(Ok(default), str::parse)
-            .map_err(|e| ArgError::new("--unit", e))
+    #[must_use]
+    pub fn unit_or(&self, default: StressUnit) -> StressUnit {
+        self.unit.unwrap_or(default)
     }
 
     /// The state of load case or combination `case` of the project in `file` (shown in the
@@ -132,7 +130,7 @@ impl StressArgs {
         };
         Ok(StressInput {
             tensor,
-            unit: self.unit_or(project_unit)?,
+            unit: self.unit_or(project_unit),
             convention,
         })
     }
@@ -194,7 +192,7 @@ impl StressArgs {
         if let (Some(file), Some(case)) = (&self.project, &self.case) {
             return self.read_from_project(file, case);
         }
-        let unit = self.unit_or(StressUnit::MPa)?;
+        let unit = self.unit_or(StressUnit::MPa);
         let convention = if self.compression_positive {
             SignConvention::CompressionPositive
         } else {

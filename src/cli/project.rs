@@ -7,7 +7,7 @@ use std::path::{Path, PathBuf};
 
 use clap::{Args, Subcommand};
 
-use super::{ArgError, CliError};
+use super::{ArgError, CliError, values};
 use crate::format::sig;
 use crate::mechanics::{SignConvention, StressUnit};
 use crate::parse;
@@ -43,8 +43,8 @@ pub struct NewArgs {
     #[arg(long, default_value = "Untitled")]
     pub name: String,
     /// Unit of the project's stresses: Pa, kPa, MPa, GPa, psi or ksi.
-    #[arg(long, default_value = "MPa")]
-    pub unit: String,
+    #[arg(long, default_value = "MPa", value_parser = values::unit)]
+    pub unit: StressUnit,
     /// The project's stresses are compression-positive (geomechanics).
     #[arg(long)]
     pub compression_positive: bool,
@@ -109,7 +109,7 @@ fn save(file: &Path, project: &Project) -> Result<(), CliError> {
 pub fn run(args: &ProjectArgs) -> Result<String, CliError> {
     match &args.action {
         ProjectAction::New(a) => {
-            let unit: StressUnit = a.unit.parse().map_err(|e| ArgError::new("--unit", e))?;
+            let unit = a.unit;
             if a.file.exists() {
                 return Err(ArgError::new(
                     "FILE",

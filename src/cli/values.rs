@@ -7,6 +7,7 @@ use clap::ValueEnum;
 use clap::builder::PossibleValue;
 
 use crate::draw::camera::ViewPreset;
+use crate::mechanics::StressUnit;
 use crate::mechanics::search::Measure;
 use crate::scene::Layers;
 use crate::study::EnvelopeMeasure;
@@ -80,6 +81,12 @@ pub fn layers(names: &[Layer]) -> Layers {
         *flag = true;
     }
     l
+}
+
+/// A stress unit, exactly as SI writes it (`N/mm²` and `N/mm2` read as MPa); the message lists
+/// the units.
+pub fn unit(text: &str) -> Result<StressUnit, String> {
+    text.parse::<StressUnit>().map_err(|e| e.to_string())
 }
 
 /// An image size `WIDTHxHEIGHT`, each side 16 to 16384 pixels.
