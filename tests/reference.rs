@@ -5,7 +5,25 @@
     reason = "a test helper that fails should panic loudly"
 )]
 
-use planewise::mechanics::criteria::{self, Condition, DruckerPragerFit, MohrCoulomb};
+use planewise::mechanics::criteria::{
+    self, Condition, Criterion, DruckerPragerFit, MohrCoulomb, Strengths,
+};
+
+/// The utilization of `criterion` for `t` with `strengths` (panics when undefined).
+fn u(t: &StressTensor, criterion: Criterion, strengths: &Strengths) -> f64 {
+    criteria::verdict(t, criterion, strengths)
+        .utilization
+        .unwrap()
+}
+
+fn cohesive(m: &MohrCoulomb, fit: DruckerPragerFit) -> Strengths {
+    Strengths {
+        cohesion_pa: Some(m.cohesion_pa),
+        friction_angle_deg: Some(m.friction_angle_deg),
+        dp_fit: fit,
+        ..Strengths::default()
+    }
+}
 use planewise::mechanics::{
     Analysis, PlaneNormal, PlaneStress, SignConvention, StressTensor, StressUnit,
 };
@@ -168,36 +186,45 @@ fn mohr_coulomb_uniaxial_compressive_strength() {
     // A uniaxial compression of exactly the UCS sits on the envelope: U = 1.
     let ucs = m.uniaxial_compressive_strength_pa();
     let t = StressTensor::from_pa([0.0, 0.0, -ucs, 0.0, 0.0, 0.0]).unwrap();
+    let outer_fit = cohesive(&m, DruckerPragerFit::CompressionMeridian);
     close(
-        criteria::mohr_coulomb(&t, &m).utilization.unwrap(),
+        u(&t, Criterion::MohrCoulomb, &outer_fit),
         1.0,
         1e-12,
         "U at UCS",
     );
-    // Drucker–Prager fits (Chen & Han 1988, §5.4): the outer cone passes through the compressive
-    // meridian, where uniaxial compression lies; the inner cone through the tensile meridian,
+    // Drucker–Prager fits (Chen & Han 1988, §5.4): the outer cone passes through the compression
+    // meridian, where uniaxial compression lies; the inner cone through the tension meridian,
     // where uniaxial tension lies.
-    let outer = criteria::drucker_prager(&t, &m, DruckerPragerFit::CompressiveMeridian);
-    close(outer.utilization.unwrap(), 1.0, 1e-12, "outer DP at UCS");
+    close(
+        u(&t, Criterion::DruckerPrager, &outer_fit),
+        1.0,
+        1e-12,
+        "outer DP at UCS",
+    );
     let uts = m.uniaxial_tensile_strength_pa();
     let tension = StressTensor::from_pa([uts, 0.0, 0.0, 0.0, 0.0, 0.0]).unwrap();
-    let inner = criteria::drucker_prager(&tension, &m, DruckerPragerFit::TensileMeridian);
-    close(inner.utilization.unwrap(), 1.0, 1e-12, "inner DP at UTS");
+    let inner_fit = cohesive(&m, DruckerPragerFit::TensionMeridian);
     close(
-        criteria::mohr_coulomb(&tension, &m).utilization.unwrap(),
+        u(&tension, Criterion::DruckerPrager, &inner_fit),
+        1.0,
+        1e-12,
+        "inner DP at UTS",
+    );
+    close(
+        u(&tension, Criterion::MohrCoulomb, &inner_fit),
         1.0,
         1e-12,
         "MC at UTS",
     );
-    // Equitriaxial tension beyond the apex c / tan φ (Labuz & Zang 2012) has no capacity left.
+    // Equitriaxial tension at 1.01 × the apex c / tan φ (Labuz & Zang 2012): the apex is on the
+    // surface, so proportional scaling gives U = 1.01 and the state fails.
     let apex = 5.0 * MPA / 30.0_f64.to_radians().tan();
     let beyond =
         StressTensor::from_pa([1.01 * apex, 1.01 * apex, 1.01 * apex, 0.0, 0.0, 0.0]).unwrap();
-    assert_eq!(
-        criteria::mohr_coulomb(&beyond, &m).condition,
-        Condition::BeyondApex
-    );
-    assert!(criteria::mohr_coulomb(&beyond, &m).fails());
+    let v = criteria::verdict(&beyond, Criterion::MohrCoulomb, &outer_fit);
+    close(v.utilization.unwrap(), 1.01, 1e-12, "MC beyond the apex");
+    assert_eq!(v.outcome(), criteria::Outcome::Fails);
 }
 
 #[test]
@@ -227,21 +254,39 @@ fn von_mises_tresca_and_rankine_checks() {
     // Pure shear τ against f_y: von Mises yields at τ = f_y/√3, Tresca at τ = f_y/2 (common
     // practice, e.g. Shigley's Mechanical Engineering Design, §5-4 and §5-5).
     let fy = 250.0 * MPA;
+    let steel = Strengths {
+        yield_strength_pa: Some(fy),
+        ..Strengths::default()
+    };
     let t = StressTensor::from_pa([0.0, 0.0, 0.0, fy / 3.0_f64.sqrt(), 0.0, 0.0]).unwrap();
     close(
-        criteria::von_mises(&t, fy).unwrap().utilization.unwrap(),
+        u(&t, Criterion::VonMises, &steel),
         1.0,
         1e-12,
         "von Mises U",
     );
     let t = StressTensor::from_pa([0.0, 0.0, 0.0, fy / 2.0, 0.0, 0.0]).unwrap();
-    let tr = criteria::tresca(&t, fy).unwrap();
+    let tr = criteria::verdict(&t, Criterion::Tresca, &steel);
     close(tr.utilization.unwrap(), 1.0, 1e-12, "Tresca U");
-    close(tr.factor_of_safety().unwrap(), 1.0, 1e-12, "Tresca FoS");
+    close(tr.factor_of_safety.unwrap(), 1.0, 1e-12, "Tresca FoS");
     // Rankine: σ1 = 30 against f_t = 60 → 0.5; σ3 = −90 against f_c = 100 → 0.9 governs.
     let t = mpa([30.0, 0.0, -90.0, 0.0, 0.0, 0.0]);
-    let r = criteria::rankine(&t, 60.0 * MPA, 100.0 * MPA).unwrap();
+    let brittle = Strengths {
+        tensile_strength_pa: Some(60.0 * MPA),
+        compressive_strength_pa: Some(100.0 * MPA),
+        ..Strengths::default()
+    };
+    let r = criteria::verdict(&t, Criterion::Rankine, &brittle);
     close(r.utilization.unwrap(), 0.9, 1e-12, "Rankine U");
-    assert!(criteria::von_mises(&t, 0.0).is_err());
+    assert!(r.note.starts_with("compression governs"), "{}", r.note);
+    let bad = Strengths {
+        yield_strength_pa: Some(0.0),
+        ..Strengths::default()
+    };
+    assert!(bad.validate().is_err());
     assert!(MohrCoulomb::new(1.0, 90.0).is_err());
+    // Without strengths nothing is checked, and nothing passes.
+    let none = criteria::verdict(&t, Criterion::VonMises, &Strengths::default());
+    assert_eq!(none.condition, Condition::NotChecked);
+    assert_eq!(none.outcome(), criteria::Outcome::NotChecked);
 }

@@ -6,9 +6,123 @@ use clap::Args;
 use nalgebra::Vector3;
 use serde::Serialize;
 
-use super::{CliError, PlaneArgs, StressArgs, StressInput};
+use super::{ArgError, CliError, PlaneArgs, StressArgs, StressInput};
 use crate::format::{clean, sig, with_unit};
-use crate::mechanics::{Analysis, Component, PlaneNormal, PlaneStress};
+use crate::mechanics::criteria::{
+    self, Condition, CriterionError, DruckerPragerFit, Outcome, Strengths,
+};
+use crate::mechanics::{Analysis, Component, PlaneNormal, PlaneStress, StressUnit};
+
+/// "passes", "fails" or "not-checked".
+#[must_use]
+pub fn outcome_key(outcome: Outcome) -> &'static str {
+    match outcome {
+        Outcome::Passes => "passes",
+        Outcome::Fails => "fails",
+        Outcome::NotChecked => "not-checked",
+    }
+}
+
+/// The material for the criteria and the plane's fault check (stresses in the stress unit).
+#[derive(Debug, Clone, Args)]
+pub struct StrengthArgs {
+    /// Yield strength f_y, for von Mises and Tresca.
+    #[arg(long, value_name = "V", allow_hyphen_values = true)]
+    pub yield_strength: Option<String>,
+    /// Tensile strength f_t (a positive number), for Rankine.
+    #[arg(long, value_name = "V", allow_hyphen_values = true)]
+    pub tensile_strength: Option<String>,
+    /// Compressive strength f_c (a positive number), for Rankine.
+    #[arg(long, value_name = "V", allow_hyphen_values = true)]
+    pub compressive_strength: Option<String>,
+    /// Cohesion c, for Mohr–Coulomb, Drucker–Prager and the plane's fault check.
+    #[arg(long, value_name = "C", allow_hyphen_values = true)]
+    pub cohesion: Option<String>,
+    /// Friction angle φ in degrees, with --cohesion.
+    #[arg(long, value_name = "DEG", allow_hyphen_values = true)]
+    pub friction_angle: Option<String>,
+    /// How Drucker–Prager is fitted to c and φ.
+    #[arg(long, value_name = "FIT")]
+    pub dp_fit: Option<DruckerPragerFit>,
+    /// Pore pressure p (compression positive) for the plane's fault check.
+    #[arg(long, value_name = "P", allow_hyphen_values = true)]
+    pub pore_pressure: Option<String>,
+}
+
+impl StrengthArgs {
+    /// The strengths (Pa) and pore pressure (Pa, if given); a value nothing uses, or one out of
+    /// range, is bad input naming its argument.
+    pub fn read(
+        &self,
+        unit: StressUnit,
+        plane: bool,
+    ) -> Result<(Strengths, Option<f64>), ArgError> {
+        let stress = |name: &'static str, text: &Option<String>| {
+            text.as_deref()
+                .map(|t| super::stress_value(name, t, unit))
+                .transpose()
+        };
+        let friction = self
+            .friction_angle
+            .as_deref()
+            .map(|t| crate::parse::number(t).map_err(|e| ArgError::new("--friction-angle", e)))
+            .transpose()?;
+        let strengths = Strengths {
+            yield_strength_pa: stress("--yield-strength", &self.yield_strength)?,
+            tensile_strength_pa: stress("--tensile-strength", &self.tensile_strength)?,
+            compressive_strength_pa: stress("--compressive-strength", &self.compressive_strength)?,
+            cohesion_pa: stress("--cohesion", &self.cohesion)?,
+            friction_angle_deg: friction,
+            dp_fit: self.dp_fit.unwrap_or_default(),
+        };
+        match (strengths.cohesion_pa, strengths.friction_angle_deg) {
+            (Some(_), None) => {
+                return Err(ArgError::new(
+                    "--friction-angle",
+                    "is needed together with --cohesion",
+                ));
+            }
+            (None, Some(_)) => {
+                return Err(ArgError::new(
+                    "--cohesion",
+                    "is needed together with --friction-angle",
+                ));
+            }
+            _ => {}
+        }
+        if self.dp_fit.is_some() && strengths.cohesion_pa.is_none() {
+            return Err(ArgError::new(
+                "--dp-fit",
+                "applies only with --cohesion and --friction-angle",
+            ));
+        }
+        for (value, name) in [
+            (strengths.yield_strength_pa, "--yield-strength"),
+            (strengths.tensile_strength_pa, "--tensile-strength"),
+            (strengths.compressive_strength_pa, "--compressive-strength"),
+        ] {
+            if value.is_some_and(|v| v <= 0.0) {
+                return Err(ArgError::new(name, "must be a positive stress"));
+            }
+        }
+        if let Some(Err(e)) = strengths.mohr_coulomb() {
+            let name = if matches!(e, CriterionError::Cohesion) {
+                "--cohesion"
+            } else {
+                "--friction-angle"
+            };
+            return Err(ArgError::new(name, e));
+        }
+        let pore = stress("--pore-pressure", &self.pore_pressure)?;
+        if pore.is_some() && !plane {
+            return Err(ArgError::new(
+                "--pore-pressure",
+                "applies to the plane's fault check: give --normal or --dip and --dip-direction",
+            ));
+        }
+        Ok((strengths, pore))
+    }
+}
 
 /// Arguments of `planewise analyze`.
 #[derive(Debug, Clone, Args)]
@@ -17,6 +131,8 @@ pub struct AnalyzeArgs {
     pub stress: StressArgs,
     #[command(flatten)]
     pub plane: PlaneArgs,
+    #[command(flatten)]
+    pub strengths: StrengthArgs,
     /// Print one JSON object instead of the table.
     #[arg(long)]
     pub json: bool,
@@ -39,8 +155,44 @@ pub struct AnalyzeJson {
     pub octahedral: OctahedralJson,
     pub lode_angle_deg: Option<f64>,
     pub triaxiality: Option<f64>,
+    /// Every criterion under proportional loading, in a fixed order; see [`CriterionJson`].
+    pub criteria: Vec<CriterionJson>,
+    /// The failing or most utilized criterion, if any was checked.
+    pub governing_criterion: Option<String>,
     #[serde(skip_serializing_if = "Option::is_none")]
     pub plane: Option<PlaneJson>,
+}
+
+/// One criterion: demand and strength in the stress unit, utilization = demand / strength and
+/// factor of safety = strength / demand (the factor on every stress component that reaches the
+/// criterion's surface); null with a `condition` where not defined.
+#[derive(Debug, Serialize)]
+pub struct CriterionJson {
+    pub name: String,
+    pub governing_stress: Option<f64>,
+    pub strength: Option<f64>,
+    pub utilization: Option<f64>,
+    pub factor_of_safety: Option<f64>,
+    /// "defined", "not-checked", "never-reaches" or "fails-at-any-scale".
+    pub condition: Condition,
+    /// "passes", "fails" or "not-checked".
+    pub outcome: String,
+    pub note: String,
+}
+
+/// The plane as a fault (compression-positive effective stress σn′ = σn − p).
+#[derive(Debug, Serialize)]
+pub struct FaultJson {
+    pub pore_pressure: f64,
+    pub effective_normal_stress: f64,
+    pub shear_stress: f64,
+    pub slip_tendency: Option<f64>,
+    pub slip_tendency_condition: Condition,
+    pub dilation_tendency: Option<f64>,
+    pub mohr_coulomb_utilization: Option<f64>,
+    /// The pore-pressure increase that brings the plane to slip (negative: already beyond).
+    pub pore_pressure_to_slip: Option<f64>,
+    pub rake_deg: Option<f64>,
 }
 
 /// The six components.
@@ -91,15 +243,28 @@ pub struct PlaneJson {
     /// Rake of the hanging wall's slip in the plane (Aki & Richards), degrees; null when the
     /// shear is negligible or the plane is horizontal.
     pub rake_deg: Option<f64>,
+    /// With --pore-pressure or --cohesion: the plane as a fault.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub fault: Option<FaultJson>,
 }
 
 fn arr(v: &Vector3<f64>) -> [f64; 3] {
     [v.x, v.y, v.z].map(clean)
 }
 
+/// What `analyze` checks besides the state: the material's strengths and, for the plane's fault
+/// check, the pore pressure.
+#[derive(Debug, Clone, Copy, Default)]
+pub struct Checks {
+    /// The strengths.
+    pub strengths: Strengths,
+    /// The pore pressure, Pa, if given.
+    pub pore_pressure_pa: Option<f64>,
+}
+
 /// Builds the JSON object for a state and optional plane.
 #[must_use]
-pub fn to_json(input: &StressInput, plane: Option<PlaneNormal>) -> AnalyzeJson {
+pub fn to_json(input: &StressInput, plane: Option<PlaneNormal>, checks: &Checks) -> AnalyzeJson {
     let u = input.unit.pascals();
     let sign = input.convention.sign();
     let a = Analysis::new(&input.tensor, input.convention);
@@ -107,6 +272,15 @@ pub fn to_json(input: &StressInput, plane: Option<PlaneNormal>) -> AnalyzeJson {
     let st = |pa: f64| clean(pa / u);
     let c = input.tensor.components_pa().map(|v| st(sign * v));
     let inv = &a.invariants;
+    let verdicts = criteria::verdicts(&input.tensor, &checks.strengths);
+    let mut ordered = verdicts.clone();
+    criteria::governing_first(&mut ordered);
+    let governing = ordered
+        .first()
+        .filter(|v| v.outcome() != Outcome::NotChecked)
+        .map(|v| v.criterion.key().to_owned());
+    let material = checks.strengths.mohr_coulomb().and_then(Result::ok);
+    let fault_wanted = checks.pore_pressure_pa.is_some() || material.is_some();
     AnalyzeJson {
         unit: input.unit.symbol().to_owned(),
         convention: input.convention.key().to_owned(),
@@ -140,6 +314,20 @@ pub fn to_json(input: &StressInput, plane: Option<PlaneNormal>) -> AnalyzeJson {
         },
         lode_angle_deg: a.lode_angle_deg.map(clean),
         triaxiality: a.triaxiality.map(clean),
+        criteria: verdicts
+            .iter()
+            .map(|v| CriterionJson {
+                name: v.criterion.key().to_owned(),
+                governing_stress: v.governing_stress_pa.map(st),
+                strength: v.strength_pa.map(st),
+                utilization: v.utilization.map(clean),
+                factor_of_safety: v.factor_of_safety.map(clean),
+                condition: v.condition,
+                outcome: outcome_key(v.outcome()).to_owned(),
+                note: v.note.clone(),
+            })
+            .collect(),
+        governing_criterion: governing,
         plane: plane.map(|n| {
             let ps = PlaneStress::new(&input.tensor, n, input.convention);
             PlaneJson {
@@ -149,6 +337,26 @@ pub fn to_json(input: &StressInput, plane: Option<PlaneNormal>) -> AnalyzeJson {
                 shear_stress: st(ps.shear_stress_pa),
                 shear_direction: ps.shear_direction.map(|d| arr(&d)),
                 rake_deg: ps.rake_deg().map(clean),
+                fault: fault_wanted
+                    .then(|| {
+                        let p = checks.pore_pressure_pa.unwrap_or(0.0);
+                        criteria::fault_check(&input.tensor, n, p, material.as_ref()).ok()
+                    })
+                    .flatten()
+                    .map(|f| FaultJson {
+                        pore_pressure: st(checks.pore_pressure_pa.unwrap_or(0.0)),
+                        effective_normal_stress: st(f.effective_normal_stress_pa),
+                        shear_stress: st(f.shear_stress_pa),
+                        slip_tendency: f.slip_tendency.utilization.map(clean),
+                        slip_tendency_condition: f.slip_tendency.condition,
+                        dilation_tendency: f.dilation_tendency.utilization.map(clean),
+                        mohr_coulomb_utilization: f
+                            .mohr_coulomb
+                            .and_then(|c| c.utilization)
+                            .map(clean),
+                        pore_pressure_to_slip: f.pore_pressure_to_slip_pa.map(st),
+                        rake_deg: f.rake_deg.map(clean),
+                    }),
             }
         }),
     }
@@ -225,6 +433,39 @@ pub fn to_text(j: &AnalyzeJson) -> String {
         vec_text(&j.max_shear_normals[0]),
         vec_text(&j.max_shear_normals[1])
     );
+    let _ = writeln!(
+        s,
+        "Criteria (proportional loading: factor of safety = the factor on every stress that reaches the surface; utilization = 1 / factor)"
+    );
+    for c in &j.criteria {
+        let numbers = match (c.utilization, c.factor_of_safety) {
+            (Some(u), Some(f)) => format!("U = {}, factor of safety {}", sig(u, 4), sig(f, 4)),
+            (Some(u), None) => format!("U = {}, no stress to scale", sig(u, 4)),
+            _ => match c.condition {
+                Condition::NeverReaches => "never reaches the surface when scaled".to_owned(),
+                Condition::FailsAtAnyScale => {
+                    "outside the surface at any scale (zero strength)".to_owned()
+                }
+                _ => String::new(),
+            },
+        };
+        let demand = match (c.governing_stress, c.strength) {
+            (Some(d), Some(f)) => {
+                format!(" ({} vs {})", with_unit(Some(d), u), with_unit(Some(f), u))
+            }
+            _ => String::new(),
+        };
+        let note = if c.note.is_empty() {
+            String::new()
+        } else {
+            format!("; {}", c.note)
+        };
+        let _ = writeln!(
+            s,
+            "  {:<23} {:<11} {numbers}{demand}{note}",
+            c.name, c.outcome
+        );
+    }
     if let Some(p) = &j.plane {
         let _ = writeln!(s, "Plane with unit normal {}", vec_text(&p.normal));
         let _ = writeln!(
@@ -259,6 +500,46 @@ pub fn to_text(j: &AnalyzeJson) -> String {
             s,
             "  (shear direction: the shear on the material behind the plane from the material n points into, tension-positive physics; rake: the hanging wall's slip from strike, Aki & Richards, reverse +90°)"
         );
+        if let Some(f) = &p.fault {
+            let ratio = |v: Option<f64>| v.map_or_else(|| "undefined".to_owned(), |x| sig(x, 5));
+            let _ = writeln!(
+                s,
+                "Fault check (compression positive, σn′ = σn − p, p = {})",
+                with_unit(Some(f.pore_pressure), u)
+            );
+            let _ = writeln!(
+                s,
+                "  {:<23} {}",
+                "effective normal σn′",
+                with_unit(Some(f.effective_normal_stress), u)
+            );
+            let _ = writeln!(
+                s,
+                "  {:<23} {}",
+                "slip tendency τ/σn′",
+                ratio(f.slip_tendency)
+            );
+            let _ = writeln!(
+                s,
+                "  {:<23} {}",
+                "dilation tendency",
+                ratio(f.dilation_tendency)
+            );
+            if f.mohr_coulomb_utilization.is_some() || f.pore_pressure_to_slip.is_some() {
+                let _ = writeln!(
+                    s,
+                    "  {:<23} {}",
+                    "Mohr–Coulomb U",
+                    ratio(f.mohr_coulomb_utilization)
+                );
+                let _ = writeln!(
+                    s,
+                    "  {:<23} {}",
+                    "Δp to slip",
+                    with_unit(f.pore_pressure_to_slip, u)
+                );
+            }
+        }
     }
     s
 }
@@ -267,7 +548,15 @@ pub fn to_text(j: &AnalyzeJson) -> String {
 pub fn run(args: &AnalyzeArgs) -> Result<String, CliError> {
     let input = args.stress.read()?;
     let plane = args.plane.read()?;
-    let json = to_json(&input, plane);
+    let (strengths, pore_pressure_pa) = args.strengths.read(input.unit, plane.is_some())?;
+    let json = to_json(
+        &input,
+        plane,
+        &Checks {
+            strengths,
+            pore_pressure_pa,
+        },
+    );
     if args.json {
         let mut text = serde_json::to_string_pretty(&json).map_err(anyhow::Error::from)?;
         text.push('\n');

@@ -8,6 +8,7 @@ use clap::builder::PossibleValue;
 
 use crate::draw::camera::ViewPreset;
 use crate::mechanics::StressUnit;
+use crate::mechanics::criteria::DruckerPragerFit;
 use crate::mechanics::search::Measure;
 use crate::scene::Layers;
 use crate::study::EnvelopeMeasure;
@@ -33,6 +34,16 @@ impl ValueEnum for EnvelopeMeasure {
 }
 
 impl ValueEnum for ViewPreset {
+    fn value_variants<'a>() -> &'a [Self] {
+        &Self::ALL
+    }
+
+    fn to_possible_value(&self) -> Option<PossibleValue> {
+        Some(PossibleValue::new(self.key()).help(self.label()))
+    }
+}
+
+impl ValueEnum for DruckerPragerFit {
     fn value_variants<'a>() -> &'a [Self] {
         &Self::ALL
     }

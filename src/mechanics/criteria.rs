@@ -1,11 +1,15 @@
 //! Failure criteria and fault-reactivation measures.
 //!
-//! Each criterion gives a utilization U = demand / capacity (U ≥ 1 means the criterion is met
-//! or exceeded) and the factor of safety 1/U. Inputs are the stored, tension-positive tensor;
-//! conventions used inside a formula are stated beside it. Where the capacity at the current
-//! mean or effective normal stress is zero or negative (a state beyond the apex of a
-//! pressure-dependent criterion, or a plane whose effective normal stress is tensile) nothing is
-//! divided by it: the result says so in its [`Condition`] and has no utilization.
+//! Criteria ([`verdict`]) are judged under proportional loading: the factor of safety is the
+//! number every stress component must be multiplied by to reach the criterion's surface, and
+//! the utilization is its inverse. Each criterion is written as demand ≤ strength with a demand
+//! that scales with the stresses, so U = demand / strength. Where scaling never reaches the
+//! surface (demand ≤ 0, e.g. hydrostatic compression under Mohr–Coulomb), or the strength is
+//! zero (a cohesionless material), nothing is divided: the [`Condition`] says so. A criterion
+//! without its strengths is [`Condition::NotChecked`], never "passes".
+//!
+//! Plane measures (slip and dilation tendency) and the [`fault_check`] use compression-positive
+//! effective stress σn′ = σn − p. Inputs are always the stored, tension-positive tensor.
 
 use serde::{Deserialize, Serialize};
 
@@ -31,15 +35,21 @@ pub enum CriterionError {
     PorePressure,
 }
 
-/// How the state stands against a criterion.
+/// How the state stands against a criterion or measure.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize, Deserialize)]
 #[serde(rename_all = "kebab-case")]
 pub enum Condition {
     /// The utilization is defined.
     Defined,
-    /// The mean stress is so tensile that the criterion's capacity is zero or negative (beyond
-    /// the apex of the cone or of the Mohr–Coulomb envelope): failing, no utilization.
-    BeyondApex,
+    /// The strengths the criterion needs are not given: not checked (never "passes").
+    NotChecked,
+    /// Scaling every stress component up never reaches the criterion's surface (hydrostatic
+    /// compression under a pressure-dependent criterion, for example): passes at any scale, no
+    /// factor of safety.
+    NeverReaches,
+    /// The criterion's strength is zero (a cohesionless Mohr–Coulomb or Drucker–Prager material)
+    /// and the state is outside it: fails at any scale, no factor of safety.
+    FailsAtAnyScale,
     /// The effective normal stress on the plane is zero or tensile: the plane would open; a
     /// frictional ratio is not defined.
     EffectiveTension,
@@ -77,13 +87,13 @@ impl Check {
         self.utilization.filter(|u| *u > 0.0).map(|u| 1.0 / u)
     }
 
-    /// True when the state meets or exceeds the criterion, including beyond-apex states.
+    /// True when the measure is met or exceeded (U ≥ 1), or the plane would open.
     #[must_use]
     pub fn fails(&self) -> bool {
         match self.condition {
             Condition::Defined => self.utilization.is_some_and(|u| u >= 1.0),
-            Condition::BeyondApex | Condition::EffectiveTension => true,
-            Condition::Undefined => false,
+            Condition::EffectiveTension | Condition::FailsAtAnyScale => true,
+            Condition::NotChecked | Condition::NeverReaches | Condition::Undefined => false,
         }
     }
 }
@@ -145,117 +155,391 @@ impl MohrCoulomb {
     }
 }
 
-/// von Mises: U = σ_vM / f_y (von Mises 1913; the distortion-energy criterion).
-pub fn von_mises(t: &StressTensor, yield_strength_pa: f64) -> Result<Check, CriterionError> {
-    let fy = positive(yield_strength_pa, "yield strength")?;
-    let a = Analysis::new(t, SignConvention::TensionPositive);
-    Ok(Check::defined(a.von_mises_pa / fy))
-}
-
-/// Tresca: U = (σ1 − σ3) / f_y (Tresca 1864; maximum shear stress = f_y / 2).
-pub fn tresca(t: &StressTensor, yield_strength_pa: f64) -> Result<Check, CriterionError> {
-    let fy = positive(yield_strength_pa, "yield strength")?;
-    let a = Analysis::new(t, SignConvention::TensionPositive);
-    Ok(Check::defined(a.tresca_pa / fy))
-}
-
-/// Rankine (maximum principal stress): U = max(σ1 / f_t, −σ3 / f_c, 0), tension positive,
-/// with tensile strength f_t and compressive strength f_c both given as positive numbers.
-pub fn rankine(
-    t: &StressTensor,
-    tensile_strength_pa: f64,
-    compressive_strength_pa: f64,
-) -> Result<Check, CriterionError> {
-    let ft = positive(tensile_strength_pa, "tensile strength")?;
-    let fc = positive(compressive_strength_pa, "compressive strength")?;
-    let [s1, _, s3] = Analysis::new(t, SignConvention::TensionPositive)
-        .principal
-        .values_pa;
-    Ok(Check::defined((s1 / ft).max(-s3 / fc).max(0.0)))
-}
-
-/// Mohr–Coulomb in principal stresses. Tension positive, σm = (σ1 + σ3)/2, τm = (σ1 − σ3)/2:
-/// failure when τm = c cos φ − σm sin φ (Labuz & Zang 2012, eq. 4 written tension-positive), so
-/// U = τm / (c cos φ − σm sin φ). With φ = 0 this is Tresca with f_y = 2c.
-#[must_use]
-pub fn mohr_coulomb(t: &StressTensor, material: &MohrCoulomb) -> Check {
-    let [s1, _, s3] = Analysis::new(t, SignConvention::TensionPositive)
-        .principal
-        .values_pa;
-    let (sin_phi, cos_phi) = material.friction_angle_deg.to_radians().sin_cos();
-    let tau_m = 0.5 * (s1 - s3);
-    let sigma_m = 0.5 * (s1 + s3);
-    let capacity = material.cohesion_pa * cos_phi - sigma_m * sin_phi;
-    if capacity <= 0.0 {
-        return Check::not_defined(Condition::BeyondApex);
-    }
-    Check::defined(tau_m / capacity)
-}
-
-/// The three usual ways of fitting a Drucker–Prager cone to a Mohr–Coulomb hexagon
-/// (Chen & Han, Plasticity for Structural Engineers, 1988, §5.4; Drucker & Prager 1952).
-#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, Serialize, Deserialize)]
+/// The ways of fitting a Drucker–Prager cone √J2 + α I1 = k (tension positive) to a
+/// Mohr–Coulomb material, each named by what it matches (Chen & Han, Plasticity for Structural
+/// Engineers, 1988, §5.4, eqs. 5.4.10–5.4.12 and the plane-strain match; Drucker & Prager 1952).
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, Serialize, Deserialize, Default)]
 #[serde(rename_all = "kebab-case")]
 pub enum DruckerPragerFit {
-    /// Circumscribed cone through the compressive meridian (outer apices):
+    /// Circumscribed cone through the compression meridian (the hexagon's outer apices):
     /// α = 2 sin φ / (√3 (3 − sin φ)), k = 6 c cos φ / (√3 (3 − sin φ)).
-    CompressiveMeridian,
-    /// Cone through the tensile meridian (inner apices):
+    #[default]
+    CompressionMeridian,
+    /// Cone through the tension meridian (the hexagon's inner apices):
     /// α = 2 sin φ / (√3 (3 + sin φ)), k = 6 c cos φ / (√3 (3 + sin φ)).
-    TensileMeridian,
-    /// Cone inscribed in the hexagon (also the plane-strain match):
+    TensionMeridian,
+    /// Cone inscribed in the hexagon in the deviatoric section:
     /// α = sin φ / (√3 √(3 + sin² φ)), k = √3 c cos φ / √(3 + sin² φ).
     Inscribed,
+    /// The same collapse load as Mohr–Coulomb in plane strain with associated flow:
+    /// α = tan φ / √(9 + 12 tan² φ), k = 3 c / √(9 + 12 tan² φ) — algebraically the inscribed
+    /// cone (the tests check the identity), listed under the name engineers look for.
+    PlaneStrain,
 }
 
 impl DruckerPragerFit {
     /// All fits, in menu order.
-    pub const ALL: [Self; 3] = [
-        Self::CompressiveMeridian,
-        Self::TensileMeridian,
+    pub const ALL: [Self; 4] = [
+        Self::CompressionMeridian,
+        Self::TensionMeridian,
         Self::Inscribed,
+        Self::PlaneStrain,
     ];
+
+    /// The command-line and file key.
+    #[must_use]
+    pub fn key(self) -> &'static str {
+        match self {
+            Self::CompressionMeridian => "compression-meridian",
+            Self::TensionMeridian => "tension-meridian",
+            Self::Inscribed => "inscribed",
+            Self::PlaneStrain => "plane-strain",
+        }
+    }
 
     /// Name as shown to users.
     #[must_use]
     pub fn label(self) -> &'static str {
         match self {
-            Self::CompressiveMeridian => "outer (compressive meridian)",
-            Self::TensileMeridian => "inner (tensile meridian)",
-            Self::Inscribed => "inscribed",
+            Self::CompressionMeridian => "matches MC on the compression meridian (outer cone)",
+            Self::TensionMeridian => "matches MC on the tension meridian (inner cone)",
+            Self::Inscribed => "inscribed in the MC hexagon (deviatoric section)",
+            Self::PlaneStrain => "matches MC in plane strain (associated flow)",
         }
     }
 
     /// α (dimensionless) and k (Pa) of √J2 + α I1 = k, tension positive.
     #[must_use]
     pub fn alpha_k(self, material: &MohrCoulomb) -> (f64, f64) {
-        let (s, c) = material.friction_angle_deg.to_radians().sin_cos();
+        let phi = material.friction_angle_deg.to_radians();
+        let (s, c) = phi.sin_cos();
         let coh = material.cohesion_pa;
         let r3 = 3.0_f64.sqrt();
         match self {
-            Self::CompressiveMeridian => {
+            Self::CompressionMeridian => {
                 (2.0 * s / (r3 * (3.0 - s)), 6.0 * coh * c / (r3 * (3.0 - s)))
             }
-            Self::TensileMeridian => (2.0 * s / (r3 * (3.0 + s)), 6.0 * coh * c / (r3 * (3.0 + s))),
+            Self::TensionMeridian => (2.0 * s / (r3 * (3.0 + s)), 6.0 * coh * c / (r3 * (3.0 + s))),
             Self::Inscribed => {
                 let d = (3.0 + s * s).sqrt();
                 (s / (r3 * d), r3 * coh * c / d)
+            }
+            Self::PlaneStrain => {
+                let t = phi.tan();
+                let d = (9.0 + 12.0 * t * t).sqrt();
+                (t / d, 3.0 * coh / d)
             }
         }
     }
 }
 
-/// Drucker–Prager: failure when √J2 + α I1 = k (tension positive), so
-/// U = √J2 / (k − α I1).
-#[must_use]
-pub fn drucker_prager(t: &StressTensor, material: &MohrCoulomb, fit: DruckerPragerFit) -> Check {
-    let a = Analysis::new(t, SignConvention::TensionPositive);
-    let (alpha, k) = fit.alpha_k(material);
-    let capacity = k - alpha * a.invariants.i1;
-    if capacity <= 0.0 {
-        return Check::not_defined(Condition::BeyondApex);
+/// The criteria a stress state is checked against.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, Serialize, Deserialize)]
+#[serde(rename_all = "kebab-case")]
+pub enum Criterion {
+    /// von Mises (distortion energy).
+    VonMises,
+    /// Tresca (maximum shear).
+    Tresca,
+    /// Rankine (maximum principal stress).
+    Rankine,
+    /// Mohr–Coulomb in principal stresses.
+    MohrCoulomb,
+    /// Drucker–Prager with a chosen fit to Mohr–Coulomb.
+    DruckerPrager,
+}
+
+impl Criterion {
+    /// All criteria, in the order they are listed.
+    pub const ALL: [Self; 5] = [
+        Self::VonMises,
+        Self::Tresca,
+        Self::Rankine,
+        Self::MohrCoulomb,
+        Self::DruckerPrager,
+    ];
+
+    /// The JSON and command-line key.
+    #[must_use]
+    pub fn key(self) -> &'static str {
+        match self {
+            Self::VonMises => "von-mises",
+            Self::Tresca => "tresca",
+            Self::Rankine => "rankine",
+            Self::MohrCoulomb => "mohr-coulomb",
+            Self::DruckerPrager => "drucker-prager",
+        }
     }
-    Check::defined(a.invariants.j2.sqrt() / capacity)
+
+    /// Name as shown to users.
+    #[must_use]
+    pub fn label(self) -> &'static str {
+        match self {
+            Self::VonMises => "von Mises",
+            Self::Tresca => "Tresca",
+            Self::Rankine => "Rankine (max principal stress)",
+            Self::MohrCoulomb => "Mohr–Coulomb",
+            Self::DruckerPrager => "Drucker–Prager",
+        }
+    }
+
+    /// The formula with its source, for tooltips, help and reports.
+    #[must_use]
+    pub fn formula(self) -> &'static str {
+        match self {
+            Self::VonMises => {
+                "√(3 J2) ≤ f_y (von Mises 1913; e.g. Shigley's Mechanical Engineering Design, §5-5)"
+            }
+            Self::Tresca => {
+                "σ1 − σ3 ≤ f_y (Tresca 1864; e.g. Shigley's Mechanical Engineering Design, §5-4)"
+            }
+            Self::Rankine => {
+                "σ1 ≤ f_t and −σ3 ≤ f_c, tension positive; the larger ratio governs (Rankine 1857; e.g. Chen & Han 1988, §2.3)"
+            }
+            Self::MohrCoulomb => {
+                "(σ1 − σ3) + (σ1 + σ3) sin φ ≤ 2 c cos φ, tension positive, no tension cut-off (Labuz & Zang, Rock Mech. Rock Eng. 45:975, 2012)"
+            }
+            Self::DruckerPrager => {
+                "√J2 + α I1 ≤ k, tension positive, α and k from c and φ by the chosen fit (Chen & Han 1988, §5.4)"
+            }
+        }
+    }
+
+    /// The strengths the criterion needs.
+    #[must_use]
+    pub fn needs(self) -> &'static str {
+        match self {
+            Self::VonMises | Self::Tresca => "yield strength",
+            Self::Rankine => "tensile and/or compressive strength",
+            Self::MohrCoulomb | Self::DruckerPrager => "cohesion and friction angle",
+        }
+    }
+}
+
+/// A material's strengths; any may be missing, and a criterion without its strengths is not
+/// checked. Stresses in pascals (positive numbers), the friction angle in degrees.
+#[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize, Default)]
+#[serde(default)]
+pub struct Strengths {
+    /// Yield strength f_y (von Mises, Tresca), Pa.
+    pub yield_strength_pa: Option<f64>,
+    /// Tensile strength f_t (Rankine), Pa.
+    pub tensile_strength_pa: Option<f64>,
+    /// Compressive strength f_c as a positive number (Rankine), Pa.
+    pub compressive_strength_pa: Option<f64>,
+    /// Cohesion c (Mohr–Coulomb, Drucker–Prager), Pa.
+    pub cohesion_pa: Option<f64>,
+    /// Friction angle φ (Mohr–Coulomb, Drucker–Prager), degrees.
+    pub friction_angle_deg: Option<f64>,
+    /// How Drucker–Prager is fitted to c and φ.
+    pub dp_fit: DruckerPragerFit,
+}
+
+impl Strengths {
+    /// Checks every value that is given.
+    pub fn validate(&self) -> Result<(), CriterionError> {
+        for (value, what) in [
+            (self.yield_strength_pa, "yield strength"),
+            (self.tensile_strength_pa, "tensile strength"),
+            (self.compressive_strength_pa, "compressive strength"),
+        ] {
+            if let Some(v) = value {
+                positive(v, what)?;
+            }
+        }
+        self.mohr_coulomb().transpose().map(|_| ())
+    }
+
+    /// The Mohr–Coulomb material, when both cohesion and friction angle are given.
+    #[must_use]
+    pub fn mohr_coulomb(&self) -> Option<Result<MohrCoulomb, CriterionError>> {
+        match (self.cohesion_pa, self.friction_angle_deg) {
+            (Some(c), Some(phi)) => Some(MohrCoulomb::new(c, phi)),
+            _ => None,
+        }
+    }
+}
+
+/// One criterion's verdict under proportional loading: the factor of safety is the number every
+/// stress component must be multiplied by to reach the criterion's surface, and the utilization
+/// is its inverse (demand / strength, both at the current state).
+#[derive(Clone, Debug, PartialEq)]
+pub struct Verdict {
+    /// The criterion.
+    pub criterion: Criterion,
+    /// The demand the criterion compares (√(3 J2); σ1 − σ3; σ1 or −σ3; the Mohr–Coulomb and
+    /// Drucker–Prager left-hand sides), Pa; `None` when not checked.
+    pub governing_stress_pa: Option<f64>,
+    /// The strength it is compared with, Pa; `None` when not checked.
+    pub strength_pa: Option<f64>,
+    /// demand / strength; `None` where not defined (see `condition`).
+    pub utilization: Option<f64>,
+    /// strength / demand; `None` where not defined, and for a state with no demand.
+    pub factor_of_safety: Option<f64>,
+    /// Whether the numbers are defined, and if not, why.
+    pub condition: Condition,
+    /// What governs (Rankine: tension or compression), or what is missing when not checked.
+    pub note: String,
+}
+
+/// Pass, fail or not checked.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum Outcome {
+    /// Utilization below 1, or the surface is never reached.
+    Passes,
+    /// Utilization 1 or more, or fails at any scale.
+    Fails,
+    /// Strengths missing.
+    NotChecked,
+}
+
+impl Verdict {
+    /// The outcome.
+    #[must_use]
+    pub fn outcome(&self) -> Outcome {
+        match self.condition {
+            Condition::NotChecked => Outcome::NotChecked,
+            Condition::FailsAtAnyScale | Condition::EffectiveTension => Outcome::Fails,
+            _ if self.utilization.is_some_and(|u| u >= 1.0) => Outcome::Fails,
+            _ => Outcome::Passes,
+        }
+    }
+
+    fn not_checked(criterion: Criterion, note: String) -> Self {
+        Self {
+            criterion,
+            governing_stress_pa: None,
+            strength_pa: None,
+            utilization: None,
+            factor_of_safety: None,
+            condition: Condition::NotChecked,
+            note,
+        }
+    }
+
+    /// The verdict for a demand that scales with the stresses and a fixed strength.
+    fn proportional(criterion: Criterion, demand_pa: f64, strength_pa: f64, note: String) -> Self {
+        let (utilization, factor_of_safety, condition) = if strength_pa > 0.0 {
+            if demand_pa > 0.0 {
+                (
+                    Some(demand_pa / strength_pa),
+                    Some(strength_pa / demand_pa),
+                    Condition::Defined,
+                )
+            } else if demand_pa == 0.0 {
+                (Some(0.0), None, Condition::Defined)
+            } else {
+                (None, None, Condition::NeverReaches)
+            }
+        } else if demand_pa > 0.0 {
+            (None, None, Condition::FailsAtAnyScale)
+        } else {
+            (None, None, Condition::NeverReaches)
+        };
+        Self {
+            criterion,
+            governing_stress_pa: Some(demand_pa),
+            strength_pa: Some(strength_pa),
+            utilization,
+            factor_of_safety,
+            condition,
+            note,
+        }
+    }
+}
+
+/// The verdict of `criterion` for the stored (tension-positive) tensor `t`. Strengths must have
+/// passed [`Strengths::validate`]; an invalid one counts as missing.
+#[must_use]
+pub fn verdict(t: &StressTensor, criterion: Criterion, strengths: &Strengths) -> Verdict {
+    let a = Analysis::new(t, SignConvention::TensionPositive);
+    let [s1, _, s3] = a.principal.values_pa;
+    let valid = |v: Option<f64>| v.filter(|x| x.is_finite() && *x > 0.0);
+    let missing = || format!("not checked: needs the {}", criterion.needs());
+    match criterion {
+        Criterion::VonMises | Criterion::Tresca => {
+            let Some(fy) = valid(strengths.yield_strength_pa) else {
+                return Verdict::not_checked(criterion, missing());
+            };
+            let demand = if criterion == Criterion::VonMises {
+                a.von_mises_pa
+            } else {
+                a.tresca_pa
+            };
+            Verdict::proportional(criterion, demand, fy, String::new())
+        }
+        Criterion::Rankine => {
+            let ft = valid(strengths.tensile_strength_pa);
+            let fc = valid(strengths.compressive_strength_pa);
+            let sides = [
+                ft.map(|f| (s1, f, "tension governs (σ1 vs f_t)")),
+                fc.map(|f| (-s3, f, "compression governs (−σ3 vs f_c)")),
+            ];
+            let Some((demand, strength, which)) = sides
+                .into_iter()
+                .flatten()
+                .max_by(|a, b| (a.0 / a.1).total_cmp(&(b.0 / b.1)))
+            else {
+                return Verdict::not_checked(criterion, missing());
+            };
+            let mut note = which.to_owned();
+            if ft.is_none() {
+                note.push_str("; tension side not checked (no tensile strength)");
+            } else if fc.is_none() {
+                note.push_str("; compression side not checked (no compressive strength)");
+            }
+            Verdict::proportional(criterion, demand, strength, note)
+        }
+        Criterion::MohrCoulomb | Criterion::DruckerPrager => {
+            let Some(Ok(m)) = strengths.mohr_coulomb() else {
+                return Verdict::not_checked(criterion, missing());
+            };
+            if criterion == Criterion::MohrCoulomb {
+                let (sin_phi, cos_phi) = m.friction_angle_deg.to_radians().sin_cos();
+                let demand = (s1 - s3) + (s1 + s3) * sin_phi;
+                Verdict::proportional(
+                    criterion,
+                    demand,
+                    2.0 * m.cohesion_pa * cos_phi,
+                    String::new(),
+                )
+            } else {
+                let (alpha, k) = strengths.dp_fit.alpha_k(&m);
+                let demand = a.invariants.j2.max(0.0).sqrt() + alpha * a.invariants.i1;
+                Verdict::proportional(
+                    criterion,
+                    demand,
+                    k,
+                    format!("fit: {}", strengths.dp_fit.label()),
+                )
+            }
+        }
+    }
+}
+
+/// Every criterion's verdict, in [`Criterion::ALL`] order.
+#[must_use]
+pub fn verdicts(t: &StressTensor, strengths: &Strengths) -> Vec<Verdict> {
+    Criterion::ALL
+        .iter()
+        .map(|&c| verdict(t, c, strengths))
+        .collect()
+}
+
+/// The verdicts ordered governing first: failing before passing, higher utilization first,
+/// not checked last.
+pub fn governing_first(verdicts: &mut [Verdict]) {
+    let rank = |v: &Verdict| match (v.outcome(), v.utilization) {
+        (Outcome::Fails, u) => (0, -u.unwrap_or(f64::INFINITY)),
+        (Outcome::Passes, Some(u)) => (1, -u),
+        (Outcome::Passes, None) => (2, 0.0),
+        (Outcome::NotChecked, _) => (3, 0.0),
+    };
+    verdicts.sort_by(|a, b| {
+        let (ra, ua) = rank(a);
+        let (rb, ub) = rank(b);
+        ra.cmp(&rb).then(ua.total_cmp(&ub))
+    });
 }
 
 /// Slip tendency T_s = τ / (σn − p) on a plane, compression positive, with pore pressure p
@@ -290,4 +574,65 @@ pub fn dilation_tendency(t: &StressTensor, normal: PlaneNormal) -> Check {
     }
     let ps = PlaneStress::new(t, normal, SignConvention::CompressionPositive);
     Check::defined(((s1 - ps.normal_stress_pa) / (s1 - s3)).clamp(0.0, 1.0))
+}
+
+/// Everything a geomechanics engineer asks of one fault plane, compression positive with
+/// effective normal stress σn′ = σn − p.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct FaultCheck {
+    /// Effective normal stress σn′ = σn − p, Pa (compression positive).
+    pub effective_normal_stress_pa: f64,
+    /// Shear stress τ, Pa.
+    pub shear_stress_pa: f64,
+    /// Slip tendency τ / σn′ (Morris et al. 1996).
+    pub slip_tendency: Check,
+    /// Dilation tendency (σ1 − σn) / (σ1 − σ3) (Ferrill et al. 1999).
+    pub dilation_tendency: Check,
+    /// Mohr–Coulomb utilization τ / (c + σn′ tan φ), when c and φ are given.
+    pub mohr_coulomb: Option<Check>,
+    /// The pore-pressure increase that brings the plane to slip, Δp = σn′ − (τ − c) / tan φ, Pa
+    /// (negative: the plane is already beyond slip); `None` without c and φ, or with φ = 0 (pore
+    /// pressure then does not change the strength).
+    pub pore_pressure_to_slip_pa: Option<f64>,
+    /// Rake of the slip sense (Aki & Richards 1980), degrees; `None` without shear or for a
+    /// horizontal plane.
+    pub rake_deg: Option<f64>,
+}
+
+/// The fault check of the plane with normal `normal` (Morris et al. 1996; Ferrill et al. 1999;
+/// Δp from the Coulomb criterion τ = c + (σn − p) tan φ solved for p, e.g. Zoback, Reservoir
+/// Geomechanics, 2007, §4).
+pub fn fault_check(
+    t: &StressTensor,
+    normal: PlaneNormal,
+    pore_pressure_pa: f64,
+    material: Option<&MohrCoulomb>,
+) -> Result<FaultCheck, CriterionError> {
+    let slip = slip_tendency(t, normal, pore_pressure_pa)?;
+    let ps = PlaneStress::new(t, normal, SignConvention::CompressionPositive);
+    let effective = ps.normal_stress_pa - pore_pressure_pa;
+    let tau = ps.shear_stress_pa;
+    let (mohr_coulomb, to_slip) = match material {
+        Some(m) => {
+            let capacity = m.shear_strength_pa(effective);
+            let check = if capacity > 0.0 {
+                Check::defined(tau / capacity)
+            } else {
+                Check::not_defined(Condition::EffectiveTension)
+            };
+            let tan_phi = m.friction_angle_deg.to_radians().tan();
+            let dp = (tan_phi > 0.0).then(|| effective - (tau - m.cohesion_pa) / tan_phi);
+            (Some(check), dp)
+        }
+        None => (None, None),
+    };
+    Ok(FaultCheck {
+        effective_normal_stress_pa: effective,
+        shear_stress_pa: tau,
+        slip_tendency: slip,
+        dilation_tendency: dilation_tendency(t, normal),
+        mohr_coulomb,
+        pore_pressure_to_slip_pa: to_slip,
+        rake_deg: PlaneStress::new(t, normal, SignConvention::TensionPositive).rake_deg(),
+    })
 }

@@ -3,6 +3,7 @@
 //! Before this, each panel searched for itself, two or three times a frame.
 
 use super::model::{MeasureChoice, Project};
+use crate::mechanics::criteria::{self, FaultCheck, Verdict};
 use crate::mechanics::search::{SearchError, SearchResult, SearchSettings, worst_plane};
 use crate::mechanics::{Analysis, PlaneNormal, SignConvention, StressTensor, StressUnit};
 
@@ -29,6 +30,13 @@ pub struct Derived {
     pub analysis: Analysis,
     /// The worst planes for the measure.
     pub worst: Result<SearchResult, SearchError>,
+    /// The material's verdicts, governing first.
+    pub verdicts: Vec<Verdict>,
+    /// The material's name.
+    pub material_name: String,
+    /// The cut plane as a fault, with the worst-plane section's pore pressure and plane
+    /// cohesion and friction.
+    pub fault: Option<FaultCheck>,
     /// Why the tensor could not be formed, if so (the zero tensor is shown meanwhile).
     pub problem: Option<String>,
 }
@@ -45,7 +53,19 @@ impl Derived {
             Err(e) => (StressTensor::default(), Some(e.to_string())),
         };
         let search = project.measure.settings(convention);
+        let mut verdicts = criteria::verdicts(&tensor, &project.material.strengths);
+        criteria::governing_first(&mut verdicts);
+        let fault = criteria::fault_check(
+            &tensor,
+            project.plane,
+            project.measure.pore_pressure_pa,
+            search.material.as_ref(),
+        )
+        .ok();
         Self {
+            verdicts,
+            material_name: project.material.name.clone(),
+            fault,
             combination: project.is_combination(&name),
             name,
             plane: project.plane,

@@ -2,8 +2,8 @@
 //! each); the command line's `project` subcommands use the same model functions.
 
 use super::model::{
-    CaseInput, Combination, LoadCase, MeasureChoice, Project, StudyError, Term, TypedTensor,
-    check_name,
+    CaseInput, Combination, LoadCase, Material, MeasureChoice, Project, StudyError, Term,
+    TypedTensor, check_name,
 };
 use crate::mechanics::{PlaneNormal, SignConvention, StressTensor, StressUnit};
 
@@ -14,8 +14,10 @@ pub enum Edit {
     SetTensor(StressTensor),
     /// The cut plane.
     SetPlane(PlaneNormal),
-    /// The worst-plane measure, pore pressure and material.
+    /// The worst-plane measure, pore pressure and the planes' cohesion and friction.
     SetMeasure(MeasureChoice),
+    /// The material the criteria check against.
+    SetMaterial(Material),
     /// The unit every stress is shown and typed in.
     SetUnit(StressUnit),
     /// The sign convention every stress is shown and typed in.
@@ -90,6 +92,13 @@ impl Edit {
             }
             Self::SetPlane(plane) => p.plane = *plane,
             Self::SetMeasure(choice) => p.measure = *choice,
+            Self::SetMaterial(material) => {
+                material
+                    .strengths
+                    .validate()
+                    .map_err(|e| StudyError::Invalid(format!("material: {e}")))?;
+                p.material = material.clone();
+            }
             Self::SetUnit(unit) => unit.symbol().clone_into(&mut p.unit),
             Self::SetConvention(c) => {
                 p.compression_positive = *c == SignConvention::CompressionPositive;

@@ -11,7 +11,10 @@
 //!                "friction_angle_deg": 30 } }
 //! ```
 //!
-//! `active`, `plane` and `measure` were added within version 1 and are optional (the first
+//! `"material": { "name": "…", "yield_strength_pa": 2.35e8, "tensile_strength_pa": null, …,
+//! "dp_fit": "compression-meridian" }` holds the criteria's strengths (null: not given).
+//!
+//! `active`, `plane`, `measure` and `material` were added within version 1 and are optional (the first
 //! case, the x face and the shear measure when absent), so files written before them load.
 
 use std::path::{Path, PathBuf};
@@ -24,7 +27,7 @@ use super::model::{Project, StudyError};
 pub const FORMAT_VERSION: u32 = 1;
 
 /// Top-level keys this version knows; others are ignored with a warning.
-const KNOWN_KEYS: [&str; 10] = [
+const KNOWN_KEYS: [&str; 11] = [
     "format_version",
     "name",
     "unit",
@@ -35,6 +38,7 @@ const KNOWN_KEYS: [&str; 10] = [
     "active",
     "plane",
     "measure",
+    "material",
 ];
 
 #[derive(Serialize, Deserialize)]

@@ -2,7 +2,7 @@
 
 use serde::{Deserialize, Serialize};
 
-use crate::mechanics::criteria::MohrCoulomb;
+use crate::mechanics::criteria::{MohrCoulomb, Strengths};
 use crate::mechanics::search::{Measure, SearchSettings};
 use crate::mechanics::{PlaneNormal, SignConvention, StressTensor, StressUnit};
 
@@ -111,6 +111,17 @@ impl MeasureChoice {
     }
 }
 
+/// The material the criteria check against: a name and its strengths (any may be missing).
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize, Default)]
+#[serde(default)]
+pub struct Material {
+    /// Name shown in the verdict and reports.
+    pub name: String,
+    /// Strengths, Pa, and the Drucker–Prager fit.
+    #[serde(flatten)]
+    pub strengths: Strengths,
+}
+
 fn default_plane() -> PlaneNormal {
     PlaneNormal::X
 }
@@ -142,9 +153,13 @@ pub struct Project {
     /// The cut plane.
     #[serde(default = "default_plane")]
     pub plane: PlaneNormal,
-    /// The worst-plane measure, pore pressure and Mohr–Coulomb material.
+    /// The worst-plane measure, pore pressure and the planes' (discontinuities') cohesion and
+    /// friction angle.
     #[serde(default)]
     pub measure: MeasureChoice,
+    /// The material the criteria check against.
+    #[serde(default)]
+    pub material: Material,
 }
 
 fn default_unit() -> String {
@@ -187,6 +202,7 @@ impl Project {
             active: String::new(),
             plane: default_plane(),
             measure: MeasureChoice::default(),
+            material: Material::default(),
         }
     }
 
@@ -334,9 +350,13 @@ impl Project {
     }
 
     /// Checks everything a loaded file promises: unique names, valid tensors, combinations of
-    /// existing cases.
+    /// existing cases, a usable material.
     pub fn validate(&self) -> Result<(), StudyError> {
         self.unit()?;
+        self.material
+            .strengths
+            .validate()
+            .map_err(|e| StudyError::Invalid(format!("material: {e}")))?;
         let mut names: Vec<&str> = Vec::new();
         for name in self
             .cases
