@@ -108,6 +108,8 @@ pub struct PlanewiseApp {
     pub stress_panel: ui::stress_panel::StressPanel,
     /// Plane entry state.
     pub plane_panel: ui::plane_panel::PlanePanel,
+    /// The material editor.
+    pub material_panel: ui::verdict_panel::MaterialPanel,
     /// Load cases and combinations.
     pub cases_panel: ui::cases_panel::CasesPanel,
     /// The envelope tab.
@@ -163,6 +165,7 @@ impl PlanewiseApp {
             stress_panel: ui::stress_panel::StressPanel::default(),
             plane_panel: ui::plane_panel::PlanePanel::default(),
             cases_panel: ui::cases_panel::CasesPanel::default(),
+            material_panel: ui::verdict_panel::MaterialPanel::default(),
             envelope_panel: ui::envelope_panel::EnvelopePanel::default(),
             export_panel: ui::export_panel::ExportPanel::default(),
             file_prompt: ui::file_prompt::FilePrompt::default(),
@@ -585,7 +588,11 @@ impl PlanewiseApp {
             Command::SaveTo(path) => self.save_to(&path),
             Command::CopyResults => {
                 let d = Derived::new(&self.project);
-                let rows = crate::results::rows(&d.tensor, d.plane, d.convention);
+                let mut rows = crate::results::rows(&d.tensor, d.plane, d.convention);
+                if let Some(f) = &d.fault {
+                    rows.extend(crate::results::fault_rows(f, d.measure.pore_pressure_pa));
+                }
+                rows.extend(crate::results::verdict_rows(&d.verdicts));
                 ctx.copy_text(crate::results::to_tsv(&rows, d.unit, d.convention));
                 self.set_status("Results copied as tab-separated text", false);
             }
@@ -868,6 +875,14 @@ impl PlanewiseApp {
             .default_size(330.0)
             .show(ui, |ui| {
                 egui::ScrollArea::vertical().show(ui, |ui| {
+                    ui::verdict_panel::verdict_ui(ui, &d);
+                    egui::CollapsingHeader::new("Material")
+                        .default_open(true)
+                        .show(ui, |ui| {
+                            self.material_panel
+                                .ui(ui, &self.project.material, &d, &mut commands);
+                        });
+                    ui.separator();
                     ui::results_panel::results_ui(ui, &d, &mut commands);
                 });
             });

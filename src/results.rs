@@ -267,6 +267,86 @@ pub fn to_tsv(rows: &[ResultRow], unit: StressUnit, convention: SignConvention) 
     s
 }
 
+/// The cut plane as a fault (compression-positive effective stress), for the panel and copies.
+#[must_use]
+pub fn fault_rows(
+    f: &crate::mechanics::criteria::FaultCheck,
+    pore_pressure_pa: f64,
+) -> Vec<ResultRow> {
+    let group = "Cut plane as a fault";
+    let row = |name: &str, value: Value, formula: &'static str| ResultRow {
+        group,
+        name: name.to_owned(),
+        value,
+        formula,
+    };
+    vec![
+        row(
+            "pore pressure p",
+            Value::Stress(pore_pressure_pa),
+            "From the worst-plane section; compression positive",
+        ),
+        row(
+            "effective σn′",
+            Value::Stress(f.effective_normal_stress_pa),
+            "σn′ = σn − p, compression positive (Terzaghi's effective stress)",
+        ),
+        row(
+            "slip tendency",
+            Value::Ratio(f.slip_tendency.utilization),
+            "Ts = τ / σn′ (Morris, Ferrill & Henderson 1996); undefined when σn′ ≤ 0",
+        ),
+        row(
+            "dilation tendency",
+            Value::Ratio(f.dilation_tendency.utilization),
+            "Td = (σ1 − σn) / (σ1 − σ3), compression positive (Ferrill et al. 1999)",
+        ),
+        row(
+            "Coulomb utilization",
+            Value::Ratio(f.mohr_coulomb.and_then(|c| c.utilization)),
+            "U = τ / (c + σn′ tan φ) with the plane's c and φ from the worst-plane section",
+        ),
+        row(
+            "Δp to slip",
+            f.pore_pressure_to_slip_pa
+                .map_or(Value::Undefined("needs φ > 0"), Value::Stress),
+            "Δp = σn′ − (τ − c) / tan φ: the pore-pressure rise that brings the plane onto τ = c + σn′ tan φ (negative: already beyond)",
+        ),
+    ]
+}
+
+/// The verdicts as rows: utilization and factor of safety per criterion.
+#[must_use]
+pub fn verdict_rows(verdicts: &[crate::mechanics::criteria::Verdict]) -> Vec<ResultRow> {
+    let mut out = Vec::new();
+    for v in verdicts {
+        out.push(ResultRow {
+            group: "Verdict",
+            name: format!("{} utilization", v.criterion.label()),
+            value: match v.condition {
+                crate::mechanics::criteria::Condition::NotChecked => {
+                    Value::Undefined("not checked")
+                }
+                crate::mechanics::criteria::Condition::NeverReaches => {
+                    Value::Undefined("never reaches the surface")
+                }
+                crate::mechanics::criteria::Condition::FailsAtAnyScale => {
+                    Value::Undefined("fails at any scale")
+                }
+                _ => Value::Ratio(v.utilization),
+            },
+            formula: v.criterion.formula(),
+        });
+        out.push(ResultRow {
+            group: "Verdict",
+            name: format!("{} factor of safety", v.criterion.label()),
+            value: Value::Ratio(v.factor_of_safety),
+            formula: "Proportional loading: the factor on every stress component that reaches the criterion's surface; 1 / utilization",
+        });
+    }
+    out
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;

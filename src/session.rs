@@ -94,8 +94,10 @@ pub enum Coalesce {
     MohrDrag(u64),
     /// One drag of the normal's handle in the 3D view (the drag's serial number).
     NormalHandle(u64),
-    /// Typing in the measure and material fields.
+    /// Typing in the measure fields.
     MeasureFields,
+    /// Typing in the material editor.
+    MaterialFields,
     /// Typing a combination's factors.
     Factors,
     /// Typing a case's description.

@@ -422,3 +422,24 @@ fn the_measure_and_material_are_undoable_project_edits() {
     assert_eq!(h.state().project.measure, before);
     assert!(!h.state().dirty());
 }
+
+#[test]
+fn the_material_editor_changes_the_verdict_in_one_undo_step() {
+    let mut h = demo();
+    // The demo's invented steel: von Mises and Tresca checked, the rest not.
+    h.get_by_label_contains("needs the tensile and/or compressive strength");
+    let before = h.state().project.material.clone();
+    type_into(&mut h, "yield strength f_y", "100");
+    let fy = h.state().project.material.strengths.yield_strength_pa;
+    assert_eq!(fy, Some(100e6));
+    // ULS 1's von Mises (189 MPa) now exceeds the yield strength: fails.
+    assert!(h.query_all_by_label_contains("fails").count() >= 1);
+    leave_text_field(&mut h);
+    h.key_press_modifiers(egui::Modifiers::COMMAND, egui::Key::Z);
+    h.run();
+    assert_eq!(h.state().project.material, before);
+    // Text that is not a number keeps the last valid material and says why.
+    type_into(&mut h, "tensile strength f_t", "strong");
+    assert_eq!(h.state().project.material, before);
+    h.get_by_label_contains("the last valid material is kept");
+}

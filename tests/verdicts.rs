@@ -327,3 +327,54 @@ fn analyze_refuses_strengths_it_cannot_use() {
     let borrowed: Vec<(&[&str], &str)> = cases.iter().map(|(a, n)| (a.as_slice(), *n)).collect();
     common::assert_bad_input("analyze", &borrowed);
 }
+
+#[test]
+fn the_envelope_ranks_by_a_criterions_utilization() {
+    use planewise::study::{EnvelopeMeasure, Project, envelope};
+    let mut project = Project::demo();
+    let plane = project.measure.settings(project.convention());
+    // The demo's material has a yield strength only: von Mises is ranked, the governing row
+    // is the largest von Mises utilization found by a plain loop.
+    let env = envelope(
+        &project,
+        EnvelopeMeasure::Utilization(Criterion::VonMises),
+        &plane,
+    )
+    .unwrap();
+    let worst = project
+        .names()
+        .into_iter()
+        .map(|(n, _)| {
+            let t = project.tensor(n).unwrap();
+            let u = criteria::verdict(&t, Criterion::VonMises, &project.material.strengths)
+                .utilization
+                .unwrap();
+            (n.to_owned(), u)
+        })
+        .max_by(|a, b| a.1.total_cmp(&b.1))
+        .unwrap();
+    assert_eq!(env.governing.as_deref(), Some(worst.0.as_str()));
+    assert!((env.rows[0].value.unwrap() - worst.1).abs() < 1e-15);
+    // Rankine is not checked without tensile or compressive strength: nothing governs.
+    let env = envelope(
+        &project,
+        EnvelopeMeasure::Utilization(Criterion::Rankine),
+        &plane,
+    )
+    .unwrap();
+    assert_eq!(env.governing, None);
+    assert!(
+        env.rows
+            .iter()
+            .all(|r| r.verdict == Some(Condition::NotChecked))
+    );
+    // Give it a tensile strength and it ranks.
+    project.material.strengths.tensile_strength_pa = Some(100.0 * MPA);
+    let env = envelope(
+        &project,
+        EnvelopeMeasure::Utilization(Criterion::Rankine),
+        &plane,
+    )
+    .unwrap();
+    assert!(env.governing.is_some());
+}

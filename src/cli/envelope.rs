@@ -57,6 +57,10 @@ pub struct RowJson {
     /// For worst-plane measures: dip and dip direction of each worst plane, degrees.
     #[serde(skip_serializing_if = "Option::is_none")]
     pub planes: Option<Vec<[f64; 2]>>,
+    /// For criterion utilizations (with the project's material): "defined", "not-checked",
+    /// "never-reaches" or "fails-at-any-scale".
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub criterion_condition: Option<crate::mechanics::criteria::Condition>,
 }
 
 /// Runs the subcommand.
@@ -109,6 +113,7 @@ pub fn run(args: &EnvelopeArgs) -> Result<String, CliError> {
                         .map(|p| [clean(p.dip_deg), clean(p.dip_direction_deg)])
                         .collect()
                 }),
+                criterion_condition: r.verdict,
             })
             .collect(),
         governing: env.governing.clone(),
@@ -131,15 +136,25 @@ pub fn run(args: &EnvelopeArgs) -> Result<String, CliError> {
         json.rows.len()
     );
     for (i, r) in json.rows.iter().enumerate() {
-        let value = match (r.value, r.condition) {
-            (Some(v), _) if measure.is_stress() => format!("{} {}", sig(v, 6), json.unit),
-            (Some(v), _) => sig(v, 6),
-            (None, Some(WorstCondition::EffectiveTension)) => {
+        use crate::mechanics::criteria::Condition;
+        let value = match (r.value, r.condition, r.criterion_condition) {
+            (Some(v), ..) if measure.is_stress() => format!("{} {}", sig(v, 6), json.unit),
+            (Some(v), ..) => sig(v, 6),
+            (None, Some(WorstCondition::EffectiveTension), _) => {
                 "undefined (no frictional capacity)".to_owned()
             }
-            (None, _) => "undefined".to_owned(),
+            (None, _, Some(Condition::NotChecked)) => {
+                "not checked (the project's material lacks the strengths)".to_owned()
+            }
+            (None, _, Some(Condition::NeverReaches)) => "never reaches the surface".to_owned(),
+            (None, _, Some(Condition::FailsAtAnyScale)) => "fails at any scale".to_owned(),
+            (None, ..) => "undefined".to_owned(),
         };
-        let mark = if i == 0 { "  ← governs" } else { "" };
+        let mark = if i == 0 && json.governing.is_some() {
+            "  ← governs"
+        } else {
+            ""
+        };
         let _ = writeln!(s, "  {:<16} {:<12} {value}{mark}", r.name, r.kind);
     }
     Ok(s)

@@ -3,6 +3,7 @@
 
 use super::model::{Project, StudyError};
 use crate::mechanics::Analysis;
+use crate::mechanics::criteria::{self, Condition, Criterion};
 use crate::mechanics::search::{Measure, SearchSettings, WorstCondition, WorstPlane, worst_plane};
 
 /// What the envelope ranks.
@@ -20,11 +21,13 @@ pub enum EnvelopeMeasure {
     Sigma3,
     /// A worst-plane measure: its worst value over every plane.
     Plane(Measure),
+    /// A criterion's utilization with the project's material (proportional loading).
+    Utilization(Criterion),
 }
 
 impl EnvelopeMeasure {
     /// Every measure, in menu and help order.
-    pub const ALL: [Self; 12] = [
+    pub const ALL: [Self; 17] = [
         Self::VonMises,
         Self::Tresca,
         Self::MaxShear,
@@ -37,6 +40,11 @@ impl EnvelopeMeasure {
         Self::Plane(Measure::ALL[4]),
         Self::Plane(Measure::ALL[5]),
         Self::Plane(Measure::ALL[6]),
+        Self::Utilization(Criterion::VonMises),
+        Self::Utilization(Criterion::Tresca),
+        Self::Utilization(Criterion::Rankine),
+        Self::Utilization(Criterion::MohrCoulomb),
+        Self::Utilization(Criterion::DruckerPrager),
     ];
 
     /// Parses a key.
@@ -55,6 +63,13 @@ impl EnvelopeMeasure {
             Self::Sigma1 => "sigma1",
             Self::Sigma3 => "sigma3",
             Self::Plane(m) => m.key(),
+            Self::Utilization(c) => match c {
+                Criterion::VonMises => "utilization-von-mises",
+                Criterion::Tresca => "utilization-tresca",
+                Criterion::Rankine => "utilization-rankine",
+                Criterion::MohrCoulomb => "utilization-mohr-coulomb",
+                Criterion::DruckerPrager => "utilization-drucker-prager",
+            },
         }
     }
 
@@ -63,6 +78,7 @@ impl EnvelopeMeasure {
     pub fn is_stress(self) -> bool {
         match self {
             Self::Plane(m) => m.is_stress(),
+            Self::Utilization(_) => false,
             _ => true,
         }
     }
@@ -92,6 +108,8 @@ pub struct EnvelopeRow {
     pub condition: Option<WorstCondition>,
     /// For worst-plane measures, the worst planes.
     pub planes: Vec<WorstPlane>,
+    /// For criterion utilizations, how to read the value (not checked, never reaches…).
+    pub verdict: Option<Condition>,
 }
 
 /// The envelope: rows sorted worst first.
@@ -101,7 +119,7 @@ pub struct Envelope {
     pub measure: EnvelopeMeasure,
     /// Worst first.
     pub rows: Vec<EnvelopeRow>,
-    /// The governing row's name (the first row), if there is any row.
+    /// The governing row's name (the first row), if any row has a value to rank by.
     pub governing: Option<String>,
 }
 
@@ -117,7 +135,7 @@ pub fn envelope(
     let mut rows = Vec::new();
     for (name, combination) in project.names() {
         let tensor = project.tensor(name)?;
-        let (value, condition, planes) = match measure {
+        let (value, condition, planes, verdict) = match measure {
             EnvelopeMeasure::Plane(m) => {
                 let settings = SearchSettings {
                     measure: m,
@@ -126,7 +144,11 @@ pub fn envelope(
                 };
                 let r = worst_plane(&tensor, &settings)
                     .map_err(|e| StudyError::Invalid(e.to_string()))?;
-                (r.value, Some(r.condition), r.planes)
+                (r.value, Some(r.condition), r.planes, None)
+            }
+            EnvelopeMeasure::Utilization(c) => {
+                let v = criteria::verdict(&tensor, c, &project.material.strengths);
+                (v.utilization, None, Vec::new(), Some(v.condition))
             }
             other => {
                 let a = Analysis::new(&tensor, convention);
@@ -137,7 +159,7 @@ pub fn envelope(
                     EnvelopeMeasure::Sigma1 => a.principal.values_pa[0],
                     _ => a.principal.values_pa[2],
                 };
-                (Some(v), None, Vec::new())
+                (Some(v), None, Vec::new(), None)
             }
         };
         rows.push(EnvelopeRow {
@@ -146,10 +168,16 @@ pub fn envelope(
             value,
             condition,
             planes,
+            verdict,
         });
     }
     rows.sort_by(|a, b| rank(measure, b).total_cmp(&rank(measure, a)));
-    let governing = rows.first().map(|r| r.name.clone());
+    // Nothing governs when even the first row has no value to rank by (every criterion not
+    // checked, every value undefined).
+    let governing = rows
+        .first()
+        .filter(|r| rank(measure, r) > f64::NEG_INFINITY)
+        .map(|r| r.name.clone());
     Ok(Envelope {
         measure,
         rows,
@@ -157,13 +185,15 @@ pub fn envelope(
     })
 }
 
-/// Larger is worse. Planes without frictional capacity are worst of all; an undefined value
-/// (dilation tendency of an isotropic state) least.
+/// Larger is worse. Planes without frictional capacity and states outside a zero-strength
+/// criterion at any scale are worst of all; an undefined value (dilation tendency of an
+/// isotropic state, a criterion not checked or never reached) least.
 fn rank(measure: EnvelopeMeasure, row: &EnvelopeRow) -> f64 {
-    match (row.value, row.condition) {
-        (Some(v), _) if measure.worst_is_smallest() => -v,
-        (Some(v), _) => v,
-        (None, Some(WorstCondition::EffectiveTension)) => f64::INFINITY,
-        (None, _) => f64::NEG_INFINITY,
+    match (row.value, row.condition, row.verdict) {
+        (Some(v), ..) if measure.worst_is_smallest() => -v,
+        (Some(v), ..) => v,
+        (None, Some(WorstCondition::EffectiveTension), _)
+        | (None, _, Some(Condition::FailsAtAnyScale)) => f64::INFINITY,
+        (None, ..) => f64::NEG_INFINITY,
     }
 }

@@ -3,6 +3,7 @@
 
 use crate::draw::map::MapMeasure;
 use crate::format::dip_text;
+use crate::mechanics::criteria::Condition;
 use crate::mechanics::search::WorstCondition;
 use crate::session::{Command, Settings};
 use crate::study::{Derived, Edit, Envelope, EnvelopeMeasure, Project, envelope};
@@ -76,6 +77,17 @@ impl EnvelopePanel {
                 unit = d.unit
             ));
         }
+        if let EnvelopeMeasure::Utilization(c) = measure {
+            let name = if project.material.name.is_empty() {
+                "the project's material".to_owned()
+            } else {
+                format!("'{}'", project.material.name)
+            };
+            ui.small(format!(
+                "Utilization under proportional loading with {name}: {}",
+                c.formula()
+            ));
+        }
         let shown = MapMeasure {
             measure: match measure {
                 EnvelopeMeasure::Plane(m) => m,
@@ -87,6 +99,8 @@ impl EnvelopePanel {
         let value_text = |v: f64| {
             if measure.is_stress() {
                 format!("{} {}", crate::format::sig(d.unit.from_pa(v), 6), d.unit)
+            } else if matches!(measure, EnvelopeMeasure::Utilization(_)) {
+                format!("U = {}", crate::format::sig(v, 4))
             } else {
                 shown.value_text(v, 4)
             }
@@ -154,6 +168,16 @@ impl EnvelopePanel {
                             }
                             (None, Some(WorstCondition::EffectiveTension)) => {
                                 ui.label("no frictional capacity (effective tension)");
+                            }
+                            (None, None) if row.verdict.is_some() => {
+                                ui.label(match row.verdict {
+                                    Some(Condition::NotChecked) => {
+                                        "not checked (material lacks the strengths)"
+                                    }
+                                    Some(Condition::NeverReaches) => "never reaches the surface",
+                                    Some(Condition::FailsAtAnyScale) => "fails at any scale",
+                                    _ => "undefined",
+                                });
                             }
                             (None, _) => {
                                 ui.label("undefined");

@@ -10,6 +10,7 @@ pub mod mohr_panel;
 pub mod plane_panel;
 pub mod results_panel;
 pub mod stress_panel;
+pub mod verdict_panel;
 pub mod view_panel;
 
 use crate::draw::camera::{Projection, ViewPreset};

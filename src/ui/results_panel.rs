@@ -17,7 +17,10 @@ pub fn results_ui(ui: &mut egui::Ui, d: &Derived, out: &mut Vec<Command>) {
         }
     });
     ui.small(format!("{}, {}", d.unit, d.convention.key()));
-    let all = rows(&d.tensor, d.plane, d.convention);
+    let mut all = rows(&d.tensor, d.plane, d.convention);
+    if let Some(f) = &d.fault {
+        all.extend(crate::results::fault_rows(f, d.measure.pore_pressure_pa));
+    }
     let mut group = "";
     let mut grid_rows: Vec<&crate::results::ResultRow> = Vec::new();
     let unit = d.unit;

@@ -1,0 +1,260 @@
+//! The verdict: each criterion passes, fails or is not checked, governing first, with a
+//! utilization bar, the factor of safety and the formula in the tooltip; and the material
+//! editor whose strengths it uses (an empty field is a strength not given).
+
+use std::fmt::Write as _;
+
+use crate::format::sig;
+use crate::mechanics::criteria::{Condition, DruckerPragerFit, Outcome, Verdict};
+use crate::parse;
+use crate::session::Command;
+use crate::study::{Derived, Edit, Material};
+
+/// Colours of the outcomes.
+const PASS: egui::Color32 = egui::Color32::from_rgb(60, 150, 80);
+const FAIL: egui::Color32 = egui::Color32::from_rgb(200, 60, 50);
+
+/// Draws the verdict section.
+pub fn verdict_ui(ui: &mut egui::Ui, d: &Derived) {
+    let title = if d.material_name.is_empty() {
+        "Verdict".to_owned()
+    } else {
+        format!("Verdict — {}", d.material_name)
+    };
+    ui.heading(title).on_hover_text(
+        "Proportional loading: the factor of safety is the factor on every stress component that reaches the criterion's surface; utilization = 1 / factor",
+    );
+    for v in &d.verdicts {
+        verdict_row(ui, v, d);
+    }
+    if d.verdicts
+        .iter()
+        .all(|v| v.outcome() == Outcome::NotChecked)
+    {
+        ui.weak("No strengths given: enter the material below to check the criteria.");
+    }
+}
+
+fn verdict_row(ui: &mut egui::Ui, v: &Verdict, d: &Derived) {
+    let (mark, color, word) = match v.outcome() {
+        Outcome::Passes => ("✔", PASS, "passes"),
+        Outcome::Fails => ("✖", FAIL, "fails"),
+        Outcome::NotChecked => ("–", ui.visuals().weak_text_color(), "not checked"),
+    };
+    let numbers = match (v.condition, v.utilization, v.factor_of_safety) {
+        (Condition::Defined, Some(u), Some(f)) => {
+            format!("U {} · factor of safety {}", sig(u, 3), sig(f, 3))
+        }
+        (Condition::Defined, Some(u), None) => format!("U {} · no stress to scale", sig(u, 3)),
+        (Condition::NeverReaches, ..) => "never reaches the surface when scaled".to_owned(),
+        (Condition::FailsAtAnyScale, ..) => "outside at any scale (zero strength)".to_owned(),
+        _ => format!("needs the {}", v.criterion.needs()),
+    };
+    let stress = |pa: f64| format!("{} {}", sig(d.unit.from_pa(pa), 5), d.unit);
+    let mut tip = format!("{}\n{}", v.criterion.label(), v.criterion.formula());
+    if let (Some(g), Some(s)) = (v.governing_stress_pa, v.strength_pa) {
+        let _ = write!(tip, "\ndemand {} vs strength {}", stress(g), stress(s));
+    }
+    if !v.note.is_empty() {
+        tip.push('\n');
+        tip.push_str(&v.note);
+    }
+    ui.horizontal(|ui| {
+        ui.colored_label(color, format!("{mark} {word}"))
+            .on_hover_text(&tip);
+        ui.label(v.criterion.label()).on_hover_text(&tip);
+    });
+    ui.horizontal(|ui| {
+        if v.outcome() != Outcome::NotChecked {
+            bar(ui, v.utilization, color);
+        }
+        ui.small(numbers).on_hover_text(&tip);
+    });
+}
+
+/// A utilization bar: full width at U = 1.5, a tick at U = 1.
+fn bar(ui: &mut egui::Ui, utilization: Option<f64>, color: egui::Color32) {
+    let (rect, _) = ui.allocate_exact_size(egui::vec2(90.0, 10.0), egui::Sense::hover());
+    let painter = ui.painter_at(rect);
+    painter.rect_stroke(
+        rect,
+        2.0,
+        egui::Stroke::new(1.0, ui.visuals().weak_text_color()),
+        egui::StrokeKind::Inside,
+    );
+    if let Some(u) = utilization {
+        let mut filled = rect;
+        filled.set_width(rect.width() * (u / 1.5).clamp(0.0, 1.0) as f32);
+        painter.rect_filled(filled, 2.0, color);
+    }
+    let x = rect.left() + rect.width() / 1.5;
+    painter.line_segment(
+        [
+            egui::pos2(x, rect.top() - 2.0),
+            egui::pos2(x, rect.bottom() + 2.0),
+        ],
+        egui::Stroke::new(1.5, ui.visuals().text_color()),
+    );
+}
+
+/// The material editor's text fields.
+#[derive(Debug, Default)]
+pub struct MaterialPanel {
+    shown: Option<(Material, crate::mechanics::StressUnit)>,
+    /// The material this panel last sent (its own edits do not rewrite the text being typed).
+    sent: Option<Material>,
+    name: String,
+    fields: [String; 5],
+    error: Option<String>,
+}
+
+/// Field names, in the order of [`MaterialPanel::fields`].
+const FIELDS: [(&str, &str); 5] = [
+    ("yield strength f_y", "von Mises and Tresca"),
+    ("tensile strength f_t", "Rankine (a positive number)"),
+    ("compressive strength f_c", "Rankine (a positive number)"),
+    ("cohesion c", "Mohr–Coulomb and Drucker–Prager, with φ"),
+    (
+        "friction angle φ",
+        "degrees; Mohr–Coulomb and Drucker–Prager, with c",
+    ),
+];
+
+impl MaterialPanel {
+    fn refresh(&mut self, m: &Material, unit: crate::mechanics::StressUnit) {
+        if self.shown.as_ref() == Some(&(m.clone(), unit)) {
+            return;
+        }
+        let own =
+            self.sent.as_ref() == Some(m) && self.shown.as_ref().is_some_and(|(_, u)| *u == unit);
+        self.shown = Some((m.clone(), unit));
+        if own {
+            return;
+        }
+        let s = &m.strengths;
+        let stress = |v: Option<f64>| v.map(|x| sig(unit.from_pa(x), 8)).unwrap_or_default();
+        self.name.clone_from(&m.name);
+        self.fields = [
+            stress(s.yield_strength_pa),
+            stress(s.tensile_strength_pa),
+            stress(s.compressive_strength_pa),
+            stress(s.cohesion_pa),
+            s.friction_angle_deg.map(|v| sig(v, 8)).unwrap_or_default(),
+        ];
+        self.error = None;
+    }
+
+    /// Draws the editor; a valid change becomes one undoable edit.
+    pub fn ui(
+        &mut self,
+        ui: &mut egui::Ui,
+        material: &Material,
+        d: &Derived,
+        out: &mut Vec<Command>,
+    ) {
+        self.refresh(material, d.unit);
+        let mut changed = false;
+        egui::Grid::new("material-fields")
+            .num_columns(2)
+            .spacing([6.0, 4.0])
+            .show(ui, |ui| {
+                ui.label("name");
+                changed |= ui
+                    .add(
+                        egui::TextEdit::singleline(&mut self.name)
+                            .id_salt("material-name")
+                            .desired_width(120.0),
+                    )
+                    .on_hover_text("Material name (shown in the verdict)")
+                    .changed();
+                ui.end_row();
+                for (i, (name, tip)) in FIELDS.iter().enumerate() {
+                    let suffix = if i == 4 {
+                        "°".to_owned()
+                    } else {
+                        d.unit.to_string()
+                    };
+                    ui.label(format!("{name} ({suffix})"));
+                    changed |= ui
+                        .add(
+                            // Fixed ids: the verdict above changes its rows while typing, and
+                            // automatic ids would move and drop the keyboard focus.
+                            egui::TextEdit::singleline(&mut self.fields[i])
+                                .id_salt(("material-field", i))
+                                .desired_width(90.0)
+                                .hint_text("not given"),
+                        )
+                        .on_hover_text(format!("{name}: {tip}; leave empty if not known"))
+                        .changed();
+                    ui.end_row();
+                }
+            });
+        let mut fit = material.strengths.dp_fit;
+        ui.horizontal(|ui| {
+            ui.label("Drucker–Prager fit");
+            let response = egui::ComboBox::from_id_salt("dp-fit")
+                .selected_text(fit.key())
+                .show_ui(ui, |ui| {
+                    for f in DruckerPragerFit::ALL {
+                        ui.selectable_value(&mut fit, f, f.key())
+                            .on_hover_text(f.label());
+                    }
+                })
+                .response;
+            response.widget_info(|| {
+                egui::WidgetInfo::labeled(egui::Role::ComboBox, true, "Drucker–Prager fit")
+            });
+            response.on_hover_text(fit.label());
+        });
+        changed |= fit != material.strengths.dp_fit;
+        if let Some(e) = &self.error {
+            ui.colored_label(
+                ui.visuals().error_fg_color,
+                format!("⚠ {e} — the last valid material is kept"),
+            );
+        }
+        if changed {
+            match self.parse(material, fit, d.unit) {
+                Ok(m) => {
+                    self.error = None;
+                    if &m != material {
+                        self.sent = Some(m.clone());
+                        out.push(Command::Edit {
+                            edit: Edit::SetMaterial(m),
+                            coalesce: Some(crate::session::Coalesce::MaterialFields),
+                        });
+                    }
+                }
+                Err(e) => self.error = Some(e),
+            }
+        }
+    }
+
+    fn parse(
+        &self,
+        material: &Material,
+        fit: DruckerPragerFit,
+        unit: crate::mechanics::StressUnit,
+    ) -> Result<Material, String> {
+        let value = |i: usize| -> Result<Option<f64>, String> {
+            let text = self.fields[i].trim();
+            if text.is_empty() {
+                return Ok(None);
+            }
+            parse::number(text)
+                .map(Some)
+                .map_err(|e| format!("{}: {e}", FIELDS[i].0))
+        };
+        let stress = |i: usize| value(i).map(|v| v.map(|x| unit.to_pa(x)));
+        let mut m = material.clone();
+        self.name.trim().clone_into(&mut m.name);
+        m.strengths.yield_strength_pa = stress(0)?;
+        m.strengths.tensile_strength_pa = stress(1)?;
+        m.strengths.compressive_strength_pa = stress(2)?;
+        m.strengths.cohesion_pa = stress(3)?;
+        m.strengths.friction_angle_deg = value(4)?;
+        m.strengths.dp_fit = fit;
+        m.strengths.validate().map_err(|e| e.to_string())?;
+        Ok(m)
+    }
+}
