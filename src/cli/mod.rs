@@ -85,8 +85,8 @@ pub struct StressArgs {
     /// components are 0; yx, zy, xz are accepted for xy, yz, zx. Or --project with --case.
     #[arg(long, value_name = "KEY=VALUE,…", allow_hyphen_values = true)]
     pub stress: Option<String>,
-    /// Unit of every stress typed and printed, exactly as written: Pa, kPa, MPa, GPa, psi or
-    /// ksi (N/mm² and N/mm2 are read as MPa).
+    /// Unit of every stress typed and printed, exactly as written: Pa, kPa, MPa, GPa, bar, psi
+    /// or ksi (N/mm² and N/mm2 are read as MPa).
     /// [default: MPa, or the project's unit with --project]
     #[arg(long, value_name = "UNIT", value_parser = values::unit)]
     pub unit: Option<StressUnit>,

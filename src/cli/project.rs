@@ -42,7 +42,7 @@ pub struct NewArgs {
     /// The project's name.
     #[arg(long, default_value = "Untitled")]
     pub name: String,
-    /// Unit of the project's stresses: Pa, kPa, MPa, GPa, psi or ksi.
+    /// Unit of the project's stresses: Pa, kPa, MPa (N/mm²), GPa, bar, psi or ksi.
     #[arg(long, default_value = "MPa", value_parser = values::unit)]
     pub unit: StressUnit,
     /// The project's stresses are compression-positive (geomechanics).

@@ -3,6 +3,7 @@
 
 pub mod analysis;
 pub mod criteria;
+pub mod inputs;
 pub mod invariants;
 pub mod mohr;
 pub mod plane;

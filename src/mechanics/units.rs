@@ -21,6 +21,8 @@ pub enum StressUnit {
     MPa,
     /// Gigapascal, 1e9 Pa.
     GPa,
+    /// Bar, 1e5 Pa (exact by definition; NIST SP 811, 2008, appendix B.8).
+    Bar,
     /// Pound-force per square inch, 6894.757293168 Pa.
     Psi,
     /// Kilopound-force per square inch, 1e3 psi.
@@ -29,11 +31,12 @@ pub enum StressUnit {
 
 impl StressUnit {
     /// Every unit, in the order menus list them.
-    pub const ALL: [Self; 6] = [
+    pub const ALL: [Self; 7] = [
         Self::Pa,
         Self::KPa,
         Self::MPa,
         Self::GPa,
+        Self::Bar,
         Self::Psi,
         Self::Ksi,
     ];
@@ -46,6 +49,7 @@ impl StressUnit {
             Self::KPa => 1e3,
             Self::MPa => 1e6,
             Self::GPa => 1e9,
+            Self::Bar => 1e5,
             Self::Psi => PA_PER_PSI,
             Self::Ksi => PA_PER_PSI * 1e3,
         }
@@ -71,6 +75,7 @@ impl StressUnit {
             Self::KPa => "kPa",
             Self::MPa => "MPa",
             Self::GPa => "GPa",
+            Self::Bar => "bar",
             Self::Psi => "psi",
             Self::Ksi => "ksi",
         }
@@ -83,10 +88,10 @@ impl fmt::Display for StressUnit {
     }
 }
 
-/// The unit text was none of Pa, kPa, MPa, GPa, psi, ksi.
+/// The unit text was none of Pa, kPa, MPa, GPa, bar, psi, ksi (or N/mm² for MPa).
 #[derive(Debug, Clone, PartialEq, Eq, thiserror::Error)]
 #[error(
-    "unknown stress unit '{0}' (expected one of Pa, kPa, MPa, GPa, psi, ksi, N/mm², written exactly so)"
+    "unknown stress unit '{0}' (expected one of Pa, kPa, MPa (alias N/mm²), GPa, bar, psi, ksi, written exactly so)"
 )]
 pub struct UnknownUnit(pub String);
 
@@ -101,6 +106,7 @@ impl FromStr for StressUnit {
             "kPa" => Self::KPa,
             "MPa" | "N/mm²" | "N/mm2" | "N/mm^2" => Self::MPa,
             "GPa" => Self::GPa,
+            "bar" => Self::Bar,
             "psi" => Self::Psi,
             "ksi" => Self::Ksi,
             _ => return Err(UnknownUnit(text.to_owned())),
@@ -171,7 +177,10 @@ mod tests {
             let back = unit.from_pa(unit.to_pa(123.456));
             assert!((back - 123.456).abs() < 1e-12);
         }
-        assert!("bar".parse::<StressUnit>().is_err());
+        // NIST SP 811 (2008) B.8: 1 bar = 1.0 E+05 Pa (exact).
+        assert_eq!("bar".parse::<StressUnit>(), Ok(StressUnit::Bar));
+        assert_eq!(StressUnit::Bar.pascals(), 1e5);
+        assert!("Bar".parse::<StressUnit>().is_err());
         // Exact symbols only: mPa is a millipascal, not MPa.
         for wrong in ["mPa", "mpa", "MPA", "kpa", "PSI", "Ksi", "gpa"] {
             assert!(wrong.parse::<StressUnit>().is_err(), "{wrong}");

@@ -10,7 +10,7 @@ use crate::mechanics::{PlaneNormal, SignConvention, StressTensor, StressUnit};
 /// Kept as typed (not converted to pascals) so that a file shows the numbers its author wrote.
 #[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
 pub struct TypedTensor {
-    /// Unit symbol, exactly as SI writes it (Pa, kPa, MPa, GPa, psi, ksi).
+    /// Unit symbol, exactly as SI writes it (Pa, kPa, MPa, GPa, bar, psi, ksi).
     pub unit: String,
     /// Whether the components are compression-positive.
     #[serde(default)]
