@@ -108,6 +108,8 @@ pub struct PlanewiseApp {
     pub stress_panel: ui::stress_panel::StressPanel,
     /// Plane entry state.
     pub plane_panel: ui::plane_panel::PlanePanel,
+    /// A load case's input form.
+    pub input_panel: ui::input_panel::InputPanel,
     /// The material editor.
     pub material_panel: ui::verdict_panel::MaterialPanel,
     /// Load cases and combinations.
@@ -166,6 +168,7 @@ impl PlanewiseApp {
             plane_panel: ui::plane_panel::PlanePanel::default(),
             cases_panel: ui::cases_panel::CasesPanel::default(),
             material_panel: ui::verdict_panel::MaterialPanel::default(),
+            input_panel: ui::input_panel::InputPanel::default(),
             envelope_panel: ui::envelope_panel::EnvelopePanel::default(),
             export_panel: ui::export_panel::ExportPanel::default(),
             file_prompt: ui::file_prompt::FilePrompt::default(),
@@ -862,6 +865,7 @@ impl PlanewiseApp {
             .show(ui, |ui| {
                 egui::ScrollArea::vertical().show(ui, |ui| {
                     self.cases_panel.ui(ui, &self.project, &d, &mut commands);
+                    self.input_panel.ui(ui, &d, &mut commands);
                     ui.separator();
                     self.stress_panel.ui(ui, &d, &mut commands);
                     ui.separator();

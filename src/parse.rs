@@ -211,3 +211,63 @@ mod tests {
         );
     }
 }
+
+/// Why a `key=value,…` list with fixed keys cannot be read.
+#[derive(Debug, Clone, PartialEq, thiserror::Error)]
+pub enum KeyListError {
+    /// An item without '='.
+    #[error("'{0}' is not key=value")]
+    NotKeyValue(String),
+    /// A key not in the list.
+    #[error("unknown key '{key}' (expected {expected})")]
+    UnknownKey {
+        /// The key.
+        key: String,
+        /// The keys it may be.
+        expected: String,
+    },
+    /// A key given twice.
+    #[error("'{0}' is given twice")]
+    Repeated(String),
+    /// A key left out.
+    #[error("'{0}' is missing")]
+    Missing(String),
+    /// A value that is not a number.
+    #[error("{key}: {error}")]
+    Value {
+        /// The key.
+        key: String,
+        /// What is wrong.
+        error: NumberError,
+    },
+}
+
+/// Reads `key=value,…` where every one of `keys` must be given once (case-sensitive), in any
+/// order; values in the order of `keys`.
+pub fn key_list<const N: usize>(text: &str, keys: [&str; N]) -> Result<[f64; N], KeyListError> {
+    let mut values: [Option<f64>; N] = [None; N];
+    for item in text.split(',').map(str::trim).filter(|s| !s.is_empty()) {
+        let Some((key, value)) = item.split_once('=') else {
+            return Err(KeyListError::NotKeyValue(item.to_owned()));
+        };
+        let key = key.trim();
+        let Some(i) = keys.iter().position(|k| *k == key) else {
+            return Err(KeyListError::UnknownKey {
+                key: key.to_owned(),
+                expected: keys.join(", "),
+            });
+        };
+        if values[i].is_some() {
+            return Err(KeyListError::Repeated(key.to_owned()));
+        }
+        values[i] = Some(number(value).map_err(|error| KeyListError::Value {
+            key: key.to_owned(),
+            error,
+        })?);
+    }
+    let mut out = [0.0; N];
+    for (i, v) in values.iter().enumerate() {
+        out[i] = v.ok_or_else(|| KeyListError::Missing(keys[i].to_owned()))?;
+    }
+    Ok(out)
+}

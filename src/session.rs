@@ -98,6 +98,8 @@ pub enum Coalesce {
     MeasureFields,
     /// Typing in the material editor.
     MaterialFields,
+    /// Typing in a load case's input form (in-situ, principal axes, rosette, plane stress).
+    InputFields,
     /// Typing a combination's factors.
     Factors,
     /// Typing a case's description.

@@ -443,3 +443,46 @@ fn the_material_editor_changes_the_verdict_in_one_undo_step() {
     assert_eq!(h.state().project.material, before);
     h.get_by_label_contains("the last valid material is kept");
 }
+
+#[test]
+fn a_load_case_given_as_in_situ_stresses_is_typed_in_its_form() {
+    let mut h = demo();
+    h.get_by_label("+ from other input").click();
+    h.run();
+    h.get_by_label("in-situ stresses").click();
+    h.run();
+    assert_eq!(h.state().project.active, "case 1");
+    for (field, value) in [
+        ("Sv (vertical)", "50"),
+        ("SHmax (", "40"),
+        ("Shmin", "30"),
+        ("SHmax azimuth", "30"),
+    ] {
+        type_into(&mut h, field, value);
+    }
+    // The tensor follows the form: σzz = −Sv tension positive (see tests/inputs.rs for the
+    // full hand rotation).
+    let t = h.state().tensor();
+    assert!((t.component_pa(Component::Zz) + 50e6).abs() < 1e-6);
+    assert!((t.component_pa(Component::Xx) + 32.5e6).abs() < 1e-6);
+    h.get_by_label_contains("the grid shows the tensor it gives, read-only");
+    h.key_press(egui::Key::Escape);
+    h.run();
+    // Changing the kind to six components keeps the stresses, in one undo step.
+    h.get_by_label("Load case input kind").click();
+    h.run();
+    h.get_by_label("six components").click();
+    h.run();
+    let after = h.state().tensor();
+    assert!((after.component_pa(Component::Xx) - t.component_pa(Component::Xx)).abs() < 1e-3);
+    assert_eq!(
+        h.state().project.case("case 1").unwrap().input.kind(),
+        planewise::study::InputKind::Tensor
+    );
+    h.key_press_modifiers(egui::Modifiers::COMMAND, egui::Key::Z);
+    h.run();
+    assert_eq!(
+        h.state().project.case("case 1").unwrap().input.kind(),
+        planewise::study::InputKind::InSitu
+    );
+}

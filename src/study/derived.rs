@@ -2,7 +2,7 @@
 //! project: its tensor, the analysis in the display convention and the worst-plane search.
 //! Before this, each panel searched for itself, two or three times a frame.
 
-use super::model::{MeasureChoice, Project};
+use super::model::{CaseInput, MeasureChoice, Project};
 use crate::mechanics::criteria::{self, FaultCheck, Verdict};
 use crate::mechanics::search::{SearchError, SearchResult, SearchSettings, worst_plane};
 use crate::mechanics::{Analysis, PlaneNormal, SignConvention, StressTensor, StressUnit};
@@ -37,6 +37,8 @@ pub struct Derived {
     /// The cut plane as a fault, with the worst-plane section's pore pressure and plane
     /// cohesion and friction.
     pub fault: Option<FaultCheck>,
+    /// The shown load case's input as typed (`None` for a combination).
+    pub input: Option<CaseInput>,
     /// Why the tensor could not be formed, if so (the zero tensor is shown meanwhile).
     pub problem: Option<String>,
 }
@@ -63,6 +65,7 @@ impl Derived {
         )
         .ok();
         Self {
+            input: project.case(&name).map(|c| c.input.clone()),
             verdicts,
             material_name: project.material.name.clone(),
             fault,

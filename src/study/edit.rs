@@ -2,8 +2,8 @@
 //! each); the command line's `project` subcommands use the same model functions.
 
 use super::model::{
-    CaseInput, Combination, LoadCase, Material, MeasureChoice, Project, StudyError, Term,
-    TypedTensor, check_name,
+    CaseInput, Combination, InputKind, LoadCase, Material, MeasureChoice, Project, StudyError,
+    Term, TypedTensor, check_name,
 };
 use crate::mechanics::{PlaneNormal, SignConvention, StressTensor, StressUnit};
 
@@ -12,6 +12,10 @@ use crate::mechanics::{PlaneNormal, SignConvention, StressTensor, StressUnit};
 pub enum Edit {
     /// The active load case's stress (stored as typed in the project's unit and convention).
     SetTensor(StressTensor),
+    /// The active load case's input (same or another kind).
+    SetInput(CaseInput),
+    /// A new load case whose input is of this kind (zero stresses), shown at once.
+    AddCaseOfKind(InputKind),
     /// The cut plane.
     SetPlane(PlaneNormal),
     /// The worst-plane measure, pore pressure and the planes' cohesion and friction.
@@ -84,11 +88,39 @@ impl Edit {
                         "'{name}' is a combination: edit its load cases or factors, or make a load case from it"
                     ))
                 })?;
+                if case.input.kind() != InputKind::Tensor {
+                    return Err(StudyError::Invalid(format!(
+                        "'{name}' is given as {}: edit that input",
+                        case.input.kind().label()
+                    )));
+                }
                 case.input = CaseInput::Tensor(TypedTensor {
                     unit: unit.symbol().to_owned(),
                     compression_positive,
                     components,
                 });
+            }
+            Self::SetInput(input) => {
+                let name = active(&p)?;
+                input
+                    .tensor()
+                    .map_err(|e| StudyError::Invalid(format!("'{name}': {e}")))?;
+                let case = p
+                    .cases
+                    .iter_mut()
+                    .find(|c| c.name == name)
+                    .ok_or_else(|| StudyError::Invalid(format!("'{name}' is a combination")))?;
+                case.input = input.clone();
+            }
+            Self::AddCaseOfKind(kind) => {
+                let name = p.unused_name("case");
+                let input = kind.blank(p.unit()?, p.compression_positive);
+                p.cases.push(LoadCase {
+                    name: name.clone(),
+                    description: String::new(),
+                    input,
+                });
+                p.active = name;
             }
             Self::SetPlane(plane) => p.plane = *plane,
             Self::SetMeasure(choice) => p.measure = *choice,

@@ -6,7 +6,7 @@ use std::fmt::Write as _;
 
 use crate::format::sig;
 use crate::session::{Coalesce, Command};
-use crate::study::{Derived, Edit, Project, Term};
+use crate::study::{Derived, Edit, InputKind, Project, Term};
 
 /// Text being typed in the panel.
 #[derive(Debug, Default)]
@@ -61,13 +61,27 @@ impl CasesPanel {
                 edit(out, Edit::Activate(case.name.clone()), None);
             }
         }
-        if ui
-            .small_button("+ load case")
-            .on_hover_text("Adds a load case with a zero stress state and shows it")
-            .clicked()
-        {
-            edit(out, Edit::AddCase, None);
-        }
+        ui.horizontal(|ui| {
+            if ui
+                .small_button("+ load case")
+                .on_hover_text("Adds a load case with a zero stress state and shows it")
+                .clicked()
+            {
+                edit(out, Edit::AddCase, None);
+            }
+            ui.menu_button("+ from other input", |ui| {
+                for kind in InputKind::ALL.into_iter().skip(1) {
+                    if ui.button(kind.label()).clicked() {
+                        edit(out, Edit::AddCaseOfKind(kind), None);
+                        ui.close();
+                    }
+                }
+            })
+            .response
+            .on_hover_text(
+                "A load case given as in-situ stresses, principal values and axes, a strain rosette or plane stress",
+            );
+        });
         ui.add_space(4.0);
         ui.strong("Combinations");
         if project.combinations.is_empty() {

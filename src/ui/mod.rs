@@ -5,6 +5,7 @@ pub mod cases_panel;
 pub mod envelope_panel;
 pub mod export_panel;
 pub mod file_prompt;
+pub mod input_panel;
 pub mod map_panel;
 pub mod mohr_panel;
 pub mod plane_panel;

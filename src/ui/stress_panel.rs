@@ -169,7 +169,22 @@ impl StressPanel {
                 d.name
             ));
         }
-        ui.add_enabled_ui(!d.combination, |ui| self.grid_ui(ui, &ids, d, out));
+        let derived_input = d
+            .input
+            .as_ref()
+            .filter(|i| i.kind() != crate::study::InputKind::Tensor);
+        if let Some(input) = derived_input {
+            ui.label(format!(
+                "Given as {}: the grid shows the tensor it gives, read-only.",
+                input.kind().label()
+            ));
+        }
+        ui.add_enabled_ui(!d.combination && derived_input.is_none(), |ui| {
+            self.grid_ui(ui, &ids, d, out);
+        });
+        if derived_input.is_some() {
+            return;
+        }
         if d.combination {
             if ui
                 .button("Make a load case from it")
