@@ -206,3 +206,177 @@ fn rosettes_follow_the_textbook_formulas() {
         assert!(e.contains(want), "{e}");
     }
 }
+
+mod common;
+
+fn json(args: &[&str]) -> serde_json::Value {
+    let out = common::planewise(args);
+    assert!(
+        out.status.success(),
+        "{args:?}: {}",
+        String::from_utf8_lossy(&out.stderr)
+    );
+    serde_json::from_slice(&out.stdout).unwrap()
+}
+
+#[test]
+fn the_command_line_takes_each_input() {
+    // In-situ: σ1 (compression positive) is Sv.
+    let j = json(&[
+        "analyze",
+        "--in-situ",
+        "sv=50,shmax=40,shmin=30,azimuth=30",
+        "--compression-positive",
+        "--json",
+    ]);
+    close(
+        j["principal"]["values"][0].as_f64().unwrap(),
+        50.0,
+        1e-9,
+        "σ1",
+    );
+    close(j["stress"]["xx"].as_f64().unwrap(), 32.5, 1e-9, "σxx");
+    // Principal values and axes come back out of analyze.
+    let j = json(&[
+        "analyze",
+        "--principal",
+        "s1=100,s2=50,s3=10",
+        "--axes",
+        "1=30/0,3=120/0",
+        "--json",
+    ]);
+    let v: Vec<f64> = j["principal"]["values"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .map(|x| x.as_f64().unwrap())
+        .collect();
+    assert_eq!(v, vec![100.0, 50.0, 10.0]);
+    let n1 = &j["principal"]["directions"][0];
+    close(n1[0].as_f64().unwrap().abs(), 0.5, 1e-12, "n1 east");
+    // A rosette: the readings come back from the stress (round trip through the JSON).
+    let j = json(&[
+        "rosette",
+        "--angles",
+        "0,45,90",
+        "--strains",
+        "770,1180,-350",
+        "--modulus",
+        "70GPa",
+        "--poisson",
+        "0.33",
+        "--json",
+    ]);
+    close(j["gamma_xy"].as_f64().unwrap(), 1940.0, 1e-9, "γxy");
+    let sx = j["stress"]["stress"]["xx"].as_f64().unwrap() * 1e6;
+    let sy = j["stress"]["stress"]["yy"].as_f64().unwrap() * 1e6;
+    let txy = j["stress"]["stress"]["xy"].as_f64().unwrap() * 1e6;
+    let r = Rosette {
+        angles_deg: [0.0, 45.0, 90.0],
+        strains: [770e-6, 1180e-6, -350e-6],
+        modulus_pa: 70e9,
+        poisson: 0.33,
+    };
+    let t = planewise::mechanics::StressTensor::from_pa([sx, sy, 0.0, txy, 0.0, 0.0]).unwrap();
+    for (got, want) in r.readings(&t).iter().zip(r.strains) {
+        close(*got, want, 1e-12, "reading");
+    }
+    // Equal readings: the angle is null, never NaN.
+    let j = json(&[
+        "rosette",
+        "--strains",
+        "100,100,100",
+        "--modulus",
+        "200GPa",
+        "--poisson",
+        "0.3",
+        "--json",
+    ]);
+    assert!(j["principal_angle_deg"].is_null());
+}
+
+#[test]
+fn bad_inputs_exit_2_with_one_line() {
+    common::assert_bad_input(
+        "rosette",
+        &[
+            (&["--strains", "1,2,3", "--poisson", "0.3"], "--modulus"),
+            (
+                &["--strains", "1,2,3", "--modulus", "70", "--poisson", "0.3"],
+                "--modulus",
+            ),
+            (
+                &[
+                    "--strains",
+                    "1,2,3",
+                    "--modulus",
+                    "70GPa",
+                    "--poisson",
+                    "0.5",
+                ],
+                "--poisson",
+            ),
+            (
+                &[
+                    "--angles",
+                    "0,45,45",
+                    "--strains",
+                    "1,2,3",
+                    "--modulus",
+                    "70GPa",
+                    "--poisson",
+                    "0.3",
+                ],
+                "--angles",
+            ),
+            (
+                &["--strains", "1,2", "--modulus", "70GPa", "--poisson", "0.3"],
+                "--strains",
+            ),
+        ],
+    );
+    common::assert_bad_input(
+        "analyze",
+        &[
+            (
+                &["--principal", "s1=3,s2=2,s3=1", "--axes", "1=0/0,3=80/0"],
+                "--axes",
+            ),
+            (&["--principal", "s1=3,s2=2,s3=1"], "--axes"),
+            (&["--in-situ", "sv=1,shmax=2"], "--in-situ"),
+            (
+                &[
+                    "--in-situ",
+                    "sv=1,shmax=2,shmin=1,azimuth=0",
+                    "--stress",
+                    "xx=1",
+                ],
+                "--stress",
+            ),
+            (
+                &["--principal", "s1=1,s2=2,s3=3", "--axes", "1=0/0,3=90/0"],
+                "--principal",
+            ),
+        ],
+    );
+}
+
+#[test]
+fn plane_stress_shows_the_in_plane_principal_angle() {
+    // σx = 80, σy = −40, τxy = 30 MPa: centre 20, radius √(60² + 30²) = 67.082 MPa,
+    // θp = ½ atan(2τxy / (σx − σy)) = ½ atan(0.5) = 13.2825° (Mohr's circle by hand).
+    let j = json(&["analyze", "--stress", "xx=80,yy=-40,xy=30", "--json"]);
+    let p = &j["in_plane"];
+    let r = 60.0_f64.hypot(30.0);
+    close(p["values"][0].as_f64().unwrap(), 20.0 + r, 1e-9, "σmax");
+    close(p["values"][1].as_f64().unwrap(), 20.0 - r, 1e-9, "σmin");
+    close(
+        p["angle_deg"].as_f64().unwrap(),
+        0.5 * 0.5_f64.atan().to_degrees(),
+        1e-9,
+        "θp",
+    );
+    // Not plane stress: no in-plane block.
+    let j = json(&["analyze", "--stress", "xx=80,zz=1", "--json"]);
+    assert!(j.get("in_plane").is_none());
+}

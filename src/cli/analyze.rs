@@ -155,12 +155,25 @@ pub struct AnalyzeJson {
     pub octahedral: OctahedralJson,
     pub lode_angle_deg: Option<f64>,
     pub triaxiality: Option<f64>,
+    /// For a plane-stress state (σzz = σyz = σzx = 0): the in-plane principal stresses and the
+    /// angle of the larger from x (counter-clockwise, tension positive; null when equal).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub in_plane: Option<InPlaneJson>,
     /// Every criterion under proportional loading, in a fixed order; see [`CriterionJson`].
     pub criteria: Vec<CriterionJson>,
     /// The failing or most utilized criterion, if any was checked.
     pub governing_criterion: Option<String>,
     #[serde(skip_serializing_if = "Option::is_none")]
     pub plane: Option<PlaneJson>,
+}
+
+/// In-plane principal stresses of a plane-stress state.
+#[derive(Debug, Serialize)]
+pub struct InPlaneJson {
+    /// The larger and smaller in-plane principal stress (in the chosen convention's sign).
+    pub values: [f64; 2],
+    /// Angle of the larger tension-positive one from x, counter-clockwise, degrees.
+    pub angle_deg: Option<f64>,
 }
 
 /// One criterion: demand and strength in the stress unit, utilization = demand / strength and
@@ -314,6 +327,18 @@ pub fn to_json(input: &StressInput, plane: Option<PlaneNormal>, checks: &Checks)
         },
         lode_angle_deg: a.lode_angle_deg.map(clean),
         triaxiality: a.triaxiality.map(clean),
+        in_plane: {
+            let [xx, yy, zz, xy, yz, zx] = input.tensor.components_pa();
+            (zz == 0.0 && yz == 0.0 && zx == 0.0).then(|| {
+                let (a, b, angle) = crate::mechanics::inputs::in_plane_principal(xx, yy, xy);
+                let mut values = [st(sign * a), st(sign * b)];
+                values.sort_by(|p, q| q.total_cmp(p));
+                InPlaneJson {
+                    values,
+                    angle_deg: angle.map(clean),
+                }
+            })
+        },
         criteria: verdicts
             .iter()
             .map(|v| CriterionJson {
@@ -433,6 +458,19 @@ pub fn to_text(j: &AnalyzeJson) -> String {
         vec_text(&j.max_shear_normals[0]),
         vec_text(&j.max_shear_normals[1])
     );
+    if let Some(p) = &j.in_plane {
+        let _ = writeln!(
+            s,
+            "  {:<23} {} and {}; {}",
+            "in-plane principal",
+            with_unit(Some(p.values[0]), u),
+            with_unit(Some(p.values[1]), u),
+            p.angle_deg.map_or_else(
+                || "direction undefined (equal in the plane)".to_owned(),
+                |a| format!("the larger (tension positive) at {}° from x", sig(a, 5))
+            )
+        );
+    }
     let _ = writeln!(
         s,
         "Criteria (proportional loading: factor of safety = the factor on every stress that reaches the surface; utilization = 1 / factor)"

@@ -9,6 +9,7 @@ pub mod figure;
 pub mod map;
 pub mod mohr;
 pub mod project;
+pub mod rosette;
 pub mod values;
 pub mod worst_plane;
 
@@ -76,6 +77,9 @@ pub enum Command {
     /// One measure over every load case and combination of a project, worst first.
     #[command(after_help = CONVENTIONS)]
     Envelope(envelope::EnvelopeArgs),
+    /// Three strain-gauge readings on a free surface: strains, principal strains and angle, and
+    /// the plane-stress state with its analysis.
+    Rosette(rosette::RosetteArgs),
 }
 
 /// The stress state, as every subcommand takes it.
@@ -93,6 +97,8 @@ pub struct StressArgs {
     /// Stresses typed and printed are compression-positive (geomechanics).
     #[arg(long)]
     pub compression_positive: bool,
+    #[command(flatten)]
+    pub other: InputArgs,
     /// Take the state from this project file (with --case) instead of --stress.
     #[arg(long, value_name = "FILE", requires = "case")]
     pub project: Option<std::path::PathBuf>,
@@ -118,6 +124,12 @@ impl StressArgs {
                 "cannot be given together with --project",
             ));
         }
+        if self.other.any() {
+            return Err(ArgError::new(
+                "--project",
+                "cannot be given together with --in-situ or --principal",
+            ));
+        }
         let (project, _) = crate::study::load(file).map_err(|e| ArgError::new("--project", e))?;
         let tensor = project
             .tensor(case)
@@ -133,6 +145,120 @@ impl StressArgs {
             unit: self.unit_or(project_unit),
             convention,
         })
+    }
+}
+
+/// The state given some other way than six components.
+#[derive(Debug, Clone, Args, Default)]
+pub struct InputArgs {
+    /// In-situ stresses instead of --stress, compression positive in the stress unit:
+    /// sv=…,shmax=…,shmin=…,azimuth=DEG (SHmax's azimuth clockwise from north; x = east,
+    /// y = north, z = up).
+    #[arg(long, value_name = "KEY=VALUE,…", allow_hyphen_values = true)]
+    pub in_situ: Option<String>,
+    /// Principal values instead of --stress: s1=…,s2=…,s3=… (s1 ≥ s2 ≥ s3 in the chosen
+    /// convention); needs --axes.
+    #[arg(
+        long,
+        value_name = "KEY=VALUE,…",
+        allow_hyphen_values = true,
+        requires = "axes"
+    )]
+    pub principal: Option<String>,
+    /// The σ1 and σ3 axes for --principal: 1=TREND/PLUNGE,3=TREND/PLUNGE in degrees (trend
+    /// clockwise from north, plunge down); σ2 completes a right-handed set.
+    #[arg(long, value_name = "1=T/P,3=T/P", requires = "principal")]
+    pub axes: Option<String>,
+}
+
+impl InputArgs {
+    /// The input, if one of these forms is given (stresses in `unit`; principal values in the
+    /// convention `compression_positive` says).
+    pub fn read(
+        &self,
+        unit: StressUnit,
+        compression_positive: bool,
+    ) -> Result<Option<crate::study::CaseInput>, ArgError> {
+        use crate::study::{CaseInput, InSituInput, PrincipalInput};
+        let input = if let Some(text) = &self.in_situ {
+            let [sv, shmax, shmin, azimuth_deg] =
+                parse::key_list(text, ["sv", "shmax", "shmin", "azimuth"])
+                    .map_err(|e| ArgError::new("--in-situ", e))?;
+            CaseInput::InSitu(InSituInput {
+                unit: unit.symbol().to_owned(),
+                sv,
+                shmax,
+                shmin,
+                azimuth_deg,
+            })
+        } else if let Some(text) = &self.principal {
+            let values = parse::key_list(text, ["s1", "s2", "s3"])
+                .map_err(|e| ArgError::new("--principal", e))?;
+            let axes = self.axes.as_deref().unwrap_or_default();
+            let mut found: [Option<[f64; 2]>; 2] = [None, None];
+            for item in axes.split(',').map(str::trim).filter(|s| !s.is_empty()) {
+                let bad = || {
+                    ArgError::new(
+                        "--axes",
+                        format!("'{item}' is not 1=TREND/PLUNGE or 3=TREND/PLUNGE"),
+                    )
+                };
+                let (key, value) = item.split_once('=').ok_or_else(bad)?;
+                let (trend, plunge) = value.split_once('/').ok_or_else(bad)?;
+                let i = match key.trim() {
+                    "1" => 0,
+                    "3" => 1,
+                    _ => return Err(bad()),
+                };
+                let number = |t: &str| parse::number(t).map_err(|e| ArgError::new("--axes", e));
+                found[i] = Some([number(trend)?, number(plunge)?]);
+            }
+            let [Some(axis1), Some(axis3)] = found else {
+                return Err(ArgError::new(
+                    "--axes",
+                    "needs both 1=TREND/PLUNGE and 3=TREND/PLUNGE",
+                ));
+            };
+            CaseInput::Principal(PrincipalInput {
+                unit: unit.symbol().to_owned(),
+                compression_positive,
+                values,
+                axis1,
+                axis3,
+            })
+        } else {
+            return Ok(None);
+        };
+        let arg = if self.in_situ.is_some() {
+            "--in-situ"
+        } else if input_axes_error(&input) {
+            "--axes"
+        } else {
+            "--principal"
+        };
+        input.tensor().map_err(|e| ArgError::new(arg, e))?;
+        Ok(Some(input))
+    }
+
+    /// Whether any form is given.
+    #[must_use]
+    pub fn any(&self) -> bool {
+        self.in_situ.is_some() || self.principal.is_some()
+    }
+}
+
+/// Whether the principal input fails because of its axes (so the message names --axes).
+fn input_axes_error(input: &crate::study::CaseInput) -> bool {
+    let crate::study::CaseInput::Principal(p) = input else {
+        return false;
+    };
+    let axes = (
+        crate::mechanics::inputs::axis(p.axis1[0], p.axis1[1]),
+        crate::mechanics::inputs::axis(p.axis3[0], p.axis3[1]),
+    );
+    match axes {
+        (Ok(a), Ok(b)) => (a.dot(&b).clamp(-1.0, 1.0).acos().to_degrees() - 90.0).abs() > 0.5,
+        _ => true,
     }
 }
 
@@ -198,10 +324,30 @@ impl StressArgs {
         } else {
             SignConvention::TensionPositive
         };
+        if self.other.any() {
+            if self.stress.is_some() {
+                return Err(ArgError::new(
+                    "--stress",
+                    "cannot be given together with --in-situ or --principal",
+                ));
+            }
+            let input = self
+                .other
+                .read(unit, self.compression_positive)?
+                .ok_or_else(|| ArgError::new("--stress", "is required"))?;
+            let tensor = input
+                .tensor()
+                .map_err(|e| ArgError::new("--principal", e))?;
+            return Ok(StressInput {
+                tensor,
+                unit,
+                convention,
+            });
+        }
         let Some(stress) = &self.stress else {
             return Err(ArgError::new(
                 "--stress",
-                "is required (key=value pairs such as xx=120,xy=-35)",
+                "is required (key=value pairs such as xx=120,xy=-35), or --in-situ, --principal with --axes, or --project with --case",
             ));
         };
         let values = parse::stress_list(stress).map_err(|e| ArgError::new("--stress", e))?;
@@ -313,5 +459,6 @@ pub fn run(command: &Command) -> Result<String, CliError> {
         Command::Mohr(args) => mohr::run(args),
         Command::Project(args) => project::run(args),
         Command::Envelope(args) => envelope::run(args),
+        Command::Rosette(args) => rosette::run(args),
     }
 }

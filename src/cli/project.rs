@@ -58,9 +58,12 @@ pub struct AddCaseArgs {
     /// The load case's name (unique among cases and combinations).
     #[arg(long)]
     pub name: String,
-    /// Components as key=value pairs in the project's unit and convention.
+    /// Components as key=value pairs in the project's unit and convention (or one of the other
+    /// inputs below).
     #[arg(long, value_name = "KEY=VALUE,…", allow_hyphen_values = true)]
-    pub stress: String,
+    pub stress: Option<String>,
+    #[command(flatten)]
+    pub other: super::InputArgs,
     /// Free text.
     #[arg(long, default_value = "")]
     pub description: String,
@@ -127,16 +130,34 @@ pub fn run(args: &ProjectArgs) -> Result<String, CliError> {
         }
         ProjectAction::AddCase(a) => {
             let mut project = load(&a.file)?;
-            let components =
-                parse::stress_list(&a.stress).map_err(|e| ArgError::new("--stress", e))?;
+            let unit = project.unit().map_err(|e| ArgError::new("FILE", e))?;
+            let input = match (&a.stress, a.other.read(unit, project.compression_positive)?) {
+                (Some(_), Some(_)) => {
+                    return Err(ArgError::new(
+                        "--stress",
+                        "cannot be given together with --in-situ or --principal",
+                    )
+                    .into());
+                }
+                (None, Some(input)) => input,
+                (Some(stress), None) => CaseInput::Tensor(TypedTensor {
+                    unit: project.unit.clone(),
+                    compression_positive: project.compression_positive,
+                    components: parse::stress_list(stress)
+                        .map_err(|e| ArgError::new("--stress", e))?,
+                }),
+                (None, None) => {
+                    return Err(ArgError::new(
+                        "--stress",
+                        "is required (or --in-situ, or --principal with --axes)",
+                    )
+                    .into());
+                }
+            };
             let case = LoadCase {
                 name: a.name.trim().to_owned(),
                 description: a.description.clone(),
-                input: CaseInput::Tensor(TypedTensor {
-                    unit: project.unit.clone(),
-                    compression_positive: project.compression_positive,
-                    components,
-                }),
+                input,
             };
             project
                 .add_case(case, a.replace)
