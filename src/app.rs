@@ -108,6 +108,8 @@ pub struct PlanewiseApp {
     pub stress_panel: ui::stress_panel::StressPanel,
     /// Plane entry state.
     pub plane_panel: ui::plane_panel::PlanePanel,
+    /// The faults tab.
+    pub faults_panel: ui::faults_panel::FaultsPanel,
     /// A load case's input form.
     pub input_panel: ui::input_panel::InputPanel,
     /// The material editor.
@@ -169,6 +171,7 @@ impl PlanewiseApp {
             cases_panel: ui::cases_panel::CasesPanel::default(),
             material_panel: ui::verdict_panel::MaterialPanel::default(),
             input_panel: ui::input_panel::InputPanel::default(),
+            faults_panel: ui::faults_panel::FaultsPanel::default(),
             envelope_panel: ui::envelope_panel::EnvelopePanel::default(),
             export_panel: ui::export_panel::ExportPanel::default(),
             file_prompt: ui::file_prompt::FilePrompt::default(),
@@ -313,7 +316,7 @@ impl PlanewiseApp {
         let input = FigureInput::from_derived(&d, settings.mohr_envelope);
         let sizes = crate::draw::Sizes::for_export(w as f32, h as f32);
         match settings.central {
-            Central::View3d | Central::Envelope => figures::view_3d(
+            Central::View3d | Central::Envelope | Central::Faults => figures::view_3d(
                 &input,
                 settings.layers,
                 settings.faces,
@@ -896,6 +899,7 @@ impl PlanewiseApp {
                 ui.selectable_value(&mut self.settings.central, Central::Map, "Orientation map");
                 ui.selectable_value(&mut self.settings.central, Central::Mohr, "Mohr circles");
                 ui.selectable_value(&mut self.settings.central, Central::Envelope, "Envelope");
+                ui.selectable_value(&mut self.settings.central, Central::Faults, "Faults");
             });
             match self.settings.central {
                 Central::View3d => {
@@ -904,6 +908,10 @@ impl PlanewiseApp {
                 Central::Map => ui::map_panel::map_ui(ui, &d, &mut commands),
                 Central::Mohr => {
                     ui::mohr_panel::mohr_ui(ui, &d, &mut self.settings, &mut commands);
+                }
+                Central::Faults => {
+                    self.faults_panel
+                        .ui(ui, &self.project.faults, &d, &mut commands);
                 }
                 Central::Envelope => {
                     self.envelope_panel.ui(

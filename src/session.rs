@@ -62,6 +62,8 @@ pub enum Central {
     Mohr,
     /// The envelope over every case and combination.
     Envelope,
+    /// Named planes checked as faults.
+    Faults,
 }
 
 impl Default for Settings {
@@ -98,6 +100,8 @@ pub enum Coalesce {
     MeasureFields,
     /// Typing in the material editor.
     MaterialFields,
+    /// Typing in the faults table.
+    FaultFields,
     /// Typing in a load case's input form (in-situ, principal axes, rosette, plane stress).
     InputFields,
     /// Typing a combination's factors.

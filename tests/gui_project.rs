@@ -486,3 +486,36 @@ fn a_load_case_given_as_in_situ_stresses_is_typed_in_its_form() {
         planewise::study::InputKind::InSitu
     );
 }
+
+#[test]
+fn faults_are_added_from_the_cut_plane_edited_and_sorted() {
+    let mut h = demo();
+    h.get_by_label("Faults").click();
+    h.run();
+    h.get_by_label("+ fault from the cut plane").click();
+    h.run();
+    h.get_by_label("+ fault from the cut plane").click();
+    h.run();
+    assert_eq!(h.state().project.faults.len(), 2);
+    // Make the second one horizontal by typing its dip.
+    type_into(&mut h, "Fault 2 dip", "0");
+    let f = &h.state().project.faults[1];
+    assert_eq!(f.dip_deg, 0.0);
+    // The table's numbers are the fault check's (σn′ compression positive).
+    let d = planewise::study::Derived::new(&h.state().project);
+    assert_eq!(d.faults.len(), 2);
+    assert!(d.faults.iter().all(|(_, c)| c.is_some()));
+    // A dip beyond 90° is refused and the last valid faults kept.
+    let before = h.state().project.faults.clone();
+    type_into(&mut h, "Fault 1 dip", "95");
+    assert_eq!(h.state().project.faults, before);
+    h.get_by_label_contains("the last valid faults are kept");
+    // Sorting by a column does not change the project.
+    h.key_press(egui::Key::Escape);
+    h.run();
+    h.get(by().role(Role::Button).label("slip tendency"))
+        .click();
+    h.run();
+    assert_eq!(h.state().project.faults.len(), 2);
+    h.get(by().role(Role::Button).label("slip tendency ▼"));
+}

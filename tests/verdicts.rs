@@ -378,3 +378,48 @@ fn the_envelope_ranks_by_a_criterions_utilization() {
     .unwrap();
     assert!(env.governing.is_some());
 }
+
+#[test]
+fn named_faults_are_checked_at_once_and_sorted() {
+    // The same principal stresses as above; F2 by strike/dip with the right-hand rule
+    // (strike 45°, dip 90° → dip direction 135°, normal (1, −1, 0)/√2): σn = 25, τ = 5 MPa.
+    let out = common::planewise(&[
+        "analyze",
+        "--stress",
+        "xx=-30,yy=-20,zz=-10",
+        "--fault",
+        "F1=90/90",
+        "--fault-strike",
+        "F2=45/90",
+        "--cohesion",
+        "1",
+        "--friction-angle",
+        "30",
+        "--pore-pressure",
+        "5",
+        "--json",
+    ]);
+    assert!(
+        out.status.success(),
+        "{}",
+        String::from_utf8_lossy(&out.stderr)
+    );
+    let j: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
+    let faults = j["faults"].as_array().unwrap();
+    assert_eq!(faults[0]["name"], "F2", "highest slip tendency first");
+    assert!((faults[0]["dip_direction_deg"].as_f64().unwrap() - 135.0).abs() < 1e-12);
+    assert!((faults[0]["slip_tendency"].as_f64().unwrap() - 0.25).abs() < 1e-12);
+    // F1 is the x face: σn = 30 MPa, no shear: slip tendency 0.
+    assert!(faults[1]["slip_tendency"].as_f64().unwrap().abs() < 1e-12);
+    common::assert_bad_input(
+        "analyze",
+        &[
+            (&["--stress", "xx=1", "--fault", "F1=95/10"], "--fault"),
+            (&["--stress", "xx=1", "--fault", "F1"], "--fault"),
+            (
+                &["--stress", "xx=1", "--fault-strike", "F=10/x"],
+                "--fault-strike",
+            ),
+        ],
+    );
+}

@@ -117,7 +117,7 @@ impl StrengthArgs {
         if pore.is_some() && !plane {
             return Err(ArgError::new(
                 "--pore-pressure",
-                "applies to the plane's fault check: give --normal or --dip and --dip-direction",
+                "applies to the fault checks: give --normal (or --dip and --dip-direction) or --fault",
             ));
         }
         Ok((strengths, pore))
@@ -133,6 +133,13 @@ pub struct AnalyzeArgs {
     pub plane: PlaneArgs,
     #[command(flatten)]
     pub strengths: StrengthArgs,
+    /// A named plane to check as a fault, NAME=DIP/DIPDIRECTION in degrees (repeat for more).
+    #[arg(long, value_name = "NAME=DIP/DIPDIR", allow_hyphen_values = true)]
+    pub fault: Vec<String>,
+    /// A named fault by strike and dip with the right-hand rule, NAME=STRIKE/DIP (dip direction
+    /// = strike + 90°; repeat for more).
+    #[arg(long, value_name = "NAME=STRIKE/DIP", allow_hyphen_values = true)]
+    pub fault_strike: Vec<String>,
     /// Print one JSON object instead of the table.
     #[arg(long)]
     pub json: bool,
@@ -165,6 +172,20 @@ pub struct AnalyzeJson {
     pub governing_criterion: Option<String>,
     #[serde(skip_serializing_if = "Option::is_none")]
     pub plane: Option<PlaneJson>,
+    /// With --fault / --fault-strike: each named plane's fault check, highest slip tendency
+    /// first (planes with no frictional capacity first of all).
+    #[serde(skip_serializing_if = "Vec::is_empty")]
+    pub faults: Vec<NamedFaultJson>,
+}
+
+/// One named fault.
+#[derive(Debug, Serialize)]
+pub struct NamedFaultJson {
+    pub name: String,
+    pub dip_deg: f64,
+    pub dip_direction_deg: f64,
+    #[serde(flatten)]
+    pub check: FaultJson,
 }
 
 /// In-plane principal stresses of a plane-stress state.
@@ -265,14 +286,85 @@ fn arr(v: &Vector3<f64>) -> [f64; 3] {
     [v.x, v.y, v.z].map(clean)
 }
 
-/// What `analyze` checks besides the state: the material's strengths and, for the plane's fault
-/// check, the pore pressure.
-#[derive(Debug, Clone, Copy, Default)]
+/// What `analyze` checks besides the state: the material's strengths, the pore pressure for
+/// the fault checks, and named faults.
+#[derive(Debug, Clone, Default)]
 pub struct Checks {
     /// The strengths.
     pub strengths: Strengths,
     /// The pore pressure, Pa, if given.
     pub pore_pressure_pa: Option<f64>,
+    /// Named faults.
+    pub faults: Vec<crate::study::FaultPlane>,
+}
+
+fn fault_json(
+    f: &criteria::FaultCheck,
+    pore_pressure_pa: f64,
+    st: &impl Fn(f64) -> f64,
+) -> FaultJson {
+    FaultJson {
+        pore_pressure: st(pore_pressure_pa),
+        effective_normal_stress: st(f.effective_normal_stress_pa),
+        shear_stress: st(f.shear_stress_pa),
+        slip_tendency: f.slip_tendency.utilization.map(clean),
+        slip_tendency_condition: f.slip_tendency.condition,
+        dilation_tendency: f.dilation_tendency.utilization.map(clean),
+        mohr_coulomb_utilization: f.mohr_coulomb.and_then(|c| c.utilization).map(clean),
+        pore_pressure_to_slip: f.pore_pressure_to_slip_pa.map(st),
+        rake_deg: f.rake_deg.map(clean),
+    }
+}
+
+/// `NAME=A/B` → (name, a, b).
+fn named_pair(arg: &'static str, text: &str) -> Result<(String, f64, f64), ArgError> {
+    let bad = || ArgError::new(arg, format!("'{text}' is not NAME=NUMBER/NUMBER"));
+    let (name, pair) = text.rsplit_once('=').ok_or_else(bad)?;
+    let (a, b) = pair.split_once('/').ok_or_else(bad)?;
+    let number =
+        |t: &str| crate::parse::number(t).map_err(|e| ArgError::new(arg, format!("{name}: {e}")));
+    let name = name.trim();
+    if name.is_empty() {
+        return Err(bad());
+    }
+    Ok((name.to_owned(), number(a)?, number(b)?))
+}
+
+/// The faults given with --fault and --fault-strike.
+pub fn read_faults(
+    dip: &[String],
+    strike: &[String],
+) -> Result<Vec<crate::study::FaultPlane>, ArgError> {
+    let mut out = Vec::new();
+    for text in dip {
+        let (name, dip_deg, dip_direction_deg) = named_pair("--fault", text)?;
+        out.push(crate::study::FaultPlane {
+            name,
+            dip_deg,
+            dip_direction_deg,
+        });
+    }
+    for text in strike {
+        let (name, strike_deg, dip_deg) = named_pair("--fault-strike", text)?;
+        out.push(crate::study::FaultPlane {
+            name,
+            dip_deg,
+            dip_direction_deg: (strike_deg + 90.0).rem_euclid(360.0),
+        });
+    }
+    for f in &out {
+        f.normal().map_err(|e| {
+            ArgError::new(
+                if dip.is_empty() {
+                    "--fault-strike"
+                } else {
+                    "--fault"
+                },
+                e,
+            )
+        })?;
+    }
+    Ok(out)
 }
 
 /// Builds the JSON object for a state and optional plane.
@@ -353,6 +445,32 @@ pub fn to_json(input: &StressInput, plane: Option<PlaneNormal>, checks: &Checks)
             })
             .collect(),
         governing_criterion: governing,
+        faults: {
+            let p = checks.pore_pressure_pa.unwrap_or(0.0);
+            let mut rows: Vec<NamedFaultJson> = checks
+                .faults
+                .iter()
+                .filter_map(|f| {
+                    let n = f.normal().ok()?;
+                    let c = criteria::fault_check(&input.tensor, n, p, material.as_ref()).ok()?;
+                    Some(NamedFaultJson {
+                        name: f.name.clone(),
+                        dip_deg: clean(f.dip_deg),
+                        dip_direction_deg: clean(f.dip_direction_deg),
+                        check: fault_json(&c, p, &st),
+                    })
+                })
+                .collect();
+            let rank =
+                |r: &NamedFaultJson| match (r.check.slip_tendency, r.check.slip_tendency_condition)
+                {
+                    (Some(v), _) => v,
+                    (None, Condition::EffectiveTension) => f64::INFINITY,
+                    (None, _) => f64::NEG_INFINITY,
+                };
+            rows.sort_by(|a, b| rank(b).total_cmp(&rank(a)));
+            rows
+        },
         plane: plane.map(|n| {
             let ps = PlaneStress::new(&input.tensor, n, input.convention);
             PlaneJson {
@@ -368,20 +486,7 @@ pub fn to_json(input: &StressInput, plane: Option<PlaneNormal>, checks: &Checks)
                         criteria::fault_check(&input.tensor, n, p, material.as_ref()).ok()
                     })
                     .flatten()
-                    .map(|f| FaultJson {
-                        pore_pressure: st(checks.pore_pressure_pa.unwrap_or(0.0)),
-                        effective_normal_stress: st(f.effective_normal_stress_pa),
-                        shear_stress: st(f.shear_stress_pa),
-                        slip_tendency: f.slip_tendency.utilization.map(clean),
-                        slip_tendency_condition: f.slip_tendency.condition,
-                        dilation_tendency: f.dilation_tendency.utilization.map(clean),
-                        mohr_coulomb_utilization: f
-                            .mohr_coulomb
-                            .and_then(|c| c.utilization)
-                            .map(clean),
-                        pore_pressure_to_slip: f.pore_pressure_to_slip_pa.map(st),
-                        rake_deg: f.rake_deg.map(clean),
-                    }),
+                    .map(|f| fault_json(&f, checks.pore_pressure_pa.unwrap_or(0.0), &st)),
             }
         }),
     }
@@ -579,6 +684,28 @@ pub fn to_text(j: &AnalyzeJson) -> String {
             }
         }
     }
+    if !j.faults.is_empty() {
+        let _ = writeln!(
+            s,
+            "Faults (compression positive, σn′ = σn − p), highest slip tendency first"
+        );
+        let ratio = |v: Option<f64>| v.map_or_else(|| "undefined".to_owned(), |x| sig(x, 4));
+        for f in &j.faults {
+            let _ = writeln!(
+                s,
+                "  {:<12} dip {:>5}° / {:>6}°  σn′ {:<14} τ {:<14} Ts {:<9} Td {:<9} U {:<9} Δp {}",
+                f.name,
+                sig(f.dip_deg, 4),
+                sig(f.dip_direction_deg, 5),
+                with_unit(Some(f.check.effective_normal_stress), u),
+                with_unit(Some(f.check.shear_stress), u),
+                ratio(f.check.slip_tendency),
+                ratio(f.check.dilation_tendency),
+                ratio(f.check.mohr_coulomb_utilization),
+                with_unit(f.check.pore_pressure_to_slip, u)
+            );
+        }
+    }
     s
 }
 
@@ -586,13 +713,17 @@ pub fn to_text(j: &AnalyzeJson) -> String {
 pub fn run(args: &AnalyzeArgs) -> Result<String, CliError> {
     let input = args.stress.read()?;
     let plane = args.plane.read()?;
-    let (strengths, pore_pressure_pa) = args.strengths.read(input.unit, plane.is_some())?;
+    let faults = read_faults(&args.fault, &args.fault_strike)?;
+    let (strengths, pore_pressure_pa) = args
+        .strengths
+        .read(input.unit, plane.is_some() || !faults.is_empty())?;
     let json = to_json(
         &input,
         plane,
         &Checks {
             strengths,
             pore_pressure_pa,
+            faults,
         },
     );
     if args.json {

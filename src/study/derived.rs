@@ -2,7 +2,7 @@
 //! project: its tensor, the analysis in the display convention and the worst-plane search.
 //! Before this, each panel searched for itself, two or three times a frame.
 
-use super::model::{CaseInput, MeasureChoice, Project};
+use super::model::{CaseInput, FaultPlane, MeasureChoice, Project};
 use crate::mechanics::criteria::{self, FaultCheck, Verdict};
 use crate::mechanics::search::{SearchError, SearchResult, SearchSettings, worst_plane};
 use crate::mechanics::{Analysis, PlaneNormal, SignConvention, StressTensor, StressUnit};
@@ -37,6 +37,8 @@ pub struct Derived {
     /// The cut plane as a fault, with the worst-plane section's pore pressure and plane
     /// cohesion and friction.
     pub fault: Option<FaultCheck>,
+    /// The named faults with their checks (`None` where the plane is unusable).
+    pub faults: Vec<(FaultPlane, Option<FaultCheck>)>,
     /// The shown load case's input as typed (`None` for a combination).
     pub input: Option<CaseInput>,
     /// Why the tensor could not be formed, if so (the zero tensor is shown meanwhile).
@@ -64,7 +66,24 @@ impl Derived {
             search.material.as_ref(),
         )
         .ok();
+        let faults = project
+            .faults
+            .iter()
+            .map(|f| {
+                let check = f.normal().ok().and_then(|n| {
+                    criteria::fault_check(
+                        &tensor,
+                        n,
+                        project.measure.pore_pressure_pa,
+                        search.material.as_ref(),
+                    )
+                    .ok()
+                });
+                (f.clone(), check)
+            })
+            .collect();
         Self {
+            faults,
             input: project.case(&name).map(|c| c.input.clone()),
             verdicts,
             material_name: project.material.name.clone(),

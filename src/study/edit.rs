@@ -2,8 +2,8 @@
 //! each); the command line's `project` subcommands use the same model functions.
 
 use super::model::{
-    CaseInput, Combination, InputKind, LoadCase, Material, MeasureChoice, Project, StudyError,
-    Term, TypedTensor, check_name,
+    CaseInput, Combination, FaultPlane, InputKind, LoadCase, Material, MeasureChoice, Project,
+    StudyError, Term, TypedTensor, check_name,
 };
 use crate::mechanics::{PlaneNormal, SignConvention, StressTensor, StressUnit};
 
@@ -22,6 +22,8 @@ pub enum Edit {
     SetMeasure(MeasureChoice),
     /// The material the criteria check against.
     SetMaterial(Material),
+    /// The named fault planes.
+    SetFaults(Vec<FaultPlane>),
     /// The unit every stress is shown and typed in.
     SetUnit(StressUnit),
     /// The sign convention every stress is shown and typed in.
@@ -121,6 +123,12 @@ impl Edit {
                     input,
                 });
                 p.active = name;
+            }
+            Self::SetFaults(faults) => {
+                for f in faults {
+                    f.normal()?;
+                }
+                p.faults.clone_from(faults);
             }
             Self::SetPlane(plane) => p.plane = *plane,
             Self::SetMeasure(choice) => p.measure = *choice,

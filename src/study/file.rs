@@ -14,7 +14,10 @@
 //! `"material": { "name": "…", "yield_strength_pa": 2.35e8, "tensile_strength_pa": null, …,
 //! "dp_fit": "compression-meridian" }` holds the criteria's strengths (null: not given).
 //!
-//! `active`, `plane`, `measure` and `material` were added within version 1 and are optional (the first
+//! `"faults": [{ "name": "F1", "dip_deg": 60, "dip_direction_deg": 120 }]` lists named planes
+//! checked as faults.
+//!
+//! `active`, `plane`, `measure`, `material` and `faults` were added within version 1 and are optional (the first
 //! case, the x face and the shear measure when absent), so files written before them load.
 
 use std::path::{Path, PathBuf};
@@ -27,7 +30,7 @@ use super::model::{Project, StudyError};
 pub const FORMAT_VERSION: u32 = 1;
 
 /// Top-level keys this version knows; others are ignored with a warning.
-const KNOWN_KEYS: [&str; 11] = [
+const KNOWN_KEYS: [&str; 12] = [
     "format_version",
     "name",
     "unit",
@@ -39,6 +42,7 @@ const KNOWN_KEYS: [&str; 11] = [
     "plane",
     "measure",
     "material",
+    "faults",
 ];
 
 #[derive(Serialize, Deserialize)]

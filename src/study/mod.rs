@@ -17,6 +17,7 @@ pub use history::History;
 pub use envelope::{Envelope, EnvelopeMeasure, EnvelopeRow, envelope};
 pub use file::{FORMAT_VERSION, FileError, load, save};
 pub use model::{
-    CaseInput, Combination, FieldKind, InSituInput, InputKind, LoadCase, Material, MeasureChoice,
-    PlaneStressInput, PrincipalInput, Project, RosetteInput, StudyError, Term, TypedTensor,
+    CaseInput, Combination, FaultPlane, FieldKind, InSituInput, InputKind, LoadCase, Material,
+    MeasureChoice, PlaneStressInput, PrincipalInput, Project, RosetteInput, StudyError, Term,
+    TypedTensor,
 };

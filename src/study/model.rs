@@ -501,6 +501,31 @@ pub struct Material {
     pub strengths: Strengths,
 }
 
+/// A named plane checked as a fault (a joint, a fault, a bedding plane…).
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+pub struct FaultPlane {
+    /// Its name.
+    pub name: String,
+    /// Dip, degrees (0 horizontal to 90 vertical).
+    pub dip_deg: f64,
+    /// Dip direction, degrees clockwise from north.
+    pub dip_direction_deg: f64,
+}
+
+impl FaultPlane {
+    /// The plane's upward normal.
+    pub fn normal(&self) -> Result<PlaneNormal, StudyError> {
+        PlaneNormal::from_dip(self.dip_deg, self.dip_direction_deg)
+            .map_err(|e| StudyError::Invalid(format!("fault '{}': {e}", self.name)))
+    }
+
+    /// Strike by the right-hand rule (dip direction − 90°), degrees in [0, 360).
+    #[must_use]
+    pub fn strike_deg(&self) -> f64 {
+        (self.dip_direction_deg - 90.0).rem_euclid(360.0)
+    }
+}
+
 fn default_plane() -> PlaneNormal {
     PlaneNormal::X
 }
@@ -539,6 +564,10 @@ pub struct Project {
     /// The material the criteria check against.
     #[serde(default)]
     pub material: Material,
+    /// Named planes checked as faults with the worst-plane section's pore pressure and plane
+    /// cohesion and friction.
+    #[serde(default)]
+    pub faults: Vec<FaultPlane>,
 }
 
 fn default_unit() -> String {
@@ -582,6 +611,7 @@ impl Project {
             plane: default_plane(),
             measure: MeasureChoice::default(),
             material: Material::default(),
+            faults: Vec::new(),
         }
     }
 
@@ -736,6 +766,9 @@ impl Project {
             .strengths
             .validate()
             .map_err(|e| StudyError::Invalid(format!("material: {e}")))?;
+        for fault in &self.faults {
+            fault.normal()?;
+        }
         let mut names: Vec<&str> = Vec::new();
         for name in self
             .cases
