@@ -129,7 +129,12 @@ impl StressPanel {
                 .selected_text(unit.symbol())
                 .show_ui(ui, |ui| {
                     for u in StressUnit::ALL {
-                        ui.selectable_value(&mut unit, u, u.symbol());
+                        let text = if u == StressUnit::MPa {
+                            "MPa (= N/mm²)"
+                        } else {
+                            u.symbol()
+                        };
+                        ui.selectable_value(&mut unit, u, text);
                     }
                 })
                 .response
