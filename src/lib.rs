@@ -13,6 +13,7 @@ pub mod export;
 pub mod format;
 pub mod mechanics;
 pub mod parse;
+pub mod report;
 pub mod results;
 pub mod scene;
 pub mod session;

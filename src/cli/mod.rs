@@ -9,6 +9,7 @@ pub mod figure;
 pub mod map;
 pub mod mohr;
 pub mod project;
+pub mod report;
 pub mod rosette;
 pub mod values;
 pub mod worst_plane;
@@ -80,6 +81,8 @@ pub enum Command {
     /// Three strain-gauge readings on a free surface: strains, principal strains and angle, and
     /// the plane-stress state with its analysis.
     Rosette(rosette::RosetteArgs),
+    /// The calculation report of a project: one self-contained HTML file to print and sign.
+    Report(report::ReportArgs),
 }
 
 /// The stress state, as every subcommand takes it.
@@ -460,5 +463,6 @@ pub fn run(command: &Command) -> Result<String, CliError> {
         Command::Project(args) => project::run(args),
         Command::Envelope(args) => envelope::run(args),
         Command::Rosette(args) => rosette::run(args),
+        Command::Report(args) => report::run(args),
     }
 }

@@ -9,11 +9,14 @@ use crate::scene::style::Rgba;
 /// The font family named in exported SVG text.
 pub const FONT_FAMILY: &str = "DejaVu Sans";
 
-fn escape(text: &str) -> String {
+/// Text made safe inside XML and HTML elements and attribute values.
+#[must_use]
+pub fn escape(text: &str) -> String {
     text.replace('&', "&amp;")
         .replace('<', "&lt;")
         .replace('>', "&gt;")
         .replace('"', "&quot;")
+        .replace('\'', "&#39;")
 }
 
 fn paint(attr: &str, c: Rgba) -> String {

@@ -854,3 +854,21 @@ pub(crate) fn check_name(name: &str) -> Result<(), StudyError> {
     }
     Ok(())
 }
+
+/// A combination's terms as text: "1.35 × dead + 1.5 × live".
+#[must_use]
+pub fn terms_text(terms: &[Term]) -> String {
+    use std::fmt::Write as _;
+    let mut text = String::new();
+    for (i, t) in terms.iter().enumerate() {
+        let factor = crate::format::sig(t.factor.abs(), 6);
+        let sign = match (i, t.factor < 0.0) {
+            (0, true) => "−",
+            (0, false) => "",
+            (_, true) => " − ",
+            (_, false) => " + ",
+        };
+        let _ = write!(text, "{sign}{factor} × {}", t.case);
+    }
+    text
+}

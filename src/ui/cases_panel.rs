@@ -2,9 +2,6 @@
 //! with tools to add, duplicate, rename, move and delete them, a case's description, and the
 //! terms of a combination (case × factor). Every change is a study edit, so undo reaches it.
 
-use std::fmt::Write as _;
-
-use crate::format::sig;
 use crate::session::{Coalesce, Command};
 use crate::study::{Derived, Edit, InputKind, Project, Term};
 
@@ -24,18 +21,7 @@ fn edit(out: &mut Vec<Command>, edit: Edit, coalesce: Option<Coalesce>) {
 /// "1.35 × dead + 1.5 × live".
 #[must_use]
 pub fn terms_text(terms: &[Term]) -> String {
-    let mut text = String::new();
-    for (i, t) in terms.iter().enumerate() {
-        let factor = sig(t.factor.abs(), 6);
-        let sign = match (i, t.factor < 0.0) {
-            (0, true) => "−",
-            (0, false) => "",
-            (_, true) => " − ",
-            (_, false) => " + ",
-        };
-        let _ = write!(text, "{sign}{factor} × {}", t.case);
-    }
-    text
+    crate::study::model::terms_text(terms)
 }
 
 impl CasesPanel {
