@@ -22,4 +22,7 @@ $bin mohr "${demo[@]}" --measure mohr-coulomb --cohesion 10 \
 $bin figure "${demo[@]}" --measure shear \
     --layers cube,plane,axes,labels,legend,triad --view iso --size 1100x750 \
     --out screenshots/worst-planes-3d.png
+# A page of the calculation report as a real browser prints it.
+scripts/report-browser.sh target/report-browser
+pdftoppm -png -r 80 -f 3 -l 3 -singlefile target/report-browser/report.pdf screenshots/report-page
 ls -l screenshots

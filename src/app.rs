@@ -81,6 +81,7 @@ enum DialogPurpose {
     Figure,
     OpenProject,
     SaveProject,
+    Report,
 }
 
 /// The `--screenshot` job: when to take it, where to write it, and how it went.
@@ -402,6 +403,9 @@ impl PlanewiseApp {
                     DialogPurpose::Figure => dialogs.save_figure(SUGGESTED_FIGURE_NAME),
                     DialogPurpose::OpenProject => dialogs.open_project(),
                     DialogPurpose::SaveProject => dialogs.save_project(&project_name),
+                    DialogPurpose::Report => {
+                        dialogs.save_report(&project_name.replace(".json", "-report.html"))
+                    }
                 };
                 let _ = tx.send(outcome);
                 repaint.request_repaint();
@@ -434,6 +438,7 @@ impl PlanewiseApp {
             (DialogPurpose::Figure, DialogOutcome::Chosen(path)) => self.export_to(&path),
             (DialogPurpose::OpenProject, DialogOutcome::Chosen(path)) => self.open_path(&path),
             (DialogPurpose::SaveProject, DialogOutcome::Chosen(path)) => self.save_to(&path),
+            (DialogPurpose::Report, DialogOutcome::Chosen(path)) => self.report_to(&path),
             (DialogPurpose::SaveProject, DialogOutcome::Cancelled) => self.after_save = None,
             (_, DialogOutcome::Cancelled) => {}
             (DialogPurpose::Figure, DialogOutcome::Unavailable(why)) => {
@@ -450,6 +455,11 @@ impl PlanewiseApp {
             (project_purpose, DialogOutcome::Unavailable(why)) => {
                 let (prompt, suggested) = if project_purpose == DialogPurpose::OpenProject {
                     (PromptPurpose::Open, crate::dialogs::fallback_path(""))
+                } else if project_purpose == DialogPurpose::Report {
+                    let name = self
+                        .suggested_project_name()
+                        .replace(".json", "-report.html");
+                    (PromptPurpose::Report, crate::dialogs::fallback_path(&name))
                 } else {
                     let name = self.suggested_project_name();
                     let path = self
@@ -508,6 +518,25 @@ impl PlanewiseApp {
                 self.after_save = None;
                 self.file_prompt.error = Some(e.to_string());
                 self.set_status(format!("Not saved: {e}"), true);
+            }
+        }
+    }
+
+    /// Writes the calculation report of the whole project to `path` (HTML, atomically).
+    pub fn report_to(&mut self, path: &Path) {
+        let written = crate::report::html(&self.project, &crate::report::ReportOptions::default())
+            .map_err(|e| e.to_string())
+            .and_then(|text| {
+                crate::export::write_atomic(path, text.as_bytes()).map_err(|e| e.to_string())
+            });
+        match written {
+            Ok(()) => {
+                self.file_prompt.close();
+                self.set_status(format!("Report written to {}", path.display()), false);
+            }
+            Err(e) => {
+                self.file_prompt.error = Some(e.clone());
+                self.set_status(format!("Report not written: {e}"), true);
             }
         }
     }
@@ -592,6 +621,8 @@ impl PlanewiseApp {
             },
             Command::SaveAs => self.start_dialog(ctx, DialogPurpose::SaveProject),
             Command::SaveTo(path) => self.save_to(&path),
+            Command::ExportReport => self.start_dialog(ctx, DialogPurpose::Report),
+            Command::ReportTo(path) => self.report_to(&path),
             Command::CopyResults => {
                 let d = Derived::new(&self.project);
                 let mut rows = crate::results::rows(&d.tensor, d.plane, d.convention);

@@ -31,6 +31,8 @@ pub trait Dialogs: Send + Sync {
     fn open_project(&self) -> DialogOutcome;
     /// Asks where to save the project.
     fn save_project(&self, suggested_name: &str) -> DialogOutcome;
+    /// Asks where to write the calculation report.
+    fn save_report(&self, suggested_name: &str) -> DialogOutcome;
 }
 
 /// Dialogs through the desktop portal or zenity (rfd).
@@ -59,6 +61,15 @@ impl Dialogs for NativeDialogs {
         native(|| {
             rfd::FileDialog::new()
                 .add_filter("Planewise project", &["json"])
+                .set_file_name(suggested_name)
+                .save_file()
+        })
+    }
+
+    fn save_report(&self, suggested_name: &str) -> DialogOutcome {
+        native(|| {
+            rfd::FileDialog::new()
+                .add_filter("HTML report", &["html"])
                 .set_file_name(suggested_name)
                 .save_file()
         })

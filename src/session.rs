@@ -141,6 +141,10 @@ pub enum Command {
     SaveAs,
     /// Save to this path.
     SaveTo(PathBuf),
+    /// Ask for a file name and write the calculation report there.
+    ExportReport,
+    /// Write the calculation report to this path.
+    ReportTo(PathBuf),
     /// Put the results on the clipboard as tab-separated text.
     CopyResults,
     /// Put the figure on the clipboard as an image.

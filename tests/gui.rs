@@ -29,6 +29,9 @@ impl Dialogs for NoDialogs {
     fn save_project(&self, _suggested_name: &str) -> DialogOutcome {
         DialogOutcome::Unavailable("test machine: no desktop portal".to_owned())
     }
+    fn save_report(&self, _suggested_name: &str) -> DialogOutcome {
+        DialogOutcome::Unavailable("test machine: no desktop portal".to_owned())
+    }
 }
 
 /// A one-case project for these tests. Its numbers are a fixture, not check values: every

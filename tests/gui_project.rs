@@ -31,6 +31,9 @@ impl Dialogs for NoDialogs {
     fn save_project(&self, _suggested_name: &str) -> DialogOutcome {
         DialogOutcome::Unavailable("test machine: no desktop portal".to_owned())
     }
+    fn save_report(&self, _suggested_name: &str) -> DialogOutcome {
+        DialogOutcome::Unavailable("test machine: no desktop portal".to_owned())
+    }
 }
 
 fn harness_on(app: PlanewiseApp) -> Harness<'static, PlanewiseApp> {
@@ -518,4 +521,29 @@ fn faults_are_added_from_the_cut_plane_edited_and_sorted() {
     h.run();
     assert_eq!(h.state().project.faults.len(), 2);
     h.get(by().role(Role::Button).label("slip tendency ▼"));
+}
+
+#[test]
+fn file_export_report_writes_the_html_through_the_path_entry() {
+    let mut h = demo();
+    h.get_by_label("File").click();
+    h.run();
+    h.get_by_label("Export report…").click();
+    for _ in 0..2000 {
+        h.step();
+        if h.state().file_prompt.purpose.is_some() {
+            break;
+        }
+        std::thread::sleep(std::time::Duration::from_millis(5));
+    }
+    h.run();
+    let path = temp("window-report.html");
+    let _ = std::fs::remove_file(&path);
+    type_into(&mut h, "Project file path", path.to_str().unwrap());
+    h.get_by_label("Write report").click();
+    h.run();
+    let text = std::fs::read_to_string(&path).unwrap();
+    assert!(text.starts_with("<!DOCTYPE html>"));
+    assert!(text.contains("Calculation report: Demo (invented scenario)"));
+    assert!(h.state().status.as_ref().is_some_and(|s| !s.error));
 }

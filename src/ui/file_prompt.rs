@@ -12,6 +12,8 @@ pub enum PromptPurpose {
     Open,
     /// Save the project to a file.
     SaveAs,
+    /// Write the calculation report.
+    Report,
 }
 
 /// The path entry's state.
@@ -50,6 +52,7 @@ impl FilePrompt {
         let (title, action) = match purpose {
             PromptPurpose::Open => ("Open project", "Open"),
             PromptPurpose::SaveAs => ("Save project as", "Save"),
+            PromptPurpose::Report => ("Export calculation report", "Write report"),
         };
         let mut open = true;
         egui::Window::new(title)
@@ -58,7 +61,11 @@ impl FilePrompt {
             .resizable(false)
             .show(ctx, |ui| {
                 ui.label(format!("No file dialog is available ({}).", self.why));
-                ui.label("Type the project file's path:");
+                ui.label(if purpose == PromptPurpose::Report {
+                    "Type the report's path (.html):"
+                } else {
+                    "Type the project file's path:"
+                });
                 let response = ui.add(
                     egui::TextEdit::singleline(&mut self.path)
                         .desired_width(420.0)
@@ -77,6 +84,7 @@ impl FilePrompt {
                         out.push(match purpose {
                             PromptPurpose::Open => Command::OpenPath(path),
                             PromptPurpose::SaveAs => Command::SaveTo(path),
+                            PromptPurpose::Report => Command::ReportTo(path),
                         });
                     }
                     if ui.button("Cancel").clicked() {

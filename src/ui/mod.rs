@@ -120,6 +120,13 @@ pub fn menus_ui(
                 }
                 ui.separator();
                 if ui
+                    .button("Export report…")
+                    .on_hover_text("The calculation report of the whole project: one HTML file to print and sign")
+                    .clicked()
+                {
+                    out.push(Command::ExportReport);
+                }
+                if ui
                     .add(
                         egui::Button::new("Export figure…")
                             .shortcut_text(ui.ctx().format_shortcut(&shortcuts::EXPORT)),
