@@ -623,15 +623,19 @@ impl PlanewiseApp {
             Command::SaveTo(path) => self.save_to(&path),
             Command::ExportReport => self.start_dialog(ctx, DialogPurpose::Report),
             Command::ReportTo(path) => self.report_to(&path),
-            Command::CopyResults => {
+            Command::CopyTable(table, format) => {
+                ctx.copy_text(table.write(format));
+                self.set_status("Table copied", false);
+            }
+            Command::CopyResults(format) => {
                 let d = Derived::new(&self.project);
                 let mut rows = crate::results::rows(&d.tensor, d.plane, d.convention);
                 if let Some(f) = &d.fault {
                     rows.extend(crate::results::fault_rows(f, d.measure.pore_pressure_pa));
                 }
                 rows.extend(crate::results::verdict_rows(&d.verdicts));
-                ctx.copy_text(crate::results::to_tsv(&rows, d.unit, d.convention));
-                self.set_status("Results copied as tab-separated text", false);
+                ctx.copy_text(crate::results::table(&rows, d.unit, d.convention).write(format));
+                self.set_status("Results copied (value and unit in separate columns)", false);
             }
             Command::CopyFigure => match crate::draw::png::to_pixmap(&crate::export::with_caution(
                 &self.export_frame(),
@@ -766,7 +770,7 @@ impl PlanewiseApp {
                 out.push(Command::OpenExport);
             }
             if i.consume_shortcut(&COPY_RESULTS) {
-                out.push(Command::CopyResults);
+                out.push(Command::CopyResults(crate::results::CopyFormat::Tsv));
             }
         });
         // View presets on plain digit keys, only when no text field has the keyboard.
@@ -913,7 +917,7 @@ impl PlanewiseApp {
             .default_size(330.0)
             .show(ui, |ui| {
                 egui::ScrollArea::vertical().show(ui, |ui| {
-                    ui::verdict_panel::verdict_ui(ui, &d);
+                    ui::verdict_panel::verdict_ui(ui, &d, &mut commands);
                     egui::CollapsingHeader::new("Material")
                         .default_open(true)
                         .show(ui, |ui| {

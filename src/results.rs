@@ -254,17 +254,109 @@ pub fn rows(
     out
 }
 
-/// The rows as tab-separated text: a header naming the unit and convention, then group,
-/// quantity, value and unit in separate columns (so a spreadsheet reads the numbers).
+/// How a table is put on the clipboard.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum CopyFormat {
+    /// Tab-separated (spreadsheets).
+    Tsv,
+    /// A Markdown table (notes, issue trackers).
+    Markdown,
+    /// Comma-separated values (RFC 4180 quoting).
+    Csv,
+}
+
+/// A table of text cells with a title line; written as TSV, Markdown or CSV.
+#[derive(Clone, Debug, PartialEq)]
+pub struct TextTable {
+    /// What the table is (unit and convention included).
+    pub title: String,
+    /// Column names.
+    pub header: Vec<String>,
+    /// Cells.
+    pub rows: Vec<Vec<String>>,
+}
+
+fn csv_cell(text: &str) -> String {
+    if text.contains([',', '"', '\n', '\r']) {
+        format!("\"{}\"", text.replace('"', "\"\""))
+    } else {
+        text.to_owned()
+    }
+}
+
+impl TextTable {
+    /// The table in `format`.
+    #[must_use]
+    pub fn write(&self, format: CopyFormat) -> String {
+        let mut s = String::new();
+        match format {
+            CopyFormat::Tsv => {
+                let _ = writeln!(s, "{}", self.title);
+                for row in std::iter::once(&self.header).chain(&self.rows) {
+                    let _ = writeln!(s, "{}", row.join("\t"));
+                }
+            }
+            CopyFormat::Markdown => {
+                let cell = |t: &str| t.replace('|', "\\|");
+                let _ = writeln!(s, "{}\n", self.title);
+                let _ = writeln!(
+                    s,
+                    "| {} |",
+                    self.header
+                        .iter()
+                        .map(|h| cell(h))
+                        .collect::<Vec<_>>()
+                        .join(" | ")
+                );
+                let _ = writeln!(s, "|{}", " --- |".repeat(self.header.len()));
+                for row in &self.rows {
+                    let _ = writeln!(
+                        s,
+                        "| {} |",
+                        row.iter().map(|c| cell(c)).collect::<Vec<_>>().join(" | ")
+                    );
+                }
+            }
+            CopyFormat::Csv => {
+                for row in std::iter::once(&self.header).chain(&self.rows) {
+                    let _ = writeln!(
+                        s,
+                        "{}",
+                        row.iter()
+                            .map(|c| csv_cell(c))
+                            .collect::<Vec<_>>()
+                            .join(",")
+                    );
+                }
+            }
+        }
+        s
+    }
+}
+
+/// The rows as a table: group, quantity, value and unit in separate columns (so a spreadsheet
+/// reads the numbers), titled with the unit and convention.
+#[must_use]
+pub fn table(rows: &[ResultRow], unit: StressUnit, convention: SignConvention) -> TextTable {
+    TextTable {
+        title: format!("Planewise results, unit {unit}, {convention}"),
+        header: ["group", "quantity", "value", "unit"]
+            .map(str::to_owned)
+            .to_vec(),
+        rows: rows
+            .iter()
+            .map(|r| {
+                let (number, u) = r.value.parts(unit);
+                vec![r.group.to_owned(), r.name.clone(), number, u]
+            })
+            .collect(),
+    }
+}
+
+/// The rows as tab-separated text (see [`table`]).
 #[must_use]
 pub fn to_tsv(rows: &[ResultRow], unit: StressUnit, convention: SignConvention) -> String {
-    let mut s =
-        format!("Planewise results\tunit {unit}\t{convention}\ngroup\tquantity\tvalue\tunit\n");
-    for r in rows {
-        let (number, u) = r.value.parts(unit);
-        let _ = writeln!(s, "{}\t{}\t{number}\t{u}", r.group, r.name);
-    }
-    s
+    table(rows, unit, convention).write(CopyFormat::Tsv)
 }
 
 /// The cut plane as a fault (compression-positive effective stress), for the panel and copies.

@@ -146,7 +146,9 @@ pub enum Command {
     /// Write the calculation report to this path.
     ReportTo(PathBuf),
     /// Put the results on the clipboard as tab-separated text.
-    CopyResults,
+    CopyResults(crate::results::CopyFormat),
+    /// Put this table on the clipboard.
+    CopyTable(crate::results::TextTable, crate::results::CopyFormat),
     /// Put the figure on the clipboard as an image.
     CopyFigure,
     /// Open the export window.

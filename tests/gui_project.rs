@@ -547,3 +547,46 @@ fn file_export_report_writes_the_html_through_the_path_entry() {
     assert!(text.contains("Calculation report: Demo (invented scenario)"));
     assert!(h.state().status.as_ref().is_some_and(|s| !s.error));
 }
+
+#[test]
+fn results_verdicts_and_envelope_copy_as_markdown_and_csv() {
+    let mut h = demo();
+    let copied = |h: &Harness<'static, PlanewiseApp>| -> String {
+        h.output()
+            .platform_output
+            .commands
+            .iter()
+            .find_map(|c| match c {
+                egui::OutputCommand::CopyText(t) => Some(t.clone()),
+                _ => None,
+            })
+            .unwrap_or_default()
+    };
+    // The results panel's Copy as… is the last of the three on screen (verdict, results).
+    let menus = h.get_all_by_label("Copy as…").count();
+    assert_eq!(menus, 2);
+    h.get_all_by_label("Copy as…").nth(1).unwrap().click();
+    h.run();
+    h.get_by_label("Markdown table").click();
+    h.step();
+    let md = copied(&h);
+    assert!(md.contains("| group | quantity | value | unit |"), "{md}");
+    assert!(
+        md.contains("| Equivalent stresses | von Mises | 188.996 | MPa |"),
+        "{md}"
+    );
+    h.run();
+    // The verdict as CSV.
+    h.get_all_by_label("Copy as…").next().unwrap().click();
+    h.run();
+    h.get_by_label("CSV").click();
+    h.step();
+    let csv = copied(&h);
+    assert!(
+        csv.starts_with(
+            "criterion,outcome,demand,strength,unit,utilization,factor of safety,note\n"
+        ),
+        "{csv}"
+    );
+    assert!(csv.contains("von Mises,passes,188.996,275,MPa,"), "{csv}");
+}

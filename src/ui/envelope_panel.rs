@@ -113,6 +113,54 @@ impl EnvelopePanel {
                 return;
             }
         };
+        let table = crate::results::TextTable {
+            title: format!(
+                "Planewise envelope of {}, {}",
+                measure.key(),
+                d.convention.key()
+            ),
+            header: [
+                "rank",
+                "case or combination",
+                "kind",
+                "value",
+                "unit",
+                "governs",
+            ]
+            .map(str::to_owned)
+            .to_vec(),
+            rows: env
+                .rows
+                .iter()
+                .enumerate()
+                .map(|(i, r)| {
+                    let (value, unit) = match r.value {
+                        Some(v) if measure.is_stress() => {
+                            (crate::format::sig(d.unit.from_pa(v), 6), d.unit.to_string())
+                        }
+                        Some(v) => (crate::format::sig(v, 6), String::new()),
+                        None => ("undefined".to_owned(), String::new()),
+                    };
+                    let kind = if r.combination {
+                        "combination"
+                    } else {
+                        "load case"
+                    };
+                    let governs = env.governing.as_deref() == Some(r.name.as_str());
+                    vec![
+                        (i + 1).to_string(),
+                        r.name.clone(),
+                        kind.to_owned(),
+                        value,
+                        unit,
+                        if governs { "yes" } else { "" }.to_owned(),
+                    ]
+                })
+                .collect(),
+        };
+        ui.horizontal(|ui| {
+            super::copy_as_ui(ui, out, |f| Command::CopyTable(table.clone(), f));
+        });
         let planes = matches!(measure, EnvelopeMeasure::Plane(_));
         let largest = env
             .rows

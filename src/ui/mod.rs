@@ -47,6 +47,35 @@ pub mod shortcuts {
         KeyboardShortcut::new(Modifiers::COMMAND.plus(Modifiers::SHIFT), Key::C);
 }
 
+/// "Copy as" buttons for a table: TSV, Markdown and CSV; pushes what `make` gives.
+pub fn copy_as_ui(
+    ui: &mut egui::Ui,
+    out: &mut Vec<Command>,
+    make: impl Fn(crate::results::CopyFormat) -> Command,
+) {
+    use crate::results::CopyFormat;
+    ui.menu_button("Copy as…", |ui| {
+        for (format, label, tip) in [
+            (CopyFormat::Tsv, "Tab-separated", "For spreadsheets"),
+            (
+                CopyFormat::Markdown,
+                "Markdown table",
+                "For notes and issue trackers",
+            ),
+            (
+                CopyFormat::Csv,
+                "CSV",
+                "Comma-separated, quoted where needed",
+            ),
+        ] {
+            if ui.button(label).on_hover_text(tip).clicked() {
+                out.push(make(format));
+                ui.close();
+            }
+        }
+    });
+}
+
 /// A number that stays the same for the whole of one drag on `response` and differs between
 /// drags, so that the edits of one drag merge into one undo step and the next drag starts
 /// another.
@@ -145,7 +174,7 @@ pub fn menus_ui(
                     )
                     .clicked()
                 {
-                    out.push(Command::CopyResults);
+                    out.push(Command::CopyResults(crate::results::CopyFormat::Tsv));
                 }
                 ui.separator();
                 if ui.button("Quit").clicked() {

@@ -10,11 +10,14 @@ pub fn results_ui(ui: &mut egui::Ui, d: &Derived, out: &mut Vec<Command>) {
         ui.heading("Results");
         if ui
             .button("Copy")
-            .on_hover_text("Copy as tab-separated text with units (Ctrl+Shift+C)")
+            .on_hover_text(
+                "Copy as tab-separated text, values and units in separate columns (Ctrl+Shift+C)",
+            )
             .clicked()
         {
-            out.push(Command::CopyResults);
+            out.push(Command::CopyResults(crate::results::CopyFormat::Tsv));
         }
+        super::copy_as_ui(ui, out, Command::CopyResults);
     });
     ui.small(format!("{}, {}", d.unit, d.convention.key()));
     let mut all = rows(&d.tensor, d.plane, d.convention);

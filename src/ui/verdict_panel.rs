@@ -15,7 +15,7 @@ const PASS: egui::Color32 = egui::Color32::from_rgb(60, 150, 80);
 const FAIL: egui::Color32 = egui::Color32::from_rgb(200, 60, 50);
 
 /// Draws the verdict section.
-pub fn verdict_ui(ui: &mut egui::Ui, d: &Derived) {
+pub fn verdict_ui(ui: &mut egui::Ui, d: &Derived, out: &mut Vec<Command>) {
     let title = if d.material_name.is_empty() {
         "Verdict".to_owned()
     } else {
@@ -24,6 +24,44 @@ pub fn verdict_ui(ui: &mut egui::Ui, d: &Derived) {
     ui.heading(title).on_hover_text(
         "Proportional loading: the factor of safety is the factor on every stress component that reaches the criterion's surface; utilization = 1 / factor",
     );
+    let stress = |v: Option<f64>| v.map(|x| sig(d.unit.from_pa(x), 6)).unwrap_or_default();
+    let table = crate::results::TextTable {
+        title: format!("Planewise verdict, {}, proportional loading", d.unit),
+        header: [
+            "criterion",
+            "outcome",
+            "demand",
+            "strength",
+            "unit",
+            "utilization",
+            "factor of safety",
+            "note",
+        ]
+        .map(str::to_owned)
+        .to_vec(),
+        rows: d
+            .verdicts
+            .iter()
+            .map(|v| {
+                vec![
+                    v.criterion.label().to_owned(),
+                    match v.outcome() {
+                        Outcome::Passes => "passes",
+                        Outcome::Fails => "fails",
+                        Outcome::NotChecked => "not checked",
+                    }
+                    .to_owned(),
+                    stress(v.governing_stress_pa),
+                    stress(v.strength_pa),
+                    d.unit.to_string(),
+                    v.utilization.map(|u| sig(u, 6)).unwrap_or_default(),
+                    v.factor_of_safety.map(|f| sig(f, 6)).unwrap_or_default(),
+                    v.note.clone(),
+                ]
+            })
+            .collect(),
+    };
+    super::copy_as_ui(ui, out, |f| Command::CopyTable(table.clone(), f));
     for v in &d.verdicts {
         verdict_row(ui, v, d);
     }
