@@ -324,6 +324,7 @@ impl PlanewiseApp {
                 &settings.camera,
                 w,
                 h,
+                sizes,
             ),
             Central::Map => figures::map(&input, &d.search, 256, w, h, sizes),
             Central::Mohr => figures::mohr(&input, w, h, sizes),

@@ -56,19 +56,39 @@ impl ImageFormat {
 #[must_use]
 pub fn with_caution(frame: &Frame) -> Frame {
     let mut out = frame.clone();
-    let chars = crate::SAFETY_NOTE.chars().count() as f32;
-    // Small, but the whole line fits the width (DejaVu Sans averages about 0.55 em a char).
-    let size = (frame.width / (0.56 * chars))
-        .min(frame.height / 70.0)
-        .max(5.0);
-    out.prims.push(Prim::Text {
-        at: [0.5 * size, frame.height - 0.8 * size],
-        text: crate::SAFETY_NOTE.to_owned(),
-        size,
-        color: crate::scene::style::INK,
-        anchor: Anchor::LeftCenter,
-        halo: true,
-    });
+    let note = crate::SAFETY_NOTE;
+    let chars = note.chars().count() as f32;
+    // At least 6.5 pt when the figure is printed at the default print width; one line when it
+    // fits (DejaVu Sans averages about 0.55 em a char), else two.
+    let legible = 6.5 * 25.4 / 72.0 / crate::draw::PRINT_WIDTH_MM * frame.width;
+    let one_line = frame.width / (0.56 * chars);
+    let (size, lines): (f32, Vec<String>) = if one_line >= legible {
+        (
+            one_line.min(frame.height / 70.0).max(5.0),
+            vec![note.to_owned()],
+        )
+    } else {
+        let mid = note.len() / 2;
+        let split = note[..mid].rfind(' ').unwrap_or(mid);
+        let (a, b) = note.split_at(split);
+        let longest = a.chars().count().max(b.chars().count()) as f32;
+        let size = legible.min(frame.width / (0.56 * longest)).max(5.0);
+        (size, vec![a.trim().to_owned(), b.trim().to_owned()])
+    };
+    let n = lines.len() as f32;
+    for (i, line) in lines.into_iter().enumerate() {
+        out.prims.push(Prim::Text {
+            at: [
+                0.5 * size,
+                frame.height - 0.8 * size - (n - 1.0 - i as f32) * 1.2 * size,
+            ],
+            text: line,
+            size,
+            color: crate::scene::style::INK,
+            anchor: Anchor::LeftCenter,
+            halo: true,
+        });
+    }
     out
 }
 

@@ -517,6 +517,7 @@ fn case_section(
                     &crate::draw::camera::Camera::default(),
                     w,
                     h,
+                    sizes,
                 ),
                 "3D view: unit cube with face tractions, the cut plane and its traction, principal axes",
             ),

@@ -98,3 +98,64 @@ fn bad_figure_arguments_exit_2_with_one_line() {
     common::assert_bad_input("figure", cases);
     assert!(!out_png.exists(), "nothing is written on bad input");
 }
+
+#[test]
+fn text_size_follows_the_print_width_and_font_size() {
+    let dir = std::env::temp_dir().join(format!("planewise-print-{}", std::process::id()));
+    std::fs::create_dir_all(&dir).unwrap();
+    let out = dir.join("f.svg");
+    // 9 pt at 16 cm on a 1600-pixel-wide figure: 9 × 25.4/72 mm / 160 mm × 1600 px = 31.75 px
+    // (1 pt = 1/72 in; common practice, no source).
+    let r = common::planewise(&[
+        "mohr",
+        "--stress",
+        "xx=100",
+        "--out",
+        out.to_str().unwrap(),
+        "--size",
+        "1600x1200",
+        "--print-width",
+        "16cm",
+        "--font-size",
+        "9pt",
+    ]);
+    assert!(r.status.success(), "{}", String::from_utf8_lossy(&r.stderr));
+    let svg = std::fs::read_to_string(&out).unwrap();
+    assert!(svg.contains(r#"font-size="31.75""#), "no 31.75 px text");
+    // The defaults give at least 8 pt at 16 cm: 8 × 25.4/72/160 × 1600 = 28.2 px or more.
+    let r = common::planewise(&[
+        "figure",
+        "--stress",
+        "xx=100",
+        "--out",
+        out.to_str().unwrap(),
+        "--size",
+        "1600x1200",
+    ]);
+    assert!(r.status.success());
+    let svg = std::fs::read_to_string(&out).unwrap();
+    let sizes: Vec<f32> = svg
+        .split(r#"font-size=""#)
+        .skip(1)
+        .filter_map(|t| t.split('"').next()?.parse().ok())
+        .collect();
+    let labels = sizes.iter().copied().fold(0.0_f32, f32::max);
+    assert!(
+        labels >= 28.2,
+        "largest text {labels} px is below 8 pt at 16 cm"
+    );
+    common::assert_bad_input(
+        "figure",
+        &[
+            (
+                &["--stress", "xx=1", "--out", "f.svg", "--print-width", "16"],
+                "--print-width",
+            ),
+            (
+                &["--stress", "xx=1", "--out", "f.svg", "--font-size", "9"],
+                "--font-size",
+            ),
+        ],
+    );
+    let _ = std::fs::remove_dir_all(&dir);
+}

@@ -260,8 +260,16 @@ fn export_to_a_path_writes_the_same_figure_as_the_command_line() {
         &planewise::export::with_caution(&h.state().export_frame()),
         "",
     );
-    // The caution is printed on the figure itself, not only in its metadata.
-    assert!(written.contains(&format!(">{}</text>", planewise::SAFETY_NOTE)));
+    // The caution is printed on the figure itself (on one or two lines), not only in its
+    // metadata.
+    let texts: Vec<&str> = written
+        .split("</text>")
+        .filter_map(|t| t.rsplit_once('>').map(|(_, text)| text))
+        .collect();
+    assert!(
+        texts.join(" ").contains(planewise::SAFETY_NOTE),
+        "the caution is not printed on the figure"
+    );
     // Same primitives; only the title differs.
     let body = |s: &str| {
         s.lines()

@@ -336,3 +336,43 @@ fn ticks_are_round_in_the_users_unit_and_tell_neighbours_apart() {
         }
     }
 }
+
+#[test]
+fn the_mohr_figure_writes_the_cut_plane_values_and_whether_the_envelope_is_crossed() {
+    // Uniaxial compression 100 MPa against c = 10 MPa, φ = 30°: the uniaxial compressive
+    // strength 2c cos φ / (1 − sin φ) = 34.64 MPa is exceeded (Labuz & Zang 2012), so the largest
+    // circle crosses the envelope; at 20 MPa it does not.
+    let dir = std::env::temp_dir().join(format!("planewise-mohr-cross-{}", std::process::id()));
+    std::fs::create_dir_all(&dir).unwrap();
+    for (stress, crosses) in [("xx=-100", true), ("xx=-20", false)] {
+        let out = dir.join("m.svg");
+        let r = common::planewise(&[
+            "mohr",
+            "--stress",
+            stress,
+            "--normal",
+            "1,0,0",
+            "--cohesion",
+            "10",
+            "--friction-angle",
+            "30",
+            "--out",
+            out.to_str().unwrap(),
+        ]);
+        assert!(r.status.success(), "{}", String::from_utf8_lossy(&r.stderr));
+        let svg = std::fs::read_to_string(&out).unwrap();
+        assert_eq!(
+            svg.contains("the largest circle crosses it"),
+            crosses,
+            "{stress}"
+        );
+        assert_eq!(svg.contains("no circle reaches it"), !crosses, "{stress}");
+        // The cut plane (the x face) carries σn = σxx and no shear.
+        let sxx = stress.trim_start_matches("xx=");
+        assert!(
+            svg.contains(&format!("● cut plane: σn = {sxx} MPa, τ = 0 MPa")),
+            "{stress}"
+        );
+    }
+    let _ = std::fs::remove_dir_all(&dir);
+}

@@ -22,6 +22,8 @@ pub struct FigureArgs {
     /// Output file; .svg or .png.
     #[arg(long, value_name = "FILE")]
     pub out: PathBuf,
+    #[command(flatten)]
+    pub print: values::PrintArgs,
     /// Image size in pixels, WIDTHxHEIGHT.
     #[arg(long, value_name = "WxH", default_value = "1600x1200", value_parser = values::size)]
     pub size: (u32, u32),
@@ -81,8 +83,17 @@ pub fn run(args: &FigureArgs) -> Result<String, CliError> {
         search,
         worst,
         envelope: None,
+        map_range: None,
     };
-    let frame = figures::view_3d(&figure, layers, FaceChoice::FacingViewer, &camera, w, h);
+    let frame = figures::view_3d(
+        &figure,
+        layers,
+        FaceChoice::FacingViewer,
+        &camera,
+        w,
+        h,
+        args.print.sizes(w, h),
+    );
     export::write_figure(&args.out, &frame, &ProjectView::title(view.as_ref()))
         .map_err(anyhow::Error::from)?;
     Ok(format!("wrote {}\n", args.out.display()))

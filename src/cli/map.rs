@@ -23,9 +23,15 @@ pub struct MapArgs {
     /// Output file; .svg or .png.
     #[arg(long, value_name = "FILE")]
     pub out: PathBuf,
+    #[command(flatten)]
+    pub print: values::PrintArgs,
     /// Image size in pixels, WIDTHxHEIGHT.
     #[arg(long, value_name = "WxH", default_value = "1200x900", value_parser = values::size)]
     pub size: (u32, u32),
+    /// Colour the map from MIN to MAX (in the stress unit for stress measures) instead of the
+    /// data's range, so one extreme value does not flatten the map.
+    #[arg(long, value_name = "MIN,MAX", allow_hyphen_values = true)]
+    pub range: Option<String>,
     /// Map cells per side (16 to 1024).
     #[arg(long, value_name = "N", default_value = "256", value_parser = clap::value_parser!(u16).range(16..=1024))]
     pub resolution: u16,
@@ -41,6 +47,26 @@ pub fn run(args: &MapArgs) -> Result<String, CliError> {
     let resolution = usize::from(args.resolution);
     ImageFormat::from_path(&args.out).map_err(|e| ArgError::new("--out", e))?;
     let worst = worst_plane(&input.tensor, &settings).map_err(|e| ArgError::new("--measure", e))?;
+    let map_range = args
+        .range
+        .as_deref()
+        .map(|text| {
+            let [a, b] =
+                crate::parse::numbers::<2>(text).map_err(|e| ArgError::new("--range", e))?;
+            if a >= b {
+                return Err(ArgError::new("--range", "MIN must be below MAX"));
+            }
+            let to = |v: f64| {
+                if settings.measure.is_stress() {
+                    // Map values are already in the display convention.
+                    input.unit.to_pa(v)
+                } else {
+                    v
+                }
+            };
+            Ok((to(a), to(b)))
+        })
+        .transpose()?;
     let figure = FigureInput {
         tensor: input.tensor,
         unit: input.unit,
@@ -49,15 +75,9 @@ pub fn run(args: &MapArgs) -> Result<String, CliError> {
         search: Some(settings),
         worst: Some(worst),
         envelope: None,
+        map_range,
     };
-    let frame = figures::map(
-        &figure,
-        &settings,
-        resolution,
-        w,
-        h,
-        crate::draw::Sizes::for_export(w as f32, h as f32),
-    );
+    let frame = figures::map(&figure, &settings, resolution, w, h, args.print.sizes(w, h));
     export::write_figure(&args.out, &frame, &ProjectView::title(view.as_ref()))
         .map_err(anyhow::Error::from)?;
     Ok(format!("wrote {}\n", args.out.display()))

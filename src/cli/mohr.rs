@@ -7,7 +7,6 @@ use clap::Args;
 
 use super::worst_plane::{MaterialArgs, search_settings_in};
 use super::{ArgError, CliError, PlaneArgs, ProjectView, StressArgs, values};
-use crate::draw::Sizes;
 use crate::draw::mohr::Envelope;
 use crate::export::{self, ImageFormat};
 use crate::mechanics::criteria::MohrCoulomb;
@@ -30,6 +29,8 @@ pub struct MohrArgs {
     /// Output file; .svg or .png.
     #[arg(long, value_name = "FILE")]
     pub out: PathBuf,
+    #[command(flatten)]
+    pub print: values::PrintArgs,
     /// Image size in pixels, WIDTHxHEIGHT.
     #[arg(long, value_name = "WxH", default_value = "1200x800", value_parser = values::size)]
     pub size: (u32, u32),
@@ -83,8 +84,9 @@ pub fn run(args: &MohrArgs) -> Result<String, CliError> {
         search,
         worst,
         envelope,
+        map_range: None,
     };
-    let frame = figures::mohr(&figure, w, h, Sizes::for_export(w as f32, h as f32));
+    let frame = figures::mohr(&figure, w, h, args.print.sizes(w, h));
     export::write_figure(&args.out, &frame, &ProjectView::title(view.as_ref()))
         .map_err(anyhow::Error::from)?;
     Ok(format!("wrote {}\n", args.out.display()))

@@ -111,3 +111,66 @@ pub fn size(text: &str) -> Result<(u32, u32), String> {
     }
     Ok((w, h))
 }
+
+/// A print width such as `16cm`, `160mm` or `6.3in`, in millimetres.
+pub fn print_width(text: &str) -> Result<f32, String> {
+    let t = text.trim();
+    let (number, factor) = if let Some(n) = t.strip_suffix("mm") {
+        (n, 1.0)
+    } else if let Some(n) = t.strip_suffix("cm") {
+        (n, 10.0)
+    } else if let Some(n) = t.strip_suffix("in") {
+        (n, 25.4)
+    } else {
+        return Err(format!("'{t}' needs a unit: mm, cm or in (e.g. 16cm)"));
+    };
+    let v: f32 = number
+        .trim()
+        .parse()
+        .map_err(|_| format!("'{t}' is not a length such as 16cm"))?;
+    let mm = v * factor;
+    if !(mm.is_finite() && (20.0..=2000.0).contains(&mm)) {
+        return Err(format!("'{t}' is outside 2 cm to 2 m"));
+    }
+    Ok(mm)
+}
+
+/// A font size such as `9pt`, in points.
+pub fn font_size(text: &str) -> Result<f32, String> {
+    let t = text.trim();
+    let number = t
+        .strip_suffix("pt")
+        .ok_or_else(|| format!("'{t}' needs the unit pt (e.g. 9pt)"))?;
+    let v: f32 = number
+        .trim()
+        .parse()
+        .map_err(|_| format!("'{t}' is not a size such as 9pt"))?;
+    if !(v.is_finite() && (4.0..=72.0).contains(&v)) {
+        return Err(format!("'{t}' is outside 4 pt to 72 pt"));
+    }
+    Ok(v)
+}
+
+/// The text size of exported figures for a print width.
+#[derive(Debug, Clone, clap::Args)]
+pub struct PrintArgs {
+    /// The width the figure will be printed at (mm, cm or in) [default: 16cm].
+    #[arg(long, value_name = "LENGTH", value_parser = print_width)]
+    pub print_width: Option<f32>,
+    /// Text size at that print width [default: 8.5pt].
+    #[arg(long, value_name = "SIZE", value_parser = font_size)]
+    pub font_size: Option<f32>,
+}
+
+impl PrintArgs {
+    /// Sizes for a `width` × `height` figure.
+    #[must_use]
+    pub fn sizes(&self, width: u32, height: u32) -> crate::draw::Sizes {
+        crate::draw::Sizes::for_print(
+            width as f32,
+            height as f32,
+            self.print_width.unwrap_or(crate::draw::PRINT_WIDTH_MM),
+            self.font_size.unwrap_or(crate::draw::PRINT_FONT_PT),
+        )
+    }
+}

@@ -15,6 +15,8 @@ use crate::mechanics::{PlaneNormal, SignConvention, StressUnit};
 /// What is marked on the map besides the colours.
 #[derive(Clone, Debug, PartialEq)]
 pub struct MapMarks {
+    /// Colours span this range instead of the data's (values beyond take the end colours).
+    pub colour_range: Option<(f64, f64)>,
     /// Principal directions σ1, σ2, σ3 (in the display convention's order).
     pub principal: [Vector3<f64>; 3],
     /// The current cut plane.
@@ -102,7 +104,7 @@ pub fn map_frame(
         prims: Vec::new(),
     };
     let (centre, r) = disc_geometry(w, h);
-    let (lo, hi) = map.range.unwrap_or((0.0, 1.0));
+    let (lo, hi) = marks.colour_range.or(map.range).unwrap_or((0.0, 1.0));
     // A uniform map (every plane alike) has one colour and one label, not an invented range.
     let uniform = hi - lo <= 1e-12 * lo.abs().max(hi.abs());
     let span = if uniform { 1.0 } else { hi - lo };
@@ -312,9 +314,16 @@ pub fn map_frame(
                 format!("every plane: {}", what.value_text(a, digits))
             }
             Some((a, b)) => format!(
-                "range {} to {}{blank}",
+                "range {} to {}{blank}{}",
                 what.value_text(a, digits),
-                what.value_text(b, digits)
+                what.value_text(b, digits),
+                marks
+                    .colour_range
+                    .map_or_else(String::new, |(c, d)| format!(
+                        "; colours span {} to {}",
+                        what.value_text(c, digits),
+                        what.value_text(d, digits)
+                    ))
             ),
             None => "the measure is undefined for every plane".to_owned(),
         },

@@ -111,15 +111,40 @@ pub struct Sizes {
     pub text: f32,
 }
 
+/// Print width exported figures are sized for by default, millimetres (a report's text width).
+pub const PRINT_WIDTH_MM: f32 = 160.0;
+/// Text size exported figures get by default at [`PRINT_WIDTH_MM`], points.
+pub const PRINT_FONT_PT: f32 = 8.5;
+
 impl Sizes {
-    /// Sizes for an export of `width` × `height` pixels, matching a 1100 × 750 screen view.
+    /// Sizes for an export of `width` × `height` pixels: text of [`PRINT_FONT_PT`] when the
+    /// figure is printed [`PRINT_WIDTH_MM`] wide (never smaller than the 1100 × 750 screen
+    /// view's proportions), lines in step.
     #[must_use]
     pub fn for_export(width: f32, height: f32) -> Self {
-        let k = (width / 1100.0).min(height / 750.0).max(0.25);
+        Self::for_print(width, height, PRINT_WIDTH_MM, PRINT_FONT_PT)
+    }
+
+    /// Sizes for text of `font_pt` points when the `width`-pixel figure is printed
+    /// `print_width_mm` wide (1 pt = 25.4/72 mm), but no more than a 25th of the height;
+    /// lines scale with the text.
+    #[must_use]
+    pub fn for_print(width: f32, height: f32, print_width_mm: f32, font_pt: f32) -> Self {
+        let screen = (width / 1100.0).min(height / 750.0).max(0.25);
+        let text_px = font_pt * 25.4 / 72.0 / print_width_mm * width;
+        // A very flat figure cannot hold print-sized text: keep about 25 lines of height.
+        let text = text_px.max(13.0 * screen).min(height / 25.0).max(5.0);
         Self {
-            line: k,
-            text: 13.0 * k,
+            line: text / 13.0,
+            text,
         }
+    }
+
+    /// Points a text of `px` pixels measures when the `width`-pixel figure is printed
+    /// `print_width_mm` wide.
+    #[must_use]
+    pub fn points(px: f32, width: f32, print_width_mm: f32) -> f32 {
+        px / width * print_width_mm * 72.0 / 25.4
     }
 }
 

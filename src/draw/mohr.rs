@@ -456,17 +456,29 @@ pub fn mohr_frame(figure: &MohrFigure, width: u32, height: u32, sizes: Sizes) ->
             convention.key()
         ),
     ];
+    let cut = figure.plane.as_ref().map_or_else(String::new, |p| {
+        format!(
+            ": σn = {} {sym}, τ = {} {sym}",
+            value(p.normal_stress_pa),
+            value(p.shear_stress_pa)
+        )
+    });
     lines.push(if figure.worst.is_empty() {
-        "● cut plane".to_owned()
+        format!("● cut plane{cut}")
     } else {
-        format!("● cut plane   ▲ worst planes ({})", figure.worst_label)
+        format!("● cut plane{cut}   ▲ worst planes ({})", figure.worst_label)
     });
     if let Some(env) = figure.envelope {
         lines.push(format!(
-            "— Mohr–Coulomb envelope τ = c + (σn − p) tan φ, compression positive: c = {} {sym}, φ = {}°, p = {} {sym}",
+            "— Mohr–Coulomb envelope τ = c + (σn − p) tan φ, compression positive: c = {} {sym}, φ = {}°, p = {} {sym}; {}",
             value(env.material.cohesion_pa),
             sig(env.material.friction_angle_deg, 4),
-            value(env.pore_pressure_pa)
+            value(env.pore_pressure_pa),
+            if crosses(figure, &env) {
+                "the largest circle crosses it: some planes exceed it"
+            } else {
+                "no circle reaches it"
+            }
         ));
     }
     let x0 = 12.0 * sizes.line;
@@ -483,4 +495,22 @@ pub fn mohr_frame(figure: &MohrFigure, width: u32, height: u32, sizes: Sizes) ->
         y += sizes.text * 1.45;
     }
     frame
+}
+
+/// Whether the largest Mohr circle reaches above the Mohr–Coulomb line, i.e. some plane's
+/// (σn, τ) lies beyond the envelope (compression-positive effective stress inside).
+fn crosses(figure: &MohrFigure, env: &Envelope) -> bool {
+    let [a, _, c] = figure.circles.principal_pa;
+    // In compression-positive effective stress the circle spans σ′ between the extremes.
+    let sign = figure.circles.convention.sign();
+    let (p, q) = (
+        -sign * a - env.pore_pressure_pa,
+        -sign * c - env.pore_pressure_pa,
+    );
+    let centre = 0.5 * (p + q);
+    let radius = 0.5 * (p - q).abs();
+    let (sin_phi, cos_phi) = env.material.friction_angle_deg.to_radians().sin_cos();
+    // Distance from the centre to the line τ = c + σ′ tan φ, compared with the radius.
+    let distance = env.material.cohesion_pa * cos_phi + centre * sin_phi;
+    radius >= distance
 }

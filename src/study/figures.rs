@@ -32,6 +32,9 @@ pub struct FigureInput {
     pub worst: Option<SearchResult>,
     /// The Mohr–Coulomb envelope on the Mohr circles, if drawn.
     pub envelope: Option<Envelope>,
+    /// The orientation map's colours span this range (the measure's own values: Pa or
+    /// dimensionless) instead of the data's, so one extreme value does not flatten the map.
+    pub map_range: Option<(f64, f64)>,
 }
 
 impl FigureInput {
@@ -55,6 +58,7 @@ impl FigureInput {
             search: Some(d.search),
             worst: d.worst.as_ref().ok().cloned(),
             envelope,
+            map_range: None,
         }
     }
 
@@ -88,6 +92,7 @@ pub fn view_3d(
     camera: &Camera,
     width: u32,
     height: u32,
+    sizes: crate::draw::Sizes,
 ) -> Frame {
     let mut layers = layers;
     if input.plane.is_none() {
@@ -107,7 +112,8 @@ pub fn view_3d(
         faces,
         worst_planes: &worst,
     };
-    crate::draw::figure(&scene, camera, width, height)
+    let built = crate::scene::Scene::build(&scene, &camera.towards_eye());
+    crate::draw::render(&built, camera, width as f32, height as f32, sizes)
 }
 
 /// The orientation map of `search` with the principal directions, the cut plane and the worst
@@ -124,6 +130,7 @@ pub fn map(
     let values = orientation_map(&input.tensor, search, resolution);
     let shown = Analysis::new(&input.tensor, input.convention);
     let marks = MapMarks {
+        colour_range: input.map_range,
         principal: shown.principal.directions,
         plane: input.plane,
         worst: input.worst_normals(),
