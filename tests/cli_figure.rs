@@ -159,3 +159,44 @@ fn text_size_follows_the_print_width_and_font_size() {
     );
     let _ = std::fs::remove_dir_all(&dir);
 }
+
+#[test]
+fn the_map_colours_a_range_the_user_gives() {
+    let dir = std::env::temp_dir().join(format!("planewise-range-{}", std::process::id()));
+    std::fs::create_dir_all(&dir).unwrap();
+    let out = dir.join("m.svg");
+    let r = common::planewise(&[
+        "map",
+        "--stress",
+        "xx=120,yy=-35,xy=48",
+        "--measure",
+        "shear",
+        "--range",
+        "0,50",
+        "--out",
+        out.to_str().unwrap(),
+    ]);
+    assert!(r.status.success(), "{}", String::from_utf8_lossy(&r.stderr));
+    let svg = std::fs::read_to_string(&out).unwrap();
+    assert!(
+        svg.contains("colours span 0 MPa to 50 MPa"),
+        "range not stated"
+    );
+    common::assert_bad_input(
+        "map",
+        &[(
+            &[
+                "--stress",
+                "xx=1",
+                "--measure",
+                "shear",
+                "--range",
+                "5,1",
+                "--out",
+                "m.svg",
+            ],
+            "--range",
+        )],
+    );
+    let _ = std::fs::remove_dir_all(&dir);
+}
