@@ -200,3 +200,53 @@ fn the_map_colours_a_range_the_user_gives() {
     );
     let _ = std::fs::remove_dir_all(&dir);
 }
+
+#[test]
+fn the_title_block_states_the_inputs_below_the_picture() {
+    let dir = std::env::temp_dir().join(format!("planewise-title-{}", std::process::id()));
+    std::fs::create_dir_all(&dir).unwrap();
+    let out = dir.join("t.svg");
+    for sub in ["figure", "map", "mohr"] {
+        let r = common::planewise(&[
+            sub,
+            "--project",
+            "assets/demo-bracket-project.json",
+            "--case",
+            "ULS 1",
+            "--title",
+            "Check <A> & B",
+            "--size",
+            "1600x1200",
+            "--out",
+            out.to_str().unwrap(),
+        ]);
+        assert!(
+            r.status.success(),
+            "{sub}: {}",
+            String::from_utf8_lossy(&r.stderr)
+        );
+        let svg = std::fs::read_to_string(&out).unwrap();
+        // The requested size is kept; the block's text is escaped and complete.
+        assert!(
+            svg.contains(r#"width="1600" height="1200""#),
+            "{sub}: size changed"
+        );
+        assert!(
+            svg.contains(">Check &lt;A&gt; &amp; B</text>"),
+            "{sub}: title"
+        );
+        assert!(
+            svg.contains("Project: Demo (invented scenario)"),
+            "{sub}: project"
+        );
+        assert!(
+            svg.contains("Stress (MPa, tension-positive): σxx = 133.8"),
+            "{sub}: tensor"
+        );
+        assert!(
+            svg.contains(&format!("Planewise {}", env!("CARGO_PKG_VERSION"))),
+            "{sub}"
+        );
+    }
+    let _ = std::fs::remove_dir_all(&dir);
+}

@@ -24,6 +24,8 @@ pub struct FigureArgs {
     pub out: PathBuf,
     #[command(flatten)]
     pub print: values::PrintArgs,
+    #[command(flatten)]
+    pub title: values::TitleArgs,
     /// Image size in pixels, WIDTHxHEIGHT.
     #[arg(long, value_name = "WxH", default_value = "1600x1200", value_parser = values::size)]
     pub size: (u32, u32),
@@ -85,15 +87,18 @@ pub fn run(args: &FigureArgs) -> Result<String, CliError> {
         envelope: None,
         map_range: None,
     };
-    let frame = figures::view_3d(
-        &figure,
-        layers,
-        FaceChoice::FacingViewer,
-        &camera,
-        w,
-        h,
-        args.print.sizes(w, h),
-    );
+    let sizes = args.print.sizes(w, h);
+    let frame = super::titled(&args.title, view.as_ref(), &figure, sizes.text, h, |h| {
+        figures::view_3d(
+            &figure,
+            layers,
+            FaceChoice::FacingViewer,
+            &camera,
+            w,
+            h,
+            sizes,
+        )
+    });
     export::write_figure(&args.out, &frame, &ProjectView::title(view.as_ref()))
         .map_err(anyhow::Error::from)?;
     Ok(format!("wrote {}\n", args.out.display()))

@@ -25,6 +25,8 @@ pub struct MapArgs {
     pub out: PathBuf,
     #[command(flatten)]
     pub print: values::PrintArgs,
+    #[command(flatten)]
+    pub title: values::TitleArgs,
     /// Image size in pixels, WIDTHxHEIGHT.
     #[arg(long, value_name = "WxH", default_value = "1200x900", value_parser = values::size)]
     pub size: (u32, u32),
@@ -77,7 +79,10 @@ pub fn run(args: &MapArgs) -> Result<String, CliError> {
         envelope: None,
         map_range,
     };
-    let frame = figures::map(&figure, &settings, resolution, w, h, args.print.sizes(w, h));
+    let sizes = args.print.sizes(w, h);
+    let frame = super::titled(&args.title, view.as_ref(), &figure, sizes.text, h, |h| {
+        figures::map(&figure, &settings, resolution, w, h, sizes)
+    });
     export::write_figure(&args.out, &frame, &ProjectView::title(view.as_ref()))
         .map_err(anyhow::Error::from)?;
     Ok(format!("wrote {}\n", args.out.display()))

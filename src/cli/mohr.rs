@@ -31,6 +31,8 @@ pub struct MohrArgs {
     pub out: PathBuf,
     #[command(flatten)]
     pub print: values::PrintArgs,
+    #[command(flatten)]
+    pub title: values::TitleArgs,
     /// Image size in pixels, WIDTHxHEIGHT.
     #[arg(long, value_name = "WxH", default_value = "1200x800", value_parser = values::size)]
     pub size: (u32, u32),
@@ -86,7 +88,10 @@ pub fn run(args: &MohrArgs) -> Result<String, CliError> {
         envelope,
         map_range: None,
     };
-    let frame = figures::mohr(&figure, w, h, args.print.sizes(w, h));
+    let sizes = args.print.sizes(w, h);
+    let frame = super::titled(&args.title, view.as_ref(), &figure, sizes.text, h, |h| {
+        figures::mohr(&figure, w, h, sizes)
+    });
     export::write_figure(&args.out, &frame, &ProjectView::title(view.as_ref()))
         .map_err(anyhow::Error::from)?;
     Ok(format!("wrote {}\n", args.out.display()))

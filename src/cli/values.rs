@@ -174,3 +174,23 @@ impl PrintArgs {
         )
     }
 }
+
+/// The optional title block of exported figures.
+#[derive(Debug, Clone, clap::Args)]
+pub struct TitleArgs {
+    /// Add a title block below the picture (project and case, the tensor, pore pressure and
+    /// material where used, program version and date).
+    #[arg(long)]
+    pub title_block: bool,
+    /// The title block's first line (implies --title-block).
+    #[arg(long, value_name = "TEXT")]
+    pub title: Option<String>,
+}
+
+impl TitleArgs {
+    /// Whether a block is wanted.
+    #[must_use]
+    pub fn wanted(&self) -> bool {
+        self.title_block || self.title.is_some()
+    }
+}

@@ -171,3 +171,127 @@ pub fn mohr_figure(input: &FigureInput) -> MohrFigure {
 pub fn mohr(input: &FigureInput, width: u32, height: u32, sizes: crate::draw::Sizes) -> Frame {
     mohr_frame(&mohr_figure(input), width, height, sizes)
 }
+
+/// The lines of a figure's title block: the title, project and case, the tensor with its unit
+/// and convention, pore pressure and material where the figure uses them, the program version
+/// and the date.
+#[must_use]
+pub fn title_block_lines(
+    title: Option<&str>,
+    project_and_case: Option<(&str, &str)>,
+    input: &FigureInput,
+    date: &str,
+) -> Vec<String> {
+    use crate::format::sig;
+    use crate::mechanics::Component;
+    let unit = input.unit;
+    let shown = |pa: f64| sig(unit.from_pa(pa), 5);
+    let mut lines = Vec::new();
+    if let Some(t) = title.filter(|t| !t.trim().is_empty()) {
+        lines.push(t.trim().to_owned());
+    }
+    if let Some((p, c)) = project_and_case {
+        lines.push(format!("Project: {p} — load case or combination: {c}"));
+    }
+    let sign = input.convention.sign();
+    let components: Vec<String> = Component::ALL
+        .iter()
+        .map(|&k| {
+            format!(
+                "σ{} = {}",
+                k.key(),
+                shown(sign * input.tensor.component_pa(k))
+            )
+        })
+        .collect();
+    lines.push(format!(
+        "Stress ({unit}, {}): {}",
+        input.convention.key(),
+        components.join(", ")
+    ));
+    let uses_friction = input.search.is_some_and(|s| s.measure.uses_friction());
+    if let Some(env) = input.envelope {
+        lines.push(format!(
+            "Mohr–Coulomb: c = {} {unit}, φ = {}°, pore pressure p = {} {unit}",
+            shown(env.material.cohesion_pa),
+            sig(env.material.friction_angle_deg, 4),
+            shown(env.pore_pressure_pa)
+        ));
+    } else if let Some(s) = input.search.filter(|_| uses_friction) {
+        let material = s.material.map_or_else(String::new, |m| {
+            format!(
+                ", c = {} {unit}, φ = {}°",
+                shown(m.cohesion_pa),
+                sig(m.friction_angle_deg, 4)
+            )
+        });
+        lines.push(format!(
+            "Measure {}: pore pressure p = {} {unit}{material}",
+            s.measure.key(),
+            shown(s.pore_pressure_pa)
+        ));
+    }
+    lines.push(format!("Planewise {}, {date}", env!("CARGO_PKG_VERSION")));
+    lines
+}
+
+/// `lines` broken at spaces so each fits `width` pixels at text `size` (DejaVu Sans averages
+/// about 0.56 em a character).
+#[must_use]
+pub fn wrap_lines(lines: &[String], width: f32, size: f32) -> Vec<String> {
+    let max = ((width - size) / (0.56 * size)).max(10.0) as usize;
+    let mut out = Vec::new();
+    for line in lines {
+        let mut current = String::new();
+        for word in line.split(' ') {
+            let len = current.chars().count() + word.chars().count() + 1;
+            if !current.is_empty() && len > max {
+                out.push(std::mem::take(&mut current));
+            }
+            if !current.is_empty() {
+                current.push(' ');
+            }
+            current.push_str(word);
+        }
+        out.push(current);
+    }
+    out
+}
+
+/// Pixels a title block of `lines` takes below the picture at text `size`, with room left for
+/// the two-line caution under it.
+#[must_use]
+pub fn title_block_height(lines: usize, size: f32) -> f32 {
+    if lines == 0 {
+        0.0
+    } else {
+        (lines as f32 * 1.35 + 0.8 + 2.6) * size
+    }
+}
+
+/// `frame` drawn `height` pixels shorter than the figure, with the title block in the rows
+/// below it (so the figure keeps its requested size and nothing overlaps).
+#[must_use]
+pub fn with_title_block(frame: &Frame, lines: &[String], size: f32, full_height: f32) -> Frame {
+    use crate::draw::{Anchor, Prim};
+    let mut out = frame.clone();
+    out.height = full_height;
+    let top = frame.height;
+    out.prims.push(Prim::Line {
+        a: [0.5 * size, top + 0.3 * size],
+        b: [frame.width - 0.5 * size, top + 0.3 * size],
+        width: 0.08 * size,
+        color: crate::draw::chart::INK,
+    });
+    for (i, line) in lines.iter().enumerate() {
+        out.prims.push(Prim::Text {
+            at: [0.5 * size, top + (1.0 + 1.35 * i as f32) * size],
+            text: line.clone(),
+            size: if i == 0 { size * 1.1 } else { size },
+            color: crate::draw::chart::INK,
+            anchor: Anchor::LeftCenter,
+            halo: false,
+        });
+    }
+    out
+}
