@@ -316,7 +316,17 @@ impl PlanewiseApp {
         let settings = &self.settings;
         let input = FigureInput::from_derived(&d, settings.mohr_envelope);
         let sizes = crate::draw::Sizes::for_export(w as f32, h as f32);
-        match settings.central {
+        let lines = if settings.title_block {
+            figures::title_block_lines(
+                Some(&settings.figure_title),
+                Some((&self.project.name, &d.name)),
+                &input,
+                &crate::report::today(),
+            )
+        } else {
+            Vec::new()
+        };
+        figures::titled(&lines, sizes.text, h, |h| match settings.central {
             Central::View3d | Central::Envelope | Central::Faults => figures::view_3d(
                 &input,
                 settings.layers,
@@ -328,7 +338,7 @@ impl PlanewiseApp {
             ),
             Central::Map => figures::map(&input, &d.search, 256, w, h, sizes),
             Central::Mohr => figures::mohr(&input, w, h, sizes),
-        }
+        })
     }
 
     /// The title exported figures carry: project, shown case and the caution.

@@ -35,6 +35,10 @@ pub struct Settings {
     pub envelope_measure: EnvelopeMeasure,
     /// Project files opened or saved lately, newest first.
     pub recent: Vec<PathBuf>,
+    /// Exported and copied figures carry a title block.
+    pub title_block: bool,
+    /// The title block's first line.
+    pub figure_title: String,
 }
 
 /// How many recent files File → Open recent lists.
@@ -77,6 +81,8 @@ impl Default for Settings {
             mohr_envelope: false,
             envelope_measure: EnvelopeMeasure::VonMises,
             recent: Vec::new(),
+            title_block: false,
+            figure_title: String::new(),
         }
     }
 }

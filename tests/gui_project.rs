@@ -385,6 +385,37 @@ fn window_export_and_the_command_line_give_identical_svg_for_a_project() {
             "{subcommand}: the title names the case"
         );
     }
+    // With a title block, too (the window's export settings, the command line's --title).
+    app.settings.central = Central::Mohr;
+    app.settings.title_block = true;
+    "Bracket <check>".clone_into(&mut app.settings.figure_title);
+    let from_window = temp("window-titled.svg");
+    app.export_to(&from_window);
+    let from_cli = temp("cli-titled.svg");
+    let out = common::planewise(&[
+        "mohr",
+        "--project",
+        project_path.to_str().unwrap(),
+        "--case",
+        "ULS 1",
+        "--size",
+        "1600x1200",
+        "--title",
+        "Bracket <check>",
+        "--out",
+        from_cli.to_str().unwrap(),
+    ]);
+    assert!(
+        out.status.success(),
+        "{}",
+        String::from_utf8_lossy(&out.stderr)
+    );
+    let a = std::fs::read_to_string(&from_window).unwrap();
+    assert!(
+        a == std::fs::read_to_string(&from_cli).unwrap(),
+        "titled figures differ"
+    );
+    assert!(a.contains("Bracket &lt;check&gt;"));
 }
 
 #[test]

@@ -315,21 +315,17 @@ pub fn titled(
     build: impl Fn(u32) -> crate::draw::Frame,
 ) -> crate::draw::Frame {
     use crate::study::figures;
-    if !title.wanted() {
-        return build(height);
-    }
-    let lines = figures::title_block_lines(
-        title.title.as_deref(),
-        view.map(|v| (v.name.as_str(), v.case.as_str())),
-        figure,
-        &crate::report::today(),
-    );
-    let size = 0.85 * text_px;
-    let probe = build(16);
-    let lines = figures::wrap_lines(&lines, probe.width, size);
-    let block = figures::title_block_height(lines.len(), size).ceil() as u32;
-    let picture = build(height.saturating_sub(block).max(16));
-    figures::with_title_block(&picture, &lines, size, height as f32)
+    let lines = if title.wanted() {
+        figures::title_block_lines(
+            title.title.as_deref(),
+            view.map(|v| (v.name.as_str(), v.case.as_str())),
+            figure,
+            &crate::report::today(),
+        )
+    } else {
+        Vec::new()
+    };
+    figures::titled(&lines, text_px, height, build)
 }
 
 /// The tensor, unit and convention read from [`StressArgs`].

@@ -295,3 +295,17 @@ pub fn with_title_block(frame: &Frame, lines: &[String], size: f32, full_height:
     }
     out
 }
+
+/// The figure `build` draws at a given height, with a title block of `lines` below it when
+/// there are any; the whole keeps `height` pixels.
+pub fn titled(lines: &[String], text_px: f32, height: u32, build: impl Fn(u32) -> Frame) -> Frame {
+    if lines.is_empty() {
+        return build(height);
+    }
+    let size = 0.85 * text_px;
+    let width = build(16).width;
+    let lines = wrap_lines(lines, width, size);
+    let block = title_block_height(lines.len(), size).ceil() as u32;
+    let picture = build(height.saturating_sub(block).max(16));
+    with_title_block(&picture, &lines, size, height as f32)
+}

@@ -71,6 +71,19 @@ impl ExportPanel {
                         }
                     }
                 });
+                ui.checkbox(&mut settings.title_block, "Title block")
+                    .on_hover_text(
+                        "Below the picture: the title, project and case, the tensor with its unit and convention, pore pressure and material where used, program version and date",
+                    );
+                if settings.title_block {
+                    ui.add(
+                        egui::TextEdit::singleline(&mut settings.figure_title)
+                            .hint_text("title (optional)")
+                            .desired_width(260.0),
+                    )
+                    .on_hover_text("Figure title: the title block's first line");
+                }
+                ui.small("Text is 8.5 pt when the figure is printed 16 cm wide.");
                 ui.horizontal(|ui| {
                     if ui
                         .add_enabled(!dialog_open, egui::Button::new("Save as PNG or SVG…"))
