@@ -250,3 +250,34 @@ fn the_title_block_states_the_inputs_below_the_picture() {
     }
     let _ = std::fs::remove_dir_all(&dir);
 }
+
+#[test]
+fn the_map_states_the_cut_plane_value_and_the_worst_value() {
+    // Uniaxial tension 100 MPa: the x face carries no shear; the worst shear is 50 MPa on the
+    // 45° planes (common practice, no source).
+    let dir = std::env::temp_dir().join(format!("planewise-mapvalues-{}", std::process::id()));
+    std::fs::create_dir_all(&dir).unwrap();
+    let out = dir.join("m.svg");
+    let r = common::planewise(&[
+        "map",
+        "--stress",
+        "xx=100",
+        "--normal",
+        "1,0,0",
+        "--measure",
+        "shear",
+        "--out",
+        out.to_str().unwrap(),
+    ]);
+    assert!(r.status.success(), "{}", String::from_utf8_lossy(&r.stderr));
+    let svg = std::fs::read_to_string(&out).unwrap();
+    assert!(
+        svg.contains("● cut plane: 0 MPa"),
+        "cut plane value missing"
+    );
+    assert!(
+        svg.contains("▲ worst planes (line: their cone): 50 MPa"),
+        "worst value missing"
+    );
+    let _ = std::fs::remove_dir_all(&dir);
+}

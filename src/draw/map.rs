@@ -25,6 +25,10 @@ pub struct MapMarks {
     pub worst: Vec<PlaneNormal>,
     /// A cone of worst planes (two equal principal values): its poles are drawn as a circle.
     pub cone: Option<Cone>,
+    /// The measure on the cut plane (`None`: undefined there, or no cut plane).
+    pub plane_value: Option<f64>,
+    /// The worst value.
+    pub worst_value: Option<f64>,
 }
 
 /// What the map shows and in which unit and convention.
@@ -327,7 +331,18 @@ pub fn map_frame(
             ),
             None => "the measure is undefined for every plane".to_owned(),
         },
-        format!("◇ principal axes   ● cut plane   {worst_key}"),
+        format!(
+            "◇ principal axes   ● cut plane{}   {worst_key}{}",
+            marks.plane.map_or_else(String::new, |_| format!(
+                ": {}",
+                marks
+                    .plane_value
+                    .map_or_else(|| "undefined".to_owned(), |v| what.value_text(v, 4))
+            )),
+            marks
+                .worst_value
+                .map_or_else(String::new, |v| format!(": {}", what.value_text(v, 4)))
+        ),
     ] {
         frame.prims.push(Prim::Text {
             at: [x0, y],

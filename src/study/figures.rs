@@ -129,8 +129,11 @@ pub fn map(
 ) -> Frame {
     let values = orientation_map(&input.tensor, search, resolution);
     let shown = Analysis::new(&input.tensor, input.convention);
+    let objective = crate::mechanics::search::Objective::new(&input.tensor, search);
     let marks = MapMarks {
         colour_range: input.map_range,
+        plane_value: input.plane.and_then(|n| objective.at_normal(&n.vector())),
+        worst_value: input.worst.as_ref().and_then(|r| r.value),
         principal: shown.principal.directions,
         plane: input.plane,
         worst: input.worst_normals(),
