@@ -6,33 +6,17 @@
     reason = "a test helper that fails should panic loudly"
 )]
 
+mod common;
+
+use common::NoDialogs;
 use egui::accesskit::Role;
 use egui_kittest::Harness;
 use egui_kittest::kittest::{Queryable as _, by};
-use planewise::app::{DialogOutcome, Dialogs, PlanewiseApp, Settings};
+use planewise::app::{PlanewiseApp, Settings};
 use planewise::mechanics::{
     Analysis, Component, PlaneNormal, SignConvention, StressTensor, StressUnit,
 };
 use planewise::study::{CaseInput, Derived, LoadCase, Project, TypedTensor};
-
-/// Tests never open a native dialog: this one answers as a machine without a desktop portal
-/// or zenity does.
-struct NoDialogs;
-
-impl Dialogs for NoDialogs {
-    fn save_figure(&self, _suggested_name: &str) -> DialogOutcome {
-        DialogOutcome::Unavailable("test machine: no desktop portal".to_owned())
-    }
-    fn open_project(&self) -> DialogOutcome {
-        DialogOutcome::Unavailable("test machine: no desktop portal".to_owned())
-    }
-    fn save_project(&self, _suggested_name: &str) -> DialogOutcome {
-        DialogOutcome::Unavailable("test machine: no desktop portal".to_owned())
-    }
-    fn save_report(&self, _suggested_name: &str) -> DialogOutcome {
-        DialogOutcome::Unavailable("test machine: no desktop portal".to_owned())
-    }
-}
 
 /// A one-case project for these tests. Its numbers are a fixture, not check values: every
 /// check compares the window with the mechanics core or with itself.

@@ -9,32 +9,16 @@
 
 mod common;
 
+use common::NoDialogs;
+
 use std::path::PathBuf;
 
 use egui::accesskit::Role;
 use egui_kittest::Harness;
 use egui_kittest::kittest::{Queryable as _, by};
-use planewise::app::{DialogOutcome, Dialogs, PlanewiseApp, Settings};
+use planewise::app::{PlanewiseApp, Settings};
 use planewise::mechanics::{Analysis, Component, SignConvention};
 use planewise::study::Project;
-
-/// Answers as a machine without a desktop portal or zenity does.
-struct NoDialogs;
-
-impl Dialogs for NoDialogs {
-    fn save_figure(&self, _suggested_name: &str) -> DialogOutcome {
-        DialogOutcome::Unavailable("test machine: no desktop portal".to_owned())
-    }
-    fn open_project(&self) -> DialogOutcome {
-        DialogOutcome::Unavailable("test machine: no desktop portal".to_owned())
-    }
-    fn save_project(&self, _suggested_name: &str) -> DialogOutcome {
-        DialogOutcome::Unavailable("test machine: no desktop portal".to_owned())
-    }
-    fn save_report(&self, _suggested_name: &str) -> DialogOutcome {
-        DialogOutcome::Unavailable("test machine: no desktop portal".to_owned())
-    }
-}
 
 fn harness_on(app: PlanewiseApp) -> Harness<'static, PlanewiseApp> {
     let mut h = Harness::builder()

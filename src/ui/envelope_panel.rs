@@ -231,10 +231,17 @@ impl EnvelopePanel {
                                 ui.label("undefined");
                             }
                         }
-                        bar(
+                        let color = if governs {
+                            egui::Color32::from_rgb(200, 70, 50)
+                        } else {
+                            egui::Color32::from_rgb(90, 130, 190)
+                        };
+                        super::bar(
                             ui,
+                            egui::vec2(120.0, 12.0),
                             row.value.map(|v| v.abs() / largest.max(f64::MIN_POSITIVE)),
-                            governs,
+                            color,
+                            None,
                         );
                         if planes {
                             let first = row
@@ -257,25 +264,3 @@ impl EnvelopePanel {
 }
 
 static EMPTY: Result<Envelope, String> = Err(String::new());
-
-/// A horizontal bar, `fraction` of its full width (none for an undefined value).
-fn bar(ui: &mut egui::Ui, fraction: Option<f64>, governs: bool) {
-    let (rect, _) = ui.allocate_exact_size(egui::vec2(120.0, 12.0), egui::Sense::hover());
-    let painter = ui.painter_at(rect);
-    painter.rect_stroke(
-        rect,
-        2.0,
-        egui::Stroke::new(1.0, ui.visuals().weak_text_color()),
-        egui::StrokeKind::Inside,
-    );
-    if let Some(f) = fraction {
-        let mut filled = rect;
-        filled.set_width(rect.width() * f.clamp(0.0, 1.0) as f32);
-        let color = if governs {
-            egui::Color32::from_rgb(200, 70, 50)
-        } else {
-            egui::Color32::from_rgb(90, 130, 190)
-        };
-        painter.rect_filled(filled, 2.0, color);
-    }
-}

@@ -47,6 +47,41 @@ pub mod shortcuts {
         KeyboardShortcut::new(Modifiers::COMMAND.plus(Modifiers::SHIFT), Key::C);
 }
 
+/// A horizontal bar of `size`, filled to `fraction` of its width (none for `None`) in `color`,
+/// with an optional tick at `tick` of its width. Returns the bar's rectangle.
+pub fn bar(
+    ui: &mut egui::Ui,
+    size: egui::Vec2,
+    fraction: Option<f64>,
+    color: egui::Color32,
+    tick: Option<f32>,
+) -> egui::Rect {
+    let (rect, _) = ui.allocate_exact_size(size, egui::Sense::hover());
+    let painter = ui.painter_at(rect.expand(2.0));
+    painter.rect_stroke(
+        rect,
+        2.0,
+        egui::Stroke::new(1.0, ui.visuals().weak_text_color()),
+        egui::StrokeKind::Inside,
+    );
+    if let Some(f) = fraction {
+        let mut filled = rect;
+        filled.set_width(rect.width() * f.clamp(0.0, 1.0) as f32);
+        painter.rect_filled(filled, 2.0, color);
+    }
+    if let Some(t) = tick {
+        let x = rect.left() + rect.width() * t;
+        painter.line_segment(
+            [
+                egui::pos2(x, rect.top() - 2.0),
+                egui::pos2(x, rect.bottom() + 2.0),
+            ],
+            egui::Stroke::new(1.5, ui.visuals().text_color()),
+        );
+    }
+    rect
+}
+
 /// "Copy as" buttons for a table: TSV, Markdown and CSV; pushes what `make` gives.
 pub fn copy_as_ui(
     ui: &mut egui::Ui,

@@ -104,35 +104,17 @@ fn verdict_row(ui: &mut egui::Ui, v: &Verdict, d: &Derived) {
     });
     ui.horizontal(|ui| {
         if v.outcome() != Outcome::NotChecked {
-            bar(ui, v.utilization, color);
+            // Full width at U = 1.5, a tick at U = 1.
+            super::bar(
+                ui,
+                egui::vec2(90.0, 10.0),
+                v.utilization.map(|u| u / 1.5),
+                color,
+                Some(1.0 / 1.5),
+            );
         }
         ui.small(numbers).on_hover_text(&tip);
     });
-}
-
-/// A utilization bar: full width at U = 1.5, a tick at U = 1.
-fn bar(ui: &mut egui::Ui, utilization: Option<f64>, color: egui::Color32) {
-    let (rect, _) = ui.allocate_exact_size(egui::vec2(90.0, 10.0), egui::Sense::hover());
-    let painter = ui.painter_at(rect);
-    painter.rect_stroke(
-        rect,
-        2.0,
-        egui::Stroke::new(1.0, ui.visuals().weak_text_color()),
-        egui::StrokeKind::Inside,
-    );
-    if let Some(u) = utilization {
-        let mut filled = rect;
-        filled.set_width(rect.width() * (u / 1.5).clamp(0.0, 1.0) as f32);
-        painter.rect_filled(filled, 2.0, color);
-    }
-    let x = rect.left() + rect.width() / 1.5;
-    painter.line_segment(
-        [
-            egui::pos2(x, rect.top() - 2.0),
-            egui::pos2(x, rect.bottom() + 2.0),
-        ],
-        egui::Stroke::new(1.5, ui.visuals().text_color()),
-    );
 }
 
 /// The material editor's text fields.

@@ -33,3 +33,26 @@ pub fn assert_bad_input(subcommand: &str, cases: &[(&[&str], &str)]) {
         );
     }
 }
+
+/// Tests never open a native dialog: this one answers as a machine without a desktop portal or
+/// zenity does.
+pub struct NoDialogs;
+
+impl planewise::app::Dialogs for NoDialogs {
+    fn save_figure(&self, _suggested_name: &str) -> planewise::app::DialogOutcome {
+        unavailable()
+    }
+    fn open_project(&self) -> planewise::app::DialogOutcome {
+        unavailable()
+    }
+    fn save_project(&self, _suggested_name: &str) -> planewise::app::DialogOutcome {
+        unavailable()
+    }
+    fn save_report(&self, _suggested_name: &str) -> planewise::app::DialogOutcome {
+        unavailable()
+    }
+}
+
+fn unavailable() -> planewise::app::DialogOutcome {
+    planewise::app::DialogOutcome::Unavailable("test machine: no desktop portal".to_owned())
+}
