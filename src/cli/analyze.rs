@@ -8,9 +8,7 @@ use serde::Serialize;
 
 use super::{ArgError, CliError, PlaneArgs, StressArgs, StressInput};
 use crate::format::{clean, sig, with_unit};
-use crate::mechanics::criteria::{
-    self, Condition, CriterionError, DruckerPragerFit, Outcome, Strengths,
-};
+use crate::mechanics::criteria::{self, Condition, DruckerPragerFit, Outcome, Strengths};
 use crate::mechanics::{Analysis, Component, PlaneNormal, PlaneStress, StressUnit};
 
 /// "passes", "fails" or "not-checked".
@@ -75,21 +73,7 @@ impl StrengthArgs {
             friction_angle_deg: friction,
             dp_fit: self.dp_fit.unwrap_or_default(),
         };
-        match (strengths.cohesion_pa, strengths.friction_angle_deg) {
-            (Some(_), None) => {
-                return Err(ArgError::new(
-                    "--friction-angle",
-                    "is needed together with --cohesion",
-                ));
-            }
-            (None, Some(_)) => {
-                return Err(ArgError::new(
-                    "--cohesion",
-                    "is needed together with --friction-angle",
-                ));
-            }
-            _ => {}
-        }
+        super::worst_plane::pair_material(strengths.cohesion_pa, strengths.friction_angle_deg)?;
         if self.dp_fit.is_some() && strengths.cohesion_pa.is_none() {
             return Err(ArgError::new(
                 "--dp-fit",
@@ -104,14 +88,6 @@ impl StrengthArgs {
             if value.is_some_and(|v| v <= 0.0) {
                 return Err(ArgError::new(name, "must be a positive stress"));
             }
-        }
-        if let Some(Err(e)) = strengths.mohr_coulomb() {
-            let name = if matches!(e, CriterionError::Cohesion) {
-                "--cohesion"
-            } else {
-                "--friction-angle"
-            };
-            return Err(ArgError::new(name, e));
         }
         let pore = stress("--pore-pressure", &self.pore_pressure)?;
         if pore.is_some() && !plane {

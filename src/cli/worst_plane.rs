@@ -74,29 +74,7 @@ impl MaterialArgs {
                 }
             }
         }
-        let material = match (cohesion_pa, friction) {
-            (Some(c), Some(phi)) => Some(MohrCoulomb::new(c, phi).map_err(|e| {
-                let arg = if matches!(e, CriterionError::Cohesion) {
-                    "--cohesion"
-                } else {
-                    "--friction-angle"
-                };
-                ArgError::new(arg, e)
-            })?),
-            (None, None) => None,
-            (Some(_), None) => {
-                return Err(ArgError::new(
-                    "--friction-angle",
-                    "is needed together with --cohesion",
-                ));
-            }
-            (None, Some(_)) => {
-                return Err(ArgError::new(
-                    "--cohesion",
-                    "is needed together with --friction-angle",
-                ));
-            }
-        };
+        let material = pair_material(cohesion_pa, friction)?;
         let pore_used =
             measure.is_some_and(Measure::uses_friction) || (envelope && material.is_some());
         if pore_pressure_pa.is_some() && !pore_used {
@@ -113,6 +91,33 @@ impl MaterialArgs {
             ));
         }
         Ok((pore_pressure_pa.unwrap_or(0.0), material))
+    }
+}
+
+/// The Mohr–Coulomb material from --cohesion and --friction-angle, which go together; an
+/// out-of-range value is bad input naming its argument.
+pub fn pair_material(
+    cohesion_pa: Option<f64>,
+    friction_deg: Option<f64>,
+) -> Result<Option<MohrCoulomb>, ArgError> {
+    match (cohesion_pa, friction_deg) {
+        (Some(c), Some(phi)) => MohrCoulomb::new(c, phi).map(Some).map_err(|e| {
+            let arg = if matches!(e, CriterionError::Cohesion) {
+                "--cohesion"
+            } else {
+                "--friction-angle"
+            };
+            ArgError::new(arg, e)
+        }),
+        (None, None) => Ok(None),
+        (Some(_), None) => Err(ArgError::new(
+            "--friction-angle",
+            "is needed together with --cohesion",
+        )),
+        (None, Some(_)) => Err(ArgError::new(
+            "--cohesion",
+            "is needed together with --friction-angle",
+        )),
     }
 }
 
