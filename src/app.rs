@@ -640,10 +640,7 @@ impl PlanewiseApp {
             }
             Command::CopyResults(format) => {
                 let d = Derived::new(&self.project);
-                let mut rows = crate::results::rows(&d.tensor, d.plane, d.convention);
-                if let Some(f) = &d.fault {
-                    rows.extend(crate::results::fault_rows(f, d.measure.pore_pressure_pa));
-                }
+                let mut rows = crate::results::shown_rows(&d);
                 rows.extend(crate::results::verdict_rows(&d.verdicts));
                 ctx.copy_text(crate::results::table(&rows, d.unit, d.convention).write(format));
                 self.set_status("Results copied (value and unit in separate columns)", false);

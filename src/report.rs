@@ -9,7 +9,7 @@ use crate::format::sig;
 use crate::mechanics::criteria::{Condition, Outcome, Verdict};
 use crate::mechanics::search::worst_plane;
 use crate::mechanics::{Component, StressUnit};
-use crate::results::{ResultRow, fault_rows, rows};
+use crate::results::ResultRow;
 use crate::study::figures::{self, FigureInput};
 use crate::study::{Derived, EnvelopeMeasure, FieldKind, Project, StudyError, envelope};
 
@@ -233,12 +233,7 @@ fn envelopes(
     let settings = project.measure.settings(project.convention());
     let mut measures = vec![EnvelopeMeasure::VonMises];
     for c in crate::mechanics::criteria::Criterion::ALL {
-        let probe = project
-            .names()
-            .first()
-            .and_then(|(n, _)| project.tensor(n).ok())
-            .map(|t| crate::mechanics::criteria::verdict(&t, c, &project.material.strengths));
-        if probe.is_some_and(|v| v.condition != Condition::NotChecked) {
+        if project.material.strengths.checks(c) {
             measures.push(EnvelopeMeasure::Utilization(c));
         }
     }
@@ -431,11 +426,7 @@ fn case_section(
         comp(Component::Yz),
         comp(Component::Zz),
     );
-    let mut all = rows(&d.tensor, d.plane, d.convention);
-    if let Some(f) = &d.fault {
-        all.extend(fault_rows(f, d.measure.pore_pressure_pa));
-    }
-    row_table(s, &all, unit, notes);
+    row_table(s, &crate::results::shown_rows(&d), unit, notes);
     verdict_table(s, &d.verdicts, unit, notes);
     // Named faults.
     if !d.faults.is_empty() {

@@ -359,6 +359,17 @@ pub fn to_tsv(rows: &[ResultRow], unit: StressUnit, convention: SignConvention) 
     table(rows, unit, convention).write(CopyFormat::Tsv)
 }
 
+/// Every result row of the shown state: the state and cut plane, and the cut plane as a fault
+/// when it is checked as one (the panel, copies and the report all list these).
+#[must_use]
+pub fn shown_rows(d: &crate::study::Derived) -> Vec<ResultRow> {
+    let mut all = rows(&d.tensor, d.plane, d.convention);
+    if let Some(f) = &d.fault {
+        all.extend(fault_rows(f, d.measure.pore_pressure_pa));
+    }
+    all
+}
+
 /// The cut plane as a fault (compression-positive effective stress), for the panel and copies.
 #[must_use]
 pub fn fault_rows(

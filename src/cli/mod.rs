@@ -175,13 +175,13 @@ pub struct InputArgs {
 }
 
 impl InputArgs {
-    /// The input, if one of these forms is given (stresses in `unit`; principal values in the
-    /// convention `compression_positive` says).
+    /// The input and its tensor, if one of these forms is given (stresses in `unit`; principal
+    /// values in the convention `compression_positive` says).
     pub fn read(
         &self,
         unit: StressUnit,
         compression_positive: bool,
-    ) -> Result<Option<crate::study::CaseInput>, ArgError> {
+    ) -> Result<Option<(crate::study::CaseInput, StressTensor)>, ArgError> {
         use crate::study::{CaseInput, InSituInput, PrincipalInput};
         let input = if let Some(text) = &self.in_situ {
             let [sv, shmax, shmin, azimuth_deg] =
@@ -232,36 +232,24 @@ impl InputArgs {
         } else {
             return Ok(None);
         };
-        let arg = if self.in_situ.is_some() {
-            "--in-situ"
-        } else if input_axes_error(&input) {
-            "--axes"
-        } else {
-            "--principal"
-        };
-        input.tensor().map_err(|e| ArgError::new(arg, e))?;
-        Ok(Some(input))
+        let tensor = input.tensor().map_err(|e| {
+            use crate::mechanics::inputs::InputError;
+            let arg = match &e {
+                _ if self.in_situ.is_some() => "--in-situ",
+                crate::study::StudyError::Input(
+                    InputError::NotPerpendicular(_) | InputError::Plunge(_),
+                ) => "--axes",
+                _ => "--principal",
+            };
+            ArgError::new(arg, e)
+        })?;
+        Ok(Some((input, tensor)))
     }
 
     /// Whether any form is given.
     #[must_use]
     pub fn any(&self) -> bool {
         self.in_situ.is_some() || self.principal.is_some()
-    }
-}
-
-/// Whether the principal input fails because of its axes (so the message names --axes).
-fn input_axes_error(input: &crate::study::CaseInput) -> bool {
-    let crate::study::CaseInput::Principal(p) = input else {
-        return false;
-    };
-    let axes = (
-        crate::mechanics::inputs::axis(p.axis1[0], p.axis1[1]),
-        crate::mechanics::inputs::axis(p.axis3[0], p.axis3[1]),
-    );
-    match axes {
-        (Ok(a), Ok(b)) => (a.dot(&b).clamp(-1.0, 1.0).acos().to_degrees() - 90.0).abs() > 0.5,
-        _ => true,
     }
 }
 
@@ -358,13 +346,10 @@ impl StressArgs {
                     "cannot be given together with --in-situ or --principal",
                 ));
             }
-            let input = self
+            let (_, tensor) = self
                 .other
                 .read(unit, self.compression_positive)?
                 .ok_or_else(|| ArgError::new("--stress", "is required"))?;
-            let tensor = input
-                .tensor()
-                .map_err(|e| ArgError::new("--principal", e))?;
             return Ok(StressInput {
                 tensor,
                 unit,

@@ -139,7 +139,7 @@ pub fn run(args: &ProjectArgs) -> Result<String, CliError> {
                     )
                     .into());
                 }
-                (None, Some(input)) => input,
+                (None, Some((input, _))) => input,
                 (Some(stress), None) => CaseInput::Tensor(TypedTensor {
                     unit: project.unit.clone(),
                     compression_positive: project.compression_positive,

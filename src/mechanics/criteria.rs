@@ -350,6 +350,14 @@ impl Strengths {
         self.mohr_coulomb().transpose().map(|_| ())
     }
 
+    /// Whether `criterion` has the strengths it needs (else it is not checked, whatever the
+    /// state).
+    #[must_use]
+    pub fn checks(&self, criterion: Criterion) -> bool {
+        // Whether a criterion is checked does not depend on the state: ask `verdict` itself.
+        verdict(&StressTensor::default(), criterion, self).condition != Condition::NotChecked
+    }
+
     /// The Mohr–Coulomb material, when both cohesion and friction angle are given.
     #[must_use]
     pub fn mohr_coulomb(&self) -> Option<Result<MohrCoulomb, CriterionError>> {

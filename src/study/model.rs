@@ -269,10 +269,6 @@ fn strain_factor(unit: &str) -> Result<f64, StudyError> {
     }
 }
 
-fn input_error(e: impl std::fmt::Display) -> StudyError {
-    StudyError::Invalid(e.to_string())
-}
-
 impl CaseInput {
     /// The kind.
     #[must_use]
@@ -371,7 +367,7 @@ impl CaseInput {
                     u.to_pa(i.shmin),
                     i.azimuth_deg,
                 )
-                .map_err(input_error)
+                .map_err(StudyError::from)
             }
             Self::Principal(p) => {
                 let u = parse_unit(&p.unit)?;
@@ -382,7 +378,7 @@ impl CaseInput {
                     (p.axis1[0], p.axis1[1]),
                     (p.axis3[0], p.axis3[1]),
                 )
-                .map_err(input_error)
+                .map_err(StudyError::from)
             }
             Self::Rosette(r) => Self::rosette(r).map(|s| s.stress),
             Self::PlaneStress(p) => {
@@ -393,7 +389,7 @@ impl CaseInput {
                     sign * u.to_pa(p.sy),
                     sign * u.to_pa(p.txy),
                 )
-                .map_err(input_error)
+                .map_err(StudyError::from)
             }
         }
     }
@@ -408,7 +404,7 @@ impl CaseInput {
             poisson: r.poisson,
         }
         .solve()
-        .map_err(input_error)
+        .map_err(StudyError::from)
     }
 
     /// For a rosette: εx, εy, γxy, the principal strains and the angle of ε1 (strain, not
@@ -591,6 +587,9 @@ pub enum StudyError {
         /// The term's name.
         case: String,
     },
+    /// An input (in-situ, principal axes, rosette, plane stress) that gives no tensor.
+    #[error(transparent)]
+    Input(#[from] crate::mechanics::inputs::InputError),
     /// Anything else that is wrong with the data.
     #[error("{0}")]
     Invalid(String),

@@ -3,6 +3,7 @@
 //! terms of a combination (case × factor). Every change is a study edit, so undo reaches it.
 
 use crate::session::{Coalesce, Command};
+use crate::study::model::terms_text;
 use crate::study::{Derived, Edit, InputKind, Project, Term};
 
 /// Text being typed in the panel.
@@ -16,12 +17,6 @@ pub struct CasesPanel {
 
 fn edit(out: &mut Vec<Command>, edit: Edit, coalesce: Option<Coalesce>) {
     out.push(Command::Edit { edit, coalesce });
-}
-
-/// "1.35 × dead + 1.5 × live".
-#[must_use]
-pub fn terms_text(terms: &[Term]) -> String {
-    crate::study::model::terms_text(terms)
 }
 
 impl CasesPanel {

@@ -1,6 +1,5 @@
 //! The results panel: every number with its unit; hovering shows the formula.
 
-use crate::results::rows;
 use crate::session::Command;
 use crate::study::Derived;
 
@@ -20,10 +19,7 @@ pub fn results_ui(ui: &mut egui::Ui, d: &Derived, out: &mut Vec<Command>) {
         super::copy_as_ui(ui, out, Command::CopyResults);
     });
     ui.small(format!("{}, {}", d.unit, d.convention.key()));
-    let mut all = rows(&d.tensor, d.plane, d.convention);
-    if let Some(f) = &d.fault {
-        all.extend(crate::results::fault_rows(f, d.measure.pore_pressure_pa));
-    }
+    let all = crate::results::shown_rows(d);
     let mut group = "";
     let mut grid_rows: Vec<&crate::results::ResultRow> = Vec::new();
     let unit = d.unit;
