@@ -310,22 +310,27 @@ impl PlanewiseApp {
     /// and the command line.
     #[must_use]
     pub fn export_frame(&self) -> crate::draw::Frame {
+        use crate::study::annotations::FigureKind;
         use crate::study::figures::{self, FigureInput};
         let [w, h] = self.settings.export_size;
         let d = Derived::new(&self.project);
         let settings = &self.settings;
         let input = FigureInput::from_derived(&d, settings.mohr_envelope);
         let sizes = crate::draw::Sizes::for_export(w as f32, h as f32);
-        let lines = if settings.title_block {
-            figures::title_block_lines(
+        let kind = match settings.central {
+            Central::Map => FigureKind::Map,
+            Central::Mohr => FigureKind::Mohr,
+            Central::View3d | Central::Envelope | Central::Faults => FigureKind::View3d,
+        };
+        let mut lines = input.captions(kind);
+        if settings.title_block {
+            lines.extend(figures::title_block_lines(
                 Some(&settings.figure_title),
                 Some((&self.project.name, &d.name)),
                 &input,
                 &crate::report::today(),
-            )
-        } else {
-            Vec::new()
-        };
+            ));
+        }
         figures::titled(&lines, sizes.text, h, |h| match settings.central {
             Central::View3d | Central::Envelope | Central::Faults => figures::view_3d(
                 &input,
@@ -946,11 +951,25 @@ impl PlanewiseApp {
             });
             match self.settings.central {
                 Central::View3d => {
-                    ui::view_panel::view_ui(ui, &d, &mut self.settings, &mut commands);
+                    ui::view_panel::view_ui(
+                        ui,
+                        &d,
+                        &self.project.annotations,
+                        &mut self.settings,
+                        &mut commands,
+                    );
                 }
-                Central::Map => ui::map_panel::map_ui(ui, &d, &mut commands),
+                Central::Map => {
+                    ui::map_panel::map_ui(ui, &d, &self.project.annotations, &mut commands);
+                }
                 Central::Mohr => {
-                    ui::mohr_panel::mohr_ui(ui, &d, &mut self.settings, &mut commands);
+                    ui::mohr_panel::mohr_ui(
+                        ui,
+                        &d,
+                        &self.project.annotations,
+                        &mut self.settings,
+                        &mut commands,
+                    );
                 }
                 Central::Faults => {
                     self.faults_panel

@@ -10,6 +10,7 @@ use crate::mechanics::criteria::{Condition, Outcome, Verdict};
 use crate::mechanics::search::worst_plane;
 use crate::mechanics::{Component, StressUnit};
 use crate::results::ResultRow;
+use crate::study::annotations::FigureKind;
 use crate::study::figures::{self, FigureInput};
 use crate::study::{Derived, EnvelopeMeasure, FieldKind, Project, StudyError, envelope};
 
@@ -525,11 +526,23 @@ fn case_section(
             &crate::export::with_caution(&frame),
             &format!("{} — {name}", project.name),
         ));
+        let kind = match figure {
+            ReportFigure::View3d => FigureKind::View3d,
+            ReportFigure::Map => FigureKind::Map,
+            ReportFigure::Mohr => FigureKind::Mohr,
+        };
+        let own: String = input
+            .captions(kind)
+            .iter()
+            .fold(String::new(), |mut acc, c| {
+                acc.push(' ');
+                acc.push_str(&escape(c));
+                acc
+            });
         let _ = write!(
             s,
-            "<figure>\n{svg}<figcaption>{} — {}</figcaption>\n</figure>\n",
+            "<figure>\n{svg}<figcaption>{} — {caption}.{own}</figcaption>\n</figure>\n",
             escape(name),
-            caption
         );
     }
     s.push_str("</section>\n");

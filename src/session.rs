@@ -114,6 +114,12 @@ pub enum Coalesce {
     Factors,
     /// Typing a case's description.
     Description,
+    /// Typing a figure's caption.
+    Caption,
+    /// Typing a note's text (its index among the annotations).
+    NoteText(usize),
+    /// One drag of a note's text (the drag's serial number).
+    NoteDrag(u64),
 }
 
 /// What a panel asks for; applied by the app after the frame.

@@ -272,7 +272,11 @@ fn clicking_the_orientation_map_sets_the_plane() {
     h.get_by_label("Orientation map").click();
     h.run();
     let rect = h.get_by_label_contains("hover a pole").rect();
-    let (centre, r) = planewise::draw::map::disc_geometry(rect.width(), rect.height());
+    let (centre, r) = planewise::draw::map::disc_geometry(
+        rect.width(),
+        rect.height(),
+        planewise::draw::Sizes::default(),
+    );
     // Half way from the centre to the east rim.
     let pos = rect.min + egui::vec2(centre[0] + 0.5 * r, centre[1]);
     h.event(egui::Event::PointerMoved(pos));
@@ -339,9 +343,23 @@ fn press_move_release(h: &mut Harness<'static, PlanewiseApp>, from: egui::Pos2, 
     h.run();
 }
 
+/// The Mohr tab's layout for the app's state in `rect`.
+fn mohr_layout(
+    h: &Harness<'static, PlanewiseApp>,
+    rect: egui::Rect,
+) -> planewise::draw::mohr::MohrLayout {
+    let figure =
+        planewise::ui::mohr_panel::figure(&Derived::new(&h.state().project), &h.state().settings);
+    planewise::draw::mohr::MohrLayout::new(
+        &figure,
+        rect.width().floor(),
+        rect.height().floor(),
+        planewise::draw::Sizes::default(),
+    )
+}
+
 #[test]
 fn clicking_the_mohr_diagram_moves_the_plane_to_that_point() {
-    use planewise::draw::mohr::MohrLayout;
     use planewise::mechanics::PlaneNormal;
     use planewise::mechanics::mohr::MohrCircles;
     let mut h = harness();
@@ -350,14 +368,7 @@ fn clicking_the_mohr_diagram_moves_the_plane_to_that_point() {
     let rect = h
         .get_by_label_contains("hover a point to name its plane")
         .rect();
-    let figure =
-        planewise::ui::mohr_panel::figure(&Derived::new(&h.state().project), &h.state().settings);
-    let layout = MohrLayout::new(
-        &figure,
-        rect.width().floor(),
-        rect.height().floor(),
-        planewise::draw::Sizes::default(),
-    );
+    let layout = mohr_layout(&h, rect);
     // Aim at the point of the horizontal plane.
     let t = h.state().tensor();
     let circles = MohrCircles::new(&t, SignConvention::TensionPositive);
@@ -383,14 +394,7 @@ fn clicking_the_mohr_diagram_moves_the_plane_to_that_point() {
     let rect_now = h
         .get_by_label_contains("hover a point to name its plane")
         .rect();
-    let figure =
-        planewise::ui::mohr_panel::figure(&Derived::new(&h.state().project), &h.state().settings);
-    let layout_now = MohrLayout::new(
-        &figure,
-        rect_now.width().floor(),
-        rect_now.height().floor(),
-        planewise::draw::Sizes::default(),
-    );
+    let layout_now = mohr_layout(&h, rect_now);
     let drawn = rect_now.min + egui::Vec2::from(layout_now.to_px(sn2, tau2));
     assert!(
         drawn.distance(pos) < 6.0,
@@ -546,4 +550,76 @@ fn menu_shortcut_text_comes_from_the_bindings() {
     );
     h.run();
     assert_eq!(h.state().tensor(), fixture_tensor());
+}
+
+#[test]
+fn a_note_pinned_on_the_mohr_diagram_moves_by_dragging_and_undo_takes_each_step_back() {
+    use planewise::study::annotations::{Pin, default_offset};
+    let mut h = harness();
+    h.get_by_label("Mohr circles").click();
+    h.run();
+    h.get_by_label("Pin a note").click();
+    h.run();
+    let rect = h
+        .get_by_label_contains("hover a point to name its plane")
+        .rect();
+    let plane_before = h.state().project.plane;
+    let pos = rect.center();
+    h.event(egui::Event::PointerMoved(pos));
+    for pressed in [true, false] {
+        h.event(egui::Event::PointerButton {
+            pos,
+            button: egui::PointerButton::Primary,
+            pressed,
+            modifiers: egui::Modifiers::NONE,
+        });
+    }
+    h.run();
+    // One note, on the Mohr diagram of the shown case, pinned where the click was; the click
+    // pinned a note and did not move the cut plane.
+    let notes = h.state().project.annotations.clone();
+    assert_eq!(notes.len(), 1, "{notes:?}");
+    assert_eq!(notes[0].case, "fillet");
+    assert_eq!(notes[0].offset, default_offset());
+    assert_eq!(h.state().project.plane, plane_before);
+    let Some(Pin::Mohr {
+        normal_stress_pa,
+        shear_stress_pa,
+    }) = notes[0].pin
+    else {
+        panic!("not a Mohr pin: {:?}", notes[0].pin);
+    };
+    let layout = mohr_layout(&h, rect);
+    let pinned = rect.min + egui::Vec2::from(layout.to_px(normal_stress_pa, shear_stress_pa));
+    assert!(
+        pinned.distance(pos) < 1.0,
+        "pinned at {pinned:?}, clicked {pos:?}"
+    );
+
+    // Drag the note's text (it starts 1.5 text sizes right of and 2 above the pin).
+    let text = planewise::draw::Sizes::default().text;
+    let grab = pinned + egui::vec2(default_offset()[0] * text + 8.0, default_offset()[1] * text);
+    press_move_release(&mut h, grab, grab + egui::vec2(60.0, 40.0));
+    let moved = h.state().project.annotations[0].offset;
+    let expected = [
+        default_offset()[0] + 60.0 / text,
+        default_offset()[1] + 40.0 / text,
+    ];
+    assert!(
+        (moved[0] - expected[0]).abs() < 0.05 && (moved[1] - expected[1]).abs() < 0.05,
+        "offset {moved:?}, expected {expected:?}"
+    );
+    assert_eq!(
+        h.state().project.plane,
+        plane_before,
+        "the drag moved the plane"
+    );
+
+    // Undo: the whole drag is one step, then the note goes.
+    h.key_press_modifiers(egui::Modifiers::COMMAND, egui::Key::Z);
+    h.run();
+    assert_eq!(h.state().project.annotations[0].offset, default_offset());
+    h.key_press_modifiers(egui::Modifiers::COMMAND, egui::Key::Z);
+    h.run();
+    assert!(h.state().project.annotations.is_empty());
 }

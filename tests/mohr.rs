@@ -102,6 +102,7 @@ fn figure_for(t: &StressTensor, envelope: Option<Envelope>) -> MohrFigure {
         worst: Vec::new(),
         worst_label: String::new(),
         envelope,
+        notes: Vec::new(),
     }
 }
 

@@ -85,20 +85,29 @@ pub fn run(args: &FigureArgs) -> Result<String, CliError> {
         search,
         worst,
         envelope: None,
+        notes: view.as_ref().map(|v| v.notes.clone()).unwrap_or_default(),
         map_range: None,
     };
     let sizes = args.print.sizes(w, h);
-    let frame = super::titled(&args.title, view.as_ref(), &figure, sizes.text, h, |h| {
-        figures::view_3d(
-            &figure,
-            layers,
-            FaceChoice::FacingViewer,
-            &camera,
-            w,
-            h,
-            sizes,
-        )
-    });
+    let frame = super::titled(
+        &args.title,
+        view.as_ref(),
+        &figure,
+        crate::study::annotations::FigureKind::View3d,
+        sizes.text,
+        h,
+        |h| {
+            figures::view_3d(
+                &figure,
+                layers,
+                FaceChoice::FacingViewer,
+                &camera,
+                w,
+                h,
+                sizes,
+            )
+        },
+    );
     export::write_figure(&args.out, &frame, &ProjectView::title(view.as_ref()))
         .map_err(anyhow::Error::from)?;
     Ok(format!("wrote {}\n", args.out.display()))

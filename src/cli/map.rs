@@ -78,11 +78,18 @@ pub fn run(args: &MapArgs) -> Result<String, CliError> {
         worst: Some(worst),
         envelope: None,
         map_range,
+        notes: view.as_ref().map(|v| v.notes.clone()).unwrap_or_default(),
     };
     let sizes = args.print.sizes(w, h);
-    let frame = super::titled(&args.title, view.as_ref(), &figure, sizes.text, h, |h| {
-        figures::map(&figure, &settings, resolution, w, h, sizes)
-    });
+    let frame = super::titled(
+        &args.title,
+        view.as_ref(),
+        &figure,
+        crate::study::annotations::FigureKind::Map,
+        sizes.text,
+        h,
+        |h| figures::map(&figure, &settings, resolution, w, h, sizes),
+    );
     export::write_figure(&args.out, &frame, &ProjectView::title(view.as_ref()))
         .map_err(anyhow::Error::from)?;
     Ok(format!("wrote {}\n", args.out.display()))

@@ -266,6 +266,8 @@ pub struct ProjectView {
     pub plane: crate::mechanics::PlaneNormal,
     /// The saved measure, pore pressure and material.
     pub measure: crate::study::MeasureChoice,
+    /// The case's captions and pinned notes.
+    pub notes: Vec<crate::study::annotations::Annotation>,
 }
 
 impl ProjectView {
@@ -288,31 +290,37 @@ impl StressArgs {
             case: case.clone(),
             plane: project.plane,
             measure: project.measure,
+            notes: project
+                .annotations
+                .iter()
+                .filter(|a| &a.case == case)
+                .cloned()
+                .collect(),
         }))
     }
 }
 
-/// The figure `build` draws at a height, with the title block below it when `title` asks for
-/// one; the whole keeps `height` pixels.
+/// The figure `build` draws at a height, with the figure's captions and the title block (when
+/// `title` asks for one) below it; the whole keeps `height` pixels.
 pub fn titled(
     title: &values::TitleArgs,
     view: Option<&ProjectView>,
     figure: &crate::study::figures::FigureInput,
+    kind: crate::study::annotations::FigureKind,
     text_px: f32,
     height: u32,
     build: impl Fn(u32) -> crate::draw::Frame,
 ) -> crate::draw::Frame {
     use crate::study::figures;
-    let lines = if title.wanted() {
-        figures::title_block_lines(
+    let mut lines = figure.captions(kind);
+    if title.wanted() {
+        lines.extend(figures::title_block_lines(
             title.title.as_deref(),
             view.map(|v| (v.name.as_str(), v.case.as_str())),
             figure,
             &crate::report::today(),
-        )
-    } else {
-        Vec::new()
-    };
+        ));
+    }
     figures::titled(&lines, text_px, height, build)
 }
 

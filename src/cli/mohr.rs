@@ -86,12 +86,19 @@ pub fn run(args: &MohrArgs) -> Result<String, CliError> {
         search,
         worst,
         envelope,
+        notes: view.as_ref().map(|v| v.notes.clone()).unwrap_or_default(),
         map_range: None,
     };
     let sizes = args.print.sizes(w, h);
-    let frame = super::titled(&args.title, view.as_ref(), &figure, sizes.text, h, |h| {
-        figures::mohr(&figure, w, h, sizes)
-    });
+    let frame = super::titled(
+        &args.title,
+        view.as_ref(),
+        &figure,
+        crate::study::annotations::FigureKind::Mohr,
+        sizes.text,
+        h,
+        |h| figures::mohr(&figure, w, h, sizes),
+    );
     export::write_figure(&args.out, &frame, &ProjectView::title(view.as_ref()))
         .map_err(anyhow::Error::from)?;
     Ok(format!("wrote {}\n", args.out.display()))

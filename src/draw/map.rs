@@ -6,6 +6,7 @@ use std::sync::Arc;
 use nalgebra::Vector3;
 
 use super::chart::{self, viridis};
+use super::place::{Label, Pinned, draw_notes, place_all};
 use super::{Anchor, Frame, Prim, Sizes, marker};
 use crate::format::{distinct_digits, sig};
 use crate::mechanics::search::{Cone, Measure, cone_normals};
@@ -29,6 +30,8 @@ pub struct MapMarks {
     pub plane_value: Option<f64>,
     /// The worst value.
     pub worst_value: Option<f64>,
+    /// The user's notes pinned to poles.
+    pub notes: Vec<Pinned<PlaneNormal>>,
 }
 
 /// What the map shows and in which unit and convention.
@@ -77,16 +80,20 @@ impl MapMeasure {
     }
 }
 
-/// Where the disc sits in a `width` × `height` figure: centre and radius in pixels.
+/// Where the disc sits in a `width` × `height` figure with text of `sizes`: centre and radius
+/// in pixels, below the four legend lines and the north label, with room for the colour bar's
+/// labels on the right and the south tick and the caution at the foot.
 #[must_use]
-pub fn disc_geometry(width: f32, height: f32) -> ([f32; 2], f32) {
-    // Leave room on the right for the colour bar and its labels at screen text sizes.
-    let r = (0.40 * height).min(0.30 * width);
-    ([0.08 * width + r, 0.5 * height + 0.02 * height], r)
+pub fn disc_geometry(width: f32, height: f32, sizes: Sizes) -> ([f32; 2], f32) {
+    let top = 16.0 * sizes.line + 4.0 * 1.45 * sizes.text + 1.6 * sizes.text;
+    let bottom = 2.8 * sizes.text;
+    let r = (0.5 * (height - top - bottom)).min(0.30 * width).max(8.0);
+    ([0.08 * width + r, top + r], r)
 }
 
 /// Pixel position of map point (X east, Y north).
-fn to_px(centre: [f32; 2], r: f32, xy: [f64; 2]) -> [f32; 2] {
+#[must_use]
+pub fn to_px(centre: [f32; 2], r: f32, xy: [f64; 2]) -> [f32; 2] {
     [centre[0] + xy[0] as f32 * r, centre[1] - xy[1] as f32 * r]
 }
 
@@ -107,7 +114,7 @@ pub fn map_frame(
         background: chart::BACKGROUND,
         prims: Vec::new(),
     };
-    let (centre, r) = disc_geometry(w, h);
+    let (centre, r) = disc_geometry(w, h, sizes);
     let (lo, hi) = marks.colour_range.or(map.range).unwrap_or((0.0, 1.0));
     // A uniform map (every plane alike) has one colour and one label, not an invented range.
     let uniform = hi - lo <= 1e-12 * lo.abs().max(hi.abs());
@@ -199,6 +206,8 @@ pub fn map_frame(
             }
         }
     }
+    // Mark labels, placed last around everything else.
+    let mut labels: Vec<Label> = Vec::new();
     // Marks: principal axes (white diamonds), current plane (disc), worst planes (triangles).
     for (i, d) in marks.principal.iter().enumerate() {
         if let Ok(n) = PlaneNormal::from_vector(*d) {
@@ -206,12 +215,14 @@ pub fn map_frame(
             frame
                 .prims
                 .push(marker(at, 5.0 * sizes.line, 4, chart::HALO));
-            text(
-                &mut frame,
-                [at[0] + 8.0 * sizes.line, at[1] - 8.0 * sizes.line],
-                format!("σ{}", i + 1),
-                Anchor::LeftCenter,
-            );
+            labels.push(Label {
+                point: at,
+                gap: 7.0 * sizes.line,
+                text: format!("σ{}", i + 1),
+                size: sizes.text,
+                color: chart::INK,
+                prefer: [1.0, -1.0],
+            });
         }
     }
     if let Some(n) = marks.plane {
@@ -219,12 +230,14 @@ pub fn map_frame(
         frame
             .prims
             .push(marker(at, 6.0 * sizes.line, 12, chart::CUT_PLANE));
-        text(
-            &mut frame,
-            [at[0] + 9.0 * sizes.line, at[1] + 9.0 * sizes.line],
-            "cut plane".into(),
-            Anchor::LeftCenter,
-        );
+        labels.push(Label {
+            point: at,
+            gap: 8.0 * sizes.line,
+            text: "cut plane".into(),
+            size: sizes.text,
+            color: chart::INK,
+            prefer: [1.0, 1.0],
+        });
     }
     for n in &marks.worst {
         let at = to_px(centre, r, project_pole(n));
@@ -354,5 +367,16 @@ pub fn map_frame(
         });
         y += sizes.text * 1.45;
     }
+    let notes: Vec<Pinned<[f32; 2]>> = marks
+        .notes
+        .iter()
+        .map(|n| Pinned {
+            pin: to_px(centre, r, project_pole(&n.pin)),
+            text: n.text.clone(),
+            offset: n.offset,
+        })
+        .collect();
+    draw_notes(&mut frame, &notes, sizes);
+    place_all(&mut frame, &labels, sizes.line);
     frame
 }

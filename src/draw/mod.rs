@@ -14,6 +14,7 @@ pub mod chart;
 pub mod egui_backend;
 pub mod map;
 pub mod mohr;
+pub mod place;
 pub mod png;
 pub mod svg;
 
@@ -292,23 +293,41 @@ pub fn render(scene: &Scene, camera: &Camera, width: f32, height: f32, sizes: Si
     }
     frame.prims.extend(near.into_iter().map(|i| i.prim));
 
-    push_labels(&mut frame, scene, &view, sizes);
+    // Handles, triad and legend go on top; labels are placed around them and the geometry.
+    let mut top = Frame {
+        prims: Vec::new(),
+        ..frame.clone()
+    };
     // Handles are grips for the pointer: always on top, labels included, so they can be seen
     // and grabbed from every view.
     for handle in &scene.handles {
         let p = view.project(&handle.at);
-        frame.prims.push(Prim::Polygon {
+        top.prims.push(Prim::Polygon {
             points: regular_polygon(pos(&p), handle.radius_px * sizes.line, 20),
             fill: handle.fill,
             outline: Some((handle.outline, 1.8 * sizes.line)),
         });
     }
     if scene.triad {
-        push_triad(&mut frame, &view, sizes);
+        push_triad(&mut top, &view, sizes);
     }
     if let Some(legend) = &scene.legend {
-        push_legend(&mut frame, legend, &view, sizes);
+        push_legend(&mut top, legend, &view, sizes);
     }
+    let notes: Vec<place::Pinned<Pos>> = scene
+        .notes
+        .iter()
+        .map(|n| place::Pinned {
+            pin: pos(&view.project(&n.pin)),
+            text: n.text.clone(),
+            offset: n.offset,
+        })
+        .collect();
+    place::draw_notes(&mut frame, &notes, sizes);
+    let mut placer = place::Placer::new(&frame);
+    placer.avoid(&top.prims);
+    push_labels(&mut frame, &mut placer, scene, &view, sizes);
+    frame.prims.append(&mut top.prims);
     frame
 }
 
@@ -413,25 +432,35 @@ fn push_arrow(
     }
 }
 
-fn push_labels(frame: &mut Frame, scene: &Scene, view: &ScreenFromWorld, sizes: Sizes) {
+fn push_labels(
+    frame: &mut Frame,
+    placer: &mut place::Placer,
+    scene: &Scene,
+    view: &ScreenFromWorld,
+    sizes: Sizes,
+) {
     let centre = view.project(&Point3::origin());
     for label in &scene.labels {
         let p = view.project(&label.at);
-        // Put the text on the side away from the picture's centre, so it runs off the arrow tip
-        // instead of across the arrow.
-        let (anchor, dx) = if p.x < centre.x - 1.0 {
-            (Anchor::RightCenter, -6.0)
-        } else {
-            (Anchor::LeftCenter, 6.0)
-        };
-        frame.prims.push(Prim::Text {
-            at: [p.x as f32 + dx * sizes.line, p.y as f32],
-            text: label.text.clone(),
-            size: sizes.text,
-            color: label.color,
-            anchor,
-            halo: true,
-        });
+        // First try the side away from the picture's centre, so the text runs off the arrow
+        // tip instead of back across the arrow.
+        let away = [(p.x - centre.x) as f32, (p.y - centre.y) as f32];
+        placer.draw(
+            &mut frame.prims,
+            &place::Label {
+                point: pos(&p),
+                gap: 6.0 * sizes.line,
+                text: label.text.clone(),
+                size: sizes.text,
+                color: label.color,
+                prefer: if away[0].abs() < 1.0 {
+                    [1.0, 0.0]
+                } else {
+                    away
+                },
+            },
+            sizes.line,
+        );
     }
 }
 

@@ -3,6 +3,7 @@
 //! axes with units and the sign convention. The same frame goes to the screen, SVG and PNG.
 
 use super::chart;
+use super::place::{Label, Pinned, draw_notes, place_all};
 use super::{Anchor, Frame, Prim, Sizes, marker};
 use crate::format::{dip_text, sig};
 use crate::mechanics::criteria::MohrCoulomb;
@@ -115,6 +116,8 @@ pub struct MohrFigure {
     pub worst_label: String,
     /// The Mohr–Coulomb envelope, when cohesion and friction angle are set.
     pub envelope: Option<Envelope>,
+    /// The user's notes pinned to (σn, τ) points, Pa, σn in the diagram's convention.
+    pub notes: Vec<Pinned<(f64, f64)>>,
 }
 
 /// Where the data sit in the picture: a linear map with the same scale on both axes, so that
@@ -363,6 +366,9 @@ pub fn mohr_frame(figure: &MohrFigure, width: u32, height: u32, sizes: Sizes) ->
         chart::INK,
     );
 
+    // Point labels, placed last around everything else.
+    let mut labels: Vec<Label> = Vec::new();
+
     // Circles.
     arc(&mut frame, &layout, &outer, 2.2 * sizes.line, chart::INK);
     for c in &inner {
@@ -376,14 +382,14 @@ pub fn mohr_frame(figure: &MohrFigure, width: u32, height: u32, sizes: Sizes) ->
             width: 2.0 * sizes.line,
             color: chart::INK,
         });
-        let dy = if i == 1 { -30.0 } else { -14.0 };
-        text(
-            &mut frame,
-            [at[0], at[1] + dy * sizes.line],
-            format!("σ{}", i + 1),
-            Anchor::Center,
-            chart::INK,
-        );
+        labels.push(Label {
+            point: [at[0], at[1] - 5.0 * sizes.line],
+            gap: 4.0 * sizes.line,
+            text: format!("σ{}", i + 1),
+            size: sizes.text,
+            color: chart::INK,
+            prefer: [0.0, -1.0],
+        });
     }
 
     // The envelope, clipped to the plot.
@@ -433,13 +439,14 @@ pub fn mohr_frame(figure: &MohrFigure, width: u32, height: u32, sizes: Sizes) ->
         frame
             .prims
             .push(marker(at, 6.5 * sizes.line, 16, chart::CUT_PLANE));
-        text(
-            &mut frame,
-            [at[0] + 10.0 * sizes.line, at[1] - 10.0 * sizes.line],
-            "cut plane".to_owned(),
-            Anchor::LeftCenter,
-            chart::CUT_PLANE,
-        );
+        labels.push(Label {
+            point: at,
+            gap: 8.0 * sizes.line,
+            text: "cut plane".to_owned(),
+            size: sizes.text,
+            color: chart::CUT_PLANE,
+            prefer: [1.0, -1.0],
+        });
     }
 
     // Title, conventions and key.
@@ -494,6 +501,17 @@ pub fn mohr_frame(figure: &MohrFigure, width: u32, height: u32, sizes: Sizes) ->
         });
         y += sizes.text * 1.45;
     }
+    let notes: Vec<Pinned<[f32; 2]>> = figure
+        .notes
+        .iter()
+        .map(|n| Pinned {
+            pin: layout.to_px(n.pin.0, n.pin.1),
+            text: n.text.clone(),
+            offset: n.offset,
+        })
+        .collect();
+    draw_notes(&mut frame, &notes, sizes);
+    place_all(&mut frame, &labels, sizes.line);
     frame
 }
 

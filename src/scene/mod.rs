@@ -279,6 +279,8 @@ pub struct Scene {
     pub triad: bool,
     /// World units per pascal for arrow lengths (0 for a zero tensor).
     pub arrow_scale_per_pa: f64,
+    /// The user's notes pinned to world points (set by the caller after building).
+    pub notes: Vec<crate::draw::place::Pinned<Point3<f64>>>,
 }
 
 impl Scene {

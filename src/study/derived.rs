@@ -2,6 +2,7 @@
 //! project: its tensor, the analysis in the display convention and the worst-plane search.
 //! Before this, each panel searched for itself, two or three times a frame.
 
+use super::annotations::Annotation;
 use super::model::{CaseInput, FaultPlane, MeasureChoice, Project};
 use crate::mechanics::criteria::{self, FaultCheck, Verdict};
 use crate::mechanics::search::{SearchError, SearchResult, SearchSettings, worst_plane};
@@ -43,6 +44,8 @@ pub struct Derived {
     pub input: Option<CaseInput>,
     /// Why the tensor could not be formed, if so (the zero tensor is shown meanwhile).
     pub problem: Option<String>,
+    /// Its captions and pinned notes, on every figure.
+    pub notes: Vec<Annotation>,
 }
 
 impl Derived {
@@ -83,6 +86,12 @@ impl Derived {
             })
             .collect();
         Self {
+            notes: project
+                .annotations
+                .iter()
+                .filter(|a| a.case == name)
+                .cloned()
+                .collect(),
             faults,
             input: project.case(&name).map(|c| c.input.clone()),
             verdicts,

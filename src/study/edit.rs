@@ -1,6 +1,7 @@
 //! Every change of a project as a value. The window sends each through one path (one undo step
 //! each); the command line's `project` subcommands use the same model functions.
 
+use super::annotations::Annotation;
 use super::model::{
     CaseInput, Combination, FaultPlane, InputKind, LoadCase, Material, MeasureChoice, Project,
     StudyError, Term, TypedTensor, check_name,
@@ -24,6 +25,8 @@ pub enum Edit {
     SetMaterial(Material),
     /// The named fault planes.
     SetFaults(Vec<FaultPlane>),
+    /// Every caption and pinned note (each names its case and figure).
+    SetAnnotations(Vec<Annotation>),
     /// The unit every stress is shown and typed in.
     SetUnit(StressUnit),
     /// The sign convention every stress is shown and typed in.
@@ -129,6 +132,20 @@ impl Edit {
                     f.normal()?;
                 }
                 p.faults.clone_from(faults);
+            }
+            Self::SetAnnotations(annotations) => {
+                for a in annotations {
+                    if !p.name_used(&a.case) {
+                        return Err(StudyError::Unknown(a.case.clone()));
+                    }
+                    if a.pin.is_some_and(|pin| pin.figure() != a.figure) {
+                        return Err(StudyError::Invalid(format!(
+                            "a note on the {} is pinned to another figure's point",
+                            a.figure.label()
+                        )));
+                    }
+                }
+                p.annotations.clone_from(annotations);
             }
             Self::SetPlane(plane) => p.plane = *plane,
             Self::SetMeasure(choice) => p.measure = *choice,
@@ -308,6 +325,9 @@ fn rename(p: &mut Project, from: &str, to: &str) -> Result<(), StudyError> {
     if p.active == from {
         to.clone_into(&mut p.active);
     }
+    for a in p.annotations.iter_mut().filter(|a| a.case == from) {
+        to.clone_into(&mut a.case);
+    }
     Ok(())
 }
 
@@ -334,6 +354,8 @@ fn delete(p: &mut Project, name: &str) -> Result<(), StudyError> {
     } else {
         return Err(StudyError::Unknown(name.to_owned()));
     }
+    // Its captions and notes go with it (undo brings them back).
+    p.annotations.retain(|a| a.case != name);
     if shown.as_deref() == Some(name) {
         // Show the first load case instead.
         p.active = p

@@ -3,11 +3,13 @@
 //! `figure`, `map` and `mohr` subcommands all draw through these, so the same project and
 //! options give the same picture and the same titles everywhere.
 
+use super::annotations::{Annotation, FigureKind, Pin};
 use super::derived::Derived;
 use crate::draw::Frame;
 use crate::draw::camera::Camera;
 use crate::draw::map::{MapMarks, MapMeasure, map_frame};
 use crate::draw::mohr::{Envelope, MohrFigure, MohrPoint, mohr_frame, worst_label, worst_points};
+use crate::draw::place::Pinned;
 use crate::mechanics::criteria::MohrCoulomb;
 use crate::mechanics::mohr::MohrCircles;
 use crate::mechanics::search::{Measure, SearchResult, SearchSettings};
@@ -35,6 +37,8 @@ pub struct FigureInput {
     /// The orientation map's colours span this range (the measure's own values: Pa or
     /// dimensionless) instead of the data's, so one extreme value does not flatten the map.
     pub map_range: Option<(f64, f64)>,
+    /// The shown case's captions and pinned notes (each names its figure).
+    pub notes: Vec<Annotation>,
 }
 
 impl FigureInput {
@@ -59,7 +63,26 @@ impl FigureInput {
             worst: d.worst.as_ref().ok().cloned(),
             envelope,
             map_range: None,
+            notes: d.notes.clone(),
         }
+    }
+
+    /// The caption lines of `figure`.
+    #[must_use]
+    pub fn captions(&self, figure: FigureKind) -> Vec<String> {
+        self.notes
+            .iter()
+            .filter(|a| a.figure == figure && a.is_caption() && !a.text.trim().is_empty())
+            .map(|a| a.text.trim().to_owned())
+            .collect()
+    }
+
+    /// The pins of `figure`'s notes with their words and offsets.
+    fn pins(&self, figure: FigureKind) -> impl Iterator<Item = (Pin, &Annotation)> {
+        self.notes
+            .iter()
+            .filter(move |a| a.figure == figure)
+            .filter_map(|a| a.pin.map(|p| (p, a)))
     }
 
     /// The worst planes' normals (empty when none are marked).
@@ -112,8 +135,25 @@ pub fn view_3d(
         faces,
         worst_planes: &worst,
     };
-    let built = crate::scene::Scene::build(&scene, &camera.towards_eye());
+    let mut built = crate::scene::Scene::build(&scene, &camera.towards_eye());
+    built.notes = space_notes(&input.notes);
     crate::draw::render(&built, camera, width as f32, height as f32, sizes)
+}
+
+/// The 3D view's notes among `notes`, pinned to world points.
+#[must_use]
+pub fn space_notes(notes: &[Annotation]) -> Vec<Pinned<nalgebra::Point3<f64>>> {
+    notes
+        .iter()
+        .filter_map(|a| match a.pin {
+            Some(Pin::Space { at }) => Some(Pinned {
+                pin: nalgebra::Point3::from(at),
+                text: a.text.clone(),
+                offset: a.offset,
+            }),
+            _ => None,
+        })
+        .collect()
 }
 
 /// The orientation map of `search` with the principal directions, the cut plane and the worst
@@ -138,6 +178,17 @@ pub fn map(
         plane: input.plane,
         worst: input.worst_normals(),
         cone: input.worst.as_ref().and_then(|r| r.cone),
+        notes: input
+            .pins(FigureKind::Map)
+            .filter_map(|(pin, a)| match pin {
+                Pin::Pole { normal } => Some(Pinned {
+                    pin: PlaneNormal::from_vector(nalgebra::Vector3::from(normal)).ok()?,
+                    text: a.text.clone(),
+                    offset: a.offset,
+                }),
+                _ => None,
+            })
+            .collect(),
     };
     let what = MapMeasure {
         measure: search.measure,
@@ -166,6 +217,20 @@ pub fn mohr_figure(input: &FigureInput) -> MohrFigure {
         worst,
         worst_label,
         envelope: input.envelope,
+        notes: input
+            .pins(FigureKind::Mohr)
+            .filter_map(|(pin, a)| match pin {
+                Pin::Mohr {
+                    normal_stress_pa,
+                    shear_stress_pa,
+                } => Some(Pinned {
+                    pin: (input.convention.sign() * normal_stress_pa, shear_stress_pa),
+                    text: a.text.clone(),
+                    offset: a.offset,
+                }),
+                _ => None,
+            })
+            .collect(),
     }
 }
 

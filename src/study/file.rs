@@ -17,8 +17,14 @@
 //! `"faults": [{ "name": "F1", "dip_deg": 60, "dip_direction_deg": 120 }]` lists named planes
 //! checked as faults.
 //!
-//! `active`, `plane`, `measure`, `material` and `faults` were added within version 1 and are optional (the first
-//! case, the x face and the shear measure when absent), so files written before them load.
+//! `"annotations": [{ "case": "ULS", "figure": "mohr", "text": "…", "pin": { "on": "mohr",
+//! "normal_stress_pa": -2e7, "shear_stress_pa": 1e7 }, "offset": [1.5, -2] }]` holds captions
+//! (no `pin`) and notes pinned to a figure's point (`"on"`: `mohr`, `pole` with a `normal`,
+//! `space` with an `at`).
+//!
+//! `active`, `plane`, `measure`, `material`, `faults` and `annotations` were added within
+//! version 1 and are optional (the first case, the x face and the shear measure when absent),
+//! so files written before them load.
 
 use std::path::{Path, PathBuf};
 
@@ -30,7 +36,7 @@ use super::model::{Project, StudyError};
 pub const FORMAT_VERSION: u32 = 1;
 
 /// Top-level keys this version knows; others are ignored with a warning.
-const KNOWN_KEYS: [&str; 12] = [
+const KNOWN_KEYS: [&str; 13] = [
     "format_version",
     "name",
     "unit",
@@ -43,6 +49,7 @@ const KNOWN_KEYS: [&str; 12] = [
     "measure",
     "material",
     "faults",
+    "annotations",
 ];
 
 #[derive(Serialize, Deserialize)]

@@ -564,6 +564,9 @@ pub struct Project {
     /// cohesion and friction.
     #[serde(default)]
     pub faults: Vec<FaultPlane>,
+    /// Captions and pinned notes on the figures, per load case or combination.
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
+    pub annotations: Vec<super::annotations::Annotation>,
 }
 
 fn default_unit() -> String {
@@ -611,6 +614,7 @@ impl Project {
             measure: MeasureChoice::default(),
             material: Material::default(),
             faults: Vec::new(),
+            annotations: Vec::new(),
         }
     }
 

@@ -3,13 +3,16 @@
 //! plane.
 
 use crate::draw::egui_backend;
-use crate::draw::map::{MapMeasure, disc_geometry};
+use crate::draw::map::{MapMeasure, disc_geometry, to_px};
 use crate::format::{dip_text, sig};
 use crate::mechanics::PlaneNormal;
 use crate::mechanics::search::{Measure, WorstCondition};
-use crate::mechanics::stereonet::pole_at;
+use crate::mechanics::stereonet::{pole_at, project_pole};
 use crate::session::{Coalesce, Command};
+use crate::study::annotations::{Annotation, FigureKind, Pin};
 use crate::study::{Derived, Edit, MeasureChoice};
+
+use super::notes_panel;
 
 /// Value text for a measure.
 fn value_text(measure: Measure, v: f64, d: &Derived) -> String {
@@ -204,10 +207,11 @@ fn map_measure(d: &Derived) -> MapMeasure {
 }
 
 /// The orientation map tab.
-pub fn map_ui(ui: &mut egui::Ui, d: &Derived, out: &mut Vec<Command>) {
+pub fn map_ui(ui: &mut egui::Ui, d: &Derived, notes: &[Annotation], out: &mut Vec<Command>) {
+    notes_panel::notes_bar(ui, &d.name, FigureKind::Map, notes, out);
     let search = d.search;
     let size = ui.available_size().max(egui::vec2(200.0, 160.0));
-    let (rect, response) = ui.allocate_exact_size(size, egui::Sense::click());
+    let (rect, response) = ui.allocate_exact_size(size, egui::Sense::click_and_drag());
     let frame = map_figure(
         d,
         128,
@@ -220,7 +224,7 @@ pub fn map_ui(ui: &mut egui::Ui, d: &Derived, out: &mut Vec<Command>) {
     ui.painter_at(rect)
         .extend(egui_backend::shapes(&frame, rect, ui.ctx()));
 
-    let (centre, r) = disc_geometry(rect.width(), rect.height());
+    let (centre, r) = disc_geometry(rect.width(), rect.height(), crate::draw::Sizes::default());
     let to_map = |pos: egui::Pos2| {
         let x = f64::from((pos.x - rect.min.x - centre[0]) / r);
         let y = f64::from(-(pos.y - rect.min.y - centre[1]) / r);
@@ -244,7 +248,31 @@ pub fn map_ui(ui: &mut egui::Ui, d: &Derived, out: &mut Vec<Command>) {
                 .to_owned()
         }
     });
-    if response.clicked()
+    let shown = notes_panel::on_screen(&d.name, FigureKind::Map, notes, |pin| match pin {
+        Pin::Pole { normal } => PlaneNormal::from_vector(nalgebra::Vector3::from(*normal))
+            .ok()
+            .map(|n| to_px(centre, r, project_pole(&n))),
+        _ => None,
+    });
+    let pin_at = |at: [f32; 2]| {
+        to_map(rect.min + egui::vec2(at[0], at[1])).map(|n| Pin::Pole {
+            normal: n.vector().into(),
+        })
+    };
+    let used = notes_panel::handle_pointer(
+        ui,
+        &response,
+        rect,
+        &d.name,
+        FigureKind::Map,
+        notes,
+        &shown,
+        crate::draw::Sizes::default().text,
+        pin_at,
+        out,
+    );
+    if !used
+        && response.clicked()
         && let Some(n) = response.interact_pointer_pos().and_then(to_map)
     {
         out.push(Command::Edit {

@@ -9,6 +9,7 @@ pub mod file_prompt;
 pub mod input_panel;
 pub mod map_panel;
 pub mod mohr_panel;
+pub mod notes_panel;
 pub mod plane_panel;
 pub mod results_panel;
 pub mod stress_panel;

@@ -8,8 +8,11 @@ use crate::draw::{Sizes, egui_backend};
 use crate::format::sig;
 use crate::mechanics::search::Measure;
 use crate::session::{Coalesce, Command, Settings};
+use crate::study::annotations::{Annotation, FigureKind, Pin};
 use crate::study::figures::FigureInput;
 use crate::study::{Derived, Edit};
+
+use super::notes_panel;
 
 /// The figure for the current state, as the tab and its export show it.
 #[must_use]
@@ -32,7 +35,13 @@ pub fn point_near<'a>(
 }
 
 /// The Mohr tab.
-pub fn mohr_ui(ui: &mut egui::Ui, d: &Derived, settings: &mut Settings, out: &mut Vec<Command>) {
+pub fn mohr_ui(
+    ui: &mut egui::Ui,
+    d: &Derived,
+    notes: &[Annotation],
+    settings: &mut Settings,
+    out: &mut Vec<Command>,
+) {
     ui.horizontal_wrapped(|ui| {
         ui.checkbox(&mut settings.mohr_envelope, "Mohr–Coulomb envelope")
             .on_hover_text(
@@ -49,6 +58,7 @@ pub fn mohr_ui(ui: &mut egui::Ui, d: &Derived, settings: &mut Settings, out: &mu
             }
         }
     });
+    notes_panel::notes_bar(ui, &d.name, FigureKind::Mohr, notes, out);
     let figure = figure(d, settings);
     let size = ui.available_size().max(egui::vec2(240.0, 180.0));
     let (rect, response) = ui.allocate_exact_size(size, egui::Sense::click_and_drag());
@@ -100,6 +110,39 @@ pub fn mohr_ui(ui: &mut egui::Ui, d: &Derived, settings: &mut Settings, out: &mu
         None => "Mohr circles: hover a point to name its plane; click or drag in the shaded region to move the cut plane.".to_owned(),
     };
     let response = response.on_hover_text(text);
+
+    // Notes: pinned at (σn, τ) tension positive, drawn in the shown convention.
+    let sign = d.convention.sign();
+    let shown = notes_panel::on_screen(&d.name, FigureKind::Mohr, notes, |pin| match pin {
+        Pin::Mohr {
+            normal_stress_pa,
+            shear_stress_pa,
+        } => Some(layout.to_px(sign * normal_stress_pa, *shear_stress_pa)),
+        _ => None,
+    });
+    let pin_at = |at: [f32; 2]| {
+        layout.contains(at).then(|| {
+            let (sn, tau) = layout.from_px(at);
+            Pin::Mohr {
+                normal_stress_pa: sign * sn,
+                shear_stress_pa: tau.max(0.0),
+            }
+        })
+    };
+    if notes_panel::handle_pointer(
+        ui,
+        &response,
+        rect,
+        &d.name,
+        FigureKind::Mohr,
+        notes,
+        &shown,
+        Sizes::default().text,
+        pin_at,
+        out,
+    ) {
+        return;
+    }
 
     let dragging = response.dragged_by(egui::PointerButton::Primary)
         && response.drag_delta() != egui::Vec2::ZERO;

@@ -6,7 +6,14 @@ use crate::draw::{Sizes, egui_backend, render};
 use crate::mechanics::PlaneNormal;
 use crate::scene::{FaceChoice, Layers, NORMAL_LENGTH, Scene, SceneInput};
 use crate::session::{Coalesce, Command, Settings};
+use crate::study::annotations::{Annotation, FigureKind, Pin};
 use crate::study::{Derived, Edit};
+
+use super::notes_panel;
+
+/// Radius of the sphere new notes in the 3D view are pinned on, world units (inside the
+/// cube's corners, outside its face centres).
+const NOTE_SPHERE: f64 = 0.6;
 
 /// How close (pixels) a press must be to the normal's handle to grab it.
 pub const HANDLE_GRAB_PX: f32 = 12.0;
@@ -58,7 +65,14 @@ pub fn worst_normals(d: &Derived, settings: &Settings) -> Vec<PlaneNormal> {
 
 /// Draws the toolbar and the view; camera moves change `settings.camera` directly (the view
 /// is not part of undo).
-pub fn view_ui(ui: &mut egui::Ui, d: &Derived, settings: &mut Settings, out: &mut Vec<Command>) {
+pub fn view_ui(
+    ui: &mut egui::Ui,
+    d: &Derived,
+    notes: &[Annotation],
+    settings: &mut Settings,
+    out: &mut Vec<Command>,
+) {
+    notes_panel::notes_bar(ui, &d.name, FigureKind::View3d, notes, out);
     ui.horizontal_wrapped(|ui| {
         for (i, preset) in ViewPreset::ALL.into_iter().enumerate() {
             let text = match preset {
@@ -135,8 +149,38 @@ pub fn view_ui(ui: &mut egui::Ui, d: &Derived, settings: &mut Settings, out: &mu
         "3D view: drag to orbit, right-drag to pan, scroll to zoom, double-click to reset. Drag the white handle at the tip of n to turn the cut plane. Keys 1–7: view presets.",
     );
 
+    // Notes: pinned to world points on a sphere inside the cube's corners.
+    let shown = notes_panel::on_screen(&d.name, FigureKind::View3d, notes, |pin| match pin {
+        Pin::Space { at } => {
+            let p = view.project(&nalgebra::Point3::from(*at));
+            Some([p.x as f32, p.y as f32])
+        }
+        _ => None,
+    });
+    let pin_at = |at: [f32; 2]| {
+        view.sphere_direction_at(f64::from(at[0]), f64::from(at[1]), NOTE_SPHERE)
+            .map(|d| Pin::Space {
+                at: (d * NOTE_SPHERE).into(),
+            })
+    };
+    let on_notes = !holding
+        && notes_panel::handle_pointer(
+            ui,
+            &response,
+            rect,
+            &d.name,
+            FigureKind::View3d,
+            notes,
+            &shown,
+            Sizes::default().text,
+            pin_at,
+            out,
+        );
+
     let serial = super::drag_serial(ui, &response);
-    if holding && response.dragged_by(egui::PointerButton::Primary) {
+    if on_notes {
+        // The pointer pins or moves a note: the camera and the plane stay.
+    } else if holding && response.dragged_by(egui::PointerButton::Primary) {
         if let Some(pos) = response.interact_pointer_pos() {
             let local = pos - rect.min;
             if let Some(direction) =
@@ -176,11 +220,12 @@ pub fn view_ui(ui: &mut egui::Ui, d: &Derived, settings: &mut Settings, out: &mu
     }
 
     // Rebuild only when the camera moved this frame (faces facing the viewer follow the orbit).
-    let scene = if settings.camera == camera_before {
+    let mut scene = if settings.camera == camera_before {
         scene
     } else {
         Scene::build(&input(settings), &settings.camera.towards_eye())
     };
+    scene.notes = crate::study::figures::space_notes(&d.notes);
     let frame = render(
         &scene,
         &settings.camera,
