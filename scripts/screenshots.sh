@@ -17,8 +17,10 @@ $bin figure "${demo[@]}" --layers ellipsoid,axes,labels,legend,triad \
     --view iso --perspective --size 1100x750 --out screenshots/ellipsoid-principal-axes.png
 $bin map "${demo[@]}" --measure shear --size 1100x750 \
     --out screenshots/orientation-map-shear.png
+# The annotated figure: the project's caption and pinned note on ULS 1, and the title block.
 $bin mohr "${demo[@]}" --measure mohr-coulomb --cohesion 10 \
-    --friction-angle 30 --size 1100x750 --out screenshots/mohr-circles.png
+    --friction-angle 30 --size 1100x750 --title-block --title "Example bracket check" \
+    --out screenshots/mohr-circles.png
 $bin figure "${demo[@]}" --measure shear \
     --layers cube,plane,axes,labels,legend,triad --view iso --size 1100x750 \
     --out screenshots/worst-planes-3d.png

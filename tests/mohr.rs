@@ -218,7 +218,17 @@ fn cli_writes_svg_and_png() {
     assert!(text.contains("cut plane"));
     // σ1 = 136 MPa of tension is beyond the envelope's apex (c / tan φ = 17.3 MPa): the worst
     // planes are those without frictional capacity, and the key says so.
-    assert!(text.contains("worst planes (mohr-coulomb: effective tension"));
+    // The key's lines are wrapped to the figure's width: read its words in order.
+    let words: Vec<&str> = text
+        .split("</text>")
+        .filter_map(|t| t.rsplit_once('>').map(|(_, w)| w))
+        .collect();
+    assert!(
+        words
+            .join(" ")
+            .contains("worst planes (mohr-coulomb: effective tension"),
+        "{words:?}"
+    );
     assert!(text.contains(&planewise::draw::mohr::ENVELOPE.hex()));
     let png = dir.join("mohr.png");
     let out = common::planewise(&[

@@ -143,7 +143,7 @@ impl MohrLayout {
         let k = sizes.line;
         let plot = [
             78.0 * k,
-            5.6 * 1.45 * sizes.text + 20.0 * k,
+            (legend(figure, width, sizes).len() as f32 + 1.6) * 1.45 * sizes.text + 20.0 * k,
             width - 28.0 * k,
             height - 52.0 * k,
         ];
@@ -290,7 +290,6 @@ pub fn mohr_frame(figure: &MohrFigure, width: u32, height: u32, sizes: Sizes) ->
     }
 
     // Grid and tick labels.
-    let value = |pa: f64| sig(unit.from_pa(pa), 4);
     let x_ticks = chart::stress_ticks(layout.normal_min_pa, layout.normal_max_pa, 7.0, unit);
     for (&x, label) in x_ticks.iter().zip(tick_labels(&x_ticks, unit)) {
         let [px, _] = layout.to_px(x, 0.0);
@@ -450,6 +449,39 @@ pub fn mohr_frame(figure: &MohrFigure, width: u32, height: u32, sizes: Sizes) ->
     }
 
     // Title, conventions and key.
+    let x0 = 12.0 * sizes.line;
+    let mut y = 16.0 * sizes.line;
+    for (line, color) in legend(figure, w, sizes) {
+        frame.prims.push(Prim::Text {
+            at: [x0, y],
+            text: line,
+            size: sizes.text,
+            color,
+            anchor: Anchor::LeftCenter,
+            halo: false,
+        });
+        y += sizes.text * 1.45;
+    }
+    let notes: Vec<Pinned<[f32; 2]>> = figure
+        .notes
+        .iter()
+        .map(|n| Pinned {
+            pin: layout.to_px(n.pin.0, n.pin.1),
+            text: n.text.clone(),
+            offset: n.offset,
+        })
+        .collect();
+    draw_notes(&mut frame, &notes, sizes);
+    place_all(&mut frame, &labels, sizes.line);
+    frame
+}
+
+/// The key above the diagram, each line in its colour, broken to fit `width` pixels.
+fn legend(figure: &MohrFigure, width: f32, sizes: Sizes) -> Vec<(String, Rgba)> {
+    let unit = figure.unit;
+    let sym = unit.symbol();
+    let convention = figure.circles.convention;
+    let value = |pa: f64| sig(unit.from_pa(pa), 4);
     let [s1, s2, s3] = figure.circles.principal_pa;
     let mut lines = vec![
         format!(
@@ -488,31 +520,17 @@ pub fn mohr_frame(figure: &MohrFigure, width: u32, height: u32, sizes: Sizes) ->
             }
         ));
     }
-    let x0 = 12.0 * sizes.line;
-    let mut y = 16.0 * sizes.line;
-    for (i, line) in lines.into_iter().enumerate() {
-        frame.prims.push(Prim::Text {
-            at: [x0, y],
-            text: line,
-            size: sizes.text,
-            color: if i == 3 { ENVELOPE } else { chart::INK },
-            anchor: Anchor::LeftCenter,
-            halo: false,
-        });
-        y += sizes.text * 1.45;
-    }
-    let notes: Vec<Pinned<[f32; 2]>> = figure
-        .notes
+    let room = width - 24.0 * sizes.line;
+    lines
         .iter()
-        .map(|n| Pinned {
-            pin: layout.to_px(n.pin.0, n.pin.1),
-            text: n.text.clone(),
-            offset: n.offset,
+        .enumerate()
+        .flat_map(|(i, line)| {
+            let color = if i == 3 { ENVELOPE } else { chart::INK };
+            super::place::wrap(line, room, sizes.text)
+                .into_iter()
+                .map(move |l| (l, color))
         })
-        .collect();
-    draw_notes(&mut frame, &notes, sizes);
-    place_all(&mut frame, &labels, sizes.line);
-    frame
+        .collect()
 }
 
 /// Whether the largest Mohr circle reaches above the Mohr–Coulomb line, i.e. some plane's

@@ -112,6 +112,28 @@ pub fn text_width(text: &str, size: f32) -> f32 {
     text.chars().map(advance_em).sum::<f32>() * size
 }
 
+/// `text` broken at spaces into lines that each fit `width` pixels at font size `size` (a word
+/// longer than the width keeps a line of its own).
+#[must_use]
+pub fn wrap(text: &str, width: f32, size: f32) -> Vec<String> {
+    let mut out = Vec::new();
+    let mut current = String::new();
+    for word in text.split(' ') {
+        let candidate = if current.is_empty() {
+            word.to_owned()
+        } else {
+            format!("{current} {word}")
+        };
+        if !current.is_empty() && text_width(&candidate, size) > width {
+            out.push(std::mem::replace(&mut current, word.to_owned()));
+        } else {
+            current = candidate;
+        }
+    }
+    out.push(current);
+    out
+}
+
 /// The box `text` takes when drawn at `at` with `anchor` at font size `size`: the advance
 /// width by the line's height (1.2 em, centred on the middle line).
 #[must_use]
@@ -409,6 +431,29 @@ impl Pinned<Pos> {
         )
     }
 
+    /// The same note with its offset changed as little as needed for its text to lie inside a
+    /// `width` × `height` picture (a note dragged or pinned near an edge stays readable).
+    #[must_use]
+    pub fn inside(&self, width: f32, height: f32, size: f32) -> Self {
+        let rect = self.rect(size);
+        let shift = |lo: f32, hi: f32, limit: f32| {
+            if hi - lo > limit || lo < 0.0 {
+                -lo
+            } else if hi > limit {
+                limit - hi
+            } else {
+                0.0
+            }
+        };
+        let dx = shift(rect.min[0], rect.max[0], width);
+        let dy = shift(rect.min[1], rect.max[1], height);
+        Self {
+            pin: self.pin,
+            text: self.text.clone(),
+            offset: [self.offset[0] + dx / size, self.offset[1] + dy / size],
+        }
+    }
+
     fn one_line(&self) -> String {
         self.text.split_whitespace().collect::<Vec<_>>().join(" ")
     }
@@ -418,6 +463,7 @@ impl Pinned<Pos> {
 /// away from it, and the text with a halo.
 pub fn draw_notes(frame: &mut Frame, notes: &[Pinned<Pos>], sizes: super::Sizes) {
     for note in notes {
+        let note = &note.inside(frame.width, frame.height, sizes.text);
         let rect = note.rect(sizes.text);
         let end = rect.nearest(note.pin);
         if (end[0] - note.pin[0]).hypot(end[1] - note.pin[1]) > 0.4 * sizes.text {

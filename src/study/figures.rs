@@ -303,29 +303,6 @@ pub fn title_block_lines(
     lines
 }
 
-/// `lines` broken at spaces so each fits `width` pixels at text `size` (DejaVu Sans averages
-/// about 0.56 em a character).
-#[must_use]
-pub fn wrap_lines(lines: &[String], width: f32, size: f32) -> Vec<String> {
-    let max = ((width - size) / (0.56 * size)).max(10.0) as usize;
-    let mut out = Vec::new();
-    for line in lines {
-        let mut current = String::new();
-        for word in line.split(' ') {
-            let len = current.chars().count() + word.chars().count() + 1;
-            if !current.is_empty() && len > max {
-                out.push(std::mem::take(&mut current));
-            }
-            if !current.is_empty() {
-                current.push(' ');
-            }
-            current.push_str(word);
-        }
-        out.push(current);
-    }
-    out
-}
-
 /// Pixels a title block of `lines` takes below the picture at text `size`, with room left for
 /// the two-line caution under it.
 #[must_use]
@@ -372,7 +349,10 @@ pub fn titled(lines: &[String], text_px: f32, height: u32, build: impl Fn(u32) -
     }
     let size = 0.85 * text_px;
     let width = build(16).width;
-    let lines = wrap_lines(lines, width, size);
+    let lines: Vec<String> = lines
+        .iter()
+        .flat_map(|l| crate::draw::place::wrap(l, width - size, size))
+        .collect();
     let block = title_block_height(lines.len(), size).ceil() as u32;
     let picture = build(height.saturating_sub(block).max(16));
     with_title_block(&picture, &lines, size, height as f32)

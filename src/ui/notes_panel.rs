@@ -158,8 +158,13 @@ pub fn handle_pointer(
 ) -> bool {
     let local = |p: egui::Pos2| [p.x - rect.min.x, p.y - rect.min.y];
     let grabbed_id = response.id.with("note-grab");
+    // As drawn: kept inside the picture.
+    let drawn: Vec<(usize, Pinned<Pos>)> = shown
+        .iter()
+        .map(|(i, n)| (*i, n.inside(rect.width(), rect.height(), text_px)))
+        .collect();
     let over_note = |p: Pos| {
-        shown
+        drawn
             .iter()
             .find(|(_, n)| n.rect(text_px).grown(3.0).contains(p))
             .map(|(i, n)| {
