@@ -310,8 +310,6 @@ pub fn map_frame(
         );
     }
     // Title and conventions.
-    let x0 = 12.0 * sizes.line;
-    let mut y = 16.0 * sizes.line;
     let blank = if what.measure.uses_friction() {
         "; blank: undefined (no frictional capacity)"
     } else {
@@ -322,7 +320,7 @@ pub fn map_frame(
     } else {
         "▲ worst planes"
     };
-    for line in [
+    let lines = [
         what.title(),
         "Poles to planes, lower-hemisphere equal-area projection; x = east, y = north, z = up"
             .to_owned(),
@@ -356,25 +354,16 @@ pub fn map_frame(
                 .worst_value
                 .map_or_else(String::new, |v| format!(": {}", what.value_text(v, 4)))
         ),
-    ] {
-        frame.prims.push(Prim::Text {
-            at: [x0, y],
-            text: line,
-            size: sizes.text,
-            color: chart::INK,
-            anchor: Anchor::LeftCenter,
-            halo: false,
-        });
-        y += sizes.text * 1.45;
-    }
+    ];
+    chart::key(
+        &mut frame,
+        lines.into_iter().map(|l| (l, chart::INK)),
+        sizes,
+    );
     let notes: Vec<Pinned<[f32; 2]>> = marks
         .notes
         .iter()
-        .map(|n| Pinned {
-            pin: to_px(centre, r, project_pole(&n.pin)),
-            text: n.text.clone(),
-            offset: n.offset,
-        })
+        .map(|n| n.pinned_at(|p| to_px(centre, r, project_pole(p))))
         .collect();
     draw_notes(&mut frame, &notes, sizes);
     place_all(&mut frame, &labels, sizes.line);

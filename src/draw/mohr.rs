@@ -449,27 +449,11 @@ pub fn mohr_frame(figure: &MohrFigure, width: u32, height: u32, sizes: Sizes) ->
     }
 
     // Title, conventions and key.
-    let x0 = 12.0 * sizes.line;
-    let mut y = 16.0 * sizes.line;
-    for (line, color) in legend(figure, w, sizes) {
-        frame.prims.push(Prim::Text {
-            at: [x0, y],
-            text: line,
-            size: sizes.text,
-            color,
-            anchor: Anchor::LeftCenter,
-            halo: false,
-        });
-        y += sizes.text * 1.45;
-    }
+    chart::key(&mut frame, legend(figure, w, sizes), sizes);
     let notes: Vec<Pinned<[f32; 2]>> = figure
         .notes
         .iter()
-        .map(|n| Pinned {
-            pin: layout.to_px(n.pin.0, n.pin.1),
-            text: n.text.clone(),
-            offset: n.offset,
-        })
+        .map(|n| n.pinned_at(|&(sn, tau)| layout.to_px(sn, tau)))
         .collect();
     draw_notes(&mut frame, &notes, sizes);
     place_all(&mut frame, &labels, sizes.line);

@@ -407,6 +407,17 @@ pub struct Pinned<P> {
     pub offset: [f32; 2],
 }
 
+impl<P> Pinned<P> {
+    /// The same note pinned at `f` of its pin (a figure's coordinates to pixels).
+    pub fn pinned_at<Q>(&self, f: impl Fn(&P) -> Q) -> Pinned<Q> {
+        Pinned {
+            pin: f(&self.pin),
+            text: self.text.clone(),
+            offset: self.offset,
+        }
+    }
+}
+
 /// Notes' colour: a dark violet no data mark uses.
 pub const NOTE: Rgba = Rgba::rgb(88, 40, 130);
 
