@@ -324,7 +324,7 @@ pub fn render(scene: &Scene, camera: &Camera, width: f32, height: f32, sizes: Si
         })
         .collect();
     place::draw_notes(&mut frame, &notes, sizes);
-    let mut placer = place::Placer::new(&frame);
+    let mut placer = place::Placer::new(&frame, sizes.line);
     placer.avoid(&top.prims);
     push_labels(&mut frame, &mut placer, scene, &view, sizes);
     frame.prims.append(&mut top.prims);

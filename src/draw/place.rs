@@ -234,6 +234,8 @@ struct Stroke {
     a: Pos,
     b: Pos,
     bounds: Rect,
+    /// What crossing it costs: more for thick strokes (arrows) than thin ones (edges, grid).
+    weight: f32,
 }
 
 /// Eight directions around a point, as unit screen vectors, starting at "right" and turning
@@ -259,14 +261,18 @@ pub struct Placer {
     taken: Vec<Rect>,
     strokes: Vec<Stroke>,
     bounds: Rect,
+    /// The picture's line-width multiplier ([`super::Sizes::line`]).
+    scale: f32,
 }
 
 impl Placer {
-    /// A placer for a picture of `frame`'s size that keeps clear of the texts already in it
-    /// and avoids crossing its lines and small polygons (arrowheads, markers).
+    /// A placer for a picture of `frame`'s size, drawn with line widths scaled by `scale`, that
+    /// keeps clear of the texts already in it and avoids crossing its lines and small polygons
+    /// (arrowheads, markers).
     #[must_use]
-    pub fn new(frame: &Frame) -> Self {
+    pub fn new(frame: &Frame, scale: f32) -> Self {
         let mut placer = Self {
+            scale: scale.max(0.1),
             taken: Vec::new(),
             strokes: Vec::new(),
             bounds: Rect {
@@ -286,10 +292,11 @@ impl Placer {
                 self.taken.push(rect);
             }
             match prim {
-                Prim::Line { a, b, .. } => self.add_stroke(*a, *b),
+                Prim::Line { a, b, width, .. } => self.add_stroke(*a, *b, *width),
                 Prim::Polygon { points, .. } if points.len() <= 20 => {
+                    // Arrowheads and markers weigh like thick strokes.
                     for (i, a) in points.iter().enumerate() {
-                        self.add_stroke(*a, points[(i + 1) % points.len()]);
+                        self.add_stroke(*a, points[(i + 1) % points.len()], 3.0 * self.scale);
                     }
                 }
                 _ => {}
@@ -302,12 +309,17 @@ impl Placer {
         self.taken.push(rect);
     }
 
-    fn add_stroke(&mut self, a: Pos, b: Pos) {
+    fn add_stroke(&mut self, a: Pos, b: Pos, width: f32) {
         let bounds = Rect {
             min: [a[0].min(b[0]), a[1].min(b[1])],
             max: [a[0].max(b[0]), a[1].max(b[1])],
         };
-        self.strokes.push(Stroke { a, b, bounds });
+        self.strokes.push(Stroke {
+            a,
+            b,
+            bounds,
+            weight: 0.5 * width / self.scale,
+        });
     }
 
     /// What covering `rect` would cost: other text dearest, then leaving the picture, then
@@ -316,11 +328,12 @@ impl Placer {
         let padded = rect.grown(1.0);
         let texts = self.taken.iter().filter(|t| t.overlaps(&padded)).count() as f32;
         let outside = if self.bounds.holds(rect) { 0.0 } else { 1.0 };
-        let crossed = self
+        let crossed: f32 = self
             .strokes
             .iter()
             .filter(|s| s.bounds.grown(0.5).overlaps(rect) && rect.crossed_by(s.a, s.b))
-            .count() as f32;
+            .map(|s| s.weight)
+            .sum();
         1.0e4 * texts + 1.0e3 * outside + crossed
     }
 
@@ -345,19 +358,23 @@ impl Placer {
             for (turn, d) in dirs.iter().enumerate() {
                 let placed = candidate(label, *d, reach, ring > 0);
                 // Nearer rings and directions nearer the preferred one win ties.
-                let cost = self.cost(&placed.rect) + 0.3 * ring as f32 + 0.01 * turn as f32;
+                let cost = self.cost(&placed.rect) + 1.2 * ring as f32 + 0.01 * turn as f32;
                 if best.as_ref().is_none_or(|(c, _)| cost < *c) {
                     best = Some((cost, placed));
                 }
             }
-            if best.as_ref().is_some_and(|(c, _)| *c < 1.0) {
+            // Nothing nearer can beat what this ring found.
+            if best
+                .as_ref()
+                .is_some_and(|(c, _)| *c < 1.2 * (ring + 1) as f32)
+            {
                 break;
             }
         }
         let (_, placed) = best.unwrap_or_else(|| (0.0, candidate(label, pref, label.gap, false)));
         self.taken.push(placed.rect);
         if let Some((a, b)) = placed.leader {
-            self.add_stroke(a, b);
+            self.add_stroke(a, b, self.scale);
         }
         placed
     }
@@ -388,7 +405,7 @@ impl Placer {
 
 /// Places `labels` in order around everything already in `frame` and draws them on top.
 pub fn place_all(frame: &mut Frame, labels: &[Label], line_width: f32) {
-    let mut placer = Placer::new(frame);
+    let mut placer = Placer::new(frame, line_width);
     let mut placed = Vec::new();
     for label in labels {
         placer.draw(&mut placed, label, line_width);
@@ -556,7 +573,7 @@ mod tests {
             background: crate::scene::style::BACKGROUND,
             prims: Vec::new(),
         };
-        let mut placer = Placer::new(&frame);
+        let mut placer = Placer::new(&frame, 1.0);
         let label = Label {
             point: [200.0, 150.0],
             gap: 6.0,
