@@ -331,7 +331,7 @@ impl PlanewiseApp {
                 &crate::report::today(),
             ));
         }
-        figures::titled(&lines, sizes.text, h, |h| match settings.central {
+        figures::titled(&lines, sizes.text, [w, h], |h| match settings.central {
             Central::View3d | Central::Envelope | Central::Faults => figures::view_3d(
                 &input,
                 settings.layers,

@@ -500,28 +500,29 @@ fn case_section(
     for figure in &options.figures {
         let (w, h) = (1100, 750);
         let sizes = crate::draw::Sizes::for_export(w as f32, h as f32);
-        let (frame, caption) = match figure {
-            ReportFigure::View3d => (
-                figures::view_3d(
-                    &input,
-                    crate::scene::Layers::default(),
-                    crate::scene::FaceChoice::FacingViewer,
-                    &crate::draw::camera::Camera::default(),
-                    w,
-                    h,
-                    sizes,
-                ),
-                "3D view: unit cube with face tractions, the cut plane and its traction, principal axes",
-            ),
-            ReportFigure::Map => (
-                figures::map(&input, &d.search, 128, w, h, sizes),
-                "Orientation map of the worst-plane measure (lower-hemisphere equal-area poles)",
-            ),
-            ReportFigure::Mohr => (
-                figures::mohr(&input, w, h, sizes),
-                "Mohr circles with the cut plane's and the worst planes' points",
-            ),
+        let caption = match figure {
+            ReportFigure::View3d => {
+                "3D view: unit cube with face tractions, the cut plane and its traction, principal axes"
+            }
+            ReportFigure::Map => {
+                "Orientation map of the worst-plane measure (lower-hemisphere equal-area poles)"
+            }
+            ReportFigure::Mohr => "Mohr circles with the cut plane's and the worst planes' points",
         };
+        // No title block (the page says what the figure is), but the caution's strip kept free.
+        let frame = figures::titled(&[], sizes.text, [w, h], |h| match figure {
+            ReportFigure::View3d => figures::view_3d(
+                &input,
+                crate::scene::Layers::default(),
+                crate::scene::FaceChoice::FacingViewer,
+                &crate::draw::camera::Camera::default(),
+                w,
+                h,
+                sizes,
+            ),
+            ReportFigure::Map => figures::map(&input, &d.search, 128, w, h, sizes),
+            ReportFigure::Mohr => figures::mohr(&input, w, h, sizes),
+        });
         let svg = inline_svg(&crate::draw::svg::to_svg(
             &crate::export::with_caution(&frame),
             &format!("{} — {name}", project.name),

@@ -66,8 +66,21 @@ fn demo_states() -> Vec<(String, Derived)> {
 }
 
 /// The demo figures at `width` × `height` with `sizes`: the 3D view from every preset with
-/// every layer on (worst planes too), the map and the Mohr circles.
-fn demo_frames(width: u32, height: u32, sizes: Sizes) -> Vec<(String, Frame)> {
+/// every layer on (worst planes too), the map and the Mohr circles. Exported ones (`export`)
+/// go through the export path: the caution's strip kept free, then the caution.
+fn demo_frames(width: u32, height: u32, sizes: Sizes, export: bool) -> Vec<(String, Frame)> {
+    let finish = |build: &dyn Fn(u32) -> Frame| {
+        if export {
+            planewise::export::with_caution(&figures::titled(
+                &[],
+                sizes.text,
+                [width, height],
+                build,
+            ))
+        } else {
+            build(height)
+        }
+    };
     let mut out = Vec::new();
     for (name, d) in demo_states() {
         let input = FigureInput::from_derived(&d, true);
@@ -79,25 +92,27 @@ fn demo_frames(width: u32, height: u32, sizes: Sizes) -> Vec<(String, Frame)> {
             let camera = Camera::from_preset(preset);
             out.push((
                 format!("{name}, 3D view from {}", preset.key()),
-                figures::view_3d(
-                    &input,
-                    layers,
-                    FaceChoice::default(),
-                    &camera,
-                    width,
-                    height,
-                    sizes,
-                ),
+                finish(&|h| {
+                    figures::view_3d(
+                        &input,
+                        layers,
+                        FaceChoice::default(),
+                        &camera,
+                        width,
+                        h,
+                        sizes,
+                    )
+                }),
             ));
         }
         let search = d.search;
         out.push((
             format!("{name}, map"),
-            figures::map(&input, &search, 96, width, height, sizes),
+            finish(&|h| figures::map(&input, &search, 96, width, h, sizes)),
         ));
         out.push((
             format!("{name}, Mohr"),
-            figures::mohr(&input, width, height, sizes),
+            finish(&|h| figures::mohr(&input, width, h, sizes)),
         ));
     }
     out
@@ -105,7 +120,7 @@ fn demo_frames(width: u32, height: u32, sizes: Sizes) -> Vec<(String, Frame)> {
 
 #[test]
 fn measured_text_boxes_hold_the_exported_glyphs() {
-    let frames: Vec<Frame> = demo_frames(1600, 1000, Sizes::for_export(1600.0, 1000.0))
+    let frames: Vec<Frame> = demo_frames(1600, 1000, Sizes::for_export(1600.0, 1000.0), true)
         .into_iter()
         .map(|(_, f)| f)
         .collect();
@@ -126,9 +141,9 @@ fn measured_text_boxes_hold_the_exported_glyphs() {
     }
 }
 
-fn assert_no_overlaps(width: u32, height: u32, sizes: Sizes) {
+fn assert_no_overlaps(width: u32, height: u32, sizes: Sizes, export: bool) {
     let mut bad = Vec::new();
-    for (what, frame) in demo_frames(width, height, sizes) {
+    for (what, frame) in demo_frames(width, height, sizes, export) {
         for (a, b) in overlapping_texts(&frame) {
             bad.push(format!("{what}: {a:?} overlaps {b:?}"));
         }
@@ -138,10 +153,11 @@ fn assert_no_overlaps(width: u32, height: u32, sizes: Sizes) {
 
 #[test]
 fn no_two_texts_overlap_in_the_window_sized_demo_figures() {
-    assert_no_overlaps(1100, 750, Sizes::default());
+    assert_no_overlaps(1100, 750, Sizes::default(), false);
 }
 
 #[test]
-fn no_two_texts_overlap_in_the_exported_demo_figures() {
-    assert_no_overlaps(1600, 1000, Sizes::for_export(1600.0, 1000.0));
+fn no_two_texts_overlap_in_the_exported_demo_figures_caution_included() {
+    assert_no_overlaps(1600, 1000, Sizes::for_export(1600.0, 1000.0), true);
+    assert_no_overlaps(1100, 750, Sizes::for_export(1100.0, 750.0), true);
 }

@@ -95,7 +95,7 @@ pub fn run(args: &FigureArgs) -> Result<String, CliError> {
         &figure,
         crate::study::annotations::FigureKind::View3d,
         sizes.text,
-        h,
+        [w, h],
         |h| {
             figures::view_3d(
                 &figure,

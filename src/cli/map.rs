@@ -87,7 +87,7 @@ pub fn run(args: &MapArgs) -> Result<String, CliError> {
         &figure,
         crate::study::annotations::FigureKind::Map,
         sizes.text,
-        h,
+        [w, h],
         |h| figures::map(&figure, &settings, resolution, w, h, sizes),
     );
     export::write_figure(&args.out, &frame, &ProjectView::title(view.as_ref()))

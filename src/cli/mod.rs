@@ -308,7 +308,7 @@ pub fn titled(
     figure: &crate::study::figures::FigureInput,
     kind: crate::study::annotations::FigureKind,
     text_px: f32,
-    height: u32,
+    size: [u32; 2],
     build: impl Fn(u32) -> crate::draw::Frame,
 ) -> crate::draw::Frame {
     use crate::study::figures;
@@ -321,7 +321,7 @@ pub fn titled(
             &crate::report::today(),
         ));
     }
-    figures::titled(&lines, text_px, height, build)
+    figures::titled(&lines, text_px, size, build)
 }
 
 /// The tensor, unit and convention read from [`StressArgs`].

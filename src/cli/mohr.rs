@@ -96,7 +96,7 @@ pub fn run(args: &MohrArgs) -> Result<String, CliError> {
         &figure,
         crate::study::annotations::FigureKind::Mohr,
         sizes.text,
-        h,
+        [w, h],
         |h| figures::mohr(&figure, w, h, sizes),
     );
     export::write_figure(&args.out, &frame, &ProjectView::title(view.as_ref()))

@@ -303,14 +303,13 @@ pub fn title_block_lines(
     lines
 }
 
-/// Pixels a title block of `lines` takes below the picture at text `size`, with room left for
-/// the two-line caution under it.
+/// Pixels a title block of `lines` takes below the picture at text `size` (none for no lines).
 #[must_use]
 pub fn title_block_height(lines: usize, size: f32) -> f32 {
     if lines == 0 {
         0.0
     } else {
-        (lines as f32 * 1.35 + 0.8 + 2.6) * size
+        (lines as f32 * 1.35 + 0.8) * size
     }
 }
 
@@ -321,6 +320,9 @@ pub fn with_title_block(frame: &Frame, lines: &[String], size: f32, full_height:
     use crate::draw::{Anchor, Prim};
     let mut out = frame.clone();
     out.height = full_height;
+    if lines.is_empty() {
+        return out;
+    }
     let top = frame.height;
     out.prims.push(Prim::Line {
         a: [0.5 * size, top + 0.3 * size],
@@ -342,18 +344,22 @@ pub fn with_title_block(frame: &Frame, lines: &[String], size: f32, full_height:
 }
 
 /// The figure `build` draws at a given height, with a title block of `lines` below it when
-/// there are any; the whole keeps `height` pixels.
-pub fn titled(lines: &[String], text_px: f32, height: u32, build: impl Fn(u32) -> Frame) -> Frame {
-    if lines.is_empty() {
-        return build(height);
-    }
+/// there are any and a free strip at the foot for the caution
+/// ([`crate::export::with_caution`]); the whole keeps `width` × `height` pixels.
+pub fn titled(
+    lines: &[String],
+    text_px: f32,
+    [width, height]: [u32; 2],
+    build: impl Fn(u32) -> Frame,
+) -> Frame {
+    let (w, h) = (width as f32, height as f32);
+    let caution = crate::export::caution_height(w, h);
     let size = 0.85 * text_px;
-    let width = build(16).width;
     let lines: Vec<String> = lines
         .iter()
-        .flat_map(|l| crate::draw::place::wrap(l, width - size, size))
+        .flat_map(|l| crate::draw::place::wrap(l, w - size, size))
         .collect();
-    let block = title_block_height(lines.len(), size).ceil() as u32;
+    let block = (title_block_height(lines.len(), size) + caution).ceil() as u32;
     let picture = build(height.saturating_sub(block).max(16));
-    with_title_block(&picture, &lines, size, height as f32)
+    with_title_block(&picture, &lines, size, h)
 }
