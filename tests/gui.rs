@@ -413,10 +413,12 @@ fn dragging_the_normal_handle_turns_the_plane_in_one_undo_step() {
     let camera = app.settings.camera;
     let d = Derived::new(&app.project);
     let scene = Scene::build(&app.scene_input(&d, &[]), &camera.towards_eye());
-    let view = camera.screen_from_world(
-        f64::from(rect.width()),
-        f64::from(rect.height()),
-        scene.radius(),
+    let view = planewise::draw::view_for(
+        &scene,
+        &camera,
+        rect.width(),
+        rect.height(),
+        planewise::draw::Sizes::default(),
     );
     let tip = view.project(&nalgebra::Point3::from(
         app.project.plane.vector() * NORMAL_LENGTH,

@@ -381,3 +381,147 @@ fn the_normal_handle_is_drawn_over_the_labels() {
         .unwrap();
     assert!(handle > last_text, "a label covers the handle");
 }
+
+/// The stress element: on every face the arrows leaving or reaching the face centre are
+/// t_j = σ_ij n_i along each axis j (Cauchy's definition of the components, any mechanics
+/// text, e.g. Gere & Goodno, Mechanics of Materials, §7.2), so the normal arrow's signed
+/// length along the outward normal is σ_ii and the shear arrows are the off-diagonal
+/// components; tension arrows start on the face and point out, compression arrows end on it.
+#[test]
+fn element_arrows_are_the_signed_components_on_each_face() {
+    use planewise::scene::Face;
+    let t = demo_tensor();
+    let components = [
+        [120.0, 48.0, 22.0],
+        [48.0, -35.0, -12.0],
+        [22.0, -12.0, 15.0],
+    ];
+    let eye = Vector3::new(1.0, 0.8, 0.6).normalize();
+    let scene = Scene::build(&input(&t, only(|l| l.element = true)), &eye);
+    let s = scene.arrow_scale_per_pa * 1e6;
+    for face in Face::ALL {
+        let n = face.normal();
+        let i = face.axis();
+        let centre = Point3::from(n * 0.5);
+        let mut drawn: Vec<Vector3<f64>> = scene
+            .arrows
+            .iter()
+            .filter(|a| (a.from - centre).norm() < 1e-12 || (a.to - centre).norm() < 1e-12)
+            .map(|a| a.to - a.from)
+            .collect();
+        assert_eq!(drawn.len(), 3, "{face:?}");
+        for j in 0..3 {
+            let expected = Vector3::ith(j, n[i] * components[i][j] * s);
+            let k = drawn
+                .iter()
+                .position(|v| (v - expected).norm() < 1e-9)
+                .unwrap_or_else(|| panic!("{face:?}: no arrow {expected} among {drawn:?}"));
+            drawn.remove(k);
+        }
+        // σxx = 120 MPa pulls: its arrow starts on the ±x faces; σyy = −35 MPa pushes: its
+        // arrow ends on the ±y faces.
+        let normal = scene
+            .arrows
+            .iter()
+            .find(|a| {
+                ((a.to - a.from).normalize().dot(&n)).abs() > 0.999
+                    && ((a.from - centre).norm() < 1e-12 || (a.to - centre).norm() < 1e-12)
+            })
+            .unwrap();
+        if components[i][i] > 0.0 {
+            assert!((normal.from - centre).norm() < 1e-12, "{face:?}");
+            assert!((normal.to - normal.from).dot(&n) > 0.0);
+        } else {
+            assert!((normal.to - centre).norm() < 1e-12, "{face:?}");
+            assert!((normal.to - normal.from).dot(&n) < 0.0);
+        }
+    }
+}
+
+/// Looking down z, the element is the plane element with its turned copy: the in-plane
+/// principal stresses (σx + σy)/2 ± √(((σx − σy)/2)² + τxy²) and tan 2θp = 2τxy/(σx − σy)
+/// (Gere & Goodno, Mechanics of Materials, eqs. 7-17 and 7-11): 133.7 MPa, −48.66 MPa and
+/// 15.88° for σx = 120, σy = −35, τxy = 48 MPa.
+#[test]
+fn looking_down_z_the_element_is_the_plane_element_with_its_principal_copy() {
+    let t = demo_tensor();
+    let scene = Scene::build(
+        &input(
+            &t,
+            only(|l| {
+                l.element = true;
+                l.labels = true;
+            }),
+        ),
+        &Vector3::z(),
+    );
+    let texts: Vec<&str> = scene.labels.iter().map(|l| l.text.as_str()).collect();
+    for expected in [
+        "σxx = 120 MPa",
+        "σyy = -35 MPa",
+        "τxy = 48 MPa",
+        "τyx = 48 MPa",
+        "σI = 133.7 MPa",
+        "σII = -48.66 MPa",
+        "θp = 15.9° from x",
+    ] {
+        assert!(texts.contains(&expected), "{expected} not in {texts:?}");
+    }
+    // Nothing along the line of sight, and no σzz or τ·z labels.
+    assert!(!texts.iter().any(|t| t.contains('z')), "{texts:?}");
+    assert!(scene.arrows.iter().all(|a| (a.to - a.from).z.abs() < 1e-12));
+}
+
+/// The traction field: each arrow starts at a sampled normal's tip and is σ·n there (Cauchy's
+/// formula, computed here with nalgebra's matrix product), all at one scale, coloured by the
+/// sign of its normal part; the normals cover the sphere evenly (their mean is near zero).
+#[test]
+fn traction_field_arrows_are_sigma_times_n() {
+    let t = demo_tensor();
+    let m = t.matrix_pa();
+    let scene = Scene::build(
+        &input(&t, only(|l| l.traction_field = true)),
+        &Vector3::new(1.0, 1.0, 1.0).normalize(),
+    );
+    assert!(scene.arrows.len() >= 100, "{}", scene.arrows.len());
+    let mut scale = None;
+    let mut mean = Vector3::zeros();
+    for a in &scene.arrows {
+        let n = a.from.coords.normalize();
+        mean += n;
+        let expected = m * n;
+        let k = *scale.get_or_insert((a.to - a.from).norm() / expected.norm());
+        assert!(((a.to - a.from) - expected * k).norm() < 1e-9 * (1.0 + k * expected.norm()));
+        let colour = if expected.dot(&n) >= 0.0 {
+            style::TENSION
+        } else {
+            style::COMPRESSION
+        };
+        assert_eq!(a.color.with_alpha(255), colour);
+    }
+    assert!((mean / scene.arrows.len() as f64).norm() < 0.02);
+}
+
+/// The traction ellipsoid's vertices lie on Σ (x·dᵢ / aᵢ)² = 1 with semi-axes aᵢ = |σᵢ| × the
+/// arrow scale along the principal directions dᵢ, both taken from nalgebra's symmetric eigen
+/// solver (a reference library, not the program's own solver).
+#[test]
+fn ellipsoid_vertices_lie_on_the_surface_with_semi_axes_the_principal_magnitudes() {
+    let t = demo_tensor();
+    let scene = Scene::build(
+        &input(&t, only(|l| l.ellipsoid = true)),
+        &Vector3::new(1.0, 1.0, 1.0).normalize(),
+    );
+    let eigen = nalgebra::SymmetricEigen::new(t.matrix_pa());
+    let mesh = &scene.meshes[0];
+    for v in &mesh.vertices {
+        let sum: f64 = (0..3)
+            .map(|i| {
+                let d = eigen.eigenvectors.column(i);
+                let a = eigen.eigenvalues[i].abs() * scene.arrow_scale_per_pa;
+                (v.coords.dot(&d) / a).powi(2)
+            })
+            .sum();
+        assert!((sum - 1.0).abs() < 1e-9, "{v}: {sum}");
+    }
+}

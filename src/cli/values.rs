@@ -72,6 +72,11 @@ pub enum Layer {
     Triad,
     /// The legend.
     Legend,
+    /// The stress element: signed component arrows on the faces (the plane element when
+    /// looking down an axis).
+    Element,
+    /// The traction at the tips of normals spread over the sphere.
+    Field,
 }
 
 /// The layers switched on by a list of names.
@@ -88,6 +93,8 @@ pub fn layers(names: &[Layer]) -> Layers {
             Layer::Labels => &mut l.labels,
             Layer::Triad => &mut l.triad,
             Layer::Legend => &mut l.legend,
+            Layer::Element => &mut l.element,
+            Layer::Field => &mut l.traction_field,
         };
         *flag = true;
     }

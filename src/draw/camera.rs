@@ -195,6 +195,15 @@ impl Camera {
 }
 
 impl ScreenFromWorld {
+    /// The same projection moved `dx`, `dy` pixels on screen.
+    #[must_use]
+    pub fn shifted(self, dx: f64, dy: f64) -> Self {
+        Self {
+            centre: [self.centre[0] + dx, self.centre[1] + dy],
+            ..self
+        }
+    }
+
     /// Projects a world point.
     #[must_use]
     pub fn project(&self, p: &Point3<f64>) -> Projected {

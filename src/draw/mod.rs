@@ -202,7 +202,7 @@ fn pos(p: &camera::Projected) -> Pos {
 /// Projects, lights and orders `scene` for a `width` × `height` pixel view seen by `camera`.
 #[must_use]
 pub fn render(scene: &Scene, camera: &Camera, width: f32, height: f32, sizes: Sizes) -> Frame {
-    let view = camera.screen_from_world(f64::from(width), f64::from(height), scene.radius());
+    let view = view_for(scene, camera, width, height, sizes);
     let eye = view.towards_eye();
     let mut frame = Frame {
         width,
@@ -259,7 +259,7 @@ pub fn render(scene: &Scene, camera: &Camera, width: f32, height: f32, sizes: Si
                 continue;
             }
             let centroid = Point3::from((a.coords + b.coords + c.coords) / 3.0);
-            let light = 0.55 + 0.45 * (n / area).dot(&light_direction(&eye)).abs();
+            let fill = lit(mesh.color, n / area, &centroid, &eye);
             items.push(Item {
                 depth: view.project(&centroid).depth,
                 side: side_of(&centroid),
@@ -269,7 +269,7 @@ pub fn render(scene: &Scene, camera: &Camera, width: f32, height: f32, sizes: Si
                         pos(&view.project(&b)),
                         pos(&view.project(&c)),
                     ],
-                    fill: mesh.color.shaded(light),
+                    fill,
                     outline: None,
                 },
             });
@@ -329,6 +329,90 @@ pub fn render(scene: &Scene, camera: &Camera, width: f32, height: f32, sizes: Si
     push_labels(&mut frame, &mut placer, scene, &view, sizes);
     frame.prims.append(&mut top.prims);
     frame
+}
+
+/// A surface triangle's fill: Lambert shading from [`light_direction`] on the outward side
+/// (meshes are closed surfaces about the origin) over some ambient light, and a rim — more
+/// opaque and a little lighter where the surface turns away from the eye — so a semi-transparent
+/// ellipsoid reads as a solid.
+fn lit(color: Rgba, unit_normal: Vector3<f64>, centroid: &Point3<f64>, eye: &Vector3<f64>) -> Rgba {
+    let outward = if unit_normal.dot(&centroid.coords) >= 0.0 {
+        unit_normal
+    } else {
+        -unit_normal
+    };
+    let lambert = outward.dot(&light_direction(eye)).max(0.0);
+    let rim = (1.0 - outward.dot(eye).abs()).powi(3);
+    let shade = 0.5 + 0.5 * lambert + 0.2 * rim;
+    let alpha = (f64::from(color.a) + 150.0 * rim).min(235.0);
+    color.shaded(shade).with_alpha(alpha as u8)
+}
+
+/// The projection `render` uses for `scene` in a `width` × `height` view: the scene's sphere
+/// fitted into the part of the view the legend leaves free — beside it when the view is wide
+/// enough, below it when it is tall enough, else the whole view (the legend then covers a
+/// corner). The window uses the same projection to hit-test what it draws.
+#[must_use]
+pub fn view_for(
+    scene: &Scene,
+    camera: &Camera,
+    width: f32,
+    height: f32,
+    sizes: Sizes,
+) -> ScreenFromWorld {
+    let (w, h) = (f64::from(width), f64::from(height));
+    let r = scene.radius();
+    // The area the picture gets: left, top, width, height.
+    let area = match &scene.legend {
+        None => [0.0, 0.0, w, h],
+        Some(legend) => {
+            let [lw, lh] = legend_size(legend, sizes).map(f64::from);
+            // The picture wants a roughly square area; take the side that leaves it the most
+            // room.
+            let beside = (w - lw).min(h);
+            let below = w.min(h - lh);
+            let whole = 0.8 * w.min(h);
+            if beside >= below && beside >= whole {
+                [lw, 0.0, w - lw, h]
+            } else if below >= whole {
+                [0.0, lh, w, h - lh]
+            } else {
+                [0.0, 0.0, w, h]
+            }
+        }
+    };
+    let view = camera.screen_from_world(area[2], area[3], r);
+    // The focus at the area's centre (panning keeps working from there).
+    let f = view.project(&scene.focus);
+    let o = view.project(&Point3::origin());
+    view.shifted(area[0] + o.x - f.x, area[1] + o.y - f.y)
+}
+
+/// Width and height in pixels the legend takes in the top-left corner, margins included.
+fn legend_size(legend: &crate::scene::Legend, sizes: Sizes) -> [f32; 2] {
+    let step = sizes.text * 1.45;
+    let widest_line = legend
+        .lines
+        .iter()
+        .map(|l| place::text_width(l, sizes.text))
+        .chain(
+            legend
+                .entries
+                .iter()
+                .map(|e| 26.0 * sizes.line + place::text_width(&e.text, sizes.text)),
+        )
+        .chain(std::iter::once(
+            place::text_width(
+                &format!("= {} (arrow scale)", legend.scale_bar_text),
+                sizes.text,
+            ) + 70.0 * sizes.line,
+        ))
+        .fold(0.0_f32, f32::max);
+    let rows = legend.lines.len() + legend.entries.len() + 1;
+    [
+        widest_line + 24.0 * sizes.line,
+        16.0 * sizes.line + rows as f32 * step,
+    ]
 }
 
 /// A fixed light a little above and to the left of the eye.

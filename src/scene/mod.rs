@@ -39,6 +39,10 @@ pub struct Layers {
     pub legend: bool,
     /// The worst planes of the chosen measure (outline and normal).
     pub worst_planes: bool,
+    /// The stress element: signed component arrows on the cube's faces.
+    pub element: bool,
+    /// The traction at the tips of normals spread over the sphere.
+    pub traction_field: bool,
 }
 
 impl Default for Layers {
@@ -53,6 +57,8 @@ impl Default for Layers {
             triad: true,
             legend: true,
             worst_planes: false,
+            element: false,
+            traction_field: false,
         }
     }
 }
@@ -71,6 +77,8 @@ impl Layers {
             triad: false,
             legend: false,
             worst_planes: false,
+            element: false,
+            traction_field: false,
         }
     }
 }
@@ -113,6 +121,16 @@ impl Face {
             Self::NegY => -Vector3::y(),
             Self::PosZ => Vector3::z(),
             Self::NegZ => -Vector3::z(),
+        }
+    }
+
+    /// Index of the axis the face is normal to (0 = x, 1 = y, 2 = z).
+    #[must_use]
+    pub fn axis(self) -> usize {
+        match self {
+            Self::PosX | Self::NegX => 0,
+            Self::PosY | Self::NegY => 1,
+            Self::PosZ | Self::NegZ => 2,
         }
     }
 
@@ -279,17 +297,21 @@ pub struct Scene {
     pub triad: bool,
     /// World units per pascal for arrow lengths (0 for a zero tensor).
     pub arrow_scale_per_pa: f64,
+    /// The point the view centres on (the origin, but for the plane element with its turned
+    /// copy beside it, the middle of the two).
+    pub focus: Point3<f64>,
     /// The user's notes pinned to world points (set by the caller after building).
     pub notes: Vec<crate::draw::place::Pinned<Point3<f64>>>,
 }
 
 impl Scene {
-    /// Radius of a sphere about the origin holding everything drawn (at least the cube's), so
-    /// the view can fit the picture without depending on the view direction.
+    /// Radius of a sphere about [`Scene::focus`] holding everything drawn (at least the
+    /// cube's), so the view can fit the picture without depending on the view direction.
     #[must_use]
     pub fn radius(&self) -> f64 {
-        let mut r: f64 = 0.87;
-        let mut grow = |p: &Point3<f64>| r = r.max(p.coords.norm());
+        let f = self.focus;
+        let mut r: f64 = 0.87 + f.coords.norm();
+        let mut grow = |p: &Point3<f64>| r = r.max((p - f).norm());
         for a in &self.arrows {
             grow(&a.from);
             grow(&a.to);
@@ -308,6 +330,41 @@ impl Scene {
 /// Distance from the centre at which principal-stress arrows start: just past the cube's
 /// corners (√3/2 ≈ 0.866).
 const AXIS_REACH: f64 = 0.9;
+
+/// How far beside the cube the turned plane element sits, world units.
+pub const ROTATED_ELEMENT_OFFSET: f64 = 2.0;
+/// How many normals the traction field samples.
+pub const FIELD_NORMALS: usize = 240;
+/// Radius of the sphere the traction field's arrows start on, world units.
+pub const FIELD_RADIUS: f64 = 0.75;
+/// The traction field's arrows are this fraction of the face arrows' scale.
+pub const FIELD_SCALE: f64 = 0.45;
+
+/// `count` unit vectors spread evenly over the sphere (the golden-angle spiral: equal areas in
+/// z, turning by the golden angle).
+#[must_use]
+pub fn field_normals(count: usize) -> Vec<Vector3<f64>> {
+    let golden = std::f64::consts::PI * (3.0 - 5.0_f64.sqrt());
+    (0..count)
+        .map(|i| {
+            let z = 1.0 - (2.0 * i as f64 + 1.0) / count as f64;
+            let r = (1.0 - z * z).max(0.0).sqrt();
+            let a = golden * i as f64;
+            Vector3::new(r * a.cos(), r * a.sin(), z)
+        })
+        .collect()
+}
+
+/// The name of the stress component acting on face `i` in direction `j` (σxx, τxy, …).
+#[must_use]
+pub fn component_name(i: usize, j: usize) -> String {
+    let axis = ['x', 'y', 'z'];
+    if i == j {
+        format!("σ{}{}", axis[i], axis[i])
+    } else {
+        format!("τ{}{}", axis[i], axis[j])
+    }
+}
 
 /// The cube's eight corners.
 fn cube_corners() -> [Point3<f64>; 8] {
@@ -476,6 +533,12 @@ impl Scene {
         if layers.face_tractions {
             scene.add_face_tractions(&cx, towards_viewer);
         }
+        if layers.element {
+            scene.add_element(&cx, towards_viewer);
+        }
+        if layers.traction_field {
+            scene.add_traction_field(&cx);
+        }
         if layers.cut_plane {
             scene.add_cut_plane(&cx);
         }
@@ -581,6 +644,180 @@ impl Scene {
                     color: style::TRACTION,
                 });
             }
+        }
+    }
+
+    /// The stress element: on each face, the normal component along the face normal (outward
+    /// for tension, pointing in for compression) and the two shear components along the face,
+    /// each labelled with its name and signed value; faces turned away are drawn faintly and
+    /// unlabelled. Looking straight down an axis, the four faces seen edge-on make the plane
+    /// element, and the element turned to the in-plane principal directions is drawn beside it.
+    fn add_element(&mut self, cx: &Context<'_>, towards_viewer: &Vector3<f64>) {
+        let m = cx.input.tensor.matrix_pa();
+        let s = self.arrow_scale_per_pa;
+        let sign = cx.input.convention.sign();
+        let labels = cx.input.layers.labels;
+        let along = |v: &Vector3<f64>| v.dot(towards_viewer);
+        // The axis the eye looks down, if any.
+        let axis_view = (0..3).find(|&k| along(&Vector3::ith(k, 1.0)).abs() > 0.999);
+        for face in Face::ALL {
+            let n = face.normal();
+            let i = face.axis();
+            let out = n[i];
+            let facing = along(&n);
+            let (shown, faint) = match axis_view {
+                // The plane element: faces seen edge-on, in full.
+                Some(k) => (i != k, false),
+                None => (true, facing < -1e-9),
+            };
+            if !shown {
+                continue;
+            }
+            let centre = Point3::from(n * 0.5);
+            for j in 0..3 {
+                if axis_view == Some(j) {
+                    // Along the line of sight: nothing to see.
+                    continue;
+                }
+                let comp = m[(i, j)];
+                let v = Vector3::ith(j, out * comp * s);
+                if v.norm() <= 1e-9 {
+                    continue;
+                }
+                let (color, from, to) = if i == j {
+                    let color = if comp > 0.0 {
+                        style::TENSION
+                    } else {
+                        style::COMPRESSION
+                    };
+                    // Tension pulls out of the face; compression pushes in onto it.
+                    if comp > 0.0 {
+                        (color, centre, centre + v)
+                    } else {
+                        (color, centre - v, centre)
+                    }
+                } else {
+                    (style::SHEAR_PART, centre, centre + v)
+                };
+                self.arrows.push(Arrow {
+                    from,
+                    to,
+                    color: if faint { color.with_alpha(80) } else { color },
+                    width_px: if i == j { 2.6 } else { 2.2 },
+                });
+                // The plane element names each component once, on the faces facing +x, +y, +z.
+                if labels && !faint && (axis_view.is_none() || out > 0.0) {
+                    let name = component_name(i, j);
+                    self.labels.push(Label {
+                        at: if i == j && comp < 0.0 { from } else { to },
+                        text: format!("{name} = {}", cx.value(sign * comp)),
+                        color,
+                    });
+                }
+            }
+        }
+        if let Some(k) = axis_view {
+            self.add_rotated_element(cx, k);
+            self.focus = Point3::from(Vector3::ith((k + 1) % 3, 0.5 * ROTATED_ELEMENT_OFFSET));
+        }
+    }
+
+    /// The plane element of the plane normal to axis `k`, turned to its in-plane principal
+    /// directions, drawn beside the cube with its principal stresses and angle.
+    fn add_rotated_element(&mut self, cx: &Context<'_>, k: usize) {
+        let m = cx.input.tensor.matrix_pa();
+        let (a, b) = ((k + 1) % 3, (k + 2) % 3);
+        let (s1, s2, angle) =
+            crate::mechanics::inputs::in_plane_principal(m[(a, a)], m[(b, b)], m[(a, b)]);
+        let theta = angle.unwrap_or(0.0).to_radians();
+        let (ea, eb) = (Vector3::ith(a, 1.0), Vector3::ith(b, 1.0));
+        let p = ea * theta.cos() + eb * theta.sin();
+        let q = -ea * theta.sin() + eb * theta.cos();
+        let centre = Point3::from(ea * ROTATED_ELEMENT_OFFSET);
+        let half = 0.3;
+        let corners = [(1.0, 1.0), (-1.0, 1.0), (-1.0, -1.0), (1.0, -1.0)]
+            .map(|(u, v)| centre + p * (u * half) + q * (v * half));
+        for c in 0..4 {
+            self.segments.push(Segment {
+                a: corners[c],
+                b: corners[(c + 1) % 4],
+                color: style::CUBE_EDGE,
+                width_px: 1.4,
+            });
+        }
+        // The reference axis the angle is measured from.
+        self.segments.push(Segment {
+            a: centre,
+            b: centre + ea * (half + 0.15),
+            color: style::CUBE_EDGE.with_alpha(140),
+            width_px: 1.0,
+        });
+        let s = self.arrow_scale_per_pa;
+        let sign = cx.input.convention.sign();
+        for (value, dir, name) in [(s1, p, "I"), (s2, q, "II")] {
+            let color = if value > 0.0 {
+                style::TENSION
+            } else {
+                style::COMPRESSION
+            };
+            for end in [1.0, -1.0] {
+                let edge = centre + dir * (end * half);
+                let v = dir * (end * value * s);
+                if v.norm() <= 1e-9 {
+                    continue;
+                }
+                let (from, to) = if value > 0.0 {
+                    (edge, edge + v)
+                } else {
+                    (edge - v, edge)
+                };
+                self.arrows.push(Arrow {
+                    from,
+                    to,
+                    color,
+                    width_px: 2.4,
+                });
+                if end > 0.0 && cx.input.layers.labels {
+                    self.labels.push(Label {
+                        at: if value > 0.0 { to } else { from },
+                        text: format!("σ{name} = {}", cx.value(sign * value)),
+                        color,
+                    });
+                }
+            }
+        }
+        if cx.input.layers.labels {
+            let axis = ['x', 'y', 'z'];
+            self.labels.push(Label {
+                at: centre + ea * (half + 0.15),
+                text: match angle {
+                    Some(deg) => format!("θp = {}° from {}", sig(deg, 3), axis[a]),
+                    None => "every in-plane direction is principal".to_owned(),
+                },
+                color: style::INK,
+            });
+        }
+    }
+
+    /// Traction vectors at the tips of [`FIELD_NORMALS`] unit normals spread evenly over the
+    /// sphere, coloured by the sign of their normal part: traction is along the normal only in
+    /// the principal directions.
+    fn add_traction_field(&mut self, cx: &Context<'_>) {
+        let s = self.arrow_scale_per_pa * FIELD_SCALE;
+        for n in field_normals(FIELD_NORMALS) {
+            let t = cx.input.tensor.traction_pa(&n);
+            let color = if t.dot(&n) >= 0.0 {
+                style::TENSION
+            } else {
+                style::COMPRESSION
+            };
+            push_arrow(
+                &mut self.arrows,
+                Point3::from(n * FIELD_RADIUS),
+                t * s,
+                color.with_alpha(200),
+                1.1,
+            );
         }
     }
 
@@ -772,9 +1009,18 @@ fn legend_entries(layers: Layers, worst_planes: bool) -> Vec<LegendEntry> {
         out.push(entry(style::NORMAL_PART, "normal part σn·n"));
         out.push(entry(style::SHEAR_PART, "shear part τ"));
     }
-    if layers.principal_axes {
-        out.push(entry(style::TENSION, "principal, tension"));
-        out.push(entry(style::COMPRESSION, "principal, compression"));
+    if layers.principal_axes || layers.element || layers.traction_field {
+        out.push(entry(style::TENSION, "tension (pulls out of a face)"));
+        out.push(entry(
+            style::COMPRESSION,
+            "compression (pushes onto a face)",
+        ));
+    }
+    if layers.element && !(layers.face_tractions || layers.cut_plane) {
+        out.push(entry(
+            style::SHEAR_PART,
+            "shear component τij (face i, direction j)",
+        ));
     }
     if layers.cut_plane {
         out.push(entry(style::PLANE_NORMAL, "cut plane, normal n"));

@@ -22,6 +22,14 @@ pub const HANDLE_GRAB_PX: f32 = 12.0;
 pub fn layers_ui(ui: &mut egui::Ui, layers: &mut Layers) {
     ui.checkbox(&mut layers.cube, "Cube");
     ui.checkbox(&mut layers.face_tractions, "Face tractions");
+    ui.checkbox(&mut layers.element, "Stress element")
+        .on_hover_text(
+            "Signed components on each face: σii along the normal (out for tension, in for compression), τij along the face in direction j. Looking down an axis (keys 6, 7 for z) shows the plane element and its copy turned to the in-plane principal directions, tan 2θp = 2τxy / (σx − σy).",
+        );
+    ui.checkbox(&mut layers.traction_field, "Traction over all directions")
+        .on_hover_text(
+            "t = σ·n at the tips of normals spread evenly over a sphere; red where t·n > 0 (tension), blue where t·n < 0. The traction lies along n only in the principal directions.",
+        );
     ui.checkbox(&mut layers.cut_plane, "Cut plane");
     ui.checkbox(&mut layers.ellipsoid, "Traction ellipsoid");
     ui.checkbox(&mut layers.principal_axes, "Principal axes");
@@ -120,10 +128,12 @@ pub fn view_ui(
     let handle_id = response.id.with("normal-handle");
     let camera_before = settings.camera;
     let scene = Scene::build(&input(settings), &settings.camera.towards_eye());
-    let view = settings.camera.screen_from_world(
-        f64::from(rect.width()),
-        f64::from(rect.height()),
-        scene.radius(),
+    let view = crate::draw::view_for(
+        &scene,
+        &settings.camera,
+        rect.width(),
+        rect.height(),
+        Sizes::default(),
     );
     let handle_px = settings.layers.cut_plane.then(|| {
         let p = view.project(&nalgebra::Point3::from(d.plane.vector() * NORMAL_LENGTH));
