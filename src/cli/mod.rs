@@ -5,6 +5,7 @@
 
 pub mod analyze;
 pub mod envelope;
+pub mod explain;
 pub mod figure;
 pub mod map;
 pub mod mohr;
@@ -83,6 +84,10 @@ pub enum Command {
     Rosette(rosette::RosetteArgs),
     /// The calculation report of a project: one self-contained HTML file to print and sign.
     Report(report::ReportArgs),
+    /// The walk-through of a load case (element, cut plane, principal and largest-shear planes,
+    /// worst plane, verdict) as numbered annotated figures and an HTML page with the captions.
+    #[command(after_help = CONVENTIONS)]
+    Explain(explain::ExplainArgs),
 }
 
 /// The stress state, as every subcommand takes it.
@@ -481,5 +486,6 @@ pub fn run(command: &Command) -> Result<String, CliError> {
         Command::Envelope(args) => envelope::run(args),
         Command::Rosette(args) => rosette::run(args),
         Command::Report(args) => report::run(args),
+        Command::Explain(args) => explain::run(args),
     }
 }

@@ -363,3 +363,33 @@ pub fn titled(
     let picture = build(height.saturating_sub(block).max(16));
     with_title_block(&picture, &lines, size, h)
 }
+
+/// The 3D figure of a walk-through step: the step's camera, layers and plane, the worst planes
+/// when the step marks them.
+#[must_use]
+pub fn walkthrough_step(
+    d: &Derived,
+    step: &super::walkthrough::Step,
+    width: u32,
+    height: u32,
+    sizes: crate::draw::Sizes,
+) -> Frame {
+    let mut input = FigureInput::from_derived(d, false);
+    input.plane = Some(step.plane);
+    if !step.worst_planes {
+        input.worst = None;
+    }
+    let layers = crate::scene::Layers {
+        worst_planes: step.worst_planes,
+        ..step.layers
+    };
+    view_3d(
+        &input,
+        layers,
+        FaceChoice::FacingViewer,
+        &step.camera,
+        width,
+        height,
+        sizes,
+    )
+}

@@ -10,6 +10,7 @@ pub mod figures;
 pub mod file;
 pub mod history;
 pub mod model;
+pub mod walkthrough;
 
 pub use derived::{Derived, DerivedCache};
 pub use edit::Edit;

@@ -1,0 +1,178 @@
+//! The walk-through: six steps whose sentences carry the state's numbers, equal to those of
+//! `planewise analyze --json` to the digits shown; `planewise explain` writes six numbered
+//! figures and an HTML page with the captions; no texts overlap in its figures.
+
+#![allow(
+    clippy::unwrap_used,
+    reason = "a test helper that fails should panic loudly"
+)]
+
+mod common;
+
+use common::planewise;
+use planewise::draw::Sizes;
+use planewise::draw::place::overlapping_texts;
+use planewise::format::sig;
+use planewise::study::walkthrough::{StepKind, steps};
+use planewise::study::{Derived, Project};
+
+fn demo_case(name: &str) -> Derived {
+    let mut p = Project::demo();
+    p.active = name.to_owned();
+    Derived::new(&p)
+}
+
+/// The principal values `analyze --json` prints for the demo's ULS 1, shown to 4 digits.
+fn principal_from_analyze() -> Vec<String> {
+    let out = planewise(&[
+        "analyze",
+        "--project",
+        "assets/demo-bracket-project.json",
+        "--case",
+        "ULS 1",
+        "--json",
+    ]);
+    assert!(out.status.success());
+    let v: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
+    v["principal"]["values"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .map(|x| format!("{} MPa", sig(x.as_f64().unwrap(), 4)))
+        .collect()
+}
+
+#[test]
+fn the_six_steps_speak_the_numbers_of_analyze() {
+    let d = demo_case("ULS 1");
+    let all = steps(&d);
+    let kinds: Vec<StepKind> = all.iter().map(|s| s.kind).collect();
+    assert_eq!(
+        kinds,
+        [
+            StepKind::Element,
+            StepKind::CutPlane,
+            StepKind::Principal,
+            StepKind::MaxShear,
+            StepKind::Worst,
+            StepKind::Verdict
+        ]
+    );
+    let principal = principal_from_analyze();
+    let text = &all[2].text;
+    for p in &principal {
+        assert!(text.contains(p.as_str()), "{p} not in {text}");
+    }
+    // The principal step shows the σ1 plane: no shear on it.
+    let plane = all[2].plane;
+    let ps = planewise::mechanics::PlaneStress::new(
+        &d.tensor,
+        plane,
+        planewise::mechanics::SignConvention::TensionPositive,
+    );
+    assert!(ps.shear_stress_pa < 1e-6 * ps.traction_pa.norm());
+    // The largest-shear step's plane carries τmax = (σ1 − σ3)/2 (common practice, no source
+    // needed: the radius of the largest Mohr circle).
+    let ps = planewise::mechanics::PlaneStress::new(
+        &d.tensor,
+        all[3].plane,
+        planewise::mechanics::SignConvention::TensionPositive,
+    );
+    let [s1, _, s3] = d.analysis.principal.values_pa;
+    assert!((ps.shear_stress_pa - 0.5 * (s1 - s3)).abs() < 1e-6 * s1.abs());
+    // The element step names every component; the verdict step says pass or fail.
+    assert!(all[0].text.contains("σxx = 133.8 MPa"), "{}", all[0].text);
+    assert!(all[5].text.contains("it passes"), "{}", all[5].text);
+}
+
+#[test]
+fn no_texts_overlap_in_the_walkthrough_figures() {
+    let mut bad = Vec::new();
+    for name in ["dead", "live", "thermal", "ULS 1", "ULS 2"] {
+        let d = demo_case(name);
+        for step in steps(&d) {
+            let (w, h) = (1280, 900);
+            let sizes = Sizes::for_export(w as f32, h as f32);
+            let lines = vec![step.title.clone(), step.text.clone()];
+            let frame = planewise::export::with_caution(&planewise::study::figures::titled(
+                &lines,
+                sizes.text,
+                [w, h],
+                |h| planewise::study::figures::walkthrough_step(&d, &step, w, h, sizes),
+            ));
+            for (a, b) in overlapping_texts(&frame) {
+                bad.push(format!("{name}, {:?}: {a:?} overlaps {b:?}", step.kind));
+            }
+        }
+    }
+    assert!(bad.is_empty(), "{}", bad.join("\n"));
+}
+
+#[test]
+fn explain_writes_numbered_figures_and_a_page_with_the_captions() {
+    let dir = std::env::temp_dir().join(format!("planewise-explain-{}", std::process::id()));
+    let _ = std::fs::remove_dir_all(&dir);
+    let out = planewise(&[
+        "explain",
+        "--project",
+        "assets/demo-bracket-project.json",
+        "--case",
+        "ULS 1",
+        "--out",
+        dir.to_str().unwrap(),
+    ]);
+    assert!(
+        out.status.success(),
+        "{}",
+        String::from_utf8_lossy(&out.stderr)
+    );
+    for name in [
+        "01-element.svg",
+        "02-cut-plane.svg",
+        "03-principal-planes.svg",
+        "04-largest-shear.svg",
+        "05-worst-plane.svg",
+        "06-verdict.svg",
+    ] {
+        let svg = std::fs::read_to_string(dir.join(name)).unwrap();
+        assert!(
+            svg.starts_with("<?xml") || svg.starts_with("<svg"),
+            "{name}"
+        );
+        assert!(svg.contains("Planewise is an aid for engineers"), "{name}");
+    }
+    let html = std::fs::read_to_string(dir.join("index.html")).unwrap();
+    for p in principal_from_analyze() {
+        assert!(html.contains(&p), "{p} not in the page");
+    }
+    assert!(html.contains("src=\"03-principal-planes.svg\""));
+    assert!(!html.contains("<script"));
+
+    // From --stress too, and bad input named.
+    let out = planewise(&[
+        "explain",
+        "--stress",
+        "xx=50",
+        "--out",
+        dir.join("uniaxial").to_str().unwrap(),
+        "--format",
+        "png",
+    ]);
+    assert!(
+        out.status.success(),
+        "{}",
+        String::from_utf8_lossy(&out.stderr)
+    );
+    assert!(dir.join("uniaxial/06-verdict.png").exists());
+    let out = planewise(&[
+        "explain",
+        "--project",
+        "assets/demo-bracket-project.json",
+        "--case",
+        "no such case",
+        "--out",
+        dir.to_str().unwrap(),
+    ]);
+    assert_eq!(out.status.code(), Some(2));
+    assert!(String::from_utf8_lossy(&out.stderr).contains("--case"));
+}
