@@ -128,8 +128,9 @@ pub fn run(args: &ExplainArgs) -> Result<String, CliError> {
     let index = args.out.join("index.html");
     crate::export::write_atomic(&index, html.as_bytes()).map_err(anyhow::Error::from)?;
     written.push(index);
-    Ok(written
-        .iter()
-        .map(|p| format!("wrote {}\n", p.display()))
-        .collect())
+    let mut said = String::new();
+    for p in &written {
+        let _ = writeln!(said, "wrote {}", p.display());
+    }
+    Ok(said)
 }
