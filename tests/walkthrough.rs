@@ -18,7 +18,7 @@ use planewise::study::{Derived, Project};
 
 fn demo_case(name: &str) -> Derived {
     let mut p = Project::demo();
-    p.active = name.to_owned();
+    name.clone_into(&mut p.active);
     Derived::new(&p)
 }
 
