@@ -119,6 +119,8 @@ pub struct PlanewiseApp {
     pub cases_panel: ui::cases_panel::CasesPanel,
     /// The envelope tab.
     pub envelope_panel: ui::envelope_panel::EnvelopePanel,
+    /// The Walk-through tab.
+    pub walkthrough_panel: ui::walkthrough_panel::WalkthroughPanel,
     /// Export window state.
     pub export_panel: ui::export_panel::ExportPanel,
     /// The in-window path entry for projects when no dialog opens.
@@ -161,6 +163,7 @@ impl PlanewiseApp {
         dialogs: Box<dyn Dialogs>,
     ) -> Self {
         Self {
+            walkthrough_panel: ui::walkthrough_panel::WalkthroughPanel::default(),
             clean: project.clone(),
             project,
             file,
@@ -320,9 +323,21 @@ impl PlanewiseApp {
         let kind = match settings.central {
             Central::Map => FigureKind::Map,
             Central::Mohr => FigureKind::Mohr,
-            Central::View3d | Central::Envelope | Central::Faults => FigureKind::View3d,
+            Central::View3d | Central::Envelope | Central::Faults | Central::Walkthrough => {
+                FigureKind::View3d
+            }
         };
-        let mut lines = input.captions(kind);
+        let walk = crate::study::walkthrough::steps(&d);
+        let step = &walk[self.walkthrough_panel.step.min(walk.len() - 1)];
+        let mut lines = if settings.central == Central::Walkthrough {
+            // The step's heading and sentences are the figure's caption.
+            vec![
+                format!("{}. {}", self.walkthrough_panel.step + 1, step.title),
+                step.text.clone(),
+            ]
+        } else {
+            input.captions(kind)
+        };
         if settings.title_block {
             lines.extend(figures::title_block_lines(
                 Some(&settings.figure_title),
@@ -343,6 +358,7 @@ impl PlanewiseApp {
             ),
             Central::Map => figures::map(&input, &d.search, 256, w, h, sizes),
             Central::Mohr => figures::mohr(&input, w, h, sizes),
+            Central::Walkthrough => figures::walkthrough_step(&d, step, w, h, sizes),
         })
     }
 
@@ -910,37 +926,46 @@ impl PlanewiseApp {
         let d = self.derived.get(&self.project).clone();
         ui::menus_ui(ui, &mut self.settings, history, &mut commands);
         ui::status_bar_ui(ui, &d, self.status.as_ref());
-        egui::Panel::left("stress-state")
-            .resizable(true)
-            .default_size(330.0)
-            .show(ui, |ui| {
-                egui::ScrollArea::vertical().show(ui, |ui| {
-                    self.cases_panel.ui(ui, &self.project, &d, &mut commands);
-                    self.input_panel.ui(ui, &d, &mut commands);
-                    ui.separator();
-                    self.stress_panel.ui(ui, &d, &mut commands);
-                    ui.separator();
-                    self.plane_panel.ui(ui, &d, &mut commands);
-                    ui.separator();
-                    ui::map_panel::worst_plane_ui(ui, &d, &mut commands);
+        // Presenting the walk-through: the picture and its words only.
+        let presenting =
+            self.walkthrough_panel.presenting && self.settings.central == Central::Walkthrough;
+        if !presenting {
+            egui::Panel::left("stress-state")
+                .resizable(true)
+                .default_size(330.0)
+                .show(ui, |ui| {
+                    egui::ScrollArea::vertical().show(ui, |ui| {
+                        self.cases_panel.ui(ui, &self.project, &d, &mut commands);
+                        self.input_panel.ui(ui, &d, &mut commands);
+                        ui.separator();
+                        self.stress_panel.ui(ui, &d, &mut commands);
+                        ui.separator();
+                        self.plane_panel.ui(ui, &d, &mut commands);
+                        ui.separator();
+                        ui::map_panel::worst_plane_ui(ui, &d, &mut commands);
+                    });
                 });
-            });
-        egui::Panel::right("results")
-            .resizable(true)
-            .default_size(330.0)
-            .show(ui, |ui| {
-                egui::ScrollArea::vertical().show(ui, |ui| {
-                    ui::verdict_panel::verdict_ui(ui, &d, &mut commands);
-                    egui::CollapsingHeader::new("Material")
-                        .default_open(true)
-                        .show(ui, |ui| {
-                            self.material_panel
-                                .ui(ui, &self.project.material, &d, &mut commands);
-                        });
-                    ui.separator();
-                    ui::results_panel::results_ui(ui, &d, &mut commands);
+            egui::Panel::right("results")
+                .resizable(true)
+                .default_size(330.0)
+                .show(ui, |ui| {
+                    egui::ScrollArea::vertical().show(ui, |ui| {
+                        ui::verdict_panel::verdict_ui(ui, &d, &mut commands);
+                        egui::CollapsingHeader::new("Material")
+                            .default_open(true)
+                            .show(ui, |ui| {
+                                self.material_panel.ui(
+                                    ui,
+                                    &self.project.material,
+                                    &d,
+                                    &mut commands,
+                                );
+                            });
+                        ui.separator();
+                        ui::results_panel::results_ui(ui, &d, &mut commands);
+                    });
                 });
-            });
+        }
         egui::CentralPanel::default().show(ui, |ui| {
             ui.horizontal(|ui| {
                 ui.selectable_value(&mut self.settings.central, Central::View3d, "3D view");
@@ -948,6 +973,12 @@ impl PlanewiseApp {
                 ui.selectable_value(&mut self.settings.central, Central::Mohr, "Mohr circles");
                 ui.selectable_value(&mut self.settings.central, Central::Envelope, "Envelope");
                 ui.selectable_value(&mut self.settings.central, Central::Faults, "Faults");
+                ui.selectable_value(
+                    &mut self.settings.central,
+                    Central::Walkthrough,
+                    "Walk-through",
+                )
+                .on_hover_text("The shown case explained step by step (→ / Space, ←, Esc, F11)");
             });
             match self.settings.central {
                 Central::View3d => {
@@ -974,6 +1005,9 @@ impl PlanewiseApp {
                 Central::Faults => {
                     self.faults_panel
                         .ui(ui, &self.project.faults, &d, &mut commands);
+                }
+                Central::Walkthrough => {
+                    self.walkthrough_panel.ui(ui, &d, &mut self.settings);
                 }
                 Central::Envelope => {
                     self.envelope_panel.ui(

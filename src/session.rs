@@ -68,6 +68,9 @@ pub enum Central {
     Envelope,
     /// Named planes checked as faults.
     Faults,
+    /// The walk-through of the shown case.
+    #[value(name = "walkthrough")]
+    Walkthrough,
 }
 
 impl Default for Settings {

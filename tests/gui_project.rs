@@ -605,3 +605,53 @@ fn results_verdicts_and_envelope_copy_as_markdown_and_csv() {
     );
     assert!(csv.contains("von Mises,passes,188.996,275,MPa,"), "{csv}");
 }
+
+/// The Walk-through tab: → steps forward, ← back, Esc leaves; each step's picture is the step's
+/// camera, layers and plane (the exported figure equals the one `planewise explain` draws for
+/// that step), and the project's own cut plane is left alone.
+#[test]
+fn the_walkthrough_steps_with_the_keys_and_shows_each_steps_plane_and_view() {
+    use planewise::study::Derived;
+    use planewise::study::figures;
+    use planewise::study::walkthrough::{StepKind, steps};
+    let mut h = demo();
+    let plane_before = h.state().project.plane;
+    h.get_by_label("Walk-through").click();
+    h.run();
+    let d = Derived::new(&h.state().project);
+    let all = steps(&d);
+    assert_eq!(h.state().walkthrough_panel.step, 0);
+    let figure_of = |h: &Harness<'static, PlanewiseApp>, i: usize| {
+        let [w, hh] = h.state().settings.export_size;
+        let sizes = planewise::draw::Sizes::for_export(w as f32, hh as f32);
+        let lines = vec![format!("{}. {}", i + 1, all[i].title), all[i].text.clone()];
+        figures::titled(&lines, sizes.text, [w, hh], |hh| {
+            figures::walkthrough_step(&d, &all[i], w, hh, sizes)
+        })
+    };
+    for (key, expected) in [
+        (egui::Key::ArrowRight, 1),
+        (egui::Key::ArrowRight, 2),
+        (egui::Key::Space, 3),
+        (egui::Key::ArrowLeft, 2),
+    ] {
+        h.key_press(key);
+        h.run();
+        assert_eq!(h.state().walkthrough_panel.step, expected, "after {key:?}");
+        assert!(
+            h.query_by_label_contains(&format!("Walk-through step {} of 6", expected + 1))
+                .is_some()
+        );
+        assert_eq!(h.state().export_frame(), figure_of(&h, expected));
+    }
+    // Step 3 shows the σ1 principal plane, not the project's cut plane, which stays.
+    assert_eq!(all[2].kind, StepKind::Principal);
+    assert_ne!(all[2].plane, plane_before);
+    assert_eq!(h.state().project.plane, plane_before);
+    h.key_press(egui::Key::Escape);
+    h.run();
+    assert_eq!(
+        h.state().settings.central,
+        planewise::session::Central::View3d
+    );
+}

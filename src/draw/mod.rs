@@ -371,7 +371,7 @@ pub fn view_for(
             // room.
             let beside = (w - lw).min(h);
             let below = w.min(h - lh);
-            let whole = 0.8 * w.min(h);
+            let whole = 0.7 * w.min(h);
             if beside >= below && beside >= whole {
                 [lw, 0.0, w - lw, h]
             } else if below >= whole {

@@ -15,6 +15,7 @@ pub mod results_panel;
 pub mod stress_panel;
 pub mod verdict_panel;
 pub mod view_panel;
+pub mod walkthrough_panel;
 
 use crate::draw::camera::{Projection, ViewPreset};
 use crate::session::{Command, Settings, Status};
