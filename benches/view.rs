@@ -43,6 +43,17 @@ fn view(c: &mut Criterion) {
         )),
         ..Default::default()
     };
+    // Every layer the view has: element, traction field, lit ellipsoid, cut plane, faces,
+    // principal axes, labels with placement, legend.
+    let all = SceneInput {
+        layers: Layers {
+            ellipsoid: true,
+            element: true,
+            traction_field: true,
+            ..Layers::default()
+        },
+        ..input
+    };
     let mut group = c.benchmark_group("view");
     // Scene, projection, lighting, depth order, egui shapes and egui's tessellation into
     // triangles: everything the CPU does for the 3D view in one window frame.
@@ -62,6 +73,32 @@ fn view(c: &mut Criterion) {
                     .extend(egui_backend::shapes(&frame, rect, ui.ctx()));
             });
             black_box(ctx.tessellate(output.shapes, output.pixels_per_point));
+        });
+    });
+    group.bench_function("frame_cpu_all_layers", |b| {
+        b.iter(|| {
+            let output = ctx.run_ui(raw.clone(), |ui| {
+                let rect = ui.max_rect();
+                let scene = Scene::build(black_box(&all), &camera.towards_eye());
+                let frame = render(
+                    &scene,
+                    &camera,
+                    rect.width(),
+                    rect.height(),
+                    Sizes::default(),
+                );
+                ui.painter()
+                    .extend(egui_backend::shapes(&frame, rect, ui.ctx()));
+            });
+            black_box(ctx.tessellate(output.shapes, output.pixels_per_point));
+        });
+    });
+    // The program's own share of that frame: scene, projection, lighting, depth order and
+    // label placement, without egui.
+    group.bench_function("render_all_layers", |b| {
+        b.iter(|| {
+            let scene = Scene::build(black_box(&all), &camera.towards_eye());
+            black_box(render(&scene, &camera, 1280.0, 800.0, Sizes::default()))
         });
     });
     group.sample_size(10);

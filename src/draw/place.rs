@@ -260,10 +260,20 @@ const RINGS: [(f32, f32); 4] = [(1.0, 0.0), (1.0, 1.6), (1.0, 3.4), (1.0, 6.0)];
 pub struct Placer {
     taken: Vec<Rect>,
     strokes: Vec<Stroke>,
+    /// The strokes by grid cell ([`CELL`] pixels square), so a candidate looks only at the
+    /// strokes near it (a frame with every layer on holds a few thousand).
+    grid: Vec<Vec<u32>>,
+    columns: usize,
+    rows: usize,
+    /// Per stroke, the last query that counted it (so a stroke in several cells counts once).
+    seen: std::cell::RefCell<(Vec<u32>, u32)>,
     bounds: Rect,
     /// The picture's line-width multiplier ([`super::Sizes::line`]).
     scale: f32,
 }
+
+/// Side of a grid cell of the stroke index, pixels.
+const CELL: f32 = 32.0;
 
 impl Placer {
     /// A placer for a picture of `frame`'s size, drawn with line widths scaled by `scale`, that
@@ -271,10 +281,16 @@ impl Placer {
     /// (arrowheads, markers).
     #[must_use]
     pub fn new(frame: &Frame, scale: f32) -> Self {
+        let columns = (frame.width / CELL).ceil().max(1.0) as usize;
+        let rows = (frame.height / CELL).ceil().max(1.0) as usize;
         let mut placer = Self {
             scale: scale.max(0.1),
             taken: Vec::new(),
             strokes: Vec::new(),
+            grid: vec![Vec::new(); columns * rows],
+            columns,
+            rows,
+            seen: std::cell::RefCell::new((Vec::new(), 0)),
             bounds: Rect {
                 min: [0.0, 0.0],
                 max: [frame.width, frame.height],
@@ -293,7 +309,13 @@ impl Placer {
             }
             match prim {
                 Prim::Line { a, b, width, .. } => self.add_stroke(*a, *b, *width),
-                Prim::Polygon { points, .. } if points.len() <= 20 => {
+                // Opaque small polygons are arrowheads and markers; translucent fills (the
+                // ellipsoid's triangles, faces) are backgrounds labels may sit on.
+                Prim::Polygon {
+                    points,
+                    fill,
+                    outline,
+                } if points.len() <= 20 && (fill.a == 255 || outline.is_some()) => {
                     // Arrowheads and markers weigh like thick strokes.
                     for (i, a) in points.iter().enumerate() {
                         self.add_stroke(*a, points[(i + 1) % points.len()], 3.0 * self.scale);
@@ -314,12 +336,34 @@ impl Placer {
             min: [a[0].min(b[0]), a[1].min(b[1])],
             max: [a[0].max(b[0]), a[1].max(b[1])],
         };
+        let index = self.strokes.len() as u32;
         self.strokes.push(Stroke {
             a,
             b,
             bounds,
             weight: 0.5 * width / self.scale,
         });
+        let ([c0, r0], [c1, r1]) = self.cells(&bounds);
+        for r in r0..=r1 {
+            for c in c0..=c1 {
+                self.grid[r * self.columns + c].push(index);
+            }
+        }
+    }
+
+    /// The first and last grid cell (column, row) a rectangle touches, clamped to the grid.
+    fn cells(&self, rect: &Rect) -> ([usize; 2], [usize; 2]) {
+        let cell = |v: f32, n: usize| ((v / CELL).floor().max(0.0) as usize).min(n - 1);
+        (
+            [
+                cell(rect.min[0], self.columns),
+                cell(rect.min[1], self.rows),
+            ],
+            [
+                cell(rect.max[0], self.columns),
+                cell(rect.max[1], self.rows),
+            ],
+        )
     }
 
     /// What covering `rect` would cost: other text dearest, then leaving the picture, then
@@ -328,12 +372,27 @@ impl Placer {
         let padded = rect.grown(1.0);
         let texts = self.taken.iter().filter(|t| t.overlaps(&padded)).count() as f32;
         let outside = if self.bounds.holds(rect) { 0.0 } else { 1.0 };
-        let crossed: f32 = self
-            .strokes
-            .iter()
-            .filter(|s| s.bounds.grown(0.5).overlaps(rect) && rect.crossed_by(s.a, s.b))
-            .map(|s| s.weight)
-            .sum();
+        let mut crossed = 0.0;
+        let mut seen = self.seen.borrow_mut();
+        let (stamps, query) = &mut *seen;
+        stamps.resize(self.strokes.len(), 0);
+        *query += 1;
+        let ([c0, r0], [c1, r1]) = self.cells(&rect.grown(0.5));
+        for r in r0..=r1 {
+            for c in c0..=c1 {
+                for &i in &self.grid[r * self.columns + c] {
+                    let stamp = &mut stamps[i as usize];
+                    if *stamp == *query {
+                        continue;
+                    }
+                    *stamp = *query;
+                    let s = &self.strokes[i as usize];
+                    if s.bounds.grown(0.5).overlaps(rect) && rect.crossed_by(s.a, s.b) {
+                        crossed += s.weight;
+                    }
+                }
+            }
+        }
         1.0e4 * texts + 1.0e3 * outside + crossed
     }
 
