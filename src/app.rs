@@ -926,15 +926,35 @@ impl PlanewiseApp {
         let d = self.derived.get(&self.project).clone();
         ui::menus_ui(ui, &mut self.settings, history, &mut commands);
         ui::status_bar_ui(ui, &d, self.status.as_ref());
+        let theme = if self.settings.dark {
+            egui::ThemePreference::Dark
+        } else {
+            egui::ThemePreference::Light
+        };
+        if ctx.options(|o| o.theme_preference) != theme {
+            ctx.set_theme(theme);
+        }
+        let (f9, f10) =
+            ctx.input(|i| (i.key_pressed(egui::Key::F9), i.key_pressed(egui::Key::F10)));
+        if f9 {
+            self.settings.show_inputs = !self.settings.show_inputs;
+        }
+        if f10 {
+            self.settings.show_results = !self.settings.show_results;
+        }
         // Presenting the walk-through: the picture and its words only.
         let presenting =
             self.walkthrough_panel.presenting && self.settings.central == Central::Walkthrough;
-        if !presenting {
+        // Each side panel takes at most a quarter of the window, so the picture keeps at least
+        // half of it; wider content scrolls inside the panel.
+        let side_max = (ui.available_width() * 0.25).max(180.0);
+        if !presenting && self.settings.show_inputs {
             egui::Panel::left("stress-state")
                 .resizable(true)
                 .default_size(330.0)
+                .size_range(180.0..=side_max)
                 .show(ui, |ui| {
-                    egui::ScrollArea::vertical().show(ui, |ui| {
+                    egui::ScrollArea::both().show(ui, |ui| {
                         self.cases_panel.ui(ui, &self.project, &d, &mut commands);
                         self.input_panel.ui(ui, &d, &mut commands);
                         ui.separator();
@@ -945,11 +965,14 @@ impl PlanewiseApp {
                         ui::map_panel::worst_plane_ui(ui, &d, &mut commands);
                     });
                 });
+        }
+        if !presenting && self.settings.show_results {
             egui::Panel::right("results")
                 .resizable(true)
                 .default_size(330.0)
+                .size_range(180.0..=side_max)
                 .show(ui, |ui| {
-                    egui::ScrollArea::vertical().show(ui, |ui| {
+                    egui::ScrollArea::both().show(ui, |ui| {
                         ui::verdict_panel::verdict_ui(ui, &d, &mut commands);
                         egui::CollapsingHeader::new("Material")
                             .default_open(true)
@@ -967,7 +990,7 @@ impl PlanewiseApp {
                 });
         }
         egui::CentralPanel::default().show(ui, |ui| {
-            ui.horizontal(|ui| {
+            ui.horizontal_wrapped(|ui| {
                 ui.selectable_value(&mut self.settings.central, Central::View3d, "3D view");
                 ui.selectable_value(&mut self.settings.central, Central::Map, "Orientation map");
                 ui.selectable_value(&mut self.settings.central, Central::Mohr, "Mohr circles");

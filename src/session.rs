@@ -39,6 +39,12 @@ pub struct Settings {
     pub title_block: bool,
     /// The title block's first line.
     pub figure_title: String,
+    /// The inputs panel (cases, stress, plane) is shown.
+    pub show_inputs: bool,
+    /// The results panel (verdict, material, results) is shown.
+    pub show_results: bool,
+    /// Dark panels instead of the light default (the figures stay on paper white).
+    pub dark: bool,
 }
 
 /// How many recent files File → Open recent lists.
@@ -86,6 +92,9 @@ impl Default for Settings {
             recent: Vec::new(),
             title_block: false,
             figure_title: String::new(),
+            show_inputs: true,
+            show_results: true,
+            dark: false,
         }
     }
 }

@@ -362,30 +362,40 @@ pub fn view_for(
 ) -> ScreenFromWorld {
     let (w, h) = (f64::from(width), f64::from(height));
     let r = scene.radius();
-    // The area the picture gets: left, top, width, height.
-    let area = match &scene.legend {
-        None => [0.0, 0.0, w, h],
-        Some(legend) => {
-            let [lw, lh] = legend_size(legend, sizes).map(f64::from);
-            // The picture wants a roughly square area; take the side that leaves it the most
-            // room.
-            let beside = (w - lw).min(h);
-            let below = w.min(h - lh);
-            let whole = 0.7 * w.min(h);
-            if beside >= below && beside >= whole {
-                [lw, 0.0, w - lw, h]
-            } else if below >= whole {
-                [0.0, lh, w, h - lh]
-            } else {
-                [0.0, 0.0, w, h]
-            }
-        }
-    };
+    let area = picture_area(scene, w, h, sizes);
     let view = camera.screen_from_world(area[2], area[3], r);
     // The focus at the area's centre (panning keeps working from there).
     let f = view.project(&scene.focus);
     let o = view.project(&Point3::origin());
     view.shifted(area[0] + o.x - f.x, area[1] + o.y - f.y)
+}
+
+/// The part of a `w` × `h` view the picture gets — left, top, width, height: beside the
+/// legend when the view is wide enough, below it when it is tall enough, else the whole view.
+fn picture_area(scene: &Scene, w: f64, h: f64, sizes: Sizes) -> [f64; 4] {
+    let Some(legend) = &scene.legend else {
+        return [0.0, 0.0, w, h];
+    };
+    let [lw, lh] = legend_size(legend, sizes).map(f64::from);
+    // The picture wants a roughly square area; take the side that leaves it the most room.
+    let beside = (w - lw).min(h);
+    let below = w.min(h - lh);
+    let whole = 0.7 * w.min(h);
+    if beside >= below && beside >= whole {
+        [lw, 0.0, w - lw, h]
+    } else if below >= whole {
+        [0.0, lh, w, h - lh]
+    } else {
+        [0.0, 0.0, w, h]
+    }
+}
+
+/// Whether the legend fits beside or below the picture in a `width` × `height` view (when it
+/// does not, the window folds it into a button instead of covering the drawing).
+#[must_use]
+pub fn legend_fits(scene: &Scene, width: f32, height: f32, sizes: Sizes) -> bool {
+    let (w, h) = (f64::from(width), f64::from(height));
+    scene.legend.is_none() || picture_area(scene, w, h, sizes) != [0.0, 0.0, w, h]
 }
 
 /// Width and height in pixels the legend takes in the top-left corner, margins included.

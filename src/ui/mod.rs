@@ -251,6 +251,15 @@ pub fn menus_ui(
                 ui.radio_value(&mut cam.projection, Projection::Perspective, "Perspective");
                 ui.separator();
                 view_panel::layers_ui(ui, &mut settings.layers);
+                ui.separator();
+                ui.checkbox(&mut settings.show_inputs, "Inputs panel (left)")
+                    .on_hover_text("Load cases, stress, cut plane and measure (F9)");
+                ui.checkbox(&mut settings.show_results, "Results panel (right)")
+                    .on_hover_text("Verdict, material and results (F10)");
+                ui.checkbox(&mut settings.dark, "Dark panels")
+                    .on_hover_text(
+                        "Light is the default, for projectors and printouts; figures stay on white either way",
+                    );
             });
             ui.menu_button("Help", |ui| {
                 if ui.button("About Planewise").clicked() {

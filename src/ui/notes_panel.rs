@@ -32,7 +32,7 @@ pub fn notes_bar(
 ) {
     let id = pinning_id(kind);
     let mut pinning = ui.data(|d| d.get_temp::<bool>(id).unwrap_or(false));
-    ui.horizontal(|ui| {
+    ui.horizontal_wrapped(|ui| {
         let pin = ui
             .selectable_label(pinning, "Pin a note")
             .on_hover_text(

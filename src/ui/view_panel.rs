@@ -127,7 +127,20 @@ pub fn view_ui(
     // The normal's handle: where it is on screen now, and whether a drag holds it.
     let handle_id = response.id.with("normal-handle");
     let camera_before = settings.camera;
-    let scene = Scene::build(&input(settings), &settings.camera.towards_eye());
+    // A legend that would cover the drawing folds into the Key button (bottom right).
+    let key_id = response.id.with("legend-open");
+    let key_open = ui.data(|d| d.get_temp::<bool>(key_id).unwrap_or(false));
+    let fold = |mut scene: Scene| {
+        if !key_open
+            && !crate::draw::legend_fits(&scene, rect.width(), rect.height(), Sizes::default())
+        {
+            scene.legend = None;
+        }
+        scene
+    };
+    let built = Scene::build(&input(settings), &settings.camera.towards_eye());
+    let folds = !crate::draw::legend_fits(&built, rect.width(), rect.height(), Sizes::default());
+    let scene = fold(built);
     let view = crate::draw::view_for(
         &scene,
         &settings.camera,
@@ -233,7 +246,10 @@ pub fn view_ui(
     let mut scene = if settings.camera == camera_before {
         scene
     } else {
-        Scene::build(&input(settings), &settings.camera.towards_eye())
+        fold(Scene::build(
+            &input(settings),
+            &settings.camera.towards_eye(),
+        ))
     };
     scene.notes = crate::study::figures::space_notes(&d.notes);
     let frame = render(
@@ -245,4 +261,18 @@ pub fn view_ui(
     );
     let shapes = egui_backend::shapes(&frame, rect, ui.ctx());
     ui.painter_at(rect).extend(shapes);
+    if folds {
+        let at = egui::Rect::from_min_size(
+            rect.right_bottom() - egui::vec2(64.0, 30.0),
+            egui::vec2(56.0, 22.0),
+        );
+        let text = if key_open { "Hide key" } else { "Key" };
+        if ui
+            .put(at, egui::Button::new(text))
+            .on_hover_text("The legend (unit, convention, arrow scale, colours): folded because it would cover the picture at this size")
+            .clicked()
+        {
+            ui.data_mut(|d| d.insert_temp(key_id, !key_open));
+        }
+    }
 }
