@@ -18,6 +18,10 @@ pub const UNTITLED: &str = "Untitled";
 /// Display settings; saved, but not part of undo.
 #[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
 #[serde(default)]
+#[expect(
+    clippy::struct_excessive_bools,
+    reason = "independent display switches, each a checkbox the user sees"
+)]
 pub struct Settings {
     /// Layers of the 3D view.
     pub layers: Layers,
