@@ -10,9 +10,9 @@ pub const BACKGROUND: Rgba = Rgba::rgb(250, 250, 247);
 pub const INK: Rgba = Rgba::rgb(34, 38, 46);
 /// The cut plane's mark (the same green as the cut plane in the 3D view, so the two read as one
 /// plane).
-pub const CUT_PLANE: Rgba = Rgba::rgb(40, 120, 40);
+pub const CUT_PLANE: Rgba = Rgba::rgb(21, 161, 98);
 /// The worst planes' marks (the same magenta as in the 3D view).
-pub const WORST_PLANE: Rgba = Rgba::rgb(196, 30, 120);
+pub const WORST_PLANE: Rgba = Rgba::rgb(132, 30, 98);
 /// Halo behind marks drawn over the colour map.
 pub const HALO: Rgba = Rgba::rgb(255, 255, 255);
 

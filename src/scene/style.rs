@@ -69,11 +69,11 @@ pub const CUBE_FACE: Rgba = Rgba::rgb(196, 204, 214).with_alpha(70);
 /// Cube edges.
 pub const CUBE_EDGE: Rgba = Rgba::rgb(90, 98, 110);
 /// The cut plane.
-pub const CUT_PLANE: Rgba = Rgba::rgb(120, 176, 120).with_alpha(110);
+pub const CUT_PLANE: Rgba = Rgba::rgb(120, 190, 150).with_alpha(110);
 /// The cut plane's unit normal.
-pub const PLANE_NORMAL: Rgba = Rgba::rgb(40, 120, 40);
+pub const PLANE_NORMAL: Rgba = Rgba::rgb(21, 161, 98);
 /// Worst planes (3D outlines, map and Mohr markers).
-pub const WORST_PLANE: Rgba = Rgba::rgb(196, 30, 120);
+pub const WORST_PLANE: Rgba = Rgba::rgb(132, 30, 98);
 /// The traction ellipsoid.
 pub const ELLIPSOID: Rgba = Rgba::rgb(170, 140, 210).with_alpha(70);
 /// Axis triad colours for x, y, z.
