@@ -7,6 +7,7 @@ mkdir -p screenshots
 scripts/gui-smoke.sh screenshots/window-demo.png
 scripts/gui-smoke.sh screenshots/window-mohr.png mohr
 scripts/gui-smoke.sh screenshots/window-envelope.png envelope
+scripts/gui-smoke.sh screenshots/window-walkthrough.png walkthrough
 # The built-in demo project (an invented scenario) and its first factored combination; the cut
 # plane comes from the project.
 demo=(--project assets/demo-bracket-project.json --case "ULS 1")
@@ -24,6 +25,14 @@ $bin mohr "${demo[@]}" --measure mohr-coulomb --cohesion 10 \
 $bin figure "${demo[@]}" --measure shear \
     --layers cube,plane,axes,labels,legend,triad --view iso --size 1100x750 \
     --out screenshots/worst-planes-3d.png
+# The stress element (iso and looking down z: the plane element and its turned copy), and the
+# traction over all directions with the lit ellipsoid.
+$bin figure "${demo[@]}" --layers cube,element,labels,legend,triad \
+    --view iso --size 1100x750 --out screenshots/stress-element.png
+$bin figure "${demo[@]}" --layers cube,element,labels,legend,triad \
+    --view z --size 1100x750 --out screenshots/plane-element.png
+$bin figure "${demo[@]}" --layers cube,field,ellipsoid,axes,legend,triad \
+    --view iso --size 1100x750 --out screenshots/traction-field.png
 # A page of the calculation report as a real browser prints it.
 scripts/report-browser.sh target/report-browser
 pdftoppm -png -r 80 -f 3 -l 3 -singlefile target/report-browser/report.pdf screenshots/report-page
