@@ -18,6 +18,7 @@ pub mod results;
 pub mod scene;
 pub mod session;
 pub mod study;
+pub mod table;
 pub mod ui;
 
 /// The caution every output that can feed a decision carries (README, About, reports, figures).

@@ -4,6 +4,7 @@
 //! the argument's name and what is wrong, on one line, with exit status 2 and nothing on stdout.
 
 pub mod analyze;
+pub mod batch;
 pub mod envelope;
 pub mod explain;
 pub mod figure;
@@ -88,6 +89,10 @@ pub enum Command {
     /// worst plane, verdict) as numbered annotated figures and an HTML page with the captions.
     #[command(after_help = CONVENTIONS)]
     Explain(explain::ExplainArgs),
+    /// A finite-element result table (one stress state per row) ranked by a measure, worst
+    /// first, streaming: the top N or every row, as CSV or JSON.
+    #[command(after_help = CONVENTIONS)]
+    Batch(batch::BatchArgs),
 }
 
 /// The stress state, as every subcommand takes it.
@@ -487,5 +492,6 @@ pub fn run(command: &Command) -> Result<String, CliError> {
         Command::Rosette(args) => rosette::run(args),
         Command::Report(args) => report::run(args),
         Command::Explain(args) => explain::run(args),
+        Command::Batch(args) => batch::run(args),
     }
 }

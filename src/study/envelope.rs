@@ -123,6 +123,74 @@ pub struct Envelope {
     pub governing: Option<String>,
 }
 
+/// A measure's value for one state, with how to read it.
+#[derive(Clone, Debug, PartialEq)]
+pub struct MeasureValue {
+    /// The value (Pa for stresses, in `convention`; else dimensionless); `None` where
+    /// undefined.
+    pub value: Option<f64>,
+    /// For worst-plane measures, how to read the value and planes.
+    pub condition: Option<WorstCondition>,
+    /// For worst-plane measures, the worst planes.
+    pub planes: Vec<WorstPlane>,
+    /// For criterion utilizations, how to read the value.
+    pub verdict: Option<Condition>,
+}
+
+/// `measure` for the state `tensor` shown in `convention`: worst-plane measures with the pore
+/// pressure and material of `plane_settings`, utilizations with `strengths`. The envelope and
+/// `planewise batch` both evaluate through this.
+pub fn measure_value(
+    tensor: &crate::mechanics::StressTensor,
+    measure: EnvelopeMeasure,
+    convention: crate::mechanics::SignConvention,
+    plane_settings: &SearchSettings,
+    strengths: &criteria::Strengths,
+) -> Result<MeasureValue, StudyError> {
+    Ok(match measure {
+        EnvelopeMeasure::Plane(m) => {
+            let settings = SearchSettings {
+                measure: m,
+                convention,
+                ..*plane_settings
+            };
+            let r =
+                worst_plane(tensor, &settings).map_err(|e| StudyError::Invalid(e.to_string()))?;
+            MeasureValue {
+                value: r.value,
+                condition: Some(r.condition),
+                planes: r.planes,
+                verdict: None,
+            }
+        }
+        EnvelopeMeasure::Utilization(c) => {
+            let v = criteria::verdict(tensor, c, strengths);
+            MeasureValue {
+                value: v.utilization,
+                condition: None,
+                planes: Vec::new(),
+                verdict: Some(v.condition),
+            }
+        }
+        other => {
+            let a = Analysis::new(tensor, convention);
+            let v = match other {
+                EnvelopeMeasure::VonMises => a.von_mises_pa,
+                EnvelopeMeasure::Tresca => a.tresca_pa,
+                EnvelopeMeasure::MaxShear => a.max_shear_pa,
+                EnvelopeMeasure::Sigma1 => a.principal.values_pa[0],
+                _ => a.principal.values_pa[2],
+            };
+            MeasureValue {
+                value: Some(v),
+                condition: None,
+                planes: Vec::new(),
+                verdict: None,
+            }
+        }
+    })
+}
+
 /// The envelope of `measure` over every case and combination of `project`. `plane_settings`
 /// gives the pore pressure and material of worst-plane measures (its measure and convention are
 /// overwritten).
@@ -135,40 +203,20 @@ pub fn envelope(
     let mut rows = Vec::new();
     for (name, combination) in project.names() {
         let tensor = project.tensor(name)?;
-        let (value, condition, planes, verdict) = match measure {
-            EnvelopeMeasure::Plane(m) => {
-                let settings = SearchSettings {
-                    measure: m,
-                    convention,
-                    ..*plane_settings
-                };
-                let r = worst_plane(&tensor, &settings)
-                    .map_err(|e| StudyError::Invalid(e.to_string()))?;
-                (r.value, Some(r.condition), r.planes, None)
-            }
-            EnvelopeMeasure::Utilization(c) => {
-                let v = criteria::verdict(&tensor, c, &project.material.strengths);
-                (v.utilization, None, Vec::new(), Some(v.condition))
-            }
-            other => {
-                let a = Analysis::new(&tensor, convention);
-                let v = match other {
-                    EnvelopeMeasure::VonMises => a.von_mises_pa,
-                    EnvelopeMeasure::Tresca => a.tresca_pa,
-                    EnvelopeMeasure::MaxShear => a.max_shear_pa,
-                    EnvelopeMeasure::Sigma1 => a.principal.values_pa[0],
-                    _ => a.principal.values_pa[2],
-                };
-                (Some(v), None, Vec::new(), None)
-            }
-        };
+        let v = measure_value(
+            &tensor,
+            measure,
+            convention,
+            plane_settings,
+            &project.material.strengths,
+        )?;
         rows.push(EnvelopeRow {
             name: name.to_owned(),
             combination,
-            value,
-            condition,
-            planes,
-            verdict,
+            value: v.value,
+            condition: v.condition,
+            planes: v.planes,
+            verdict: v.verdict,
         });
     }
     rows.sort_by(|a, b| rank(measure, b).total_cmp(&rank(measure, a)));

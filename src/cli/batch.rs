@@ -1,0 +1,425 @@
+//! `planewise batch`: a finite-element result table ranked by a measure, worst first — the top N
+//! or every row — as CSV or JSON, streaming through files larger than memory.
+
+use std::fmt::Write as _;
+use std::io::Write as _;
+use std::path::PathBuf;
+use std::time::Instant;
+
+use clap::Args;
+use serde::Serialize;
+
+use super::analyze::StrengthArgs;
+use super::{ArgError, CliError, values};
+use crate::format::clean;
+use crate::mechanics::criteria::MohrCoulomb;
+use crate::mechanics::search::{Measure as PlaneMeasure, SearchSettings};
+use crate::mechanics::{SignConvention, StressUnit};
+use crate::study::EnvelopeMeasure;
+use crate::table::{self, COMPONENTS, Ranked, TableError, TableOptions};
+
+/// Arguments of `planewise batch`.
+#[derive(Debug, Clone, Args)]
+#[expect(
+    clippy::struct_excessive_bools,
+    reason = "command-line flags, each independent"
+)]
+pub struct BatchArgs {
+    /// The table: CSV, TSV, semicolon- or whitespace-separated text with a header row; `-` reads
+    /// standard input.
+    #[arg(value_name = "FILE")]
+    pub file: String,
+    /// Which header names hold the components, e.g. `xx=S11,yy=S22,zz=S33,xy=S12,yz=S23,zx=S13`
+    /// (default: the columns named xx, yy, zz, xy, yz, zx, case-insensitive, also sxx… and
+    /// s11…).
+    #[arg(long, value_name = "xx=NAME,…")]
+    pub columns: Option<String>,
+    /// Unit of the components (stated, never guessed).
+    #[arg(long, value_name = "UNIT", default_value = "MPa", value_parser = values::unit)]
+    pub unit: StressUnit,
+    /// The components are written compression positive.
+    #[arg(long)]
+    pub compression_positive: bool,
+    /// Numbers are written with a decimal comma (fields then separated by `;`, tabs or spaces).
+    #[arg(long)]
+    pub decimal_comma: bool,
+    /// What to rank by: an equivalent or principal stress, a worst-plane measure or a criterion
+    /// utilization.
+    #[arg(long, value_name = "MEASURE")]
+    pub rank: EnvelopeMeasure,
+    #[command(flatten)]
+    pub strengths: StrengthArgs,
+    /// Keep the N worst rows (default: every row, sorted).
+    #[arg(long, value_name = "N")]
+    pub top: Option<usize>,
+    /// Write the ranked rows as CSV to this file (written whole or not at all).
+    #[arg(long, value_name = "FILE", conflicts_with = "json")]
+    pub out: Option<PathBuf>,
+    /// Print one JSON object instead of the CSV.
+    #[arg(long)]
+    pub json: bool,
+    /// Go on past bad rows: count them and report the first few (default: stop at the first,
+    /// exit 2, write nothing).
+    #[arg(long)]
+    pub skip_bad_rows: bool,
+    /// No progress line on standard error.
+    #[arg(long)]
+    pub quiet: bool,
+}
+
+/// The JSON contract.
+#[derive(Debug, Serialize)]
+pub struct BatchJson {
+    pub file: String,
+    pub measure: String,
+    /// Unit of every stress below (components, principal values, stress measures).
+    pub unit: String,
+    pub convention: String,
+    pub rows_read: u64,
+    pub bad_rows: u64,
+    /// The first bad rows (with --skip-bad-rows).
+    pub first_bad: Vec<BadJson>,
+    /// Worst first.
+    pub rows: Vec<RowJson>,
+}
+
+/// A bad row.
+#[derive(Debug, Serialize)]
+pub struct BadJson {
+    pub line: u64,
+    pub column: Option<usize>,
+    pub message: String,
+}
+
+/// One ranked row.
+#[derive(Debug, Serialize)]
+pub struct RowJson {
+    /// Line in the file (1-based).
+    pub line: u64,
+    /// The carried columns by header name.
+    pub carried: serde_json::Map<String, serde_json::Value>,
+    /// xx, yy, zz, xy, yz, zx in the unit and convention.
+    pub components: [f64; 6],
+    /// σ1 ≥ σ2 ≥ σ3 in the convention.
+    pub principal: [f64; 3],
+    /// The ranked value; null where undefined.
+    pub value: Option<f64>,
+    /// For worst-plane measures: dip and dip direction of the first worst plane, degrees.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub plane: Option<[f64; 2]>,
+}
+
+/// The component map of `--columns`.
+fn columns(text: &str) -> Result<Vec<(usize, String)>, ArgError> {
+    let mut out: Vec<(usize, String)> = Vec::new();
+    for item in text.split(',').map(str::trim).filter(|s| !s.is_empty()) {
+        let (key, name) = item.split_once('=').ok_or_else(|| {
+            ArgError::new(
+                "--columns",
+                format!("'{item}' is not COMPONENT=NAME (e.g. xx=S11)"),
+            )
+        })?;
+        let k = COMPONENTS
+            .iter()
+            .position(|c| c.eq_ignore_ascii_case(key.trim()))
+            .ok_or_else(|| {
+                ArgError::new(
+                    "--columns",
+                    format!("'{}' is not one of {}", key.trim(), COMPONENTS.join(", ")),
+                )
+            })?;
+        if out.iter().any(|(j, _)| *j == k) {
+            return Err(ArgError::new(
+                "--columns",
+                format!("{} is named twice", COMPONENTS[k]),
+            ));
+        }
+        out.push((k, name.trim().to_owned()));
+    }
+    Ok(out)
+}
+
+/// Runs the subcommand.
+pub fn run(args: &BatchArgs) -> Result<String, CliError> {
+    let unit = args.unit;
+    let convention = if args.compression_positive {
+        SignConvention::CompressionPositive
+    } else {
+        SignConvention::TensionPositive
+    };
+    let plane = matches!(args.rank, EnvelopeMeasure::Plane(_));
+    let (strengths, pore) = args.strengths.read(unit, plane)?;
+    let material = match (strengths.cohesion_pa, strengths.friction_angle_deg) {
+        (Some(c), Some(phi)) => {
+            Some(MohrCoulomb::new(c, phi).map_err(|e| ArgError::new("--cohesion", e))?)
+        }
+        _ => None,
+    };
+    if let EnvelopeMeasure::Plane(m) = args.rank
+        && m.uses_material()
+        && material.is_none()
+    {
+        return Err(ArgError::new(
+            "--rank",
+            "mohr-coulomb needs --cohesion and --friction-angle",
+        )
+        .into());
+    }
+    let settings = SearchSettings {
+        measure: match args.rank {
+            EnvelopeMeasure::Plane(m) => m,
+            _ => PlaneMeasure::Shear,
+        },
+        convention,
+        pore_pressure_pa: pore.unwrap_or(0.0),
+        material,
+    };
+    if let EnvelopeMeasure::Utilization(c) = args.rank {
+        let check = crate::mechanics::criteria::verdict(
+            &crate::mechanics::StressTensor::default(),
+            c,
+            &strengths,
+        );
+        if check.condition == crate::mechanics::criteria::Condition::NotChecked {
+            return Err(ArgError::new("--rank", format!("{}: {}", c.label(), check.note)).into());
+        }
+    }
+    let options = TableOptions {
+        columns: args
+            .columns
+            .as_deref()
+            .map(columns)
+            .transpose()?
+            .unwrap_or_default(),
+        unit,
+        convention,
+        decimal_comma: args.decimal_comma,
+        skip_bad_rows: args.skip_bad_rows,
+        top: args.top,
+    };
+    let measure = table::Measure {
+        measure: args.rank,
+        convention,
+        plane_settings: &settings,
+        strengths: &strengths,
+    };
+    let name = if args.file == "-" {
+        "standard input".to_owned()
+    } else {
+        args.file.clone()
+    };
+    let size = (args.file != "-")
+        .then(|| std::fs::metadata(&args.file).ok().map(|m| m.len()))
+        .flatten();
+    let started = Instant::now();
+    let mut last = 0.0;
+    let progress = |bytes: u64| {
+        let t = started.elapsed().as_secs_f64();
+        if !args.quiet && t - last >= 0.5 {
+            last = t;
+            let mb = bytes as f64 / 1e6;
+            let share = size.map_or_else(String::new, |s| {
+                format!(
+                    "{:.0}% of {:.1} MB, ",
+                    100.0 * bytes as f64 / s.max(1) as f64,
+                    s as f64 / 1e6
+                )
+            });
+            eprint!(
+                "\rplanewise batch: {share}{mb:.1} MB read, {:.0} MB/s   ",
+                mb / t.max(1e-9)
+            );
+        }
+        true
+    };
+    let ranked = if args.file == "-" {
+        table::rank(std::io::stdin().lock(), &name, &options, &measure, progress)
+    } else {
+        let f = std::fs::File::open(&args.file).map_err(|cause| TableError::Io {
+            file: name.clone(),
+            cause,
+        });
+        match f {
+            Ok(f) => table::rank(f, &name, &options, &measure, progress),
+            Err(e) => Err(e),
+        }
+    };
+    let ranked = match ranked {
+        Ok(r) => r,
+        Err(e @ (TableError::Row { .. } | TableError::Header { .. })) => {
+            return Err(ArgError::new("FILE", e).into());
+        }
+        Err(TableError::Measure(m)) => return Err(ArgError::new("--rank", m).into()),
+        Err(e) => return Err(anyhow::Error::from(e).into()),
+    };
+    let seconds = started.elapsed().as_secs_f64();
+    if !args.quiet {
+        eprintln!(
+            "\rplanewise batch: {} rows ranked in {:.2} s ({:.2} M rows/s){}",
+            ranked.total_rows,
+            seconds,
+            ranked.total_rows as f64 / seconds.max(1e-9) / 1e6,
+            if ranked.bad_count > 0 {
+                format!(", {} bad rows skipped", ranked.bad_count)
+            } else {
+                String::new()
+            }
+        );
+        for b in ranked.bad.iter().take(5) {
+            eprintln!("planewise: skipped {}", b.located(&name));
+        }
+    }
+    let json = to_json(&ranked, &name, args.rank, unit, convention, &measure);
+    if args.json {
+        let mut text = serde_json::to_string_pretty(&json).map_err(anyhow::Error::from)?;
+        text.push('\n');
+        return Ok(text);
+    }
+    let csv = to_csv(&ranked, &json, args.rank);
+    if let Some(path) = &args.out {
+        crate::export::write_atomic(path, csv.as_bytes()).map_err(anyhow::Error::from)?;
+        Ok(format!(
+            "wrote {} ({} rows)\n",
+            path.display(),
+            json.rows.len()
+        ))
+    } else {
+        // Large outputs go straight to standard output.
+        let mut out = std::io::stdout().lock();
+        out.write_all(csv.as_bytes()).map_err(anyhow::Error::from)?;
+        Ok(String::new())
+    }
+}
+
+fn to_json(
+    ranked: &Ranked,
+    file: &str,
+    rank: EnvelopeMeasure,
+    unit: StressUnit,
+    convention: SignConvention,
+    measure: &table::Measure<'_>,
+) -> BatchJson {
+    let sign = convention.sign();
+    let shown = |pa: f64| clean(sign * unit.from_pa(pa));
+    let names = &ranked.header.names;
+    BatchJson {
+        file: file.to_owned(),
+        measure: rank.key().to_owned(),
+        unit: unit.symbol().to_owned(),
+        convention: convention.key().to_owned(),
+        rows_read: ranked.total_rows,
+        bad_rows: ranked.bad_count,
+        first_bad: ranked
+            .bad
+            .iter()
+            .map(|b| BadJson {
+                line: b.line,
+                column: b.column,
+                message: b.message.clone(),
+            })
+            .collect(),
+        rows: ranked
+            .rows
+            .iter()
+            .map(|r| {
+                let p = crate::mechanics::principal::principal_values_pa(&r.tensor);
+                let principal = if sign > 0.0 {
+                    p.map(|v| clean(unit.from_pa(v)))
+                } else {
+                    [p[2], p[1], p[0]].map(|v| clean(-unit.from_pa(v)))
+                };
+                let plane = matches!(rank, EnvelopeMeasure::Plane(_))
+                    .then(|| {
+                        crate::study::envelope::measure_value(
+                            &r.tensor,
+                            rank,
+                            convention,
+                            measure.plane_settings,
+                            measure.strengths,
+                        )
+                        .ok()
+                        .and_then(|v| {
+                            v.planes
+                                .first()
+                                .map(|w| [clean(w.dip_deg), clean(w.dip_direction_deg)])
+                        })
+                    })
+                    .flatten();
+                RowJson {
+                    line: r.line,
+                    carried: ranked
+                        .header
+                        .carried
+                        .iter()
+                        .zip(&r.carried)
+                        .map(|(&i, text)| {
+                            (names[i].clone(), serde_json::Value::String(text.clone()))
+                        })
+                        .collect(),
+                    components: r.tensor.components_pa().map(shown),
+                    principal,
+                    value: r
+                        .value
+                        .map(|v| clean(if rank.is_stress() { unit.from_pa(v) } else { v })),
+                    plane,
+                }
+            })
+            .collect(),
+    }
+}
+
+/// Quotes a CSV field when it needs it.
+fn field(text: &str) -> String {
+    if text.contains([',', '"', '\n', '\r']) {
+        format!("\"{}\"", text.replace('"', "\"\""))
+    } else {
+        text.to_owned()
+    }
+}
+
+fn to_csv(ranked: &Ranked, json: &BatchJson, rank: EnvelopeMeasure) -> String {
+    let mut s = String::new();
+    let what = if rank.is_stress() {
+        json.unit.clone()
+    } else {
+        "dimensionless".to_owned()
+    };
+    let _ = writeln!(
+        s,
+        "# planewise batch: {} ranked by {} ({what}), worst first; stresses in {}, {}; {} rows read, {} bad",
+        json.file, json.measure, json.unit, json.convention, json.rows_read, json.bad_rows
+    );
+    let mut head: Vec<String> = vec!["line".into()];
+    head.extend(
+        ranked
+            .header
+            .carried
+            .iter()
+            .map(|&i| field(&ranked.header.names[i])),
+    );
+    head.extend(COMPONENTS.iter().map(|c| (*c).to_owned()));
+    head.extend(["sigma1", "sigma2", "sigma3"].map(str::to_owned));
+    head.push(json.measure.clone());
+    if matches!(rank, EnvelopeMeasure::Plane(_)) {
+        head.extend(["dip_deg", "dip_direction_deg"].map(str::to_owned));
+    }
+    let _ = writeln!(s, "{}", head.join(","));
+    for (row, r) in json.rows.iter().zip(&ranked.rows) {
+        let mut cells: Vec<String> = vec![row.line.to_string()];
+        cells.extend(r.carried.iter().map(|t| field(t)));
+        cells.extend(row.components.iter().map(|v| format!("{v}")));
+        cells.extend(row.principal.iter().map(|v| format!("{v}")));
+        cells.push(
+            row.value
+                .map_or_else(|| "undefined".to_owned(), |v| format!("{v}")),
+        );
+        if let Some([dip, dd]) = row.plane {
+            cells.push(format!("{dip}"));
+            cells.push(format!("{dd}"));
+        } else if matches!(rank, EnvelopeMeasure::Plane(_)) {
+            cells.extend(["", ""].map(str::to_owned));
+        }
+        let _ = writeln!(s, "{}", cells.join(","));
+    }
+    s
+}
