@@ -34,12 +34,7 @@ fn table(rows: usize) -> Vec<u8> {
 
 fn batch(c: &mut Criterion) {
     let bytes = table(1_000_000);
-    let settings = SearchSettings {
-        measure: PlaneMeasure::Shear,
-        convention: SignConvention::TensionPositive,
-        pore_pressure_pa: 0.0,
-        material: None,
-    };
+    let settings = SearchSettings::plain(PlaneMeasure::Shear, SignConvention::TensionPositive);
     let strengths = Strengths::default();
     let measure = Measure {
         measure: EnvelopeMeasure::VonMises,

@@ -225,12 +225,7 @@ fn every_bad_row_is_located_and_nothing_is_written() {
 }
 
 fn rank_text(text: &[u8], options: &TableOptions) -> Result<planewise::table::Ranked, String> {
-    let settings = SearchSettings {
-        measure: PlaneMeasure::Shear,
-        convention: SignConvention::TensionPositive,
-        pore_pressure_pa: 0.0,
-        material: None,
-    };
+    let settings = SearchSettings::plain(PlaneMeasure::Shear, SignConvention::TensionPositive);
     let strengths = Strengths::default();
     let measure = Measure {
         measure: EnvelopeMeasure::VonMises,

@@ -131,6 +131,19 @@ pub struct SearchSettings {
     pub material: Option<MohrCoulomb>,
 }
 
+impl SearchSettings {
+    /// `measure` shown in `convention`, with no pore pressure and no material.
+    #[must_use]
+    pub fn plain(measure: Measure, convention: SignConvention) -> Self {
+        Self {
+            measure,
+            convention,
+            pore_pressure_pa: 0.0,
+            material: None,
+        }
+    }
+}
+
 /// Why a search cannot run.
 #[derive(Debug, Clone, PartialEq, thiserror::Error)]
 pub enum SearchError {
