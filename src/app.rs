@@ -82,6 +82,7 @@ enum DialogPurpose {
     OpenProject,
     SaveProject,
     Report,
+    Table,
 }
 
 /// The `--screenshot` job: when to take it, where to write it, and how it went.
@@ -121,6 +122,8 @@ pub struct PlanewiseApp {
     pub envelope_panel: ui::envelope_panel::EnvelopePanel,
     /// The Walk-through tab.
     pub walkthrough_panel: ui::walkthrough_panel::WalkthroughPanel,
+    /// The Table tab.
+    pub table_panel: ui::table_panel::TablePanel,
     /// Export window state.
     pub export_panel: ui::export_panel::ExportPanel,
     /// The in-window path entry for projects when no dialog opens.
@@ -164,6 +167,7 @@ impl PlanewiseApp {
     ) -> Self {
         Self {
             walkthrough_panel: ui::walkthrough_panel::WalkthroughPanel::default(),
+            table_panel: ui::table_panel::TablePanel::default(),
             clean: project.clone(),
             project,
             file,
@@ -323,9 +327,11 @@ impl PlanewiseApp {
         let kind = match settings.central {
             Central::Map => FigureKind::Map,
             Central::Mohr => FigureKind::Mohr,
-            Central::View3d | Central::Envelope | Central::Faults | Central::Walkthrough => {
-                FigureKind::View3d
-            }
+            Central::View3d
+            | Central::Envelope
+            | Central::Faults
+            | Central::Walkthrough
+            | Central::Table => FigureKind::View3d,
         };
         let walk = crate::study::walkthrough::steps(&d);
         let step = &walk[self.walkthrough_panel.step.min(walk.len() - 1)];
@@ -347,15 +353,17 @@ impl PlanewiseApp {
             ));
         }
         figures::titled(&lines, sizes.text, [w, h], |h| match settings.central {
-            Central::View3d | Central::Envelope | Central::Faults => figures::view_3d(
-                &input,
-                settings.layers,
-                settings.faces,
-                &settings.camera,
-                w,
-                h,
-                sizes,
-            ),
+            Central::View3d | Central::Envelope | Central::Faults | Central::Table => {
+                figures::view_3d(
+                    &input,
+                    settings.layers,
+                    settings.faces,
+                    &settings.camera,
+                    w,
+                    h,
+                    sizes,
+                )
+            }
             Central::Map => figures::map(&input, &d.search, 256, w, h, sizes),
             Central::Mohr => figures::mohr(&input, w, h, sizes),
             Central::Walkthrough => figures::walkthrough_step(&d, step, w, h, sizes),
@@ -434,6 +442,7 @@ impl PlanewiseApp {
                 let outcome = match purpose {
                     DialogPurpose::Figure => dialogs.save_figure(SUGGESTED_FIGURE_NAME),
                     DialogPurpose::OpenProject => dialogs.open_project(),
+                    DialogPurpose::Table => dialogs.open_table(),
                     DialogPurpose::SaveProject => dialogs.save_project(&project_name),
                     DialogPurpose::Report => {
                         dialogs.save_report(&project_name.replace(".json", "-report.html"))
@@ -471,6 +480,17 @@ impl PlanewiseApp {
             (DialogPurpose::OpenProject, DialogOutcome::Chosen(path)) => self.open_path(&path),
             (DialogPurpose::SaveProject, DialogOutcome::Chosen(path)) => self.save_to(&path),
             (DialogPurpose::Report, DialogOutcome::Chosen(path)) => self.report_to(&path),
+            (DialogPurpose::Table, DialogOutcome::Chosen(path)) => {
+                self.settings.central = Central::Table;
+                self.table_panel.load_preview(&path.display().to_string());
+            }
+            (DialogPurpose::Table, DialogOutcome::Unavailable(why)) => {
+                self.settings.central = Central::Table;
+                self.set_status(
+                    format!("No file dialog ({why}): type the table's path in the Table tab"),
+                    false,
+                );
+            }
             (DialogPurpose::SaveProject, DialogOutcome::Cancelled) => self.after_save = None,
             (_, DialogOutcome::Cancelled) => {}
             (DialogPurpose::Figure, DialogOutcome::Unavailable(why)) => {
@@ -686,6 +706,7 @@ impl PlanewiseApp {
             Command::ExportWithDialog => self.start_dialog(ctx, DialogPurpose::Figure),
             Command::ExportTo(path) => self.export_to(&path),
             Command::ShowAbout => self.about_open = true,
+            Command::ImportTable => self.start_dialog(ctx, DialogPurpose::Table),
         }
         self.follow_up(ctx);
     }
@@ -1002,6 +1023,8 @@ impl PlanewiseApp {
                     "Walk-through",
                 )
                 .on_hover_text("The shown case explained step by step (→ / Space, ←, Esc, F11)");
+                ui.selectable_value(&mut self.settings.central, Central::Table, "Table")
+                    .on_hover_text("A finite-element result table, ranked (File → Import table…)");
             });
             match self.settings.central {
                 Central::View3d => {
@@ -1031,6 +1054,10 @@ impl PlanewiseApp {
                 }
                 Central::Walkthrough => {
                     self.walkthrough_panel.ui(ui, &d, &mut self.settings);
+                }
+                Central::Table => {
+                    self.table_panel
+                        .ui(ui, &self.project, &d, &mut self.settings, &mut commands);
                 }
                 Central::Envelope => {
                     self.envelope_panel.ui(

@@ -33,6 +33,11 @@ pub trait Dialogs: Send + Sync {
     fn save_project(&self, suggested_name: &str) -> DialogOutcome;
     /// Asks where to write the calculation report.
     fn save_report(&self, suggested_name: &str) -> DialogOutcome;
+    /// Asks which finite-element table to import (by default: no dialog, so the Table tab's
+    /// path field is used).
+    fn open_table(&self) -> DialogOutcome {
+        DialogOutcome::Unavailable("no file dialog here".to_owned())
+    }
 }
 
 /// Dialogs through the desktop portal or zenity (rfd).
@@ -72,6 +77,15 @@ impl Dialogs for NativeDialogs {
                 .add_filter("HTML report", &["html"])
                 .set_file_name(suggested_name)
                 .save_file()
+        })
+    }
+
+    fn open_table(&self) -> DialogOutcome {
+        native(|| {
+            rfd::FileDialog::new()
+                .add_filter("Result table", &["csv", "tsv", "txt", "dat"])
+                .add_filter("Any file", &["*"])
+                .pick_file()
         })
     }
 }

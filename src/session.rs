@@ -81,6 +81,8 @@ pub enum Central {
     /// The walk-through of the shown case.
     #[value(name = "walkthrough")]
     Walkthrough,
+    /// An imported finite-element table, ranked.
+    Table,
 }
 
 impl Default for Settings {
@@ -171,6 +173,9 @@ pub enum Command {
     SaveTo(PathBuf),
     /// Ask for a file name and write the calculation report there.
     ExportReport,
+    /// Ask for a finite-element table to import (a file dialog, else the Table tab's path
+    /// field).
+    ImportTable,
     /// Write the calculation report to this path.
     ReportTo(PathBuf),
     /// Put the results on the clipboard as tab-separated text.

@@ -727,3 +727,47 @@ pub fn rank(
         bad,
     })
 }
+
+/// The header and the first rows' fields of a table, for the window's column-mapping preview
+/// (reads at most `limit` bytes).
+pub fn preview(
+    source: impl Read,
+    file: &str,
+    options: &TableOptions,
+    limit: u64,
+) -> Result<(Header, Vec<Vec<String>>), TableError> {
+    let mut bytes = Vec::new();
+    source
+        .take(limit)
+        .read_to_end(&mut bytes)
+        .map_err(|cause| TableError::Io {
+            file: file.to_owned(),
+            cause,
+        })?;
+    let text = bytes.strip_prefix("\u{feff}".as_bytes()).unwrap_or(&bytes);
+    let mut lines = text.split(|b| *b == b'\n').enumerate();
+    let header = loop {
+        let Some((i, line)) = lines.next() else {
+            return Err(TableError::Header {
+                file: file.to_owned(),
+                line: 1,
+                message: "no header row: the table is empty".to_owned(),
+            });
+        };
+        if !skipped(line) {
+            break self::header(line, i as u64 + 1, options, file)?;
+        }
+    };
+    let mut rows = Vec::new();
+    let mut fields = Vec::new();
+    for (_, line) in lines.filter(|(_, l)| !skipped(l)).take(8) {
+        split(line, header.delimiter, &mut fields);
+        rows.push(
+            fields
+                .iter()
+                .map(|f| String::from_utf8_lossy(trim(f)).into_owned())
+                .collect(),
+        );
+    }
+    Ok((header, rows))
+}

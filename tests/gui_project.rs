@@ -655,3 +655,87 @@ fn the_walkthrough_steps_with_the_keys_and_shows_each_steps_plane_and_view() {
         planewise::session::Central::View3d
     );
 }
+
+/// Waits (up to a few seconds of real time) for the Table tab's background read to end.
+fn wait_for_table(h: &mut Harness<'static, PlanewiseApp>) {
+    for _ in 0..200 {
+        h.run();
+        if !h.state().table_panel.reading() {
+            return;
+        }
+        std::thread::sleep(std::time::Duration::from_millis(20));
+    }
+    panic!("the table read did not end");
+}
+
+/// File → Import table…: with no file dialog the Table tab's path field takes the path; the
+/// preview finds the columns; the read ranks in the background; clicking a row makes it a load
+/// case shown at once, with the row's stress.
+#[test]
+fn an_imported_table_ranks_and_a_clicked_row_becomes_the_shown_case() {
+    let path = temp("import.csv");
+    // An invented table: three rows, von Mises 10, 300 and 120 MPa (uniaxial, common practice).
+    std::fs::write(
+        &path,
+        "node,xx,yy,zz,xy,yz,zx\nN1,10,0,0,0,0,0\nN2,300,0,0,0,0,0\nN3,0,120,0,0,0,0\n",
+    )
+    .unwrap();
+    let mut h = demo();
+    h.get_by_label("File").click();
+    h.run();
+    h.get_by_label("Import table…").click();
+    // The dialog answers from its own thread: step until it has.
+    h.run_steps(8);
+    assert_eq!(
+        h.state().settings.central,
+        planewise::session::Central::Table
+    );
+    type_into(&mut h, "Table file path", path.to_str().unwrap());
+    h.get_by_label("Preview").click();
+    h.run();
+    h.get_by_label("Read and rank").click();
+    wait_for_table(&mut h);
+    let ranked = h.state().table_panel.ranked.clone().unwrap();
+    let order: Vec<&str> = ranked.rows.iter().map(|r| r.carried[0].as_str()).collect();
+    assert_eq!(order, ["N2", "N3", "N1"]);
+    h.get_by_label_contains("Row on line 3:").click();
+    h.run();
+    let p = &h.state().project;
+    assert_eq!(p.active, "row 3 of import.csv");
+    let t = p.tensor(&p.active).unwrap();
+    assert!((t.component_pa(Component::Xx) - 300e6).abs() < 1e-3);
+    // One undo step takes the new case away again.
+    h.key_press_modifiers(egui::Modifiers::COMMAND, egui::Key::Z);
+    h.run();
+    assert!(h.state().project.case("row 3 of import.csv").is_none());
+}
+
+/// Cancel stops a long read: nothing is kept and the tab says so.
+#[test]
+fn cancel_stops_a_long_table_read() {
+    use std::io::Write;
+    let path = temp("long.csv");
+    let mut f = std::io::BufWriter::new(std::fs::File::create(&path).unwrap());
+    writeln!(f, "id,xx,yy,zz,xy,yz,zx").unwrap();
+    for i in 0..1_500_000u32 {
+        writeln!(f, "{i},{},{},3,4,5,6", i % 97, i % 89).unwrap();
+    }
+    drop(f);
+    let mut h = demo();
+    h.get_by_label("Table").click();
+    h.run();
+    type_into(&mut h, "Table file path", path.to_str().unwrap());
+    h.get_by_label("Read and rank").click();
+    h.run();
+    assert!(h.state().table_panel.reading());
+    h.get_by_label("Cancel").click();
+    wait_for_table(&mut h);
+    assert!(h.state().table_panel.ranked.is_none());
+    assert!(
+        h.state()
+            .table_panel
+            .message
+            .as_deref()
+            .is_some_and(|m| m.contains("cancelled"))
+    );
+}

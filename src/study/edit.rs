@@ -37,6 +37,9 @@ pub enum Edit {
     Activate(String),
     /// A new load case with a zero stress, shown at once.
     AddCase,
+    /// A load case taken from a row of an imported table (replacing a case of the same name),
+    /// shown at once.
+    AddTableRow(LoadCase),
     /// A copy of a case or combination, shown at once.
     Duplicate(String),
     /// The active combination's summed tensor as a new load case.
@@ -173,6 +176,13 @@ impl Edit {
                     return Err(StudyError::Unknown(name.clone()));
                 }
                 name.clone_into(&mut p.active);
+            }
+            Self::AddTableRow(case) => {
+                if p.is_combination(&case.name) {
+                    return Err(StudyError::Duplicate(case.name.clone()));
+                }
+                p.add_case(case.clone(), true)?;
+                p.active.clone_from(&case.name);
             }
             Self::AddCase => {
                 let name = p.unused_name("case");

@@ -13,6 +13,7 @@ pub mod notes_panel;
 pub mod plane_panel;
 pub mod results_panel;
 pub mod stress_panel;
+pub mod table_panel;
 pub mod verdict_panel;
 pub mod view_panel;
 pub mod walkthrough_panel;
@@ -185,6 +186,13 @@ pub fn menus_ui(
                     out.push(Command::SaveAs);
                 }
                 ui.separator();
+                if ui
+                    .button("Import table…")
+                    .on_hover_text("A finite-element result table (CSV, TSV, text) to rank and pick from")
+                    .clicked()
+                {
+                    out.push(Command::ImportTable);
+                }
                 if ui
                     .button("Export report…")
                     .on_hover_text("The calculation report of the whole project: one HTML file to print and sign")
