@@ -8,6 +8,22 @@ scripts/gui-smoke.sh screenshots/window-demo.png
 scripts/gui-smoke.sh screenshots/window-mohr.png mohr
 scripts/gui-smoke.sh screenshots/window-envelope.png envelope
 scripts/gui-smoke.sh screenshots/window-walkthrough.png walkthrough
+# The Table tab on an invented table: a random stress field with a hot spot on an invented mesh.
+mkdir -p target
+python3 - target/screenshot-table.csv <<'PY'
+import math, random, sys
+random.seed(3)
+with open(sys.argv[1], "w") as f:
+    f.write("# Invented example: a random stress field on an invented mesh, not results of a real model\n")
+    f.write("element,x_mm,y_mm,SXX,SYY,SZZ,SXY,SYZ,SZX\n")
+    for i in range(50000):
+        x, y = random.uniform(0, 120), random.uniform(0, 40)
+        k = math.exp(-((x - 100) ** 2 + (y - 5) ** 2) / 300)
+        v = [random.gauss(0, 30) + 180 * k, random.gauss(0, 20) - 40 * k, random.gauss(0, 10),
+             random.gauss(0, 20) + 60 * k, random.gauss(0, 8), random.gauss(0, 10)]
+        f.write(f"E{i + 1},{x:.2f},{y:.2f}," + ",".join(f"{a:.3f}" for a in v) + "\n")
+PY
+scripts/gui-smoke.sh screenshots/window-table.png table --table target/screenshot-table.csv
 # The built-in demo project (an invented scenario) and its first factored combination; the cut
 # plane comes from the project.
 demo=(--project assets/demo-bracket-project.json --case "ULS 1")

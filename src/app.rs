@@ -1095,7 +1095,8 @@ impl PlanewiseApp {
             return;
         };
         // Let layout and fonts settle for a few frames before taking the picture.
-        if !job.requested && self.frames >= 4 {
+        // A table named on the command line is read before the picture is taken.
+        if !job.requested && self.frames >= 4 && !self.table_panel.reading() {
             job.requested = true;
             let path = job.path.clone();
             let result = Arc::clone(&job.result);
@@ -1142,6 +1143,7 @@ pub fn run(
     screenshot: Option<&Path>,
     tab: Option<Central>,
     project: Option<&Path>,
+    table: Option<&Path>,
 ) -> anyhow::Result<()> {
     const HEADLESS: &str = "the headless subcommands analyze, figure, worst-plane, map and mohr need none (see planewise --help)";
     // A project named on the command line must load before the window opens: a bad file is
@@ -1172,6 +1174,7 @@ pub fn run(
     let outcome: Arc<Mutex<Option<Result<(), String>>>> = Arc::new(Mutex::new(None));
     let outcome_for_app = Arc::clone(&outcome);
     let shot = screenshot.map(Path::to_path_buf);
+    let table = table.map(Path::to_path_buf);
     eframe::run_native(
         "planewise",
         options,
@@ -1194,6 +1197,11 @@ pub fn run(
             app.screenshot_outcome = outcome_for_app;
             if let Some(tab) = tab {
                 app.settings.central = tab;
+            }
+            if let Some(path) = &table {
+                app.settings.central = Central::Table;
+                app.table_panel.load_preview(&path.display().to_string());
+                app.table_panel.start(&cc.egui_ctx, &app.project);
             }
             if let Some(path) = shot {
                 app.screenshot_on_start(path);

@@ -31,8 +31,12 @@ fn main() -> ExitCode {
         }
     };
     let Some(command) = cli.command else {
-        return match planewise::app::run(cli.screenshot.as_deref(), cli.tab, cli.project.as_deref())
-        {
+        return match planewise::app::run(
+            cli.screenshot.as_deref(),
+            cli.tab,
+            cli.project.as_deref(),
+            cli.table.as_deref(),
+        ) {
             Ok(()) => ExitCode::SUCCESS,
             Err(e) => {
                 eprintln!("planewise: {e:#}");

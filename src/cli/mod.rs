@@ -54,6 +54,10 @@ pub struct Cli {
     /// Open the window on this project file.
     #[arg(long, value_name = "FILE")]
     pub project: Option<std::path::PathBuf>,
+    /// Open the window's Table tab on this finite-element table and rank it (von Mises, MPa,
+    /// tension positive; change them in the tab).
+    #[arg(long, value_name = "FILE")]
+    pub table: Option<std::path::PathBuf>,
 }
 
 /// The subcommands.

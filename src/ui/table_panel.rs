@@ -444,9 +444,7 @@ impl TablePanel {
         let unit = self.unit;
         let sign = if self.compression_positive { -1.0 } else { 1.0 };
         let value_text = |v: Option<f64>| match v {
-            Some(v) if self.measure.is_stress() => {
-                format!("{} {unit}", crate::format::sig(unit.from_pa(v), 5))
-            }
+            Some(v) if self.measure.is_stress() => crate::format::sig(unit.from_pa(v), 5),
             Some(v) => crate::format::sig(v, 4),
             None => "undefined".to_owned(),
         };
@@ -469,7 +467,18 @@ impl TablePanel {
             ui.label(format!("{} rows shown", self.order.len()));
         });
         // Column headers: click to sort (again to reverse).
-        let mut columns: Vec<(String, SortKey)> = vec![("line".into(), SortKey::Line)];
+        // The ranked value first, then what identifies the row, then the components.
+        let mut columns: Vec<(String, SortKey)> = vec![
+            ("line".into(), SortKey::Line),
+            (
+                if self.measure.is_stress() {
+                    format!("{} ({unit})", self.measure.key())
+                } else {
+                    self.measure.key().to_owned()
+                },
+                SortKey::Value,
+            ),
+        ];
         columns.extend(
             r.header
                 .carried
@@ -483,33 +492,81 @@ impl TablePanel {
                 .enumerate()
                 .map(|(k, c)| (format!("{c} ({unit})"), SortKey::Component(k))),
         );
-        columns.push((self.measure.key().to_owned(), SortKey::Value));
-        let width = 92.0;
+        let width = (ui.available_width() / columns.len() as f32 - 8.0).clamp(58.0, 110.0);
         let mut clicked_sort = None;
-        ui.horizontal(|ui| {
-            for (name, key) in &columns {
-                let mark = match self.sort {
-                    (Some(k), desc) if k == *key => {
-                        if desc {
-                            " ▼"
-                        } else {
-                            " ▲"
+        let row_height = ui.text_style_height(&egui::TextStyle::Body) + 4.0;
+        let mut chosen = None;
+        // Wide tables scroll sideways, headers and rows together.
+        egui::ScrollArea::horizontal()
+            .id_salt("planewise-table-wide")
+            .show(ui, |ui| {
+                ui.horizontal(|ui| {
+                    for (name, key) in &columns {
+                        let mark = match self.sort {
+                            (Some(k), desc) if k == *key => {
+                                if desc {
+                                    " ↓"
+                                } else {
+                                    " ↑"
+                                }
+                            }
+                            _ => "",
+                        };
+                        if ui
+                            .add_sized(
+                                [width, 20.0],
+                                egui::Button::new(format!("{name}{mark}")).small(),
+                            )
+                            .on_hover_text(format!("Sort by {name}"))
+                            .clicked()
+                        {
+                            clicked_sort = Some(*key);
                         }
                     }
-                    _ => "",
-                };
-                if ui
-                    .add_sized(
-                        [width, 20.0],
-                        egui::Button::new(format!("{name}{mark}")).small(),
-                    )
-                    .on_hover_text(format!("Sort by {name}"))
-                    .clicked()
-                {
-                    clicked_sort = Some(*key);
-                }
-            }
-        });
+                });
+                egui::ScrollArea::vertical()
+                    .id_salt("planewise-table-rows")
+                    .auto_shrink([false, false])
+                    .show_rows(ui, row_height, self.order.len(), |ui, range| {
+                        for &i in &self.order[range] {
+                            let row = &r.rows[i];
+                            let comps = row.tensor.components_pa();
+                            let rect = ui
+                                .horizontal(|ui| {
+                                    let cell = |ui: &mut egui::Ui, t: String| {
+                                        ui.add_sized(
+                                            [width, row_height - 2.0],
+                                            egui::Label::new(t).truncate(),
+                                        );
+                                    };
+                                    cell(ui, row.line.to_string());
+                                    cell(ui, value_text(row.value));
+                                    for t in &row.carried {
+                                        cell(ui, t.clone());
+                                    }
+                                    for c in comps {
+                                        cell(ui, crate::format::sig(sign * unit.from_pa(c), 5));
+                                    }
+                                })
+                                .response
+                                .rect;
+                            // The whole row is one click target, laid over its cells.
+                            let response = ui
+                                .interact(
+                                    rect,
+                                    ui.scope_id().with(("planewise-table-row", row.line)),
+                                    egui::Sense::click(),
+                                )
+                                .on_hover_text(format!(
+                                    "Row on line {}: click to show it as a load case",
+                                    row.line
+                                ));
+                            if response.clicked() {
+                                chosen = Some(i);
+                            }
+                        }
+                    });
+            });
         if let Some(k) = clicked_sort {
             self.sort = if self.sort.0 == Some(k) {
                 (Some(k), !self.sort.1)
@@ -518,50 +575,6 @@ impl TablePanel {
             };
             self.order_key = None;
         }
-        let row_height = ui.text_style_height(&egui::TextStyle::Body) + 4.0;
-        let mut chosen = None;
-        egui::ScrollArea::vertical()
-            .id_salt("planewise-table-rows")
-            .auto_shrink([false, false])
-            .show_rows(ui, row_height, self.order.len(), |ui, range| {
-                for &i in &self.order[range] {
-                    let row = &r.rows[i];
-                    let comps = row.tensor.components_pa();
-                    let rect = ui
-                        .horizontal(|ui| {
-                            let cell = |ui: &mut egui::Ui, t: String| {
-                                ui.add_sized(
-                                    [width, row_height - 2.0],
-                                    egui::Label::new(t).truncate(),
-                                );
-                            };
-                            cell(ui, row.line.to_string());
-                            for t in &row.carried {
-                                cell(ui, t.clone());
-                            }
-                            for c in comps {
-                                cell(ui, crate::format::sig(sign * unit.from_pa(c), 5));
-                            }
-                            cell(ui, value_text(row.value));
-                        })
-                        .response
-                        .rect;
-                    // The whole row is one click target, laid over its cells.
-                    let response = ui
-                        .interact(
-                            rect,
-                            ui.scope_id().with(("planewise-table-row", row.line)),
-                            egui::Sense::click(),
-                        )
-                        .on_hover_text(format!(
-                            "Row on line {}: click to show it as a load case",
-                            row.line
-                        ));
-                    if response.clicked() {
-                        chosen = Some(i);
-                    }
-                }
-            });
         if let Some(i) = chosen {
             let row = &r.rows[i];
             let file = std::path::Path::new(self.path.trim())
