@@ -704,6 +704,17 @@ fn an_imported_table_ranks_and_a_clicked_row_becomes_the_shown_case() {
     assert_eq!(p.active, "row 3 of import.csv");
     let t = p.tensor(&p.active).unwrap();
     assert!((t.component_pa(Component::Xx) - 300e6).abs() < 1e-3);
+    // A case of kind "table row": it remembers the file, the line and the id, and survives the
+    // project file.
+    let case = p.case(&p.active).unwrap();
+    let planewise::study::CaseInput::TableRow(row) = &case.input else {
+        panic!("not a table row: {:?}", case.input);
+    };
+    assert_eq!((row.line, row.id.as_str()), (3, "N2"));
+    assert_eq!(row.file, path.to_str().unwrap());
+    let saved = temp("with-row.json");
+    planewise::study::save(&saved, p).unwrap();
+    assert_eq!(planewise::study::load(&saved).unwrap().0, *p);
     // One undo step takes the new case away again.
     h.key_press_modifiers(egui::Modifiers::COMMAND, egui::Key::Z);
     h.run();

@@ -11,6 +11,10 @@
 //!                "friction_angle_deg": 30 } }
 //! ```
 //!
+//! A load case's `input` may also be `{ "kind": "table-row", "file": "mesh.csv", "line": 1043,
+//! "id": "E17", "stress": { "unit": "MPa", "compression_positive": false, "components": […] } }`:
+//! a row picked from an imported table.
+//!
 //! `"material": { "name": "…", "yield_strength_pa": 2.35e8, "tensile_strength_pa": null, …,
 //! "dp_fit": "compression-meridian" }` holds the criteria's strengths (null: not given).
 //!

@@ -20,6 +20,6 @@ pub use envelope::{Envelope, EnvelopeMeasure, EnvelopeRow, envelope};
 pub use file::{FORMAT_VERSION, FileError, load, save};
 pub use model::{
     CaseInput, Combination, FaultPlane, FieldKind, InSituInput, InputKind, LoadCase, Material,
-    MeasureChoice, PlaneStressInput, PrincipalInput, Project, RosetteInput, StudyError, Term,
-    TypedTensor,
+    MeasureChoice, PlaneStressInput, PrincipalInput, Project, RosetteInput, StudyError,
+    TableRowInput, Term, TypedTensor,
 };

@@ -50,6 +50,23 @@ pub enum CaseInput {
     Rosette(RosetteInput),
     /// Plane stress σx, σy, τxy.
     PlaneStress(PlaneStressInput),
+    /// One row of an imported finite-element table: its six components as read, and where
+    /// they came from. Edited in the grid, it becomes an ordinary typed tensor.
+    TableRow(TableRowInput),
+}
+
+/// A table row as imported.
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+pub struct TableRowInput {
+    /// The table file, as it was named when imported.
+    pub file: String,
+    /// Its line number (1-based).
+    pub line: u64,
+    /// The row's first carried column (an element or node id), if any.
+    #[serde(default)]
+    pub id: String,
+    /// The components in the project's unit and convention at import.
+    pub stress: TypedTensor,
 }
 
 /// In-situ stresses as typed (compression positive).
@@ -274,7 +291,7 @@ impl CaseInput {
     #[must_use]
     pub fn kind(&self) -> InputKind {
         match self {
-            Self::Tensor(_) => InputKind::Tensor,
+            Self::Tensor(_) | Self::TableRow(_) => InputKind::Tensor,
             Self::InSitu(_) => InputKind::InSitu,
             Self::Principal(_) => InputKind::Principal,
             Self::Rosette(_) => InputKind::Rosette,
@@ -286,7 +303,9 @@ impl CaseInput {
     #[must_use]
     pub fn numbers(&self) -> Vec<f64> {
         match self {
-            Self::Tensor(t) => t.components.to_vec(),
+            Self::Tensor(t) | Self::TableRow(TableRowInput { stress: t, .. }) => {
+                t.components.to_vec()
+            }
             Self::InSitu(i) => vec![i.sv, i.shmax, i.shmin, i.azimuth_deg],
             Self::Principal(p) => {
                 let mut v = p.values.to_vec();
@@ -310,7 +329,9 @@ impl CaseInput {
         let at = |i: usize| v.get(i).copied().unwrap_or(0.0);
         let mut out = self.clone();
         match &mut out {
-            Self::Tensor(t) => t.components = std::array::from_fn(at),
+            Self::Tensor(t) | Self::TableRow(TableRowInput { stress: t, .. }) => {
+                t.components = std::array::from_fn(at);
+            }
             Self::InSitu(i) => {
                 [i.sv, i.shmax, i.shmin, i.azimuth_deg] = [at(0), at(1), at(2), at(3)];
             }
@@ -334,7 +355,9 @@ impl CaseInput {
     #[must_use]
     pub fn units(&self) -> (String, String, String) {
         match self {
-            Self::Tensor(t) => (t.unit.clone(), String::new(), String::new()),
+            Self::Tensor(t) | Self::TableRow(TableRowInput { stress: t, .. }) => {
+                (t.unit.clone(), String::new(), String::new())
+            }
             Self::InSitu(i) => (i.unit.clone(), String::new(), String::new()),
             Self::Principal(p) => (p.unit.clone(), String::new(), String::new()),
             Self::Rosette(r) => (String::new(), r.strain_unit.clone(), r.modulus_unit.clone()),
@@ -346,7 +369,9 @@ impl CaseInput {
     #[must_use]
     pub fn compression_positive(&self) -> bool {
         match self {
-            Self::Tensor(t) => t.compression_positive,
+            Self::Tensor(t) | Self::TableRow(TableRowInput { stress: t, .. }) => {
+                t.compression_positive
+            }
             Self::InSitu(_) => true,
             Self::Principal(p) => p.compression_positive,
             Self::Rosette(_) => false,
@@ -358,7 +383,7 @@ impl CaseInput {
     pub fn tensor(&self) -> Result<StressTensor, StudyError> {
         use crate::mechanics::inputs;
         match self {
-            Self::Tensor(t) => t.tensor(),
+            Self::Tensor(t) | Self::TableRow(TableRowInput { stress: t, .. }) => t.tensor(),
             Self::InSitu(i) => {
                 let u = parse_unit(&i.unit)?;
                 inputs::in_situ(

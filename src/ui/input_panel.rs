@@ -67,6 +67,18 @@ impl InputPanel {
             });
             return;
         }
+        if let CaseInput::TableRow(row) = input {
+            ui.label(format!(
+                "From the table {}, line {}{} (editing the stress makes it a typed tensor).",
+                row.file,
+                row.line,
+                if row.id.is_empty() {
+                    String::new()
+                } else {
+                    format!(", {}", row.id)
+                }
+            ));
+        }
         if kind == InputKind::Tensor {
             return;
         }

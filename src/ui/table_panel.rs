@@ -12,7 +12,9 @@ use std::sync::mpsc::Receiver;
 use crate::mechanics::search::{Measure as PlaneMeasure, SearchSettings};
 use crate::mechanics::{SignConvention, StressUnit};
 use crate::session::{Command, Settings};
-use crate::study::{CaseInput, Derived, Edit, EnvelopeMeasure, LoadCase, Project, TypedTensor};
+use crate::study::{
+    CaseInput, Derived, Edit, EnvelopeMeasure, LoadCase, Project, TableRowInput, TypedTensor,
+};
 use crate::table::{COMPONENTS, Header, Ranked, TableError, TableOptions};
 
 /// Rows the window keeps (the worst ones) unless told otherwise.
@@ -597,13 +599,19 @@ impl TablePanel {
                             format!(" ({id})")
                         }
                     ),
-                    input: CaseInput::Tensor(TypedTensor {
-                        unit: project_unit.symbol().to_owned(),
-                        compression_positive: d.convention == SignConvention::CompressionPositive,
-                        components: row
-                            .tensor
-                            .components_pa()
-                            .map(|c| psign * project_unit.from_pa(c)),
+                    input: CaseInput::TableRow(TableRowInput {
+                        file: self.path.trim().to_owned(),
+                        line: row.line,
+                        id: id.clone(),
+                        stress: TypedTensor {
+                            unit: project_unit.symbol().to_owned(),
+                            compression_positive: d.convention
+                                == SignConvention::CompressionPositive,
+                            components: row
+                                .tensor
+                                .components_pa()
+                                .map(|c| psign * project_unit.from_pa(c)),
+                        },
                     }),
                 }),
                 coalesce: None,
