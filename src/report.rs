@@ -373,6 +373,19 @@ fn case_section(
             let _ = writeln!(s, "<p>{}</p>", escape(&case.description));
         }
         let input = &case.input;
+        if let crate::study::CaseInput::TableRow(row) = input {
+            let _ = writeln!(
+                s,
+                "<p>Taken from the table {}, line {}{}.</p>",
+                escape(&row.file),
+                row.line,
+                if row.id.is_empty() {
+                    String::new()
+                } else {
+                    format!(" ({})", escape(&row.id))
+                }
+            );
+        }
         let (stress_unit, strain_unit, modulus_unit) = input.units();
         let _ = write!(
             s,

@@ -218,3 +218,40 @@ fn the_command_line_and_the_report_write_notes_and_captions_escaped() {
     assert!(report.contains("weld toe &lt;b&gt;"));
     assert!(!report.contains("<script"));
 }
+
+/// A load case taken from a table row says where it came from in the report, escaped.
+#[test]
+fn the_report_names_a_table_rows_file_and_line() {
+    let mut p = project();
+    p.add_case(
+        LoadCase {
+            name: "row 7 of mesh.csv".to_owned(),
+            description: String::new(),
+            input: CaseInput::TableRow(planewise::study::TableRowInput {
+                file: "runs/<b>mesh</b>.csv".into(),
+                line: 7,
+                id: "E&5".into(),
+                stress: TypedTensor {
+                    unit: "MPa".to_owned(),
+                    compression_positive: false,
+                    components: [1.0, 2.0, 3.0, 0.0, 0.0, 0.0],
+                },
+            }),
+        },
+        false,
+    )
+    .unwrap();
+    let report = planewise::report::html(
+        &p,
+        &planewise::report::ReportOptions {
+            cases: vec!["row 7 of mesh.csv".into()],
+            figures: Vec::new(),
+            date: "2026-12-03".into(),
+        },
+    )
+    .unwrap();
+    assert!(
+        report.contains("Taken from the table runs/&lt;b&gt;mesh&lt;/b&gt;.csv, line 7 (E&amp;5)."),
+        "{report}"
+    );
+}
