@@ -26,6 +26,25 @@ fn demo_input(t: &StressTensor) -> SceneInput<'_> {
     }
 }
 
+/// Scene, projection, lighting, depth order, label placement, egui shapes and egui's
+/// tessellation into triangles: everything the CPU does for the 3D view in one window frame.
+fn frame_cpu(ctx: &egui::Context, raw: &egui::RawInput, input: &SceneInput<'_>, camera: &Camera) {
+    let output = ctx.run_ui(raw.clone(), |ui| {
+        let rect = ui.max_rect();
+        let scene = Scene::build(black_box(input), &camera.towards_eye());
+        let frame = render(
+            &scene,
+            camera,
+            rect.width(),
+            rect.height(),
+            Sizes::default(),
+        );
+        ui.painter()
+            .extend(egui_backend::shapes(&frame, rect, ui.ctx()));
+    });
+    black_box(ctx.tessellate(output.shapes, output.pixels_per_point));
+}
+
 fn view(c: &mut Criterion) {
     let t = StressTensor::from_components(
         [120.0, -35.0, 15.0, 48.0, -12.0, 22.0],
@@ -55,43 +74,11 @@ fn view(c: &mut Criterion) {
         ..input
     };
     let mut group = c.benchmark_group("view");
-    // Scene, projection, lighting, depth order, egui shapes and egui's tessellation into
-    // triangles: everything the CPU does for the 3D view in one window frame.
     group.bench_function("frame_cpu_1280x800", |b| {
-        b.iter(|| {
-            let output = ctx.run_ui(raw.clone(), |ui| {
-                let rect = ui.max_rect();
-                let scene = Scene::build(black_box(&input), &camera.towards_eye());
-                let frame = render(
-                    &scene,
-                    &camera,
-                    rect.width(),
-                    rect.height(),
-                    Sizes::default(),
-                );
-                ui.painter()
-                    .extend(egui_backend::shapes(&frame, rect, ui.ctx()));
-            });
-            black_box(ctx.tessellate(output.shapes, output.pixels_per_point));
-        });
+        b.iter(|| frame_cpu(&ctx, &raw, &input, &camera));
     });
     group.bench_function("frame_cpu_all_layers", |b| {
-        b.iter(|| {
-            let output = ctx.run_ui(raw.clone(), |ui| {
-                let rect = ui.max_rect();
-                let scene = Scene::build(black_box(&all), &camera.towards_eye());
-                let frame = render(
-                    &scene,
-                    &camera,
-                    rect.width(),
-                    rect.height(),
-                    Sizes::default(),
-                );
-                ui.painter()
-                    .extend(egui_backend::shapes(&frame, rect, ui.ctx()));
-            });
-            black_box(ctx.tessellate(output.shapes, output.pixels_per_point));
-        });
+        b.iter(|| frame_cpu(&ctx, &raw, &all, &camera));
     });
     // The program's own share of that frame: scene, projection, lighting, depth order and
     // label placement, without egui.

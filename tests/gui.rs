@@ -343,6 +343,20 @@ fn press_move_release(h: &mut Harness<'static, PlanewiseApp>, from: egui::Pos2, 
     h.run();
 }
 
+/// A primary click at `pos` (moved there first), then the frames it causes.
+fn click_at(h: &mut Harness<'static, PlanewiseApp>, pos: egui::Pos2) {
+    h.event(egui::Event::PointerMoved(pos));
+    for pressed in [true, false] {
+        h.event(egui::Event::PointerButton {
+            pos,
+            button: egui::PointerButton::Primary,
+            pressed,
+            modifiers: egui::Modifiers::NONE,
+        });
+    }
+    h.run();
+}
+
 /// The Mohr tab's layout for the app's state in `rect`.
 fn mohr_layout(
     h: &Harness<'static, PlanewiseApp>,
@@ -375,16 +389,7 @@ fn clicking_the_mohr_diagram_moves_the_plane_to_that_point() {
     let (sn, tau) = circles.point(&t, PlaneNormal::Z);
     let at = layout.to_px(sn, tau);
     let pos = rect.min + egui::vec2(at[0], at[1]);
-    h.event(egui::Event::PointerMoved(pos));
-    for pressed in [true, false] {
-        h.event(egui::Event::PointerButton {
-            pos,
-            button: egui::PointerButton::Primary,
-            pressed,
-            modifiers: egui::Modifiers::NONE,
-        });
-    }
-    h.run();
+    click_at(&mut h, pos);
     // The new plane's point is drawn under the pointer. The side panels grow and shrink a few
     // pixels with the width of the numbers they show, which rescales the picture a little after
     // the click, so allow a few pixels.
@@ -567,16 +572,7 @@ fn a_note_pinned_on_the_mohr_diagram_moves_by_dragging_and_undo_takes_each_step_
         .rect();
     let plane_before = h.state().project.plane;
     let pos = rect.center();
-    h.event(egui::Event::PointerMoved(pos));
-    for pressed in [true, false] {
-        h.event(egui::Event::PointerButton {
-            pos,
-            button: egui::PointerButton::Primary,
-            pressed,
-            modifiers: egui::Modifiers::NONE,
-        });
-    }
-    h.run();
+    click_at(&mut h, pos);
     // One note, on the Mohr diagram of the shown case, pinned where the click was; the click
     // pinned a note and did not move the cut plane.
     let notes = h.state().project.annotations.clone();
