@@ -15,7 +15,7 @@ mod common;
 use std::fmt::Write as _;
 use std::path::PathBuf;
 
-use common::planewise;
+use common::{planewise, planewise_ok};
 use planewise::mechanics::criteria::Strengths;
 use planewise::mechanics::search::{Measure as PlaneMeasure, SearchSettings};
 use planewise::mechanics::{SignConvention, StressUnit};
@@ -82,13 +82,7 @@ fn ranked(path: &std::path::Path, measure: &str, extra: &[&str]) -> serde_json::
 }
 
 fn json_of(args: &[&str]) -> serde_json::Value {
-    let out = planewise(args);
-    assert!(
-        out.status.success(),
-        "{}",
-        String::from_utf8_lossy(&out.stderr)
-    );
-    serde_json::from_slice(&out.stdout).unwrap()
+    serde_json::from_slice(&planewise_ok(args).stdout).unwrap()
 }
 
 #[test]

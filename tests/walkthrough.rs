@@ -9,7 +9,7 @@
 
 mod common;
 
-use common::planewise;
+use common::{planewise, planewise_ok};
 use planewise::draw::Sizes;
 use planewise::draw::place::overlapping_texts;
 use planewise::format::sig;
@@ -24,7 +24,7 @@ fn demo_case(name: &str) -> Derived {
 
 /// The principal values `analyze --json` prints for the demo's ULS 1, shown to 4 digits.
 fn principal_from_analyze() -> Vec<String> {
-    let out = planewise(&[
+    let out = planewise_ok(&[
         "analyze",
         "--project",
         "assets/demo-bracket-project.json",
@@ -32,7 +32,6 @@ fn principal_from_analyze() -> Vec<String> {
         "ULS 1",
         "--json",
     ]);
-    assert!(out.status.success());
     let v: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
     v["principal"]["values"]
         .as_array()
@@ -112,7 +111,7 @@ fn no_texts_overlap_in_the_walkthrough_figures() {
 fn explain_writes_numbered_figures_and_a_page_with_the_captions() {
     let dir = std::env::temp_dir().join(format!("planewise-explain-{}", std::process::id()));
     let _ = std::fs::remove_dir_all(&dir);
-    let out = planewise(&[
+    planewise_ok(&[
         "explain",
         "--project",
         "assets/demo-bracket-project.json",
@@ -121,11 +120,6 @@ fn explain_writes_numbered_figures_and_a_page_with_the_captions() {
         "--out",
         dir.to_str().unwrap(),
     ]);
-    assert!(
-        out.status.success(),
-        "{}",
-        String::from_utf8_lossy(&out.stderr)
-    );
     for name in [
         "01-element.svg",
         "02-cut-plane.svg",
@@ -149,7 +143,7 @@ fn explain_writes_numbered_figures_and_a_page_with_the_captions() {
     assert!(!html.contains("<script"));
 
     // From --stress too, and bad input named.
-    let out = planewise(&[
+    planewise_ok(&[
         "explain",
         "--stress",
         "xx=50",
@@ -158,11 +152,6 @@ fn explain_writes_numbered_figures_and_a_page_with_the_captions() {
         "--format",
         "png",
     ]);
-    assert!(
-        out.status.success(),
-        "{}",
-        String::from_utf8_lossy(&out.stderr)
-    );
     assert!(dir.join("uniaxial/06-verdict.png").exists());
     let out = planewise(&[
         "explain",

@@ -16,6 +16,18 @@ pub fn planewise(args: &[&str]) -> Output {
         .unwrap()
 }
 
+/// Runs the built binary and insists it succeeded (its stderr is the failure message).
+pub fn planewise_ok(args: &[&str]) -> Output {
+    let out = planewise(args);
+    assert!(
+        out.status.success(),
+        "planewise {}: {}",
+        args.join(" "),
+        String::from_utf8_lossy(&out.stderr)
+    );
+    out
+}
+
 /// Each case (arguments after `subcommand`, the argument name the message must contain)
 /// exits with status 2, prints one line on stderr naming the argument, and nothing on stdout.
 pub fn assert_bad_input(subcommand: &str, cases: &[(&[&str], &str)]) {
