@@ -36,7 +36,7 @@ best() { # best of three wall times of a command, seconds
     done
     echo "$b"
 }
-ours=$(best target/release/planewise batch "$table" --rank von-mises --top 100 --quiet)
+ours=$(best target/release/planewise batch "$table" --unit MPa --rank von-mises --top 100 --quiet)
 cat > "$dir/alternative.py" <<'PY'
 import sys, numpy as np, pandas as pd
 d = pd.read_csv(sys.argv[1], engine="c")

@@ -72,6 +72,8 @@ fn ranked(path: &std::path::Path, measure: &str, extra: &[&str]) -> serde_json::
     let mut args = vec![
         "batch",
         path.to_str().unwrap(),
+        "--unit",
+        "MPa",
         "--rank",
         measure,
         "--json",
@@ -128,6 +130,8 @@ fn components_round_trip_through_the_csv_out_and_read_back_the_same_in_either_co
     let o = planewise(&[
         "batch",
         path.to_str().unwrap(),
+        "--unit",
+        "MPa",
         "--rank",
         "max-shear",
         "--out",
@@ -187,6 +191,8 @@ fn every_bad_row_is_located_and_nothing_is_written() {
         let o = planewise(&[
             "batch",
             path.to_str().unwrap(),
+            "--unit",
+            "MPa",
             "--rank",
             "von-mises",
             "--out",
@@ -208,10 +214,34 @@ fn every_bad_row_is_located_and_nothing_is_written() {
         assert_eq!(v["bad_rows"], 1);
         assert_eq!(v["first_bad"][0]["line"], 3);
     }
+    // No unit: refused, never guessed; a missing file is named.
+    let (text, _) = table(3);
+    let path = temp("no-unit.csv");
+    std::fs::write(&path, text).unwrap();
+    let o = planewise(&["batch", path.to_str().unwrap(), "--rank", "von-mises"]);
+    assert_eq!(o.status.code(), Some(2));
+    assert!(String::from_utf8_lossy(&o.stderr).contains("--unit"));
+    let o = planewise(&[
+        "batch",
+        "no-such-table.csv",
+        "--unit",
+        "MPa",
+        "--rank",
+        "von-mises",
+    ]);
+    assert_eq!(o.status.code(), Some(2));
+    assert!(String::from_utf8_lossy(&o.stderr).contains("no-such-table.csv"));
     // A header without the components names what is missing.
     let path = temp("nohead.csv");
     std::fs::write(&path, "id,a,b\n1,2,3\n").unwrap();
-    let o = planewise(&["batch", path.to_str().unwrap(), "--rank", "von-mises"]);
+    let o = planewise(&[
+        "batch",
+        path.to_str().unwrap(),
+        "--unit",
+        "MPa",
+        "--rank",
+        "von-mises",
+    ]);
     assert_eq!(o.status.code(), Some(2));
     assert!(
         String::from_utf8_lossy(&o.stderr).contains(":1: no column for xx, yy, zz, xy, yz, zx")
@@ -296,7 +326,7 @@ fn standard_input_reads_like_a_file() {
     let (text, _) = table(100);
     let mut child = std::process::Command::new(env!("CARGO_BIN_EXE_planewise"))
         .args([
-            "batch", "-", "--rank", "tresca", "--top", "2", "--json", "--quiet",
+            "batch", "-", "--unit", "kPa", "--rank", "tresca", "--top", "2", "--json", "--quiet",
         ])
         .stdin(std::process::Stdio::piped())
         .stdout(std::process::Stdio::piped())
@@ -312,6 +342,7 @@ fn standard_input_reads_like_a_file() {
     assert!(out.status.success());
     let v: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
     assert_eq!(v["file"], "standard input");
+    assert_eq!(v["unit"], "kPa");
     assert_eq!(v["rows"].as_array().unwrap().len(), 2);
 }
 

@@ -34,8 +34,9 @@ pub struct BatchArgs {
     /// s11…).
     #[arg(long, value_name = "xx=NAME,…")]
     pub columns: Option<String>,
-    /// Unit of the components (stated, never guessed).
-    #[arg(long, value_name = "UNIT", default_value = "MPa", value_parser = values::unit)]
+    /// Unit of the components: required, since a table does not say and a wrong guess is off
+    /// by a factor of a million.
+    #[arg(long, value_name = "UNIT", value_parser = values::unit)]
     pub unit: StressUnit,
     /// The components are written compression positive.
     #[arg(long)]
@@ -235,14 +236,9 @@ pub fn run(args: &BatchArgs) -> Result<String, CliError> {
     let ranked = if args.file == "-" {
         table::rank(std::io::stdin().lock(), &name, &options, &measure, progress)
     } else {
-        let f = std::fs::File::open(&args.file).map_err(|cause| TableError::Io {
-            file: name.clone(),
-            cause,
-        });
-        match f {
-            Ok(f) => table::rank(f, &name, &options, &measure, progress),
-            Err(e) => Err(e),
-        }
+        let f = std::fs::File::open(&args.file)
+            .map_err(|cause| ArgError::new("FILE", format!("{name}: {cause}")))?;
+        table::rank(f, &name, &options, &measure, progress)
     };
     let ranked = match ranked {
         Ok(r) => r,
