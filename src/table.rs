@@ -205,7 +205,6 @@ impl Measure<'_> {
     /// same code as the envelope for worst-plane measures and utilizations.
     pub fn value(&self, t: &StressTensor) -> Result<Option<f64>, String> {
         let [xx, yy, zz, xy, yz, zx] = t.components_pa();
-        let sign = self.convention.sign();
         Ok(match self.measure {
             EnvelopeMeasure::VonMises => Some(
                 (0.5 * ((xx - yy).powi(2) + (yy - zz).powi(2) + (zz - xx).powi(2))
@@ -222,9 +221,8 @@ impl Measure<'_> {
                 })
             }
             EnvelopeMeasure::Sigma1 | EnvelopeMeasure::Sigma3 => {
-                let [s1, _, s3] = crate::mechanics::principal::principal_values_pa(t);
-                // In the compression-positive display σ1 is the most compressive.
-                let (first, last) = if sign > 0.0 { (s1, s3) } else { (-s3, -s1) };
+                let [first, _, last] =
+                    crate::mechanics::principal::principal_values_in(t, self.convention);
                 Some(if self.measure == EnvelopeMeasure::Sigma1 {
                     first
                 } else {

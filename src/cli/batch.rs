@@ -167,10 +167,7 @@ pub fn run(args: &BatchArgs) -> Result<String, CliError> {
         .into());
     }
     let settings = SearchSettings {
-        measure: match args.rank {
-            EnvelopeMeasure::Plane(m) => m,
-            _ => PlaneMeasure::Shear,
-        },
+        measure: args.rank.plane().unwrap_or(PlaneMeasure::Shear),
         convention,
         pore_pressure_pa: pore.unwrap_or(0.0),
         material,
@@ -318,12 +315,9 @@ fn to_json(
             .rows
             .iter()
             .map(|r| {
-                let p = crate::mechanics::principal::principal_values_pa(&r.tensor);
-                let principal = if sign > 0.0 {
-                    p.map(|v| clean(unit.from_pa(v)))
-                } else {
-                    [p[2], p[1], p[0]].map(|v| clean(-unit.from_pa(v)))
-                };
+                let principal =
+                    crate::mechanics::principal::principal_values_in(&r.tensor, convention)
+                        .map(|v| clean(unit.from_pa(v)));
                 let plane = matches!(rank, EnvelopeMeasure::Plane(_))
                     .then(|| {
                         crate::study::envelope::measure_value(

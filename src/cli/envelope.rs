@@ -69,10 +69,7 @@ pub fn run(args: &EnvelopeArgs) -> Result<String, CliError> {
     let (project, _) = study::load(&args.project).map_err(|e| ArgError::new("--project", e))?;
     let unit = project.unit().map_err(|e| ArgError::new("--project", e))?;
     let convention = project.convention();
-    let plane_measure = match measure {
-        EnvelopeMeasure::Plane(m) => Some(m),
-        _ => None,
-    };
+    let plane_measure = measure.plane();
     let (pore_pressure_pa, material) = args.material.read(unit, plane_measure, false)?;
     if let Some(m) = plane_measure
         && m.uses_material()

@@ -266,7 +266,9 @@ pub struct Placer {
     columns: usize,
     rows: usize,
     /// Per stroke, the last query that counted it (so a stroke in several cells counts once).
-    seen: std::cell::RefCell<(Vec<u32>, u32)>,
+    seen: Vec<u32>,
+    /// The number of the current query (stamps equal to it were counted already).
+    query: u32,
     bounds: Rect,
     /// The picture's line-width multiplier ([`super::Sizes::line`]).
     scale: f32,
@@ -290,7 +292,8 @@ impl Placer {
             grid: vec![Vec::new(); columns * rows],
             columns,
             rows,
-            seen: std::cell::RefCell::new((Vec::new(), 0)),
+            seen: Vec::new(),
+            query: 0,
             bounds: Rect {
                 min: [0.0, 0.0],
                 max: [frame.width, frame.height],
@@ -368,24 +371,23 @@ impl Placer {
 
     /// What covering `rect` would cost: other text dearest, then leaving the picture, then
     /// each stroke crossed.
-    fn cost(&self, rect: &Rect) -> f32 {
+    fn cost(&mut self, rect: &Rect) -> f32 {
         let padded = rect.grown(1.0);
         let texts = self.taken.iter().filter(|t| t.overlaps(&padded)).count() as f32;
         let outside = if self.bounds.holds(rect) { 0.0 } else { 1.0 };
         let mut crossed = 0.0;
-        let mut seen = self.seen.borrow_mut();
-        let (stamps, query) = &mut *seen;
-        stamps.resize(self.strokes.len(), 0);
-        *query += 1;
+        self.seen.resize(self.strokes.len(), 0);
+        self.query += 1;
+        let query = self.query;
         let ([c0, r0], [c1, r1]) = self.cells(&rect.grown(0.5));
         for r in r0..=r1 {
             for c in c0..=c1 {
                 for &i in &self.grid[r * self.columns + c] {
-                    let stamp = &mut stamps[i as usize];
-                    if *stamp == *query {
+                    let stamp = &mut self.seen[i as usize];
+                    if *stamp == query {
                         continue;
                     }
-                    *stamp = *query;
+                    *stamp = query;
                     let s = &self.strokes[i as usize];
                     if s.bounds.grown(0.5).overlaps(rect) && rect.crossed_by(s.a, s.b) {
                         crossed += s.weight;

@@ -12,6 +12,7 @@
 
 use nalgebra::{Matrix3, Vector3};
 
+use super::SignConvention;
 use super::tensor::StressTensor;
 
 /// Principal stresses σ1 ≥ σ2 ≥ σ3 with their unit directions.
@@ -187,6 +188,17 @@ pub fn principal_values_into(tensors: &[StressTensor], out: &mut [[f64; 3]]) {
     let rest = n - n % LANES;
     for (t, o) in tensors[rest..].iter().zip(&mut out[rest..]) {
         *o = principal_values_pa(t);
+    }
+}
+
+/// Principal stresses σ1 ≥ σ2 ≥ σ3 of `t` shown in `convention`, pascals (values only; in the
+/// compression-positive convention σ1 is the most compressive).
+#[must_use]
+pub fn principal_values_in(t: &StressTensor, convention: SignConvention) -> [f64; 3] {
+    let [s1, s2, s3] = principal_values_pa(t);
+    match convention {
+        SignConvention::TensionPositive => [s1, s2, s3],
+        SignConvention::CompressionPositive => [-s3, -s2, -s1],
     }
 }
 

@@ -73,6 +73,15 @@ impl EnvelopeMeasure {
         }
     }
 
+    /// The worst-plane measure, if it is one.
+    #[must_use]
+    pub fn plane(self) -> Option<Measure> {
+        match self {
+            Self::Plane(m) => Some(m),
+            _ => None,
+        }
+    }
+
     /// Whether the value is a stress (else a ratio).
     #[must_use]
     pub fn is_stress(self) -> bool {

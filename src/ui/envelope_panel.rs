@@ -89,10 +89,9 @@ impl EnvelopePanel {
             ));
         }
         let shown = MapMeasure {
-            measure: match measure {
-                EnvelopeMeasure::Plane(m) => m,
-                _ => crate::mechanics::search::Measure::Shear,
-            },
+            measure: measure
+                .plane()
+                .unwrap_or(crate::mechanics::search::Measure::Shear),
             unit: d.unit,
             convention: d.convention,
         };

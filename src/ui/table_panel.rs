@@ -152,10 +152,7 @@ impl TablePanel {
         let convention = options.convention;
         let plane = project.measure.settings(convention);
         let settings = SearchSettings {
-            measure: match measure {
-                EnvelopeMeasure::Plane(m) => m,
-                _ => PlaneMeasure::Shear,
-            },
+            measure: measure.plane().unwrap_or(PlaneMeasure::Shear),
             ..plane
         };
         let cancel = Arc::new(AtomicBool::new(false));
