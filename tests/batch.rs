@@ -67,6 +67,14 @@ fn von_mises(c: &[f64; 6]) -> f64 {
         .sqrt()
 }
 
+/// Runs `args`, insists on exit status 2 (bad input) and returns the message.
+fn refused(args: &[&str]) -> String {
+    let o = planewise(args);
+    let err = String::from_utf8_lossy(&o.stderr).into_owned();
+    assert_eq!(o.status.code(), Some(2), "{args:?}: {err}");
+    err
+}
+
 /// `planewise batch FILE --rank MEASURE … --json --quiet`, parsed.
 fn ranked(path: &std::path::Path, measure: &str, extra: &[&str]) -> serde_json::Value {
     let mut args = vec![
@@ -188,7 +196,7 @@ fn every_bad_row_is_located_and_nothing_is_written() {
         std::fs::write(&path, format!("{header}{good}{row}{good}")).unwrap();
         let out = temp("bad-out.csv");
         std::fs::write(&out, "the user's earlier file").unwrap();
-        let o = planewise(&[
+        let err = refused(&[
             "batch",
             path.to_str().unwrap(),
             "--unit",
@@ -198,8 +206,6 @@ fn every_bad_row_is_located_and_nothing_is_written() {
             "--out",
             out.to_str().unwrap(),
         ]);
-        let err = String::from_utf8_lossy(&o.stderr);
-        assert_eq!(o.status.code(), Some(2), "{row}: {err}");
         assert!(
             err.contains(&format!("{}{expected}", path.display())),
             "{row}: {err}"
@@ -218,33 +224,24 @@ fn every_bad_row_is_located_and_nothing_is_written() {
     let (text, _) = table(3);
     let path = temp("no-unit.csv");
     std::fs::write(&path, text).unwrap();
-    let o = planewise(&["batch", path.to_str().unwrap(), "--rank", "von-mises"]);
-    assert_eq!(o.status.code(), Some(2));
-    assert!(String::from_utf8_lossy(&o.stderr).contains("--unit"));
-    let o = planewise(&[
+    let file = path.to_str().unwrap();
+    assert!(refused(&["batch", file, "--rank", "von-mises"]).contains("--unit"));
+    let missing = [
         "batch",
         "no-such-table.csv",
         "--unit",
         "MPa",
         "--rank",
         "von-mises",
-    ]);
-    assert_eq!(o.status.code(), Some(2));
-    assert!(String::from_utf8_lossy(&o.stderr).contains("no-such-table.csv"));
+    ];
+    assert!(refused(&missing).contains("no-such-table.csv"));
     // A header without the components names what is missing.
     let path = temp("nohead.csv");
     std::fs::write(&path, "id,a,b\n1,2,3\n").unwrap();
-    let o = planewise(&[
-        "batch",
-        path.to_str().unwrap(),
-        "--unit",
-        "MPa",
-        "--rank",
-        "von-mises",
-    ]);
-    assert_eq!(o.status.code(), Some(2));
+    let file = path.to_str().unwrap();
     assert!(
-        String::from_utf8_lossy(&o.stderr).contains(":1: no column for xx, yy, zz, xy, yz, zx")
+        refused(&["batch", file, "--unit", "MPa", "--rank", "von-mises"])
+            .contains(":1: no column for xx, yy, zz, xy, yz, zx")
     );
 }
 
