@@ -214,13 +214,32 @@ fn material(s: &mut String, project: &Project, unit: StressUnit, notes: &mut Foo
         notes.mark("Drucker–Prager fits to Mohr–Coulomb: Chen & Han, Plasticity for Structural Engineers, 1988, §5.4"),
     );
     let mc = &project.measure;
+    let pore = if mc.pore_pressure_pa == 0.0 {
+        "none given: total stress throughout".to_owned()
+    } else {
+        format!(
+            "p = {} {unit} (compression positive): fault checks and worst planes use σn′ = σn − p; Rankine, Mohr–Coulomb and Drucker–Prager use σ′ = σ + p·I (tension positive); von Mises and Tresca are unaffected",
+            sig(unit.from_pa(mc.pore_pressure_pa), 6)
+        )
+    };
+    let planes = match mc.plane_strength() {
+        Some(m) => format!(
+            "cohesion {} {unit}, friction angle {}° (μ = tan φ = {}), used for the Coulomb checks of the cut plane, the named faults and the mohr-coulomb worst plane",
+            sig(unit.from_pa(m.cohesion_pa), 6),
+            sig(m.friction_angle_deg, 6),
+            sig(m.friction_angle_deg.to_radians().tan(), 6)
+        ),
+        None => format!(
+            "not given: the Coulomb checks of planes are not checked (they need {})",
+            crate::study::MeasureChoice::PLANE_STRENGTH_NEEDED
+        ),
+    };
     let _ = write!(
         s,
-        "<p>Worst-plane measure: {}; pore pressure p = {} {unit}; the planes' cohesion {} {unit} and friction angle {}° (used for fault checks and the worst plane).</p>\n</section>\n",
-        mc.measure.key(),
-        sig(unit.from_pa(mc.pore_pressure_pa), 6),
-        sig(unit.from_pa(mc.cohesion_pa), 6),
-        sig(mc.friction_angle_deg, 6)
+        "<table>\n<tr><th>worst-plane measure</th><td>{}</td></tr>\n<tr><th>pore pressure</th><td>{}</td></tr>\n<tr><th>the planes' strength</th><td>{}</td></tr>\n</table>\n</section>\n",
+        escape(mc.measure.key()),
+        escape(&pore),
+        escape(&planes)
     );
 }
 
@@ -251,14 +270,10 @@ fn envelopes(
             notes.mark(formula)
         );
         for (i, r) in env.rows.iter().enumerate() {
-            let value = match (r.value, r.verdict) {
-                (Some(v), _) if measure.is_stress() => {
-                    format!("{} {unit}", sig(unit.from_pa(v), 6))
-                }
-                (Some(v), _) => sig(v, 6),
-                (None, Some(Condition::NeverReaches)) => "never reaches the surface".to_owned(),
-                (None, Some(Condition::FailsAtAnyScale)) => "fails at any scale".to_owned(),
-                (None, _) => "undefined".to_owned(),
+            let value = match r.value {
+                Some(v) if measure.is_stress() => format!("{} {unit}", sig(unit.from_pa(v), 6)),
+                Some(v) => sig(v, 6),
+                None => crate::study::envelope::standing_text(r.standing()).to_owned(),
             };
             let governs = if env.governing.as_deref() == Some(r.name.as_str()) {
                 " <strong>(governs)</strong>"
@@ -309,7 +324,14 @@ fn row_table(s: &mut String, rows: &[ResultRow], unit: StressUnit, notes: &mut F
 }
 
 fn verdict_table(s: &mut String, verdicts: &[Verdict], unit: StressUnit, notes: &mut Footnotes) {
-    s.push_str("<h3>Verdict (proportional loading)</h3>\n<table>\n<tr><th>criterion</th><th>outcome</th><th>demand</th><th>strength</th><th>utilization</th><th>factor of safety</th><th>note</th></tr>\n");
+    use crate::mechanics::criteria::definitions;
+    let _ = writeln!(
+        s,
+        "<h3>Verdict</h3>\n<table>\n<tr><th>criterion</th><th>outcome</th><th>stress judged</th><th>demand</th><th>strength</th><th>utilization</th><th>factor of safety{}</th><th>strength-reduction factor{}</th><th>mobilized friction angle{}</th><th>note</th></tr>",
+        notes.mark(definitions::PROPORTIONAL),
+        notes.mark(definitions::REDUCTION),
+        notes.mark(definitions::MOBILIZED)
+    );
     let stress = |v: Option<f64>| {
         v.map_or_else(
             || "—".to_owned(),
@@ -324,19 +346,36 @@ fn verdict_table(s: &mut String, verdicts: &[Verdict], unit: StressUnit, notes: 
         };
         let u = match (v.utilization, v.condition) {
             (Some(u), _) => sig(u, 6),
-            (None, Condition::NeverReaches) => "never reaches the surface".to_owned(),
-            (None, Condition::FailsAtAnyScale) => "fails at any scale".to_owned(),
-            _ => "—".to_owned(),
+            (None, Condition::NotChecked) => "—".to_owned(),
+            (None, c) => crate::study::envelope::standing_text(c).to_owned(),
+        };
+        let (reduction, mobilized) = match v.reduction {
+            Some(r) => match (r.factor, r.mobilized_friction_deg) {
+                (Some(f), Some(phi)) => (sig(f, 6), format!("{}°", sig(phi, 6))),
+                _ => (
+                    crate::study::envelope::standing_text(r.condition).to_owned(),
+                    "—".to_owned(),
+                ),
+            },
+            None => ("—".to_owned(), "—".to_owned()),
+        };
+        let basis = if v.condition == Condition::NotChecked {
+            "—".to_owned()
+        } else {
+            v.basis.text(unit)
         };
         let _ = writeln!(
             s,
-            "<tr><td>{}{}</td><td class=\"{class}\">{word}</td><td class=\"num\">{}</td><td class=\"num\">{}</td><td class=\"num\">{u}</td><td class=\"num\">{}</td><td>{}</td></tr>",
+            "<tr><td>{}{}</td><td class=\"{class}\">{word}</td><td>{}</td><td class=\"num\">{}</td><td class=\"num\">{}</td><td class=\"num\">{u}</td><td class=\"num\">{}</td><td class=\"num\">{}</td><td class=\"num\">{}</td><td>{}</td></tr>",
             escape(v.criterion.label()),
             notes.mark(v.criterion.formula()),
+            escape(&basis),
             stress(v.governing_stress_pa),
             stress(v.strength_pa),
             v.factor_of_safety
                 .map_or_else(|| "—".to_owned(), |f| sig(f, 6)),
+            escape(&reduction),
+            escape(&mobilized),
             escape(&v.note)
         );
     }
@@ -446,23 +485,39 @@ fn case_section(
     if !d.faults.is_empty() {
         let _ = write!(
             s,
-            "<h3>Named faults{}</h3>\n<table>\n<tr><th>name</th><th>dip / dip direction</th><th>σn′</th><th>τ</th><th>slip tendency</th><th>dilation tendency</th><th>Coulomb U</th><th>Δp to slip</th></tr>\n",
-            notes.mark("Slip tendency τ/σn′ (Morris et al. 1996); dilation tendency (σ1 − σn)/(σ1 − σ3) (Ferrill et al. 1999); Δp = σn′ − (τ − c)/tan φ")
+            "<h3>Named faults{}</h3>\n<table>\n<tr><th>name</th><th>dip / dip direction</th><th>σn′</th><th>τ</th><th>slip tendency</th><th>dilation tendency</th><th>rake{}</th><th>Coulomb U</th><th>Δp to slip</th></tr>\n",
+            notes.mark("Slip tendency τ/σn′ (Morris et al. 1996); dilation tendency (σ1 − σn)/(σ1 − σ3) (Ferrill et al. 1999); Δp = σn′ − (τ − c)/tan φ"),
+            notes.mark("Rake: the angle in the plane from strike (dip direction − 90°) to the hanging wall's slip, reverse +90°, normal −90° (Aki & Richards 1980)")
         );
+        if d.search.material.is_none() {
+            let _ = writeln!(
+                s,
+                "<p>Coulomb U and Δp: not checked (needs {}).</p>",
+                crate::study::MeasureChoice::PLANE_STRENGTH_NEEDED
+            );
+        }
         let st = |v: f64| format!("{} {unit}", sig(unit.from_pa(v), 6));
         let r = |v: Option<f64>| v.map_or_else(|| "undefined".to_owned(), |x| sig(x, 6));
         for (f, c) in &d.faults {
             let cells = c.as_ref().map_or_else(
-                || "<td colspan=\"6\">—</td>".to_owned(),
+                || "<td colspan=\"7\">—</td>".to_owned(),
                 |c| {
+                    let (u, dp) = if c.mohr_coulomb.is_some() {
+                        (
+                            r(c.mohr_coulomb.and_then(|m| m.utilization)),
+                            c.pore_pressure_to_slip_pa
+                                .map_or_else(|| "undefined".to_owned(), st),
+                        )
+                    } else {
+                        ("not checked".to_owned(), "not checked".to_owned())
+                    };
                     format!(
-                        "<td class=\"num\">{}</td><td class=\"num\">{}</td><td class=\"num\">{}</td><td class=\"num\">{}</td><td class=\"num\">{}</td><td class=\"num\">{}</td>",
+                        "<td class=\"num\">{}</td><td class=\"num\">{}</td><td class=\"num\">{}</td><td class=\"num\">{}</td><td class=\"num\">{}</td><td class=\"num\">{u}</td><td class=\"num\">{dp}</td>",
                         st(c.effective_normal_stress_pa),
                         st(c.shear_stress_pa),
                         r(c.slip_tendency.utilization),
                         r(c.dilation_tendency.utilization),
-                        r(c.mohr_coulomb.and_then(|m| m.utilization)),
-                        c.pore_pressure_to_slip_pa.map_or_else(|| "undefined".to_owned(), st)
+                        c.rake_deg.map_or_else(|| "undefined".to_owned(), |x| format!("{}°", sig(x, 5))),
                     )
                 },
             );

@@ -383,7 +383,7 @@ pub fn fault_rows(
         value,
         formula,
     };
-    vec![
+    let mut out = vec![
         row(
             "pore pressure p",
             Value::Stress(pore_pressure_pa),
@@ -405,38 +405,83 @@ pub fn fault_rows(
             "Td = (σ1 − σn) / (σ1 − σ3), compression positive (Ferrill et al. 1999)",
         ),
         row(
-            "Coulomb utilization",
-            Value::Ratio(f.mohr_coulomb.and_then(|c| c.utilization)),
-            "U = τ / (c + σn′ tan φ) with the plane's c and φ from the worst-plane section",
+            "rake",
+            Value::Angle(f.rake_deg),
+            "Angle in the plane from strike to the hanging wall's slip, reverse +90°, normal −90° (Aki & Richards 1980)",
         ),
-        row(
-            "Δp to slip",
-            f.pore_pressure_to_slip_pa
-                .map_or(Value::Undefined("needs φ > 0"), Value::Stress),
-            "Δp = σn′ − (τ − c) / tan φ: the pore-pressure rise that brings the plane onto τ = c + σn′ tan φ (negative: already beyond)",
-        ),
-    ]
+    ];
+    match (f.mohr_coulomb, f.coulomb_reduction) {
+        (Some(u), Some(r)) => {
+            out.push(row(
+                "Coulomb utilization",
+                Value::Ratio(u.utilization),
+                "U = τ / (c + σn′ tan φ) with the planes' c and φ",
+            ));
+            out.push(row(
+                "Coulomb factor of safety",
+                f.coulomb_proportional.map_or(Value::Undefined("not checked"), |c| {
+                    c.factor_of_safety()
+                        .map_or(Value::Undefined(standing_word(c.condition)), |x| {
+                            Value::Ratio(Some(x))
+                        })
+                }),
+                "Proportional loading: σ and p multiplied by λ = c / (τ − σn′ tan φ) bring the plane onto τ = c + σn′ tan φ",
+            ));
+            out.push(row(
+                "Coulomb strength-reduction factor",
+                r.factor
+                    .map_or(Value::Undefined(standing_word(r.condition)), |x| {
+                        Value::Ratio(Some(x))
+                    }),
+                "F = (c + σn′ tan φ) / τ: c and tan φ divided by F bring the plane to slip",
+            ));
+            out.push(row(
+                "mobilized friction angle",
+                Value::Angle(r.mobilized_friction_deg),
+                "φm = atan(tan φ / F) at the strength-reduction factor F",
+            ));
+            out.push(row(
+                "Δp to slip",
+                f.pore_pressure_to_slip_pa
+                    .map_or(Value::Undefined("needs φ > 0"), Value::Stress),
+                "Δp = σn′ − (τ − c) / tan φ: the pore-pressure rise that brings the plane onto τ = c + σn′ tan φ (negative: already beyond)",
+            ));
+        }
+        _ => out.push(row(
+            "Coulomb check",
+            Value::Undefined("not checked: needs the planes' cohesion and friction angle"),
+            "U = τ / (c + σn′ tan φ) needs the planes' c and φ (Planes section)",
+        )),
+    }
+    out
 }
 
-/// The verdicts as rows: utilization and factor of safety per criterion.
+/// Short words for a condition, for [`Value::Undefined`].
+fn standing_word(c: crate::mechanics::criteria::Condition) -> &'static str {
+    use crate::mechanics::criteria::Condition;
+    match c {
+        Condition::NeverReaches => "never reaches the surface",
+        Condition::FailsAtAnyScale => "fails at any scale",
+        Condition::EffectiveTension => "no frictional capacity",
+        Condition::NotChecked => "not checked",
+        Condition::Defined | Condition::Undefined => "undefined",
+    }
+}
+
+/// The verdicts as rows: utilization, the factor of safety, and for Mohr–Coulomb and
+/// Drucker–Prager the strength-reduction factor and mobilized friction angle, each with its
+/// definition.
 #[must_use]
 pub fn verdict_rows(verdicts: &[crate::mechanics::criteria::Verdict]) -> Vec<ResultRow> {
+    use crate::mechanics::criteria::{Condition, definitions};
     let mut out = Vec::new();
     for v in verdicts {
         out.push(ResultRow {
             group: "Verdict",
             name: format!("{} utilization", v.criterion.label()),
             value: match v.condition {
-                crate::mechanics::criteria::Condition::NotChecked => {
-                    Value::Undefined("not checked")
-                }
-                crate::mechanics::criteria::Condition::NeverReaches => {
-                    Value::Undefined("never reaches the surface")
-                }
-                crate::mechanics::criteria::Condition::FailsAtAnyScale => {
-                    Value::Undefined("fails at any scale")
-                }
-                _ => Value::Ratio(v.utilization),
+                Condition::Defined => Value::Ratio(v.utilization),
+                c => Value::Undefined(standing_word(c)),
             },
             formula: v.criterion.formula(),
         });
@@ -444,8 +489,26 @@ pub fn verdict_rows(verdicts: &[crate::mechanics::criteria::Verdict]) -> Vec<Res
             group: "Verdict",
             name: format!("{} factor of safety", v.criterion.label()),
             value: Value::Ratio(v.factor_of_safety),
-            formula: "Proportional loading: the factor on every stress component that reaches the criterion's surface; 1 / utilization",
+            formula: definitions::PROPORTIONAL,
         });
+        if let Some(r) = v.reduction {
+            out.push(ResultRow {
+                group: "Verdict",
+                name: format!("{} strength-reduction factor", v.criterion.label()),
+                value: r
+                    .factor
+                    .map_or(Value::Undefined(standing_word(r.condition)), |x| {
+                        Value::Ratio(Some(x))
+                    }),
+                formula: definitions::REDUCTION,
+            });
+            out.push(ResultRow {
+                group: "Verdict",
+                name: format!("{} mobilized friction angle", v.criterion.label()),
+                value: Value::Angle(r.mobilized_friction_deg),
+                formula: definitions::MOBILIZED,
+            });
+        }
     }
     out
 }

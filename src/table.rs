@@ -20,8 +20,10 @@ use std::io::Read;
 
 use rayon::prelude::*;
 
+use crate::mechanics::criteria::Condition;
 use crate::mechanics::{SignConvention, StressTensor, StressUnit};
 use crate::study::EnvelopeMeasure;
+use crate::study::envelope::{ConditionCounts, RankKey};
 
 /// How the fields of a row are separated.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
@@ -64,6 +66,10 @@ pub struct TableOptions {
     pub skip_bad_rows: bool,
     /// Keep only the N worst rows (`None`: all, sorted).
     pub top: Option<usize>,
+    /// Keep only the rows at or beyond this value (the measure's value: Pa for stresses, in the
+    /// table's convention; else dimensionless); rows failing at any scale or without frictional
+    /// capacity always are.
+    pub above: Option<f64>,
 }
 
 impl TableOptions {
@@ -78,6 +84,7 @@ impl TableOptions {
             decimal_comma: false,
             skip_bad_rows: false,
             top: None,
+            above: None,
         }
     }
 }
@@ -107,8 +114,11 @@ pub struct Row {
     /// The stress (pascals, tension positive).
     pub tensor: StressTensor,
     /// The ranked measure's value (Pa for stresses, in the table's convention; else
-    /// dimensionless); `None` where undefined.
+    /// dimensionless); `None` where it is not a number (see `standing`).
     pub value: Option<f64>,
+    /// How the value reads: a number, or why not (fails at any scale, no frictional capacity,
+    /// never reaches the surface, undefined).
+    pub standing: Condition,
 }
 
 /// A row that could not be read.
@@ -183,6 +193,10 @@ pub struct Ranked {
     pub bad_count: u64,
     /// The first bad rows, by line (at most [`KEEP_BAD`]).
     pub bad: Vec<BadRow>,
+    /// How many good rows stand in each condition (all rows read, not only those kept).
+    pub counts: ConditionCounts,
+    /// With [`TableOptions::above`]: how many rows are at or beyond the threshold.
+    pub at_or_beyond: u64,
 }
 
 /// How many bad rows are kept to report.
@@ -201,12 +215,14 @@ pub struct Measure<'a> {
 }
 
 impl Measure<'_> {
-    /// The value for one tensor: closed forms for the equivalent and principal stresses, the
-    /// same code as the envelope for worst-plane measures and utilizations.
-    pub fn value(&self, t: &StressTensor) -> Result<Option<f64>, String> {
+    /// The value for one tensor and how it reads: closed forms for the equivalent and
+    /// principal stresses, the same code as the envelope for worst-plane measures and
+    /// utilizations.
+    pub fn value(&self, t: &StressTensor) -> Result<(Option<f64>, Condition), String> {
         let [xx, yy, zz, xy, yz, zx] = t.components_pa();
-        Ok(match self.measure {
-            EnvelopeMeasure::VonMises => Some(
+        let number = |v: f64| Ok((Some(v), Condition::Defined));
+        match self.measure {
+            EnvelopeMeasure::VonMises => number(
                 (0.5 * ((xx - yy).powi(2) + (yy - zz).powi(2) + (zz - xx).powi(2))
                     + 3.0 * (xy * xy + yz * yz + zx * zx))
                     .sqrt(),
@@ -214,7 +230,7 @@ impl Measure<'_> {
             EnvelopeMeasure::Tresca | EnvelopeMeasure::MaxShear => {
                 let [s1, _, s3] = crate::mechanics::principal::principal_values_pa(t);
                 let tresca = s1 - s3;
-                Some(if self.measure == EnvelopeMeasure::Tresca {
+                number(if self.measure == EnvelopeMeasure::Tresca {
                     tresca
                 } else {
                     0.5 * tresca
@@ -223,39 +239,35 @@ impl Measure<'_> {
             EnvelopeMeasure::Sigma1 | EnvelopeMeasure::Sigma3 => {
                 let [first, _, last] =
                     crate::mechanics::principal::principal_values_in(t, self.convention);
-                Some(if self.measure == EnvelopeMeasure::Sigma1 {
+                number(if self.measure == EnvelopeMeasure::Sigma1 {
                     first
                 } else {
                     last
                 })
             }
             other => {
-                crate::study::envelope::measure_value(
+                let v = crate::study::envelope::measure_value(
                     t,
                     other,
                     self.convention,
                     self.plane_settings,
                     self.strengths,
                 )
-                .map_err(|e| e.to_string())?
-                .value
+                .map_err(|e| e.to_string())?;
+                Ok((v.value, v.standing()))
             }
-        })
+        }
     }
 
-    /// The value as a key where larger is worse (undefined least).
-    fn key(&self, value: Option<f64>) -> f64 {
-        match value {
-            Some(v) if self.measure.worst_is_smallest() => -v,
-            Some(v) => v,
-            None => f64::NEG_INFINITY,
-        }
+    /// The value's place in the ranking (larger worse).
+    fn key(&self, value: Option<f64>, standing: Condition) -> RankKey {
+        RankKey::new(self.measure, value, standing)
     }
 }
 
 /// A row in the heap, ordered by its key then by line (earlier first among equals).
 struct Keyed {
-    key: f64,
+    key: RankKey,
     row: Row,
 }
 
@@ -276,7 +288,7 @@ impl Ord for Keyed {
     fn cmp(&self, other: &Self) -> std::cmp::Ordering {
         other
             .key
-            .total_cmp(&self.key)
+            .cmp(&self.key)
             .then(self.row.line.cmp(&other.row.line))
     }
 }
@@ -337,10 +349,23 @@ fn normalise(name: &str) -> String {
 #[must_use]
 pub fn component_of(name: &str) -> Option<usize> {
     let n = normalise(name);
+    // A unit in the name ("xx_MPa", "S11 (psi)"), as `planewise batch` writes them.
+    let n = ["mpa", "kpa", "gpa", "ksi", "psi", "bar", "nmm2", "pa"]
+        .iter()
+        .find_map(|u| {
+            n.strip_suffix(u)
+                .filter(|rest| component_core(rest).is_some())
+        })
+        .map_or(n.clone(), str::to_owned);
+    component_core(&n)
+}
+
+/// The component of a normalised name without a unit.
+fn component_core(n: &str) -> Option<usize> {
     let core = ["sigma", "stress", "tau", "s"]
         .iter()
         .find_map(|p| n.strip_prefix(p).filter(|rest| rest.len() == 2))
-        .unwrap_or(&n);
+        .unwrap_or(n);
     match core {
         "xx" | "11" => Some(0),
         "yy" | "22" => Some(1),
@@ -488,6 +513,8 @@ struct Part {
     rows: u64,
     bad: Vec<BadRow>,
     bad_count: u64,
+    counts: ConditionCounts,
+    at_or_beyond: u64,
 }
 
 /// Parses the lines of `bytes` (whole lines), the first being line `first_line`.
@@ -503,7 +530,12 @@ fn parse_part(
         rows: 0,
         bad: Vec::new(),
         bad_count: 0,
+        counts: ConditionCounts::default(),
+        at_or_beyond: 0,
     };
+    let threshold = options
+        .above
+        .map(|v| RankKey::threshold(measure.measure, v));
     let mut fields = Vec::new();
     let width = header.names.len();
     let to_pa = |v: f64| measure.convention.sign() * options.unit.to_pa(v);
@@ -568,17 +600,24 @@ fn parse_part(
                     .collect(),
                 tensor,
                 value: None,
+                standing: Condition::Undefined,
             })
         })();
         match result {
             Ok(mut row) => {
-                let value = measure.value(&row.tensor)?;
+                let (value, standing) = measure.value(&row.tensor)?;
                 row.value = value;
+                row.standing = standing;
                 part.rows += 1;
-                part.kept.push(Keyed {
-                    key: measure.key(value),
-                    row,
-                });
+                part.counts.add(standing);
+                let key = measure.key(value, standing);
+                if let Some(t) = &threshold {
+                    if !key.at_or_beyond(t) {
+                        continue;
+                    }
+                    part.at_or_beyond += 1;
+                }
+                part.kept.push(Keyed { key, row });
             }
             Err(bad) => {
                 part.bad_count += 1;
@@ -615,7 +654,8 @@ pub fn rank(
     let mut next_line = 1u64;
     let mut header_found: Option<Header> = None;
     let mut kept = Kept::new(options.top);
-    let (mut total_rows, mut bad_count) = (0u64, 0u64);
+    let (mut total_rows, mut bad_count, mut at_or_beyond) = (0u64, 0u64, 0u64);
+    let mut counts = ConditionCounts::default();
     let mut bad: Vec<BadRow> = Vec::new();
     let mut eof = false;
     let threads = rayon::current_num_threads().max(1);
@@ -697,6 +737,8 @@ pub fn rank(
             let part = r.map_err(TableError::Measure)?;
             total_rows += part.rows;
             bad_count += part.bad_count;
+            at_or_beyond += part.at_or_beyond;
+            counts.merge(&part.counts);
             bad.extend(part.bad);
             kept.merge(part.kept);
         }
@@ -723,6 +765,8 @@ pub fn rank(
         total_rows,
         bad_count,
         bad,
+        counts,
+        at_or_beyond,
     })
 }
 

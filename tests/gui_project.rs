@@ -320,6 +320,8 @@ fn window_export_and_the_command_line_give_identical_svg_for_a_project() {
     // depend on what the project stores.
     project.measure.measure = planewise::mechanics::search::Measure::MohrCoulomb;
     project.measure.pore_pressure_pa = 2e6;
+    project.measure.cohesion_pa = Some(5e6);
+    project.measure.friction_angle_deg = Some(30.0);
     planewise::study::save(&project_path, &project).unwrap();
     let (project, _) = planewise::study::load(&project_path).unwrap();
     let mut app = PlanewiseApp::new(

@@ -188,7 +188,10 @@ fn the_file_round_trips_and_refuses_what_it_cannot_read() {
         ),
         (
             "future.json",
-            text.replace("\"format_version\": 1", "\"format_version\": 99"),
+            text.replace(
+                &format!("\"format_version\": {}", study::FORMAT_VERSION),
+                "\"format_version\": 99",
+            ),
             "newer",
         ),
         (

@@ -51,7 +51,7 @@ proptest! {
     /// by it lies on the criterion's surface (U = 1), for every criterion.
     #[test]
     fn the_factor_of_safety_times_the_state_lies_on_the_surface(t in state(), s in strengths()) {
-        for v in criteria::verdicts(&t, &s) {
+        for v in criteria::verdicts(&t, &s, 0.0) {
             match (v.condition, v.factor_of_safety) {
                 (Condition::Defined, Some(f)) => {
                     let on = criteria::verdict(&scaled(&t, f), v.criterion, &s);
@@ -294,10 +294,25 @@ fn analyze_reports_every_criterion_and_the_fault() {
     let r = by("rankine");
     assert_eq!(r["condition"], "not-checked");
     assert!(r["utilization"].is_null() && r["factor_of_safety"].is_null());
-    // Compressive state under Mohr–Coulomb: demand (σ1 − σ3) + (σ1 + σ3) sin φ = 20 − 40 × 0.5
-    // = 0: no demand to scale.
+    // Mohr–Coulomb on effective stress (p = 5 MPa given): σ′ = σ + p·I = −25, −15, −5 MPa, so
+    // the demand (σ1′ − σ3′) + (σ1′ + σ3′) sin φ = 20 − 30 × 0.5 = 5 MPa against
+    // 2 c cos φ = √3 MPa (worked by hand; Labuz & Zang 2012's form). On total stress it would
+    // have been 20 − 40 × 0.5 = 0.
     let mc = by("mohr-coulomb");
-    assert!(mc["governing_stress"].as_f64().unwrap().abs() < 1e-9);
+    assert!((mc["governing_stress"].as_f64().unwrap() - 5.0).abs() < 1e-9);
+    assert!((mc["strength"].as_f64().unwrap() - 3.0_f64.sqrt()).abs() < 1e-9);
+    assert!(
+        mc["stress_basis"]
+            .as_str()
+            .unwrap()
+            .starts_with("effective stress")
+    );
+    assert!(
+        vm["stress_basis"]
+            .as_str()
+            .unwrap()
+            .starts_with("unaffected")
+    );
     let fault = &j["plane"]["fault"];
     assert!((fault["slip_tendency"].as_f64().unwrap() - 0.25).abs() < 1e-12);
     assert!((fault["dilation_tendency"].as_f64().unwrap() - 0.25).abs() < 1e-12);

@@ -9,7 +9,8 @@ use serde::Serialize;
 use super::{ArgError, CliError, PlaneArgs, StressArgs, StressInput};
 use crate::format::{clean, sig, with_unit};
 use crate::mechanics::criteria::{self, Condition, DruckerPragerFit, Outcome, Strengths};
-use crate::mechanics::{Analysis, Component, PlaneNormal, PlaneStress, StressUnit};
+use crate::mechanics::{Component, PlaneStress, StressUnit};
+use crate::study::Derived;
 
 /// "passes", "fails" or "not-checked".
 #[must_use]
@@ -49,7 +50,10 @@ pub struct StrengthArgs {
 
 impl StrengthArgs {
     /// The strengths (Pa) and pore pressure (Pa, if given); a value nothing uses, or one out of
-    /// range, is bad input naming its argument.
+    /// range, is bad input naming its argument. `plane`: a plane check or plane measure is asked
+    /// for (the pore pressure applies to it); the pore pressure also applies to the
+    /// pressure-sensitive criteria (Rankine, Mohr–Coulomb, Drucker–Prager) when their strengths
+    /// are given.
     pub fn read(
         &self,
         unit: StressUnit,
@@ -90,10 +94,13 @@ impl StrengthArgs {
             }
         }
         let pore = stress("--pore-pressure", &self.pore_pressure)?;
-        if pore.is_some() && !plane {
+        let pressure_sensitive = strengths.cohesion_pa.is_some()
+            || strengths.tensile_strength_pa.is_some()
+            || strengths.compressive_strength_pa.is_some();
+        if pore.is_some() && !plane && !pressure_sensitive {
             return Err(ArgError::new(
                 "--pore-pressure",
-                "applies to the fault checks: give --normal (or --dip and --dip-direction) or --fault",
+                "applies to the fault checks (give --normal, --dip and --dip-direction, or --fault) and to the pressure-sensitive criteria (give --cohesion and --friction-angle, or --tensile-strength / --compressive-strength)",
             ));
         }
         Ok((strengths, pore))
@@ -148,10 +155,46 @@ pub struct AnalyzeJson {
     pub governing_criterion: Option<String>,
     #[serde(skip_serializing_if = "Option::is_none")]
     pub plane: Option<PlaneJson>,
-    /// With --fault / --fault-strike: each named plane's fault check, highest slip tendency
-    /// first (planes with no frictional capacity first of all).
+    /// With --fault / --fault-strike (or the project's faults): each named plane's fault
+    /// check, highest slip tendency first (planes with no frictional capacity first of all).
     #[serde(skip_serializing_if = "Vec::is_empty")]
     pub faults: Vec<NamedFaultJson>,
+    /// With --project: the file and the load case or combination.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub project: Option<ProjectRefJson>,
+    /// With --project: the values the command line set over the project's (argument names).
+    #[serde(skip_serializing_if = "Vec::is_empty")]
+    pub from_command_line: Vec<String>,
+    /// The pore pressure (compression positive) the checks use; null when none is given.
+    pub pore_pressure: Option<f64>,
+    /// What each safety measure means.
+    pub definitions: DefinitionsJson,
+}
+
+/// Where the state came from.
+#[derive(Debug, Serialize)]
+pub struct ProjectRefJson {
+    pub file: String,
+    pub case: String,
+}
+
+/// The definitions of the safety measures, as printed beside them.
+#[derive(Debug, Serialize)]
+pub struct DefinitionsJson {
+    pub factor_of_safety: &'static str,
+    pub strength_reduction_factor: &'static str,
+    pub mobilized_friction_angle: &'static str,
+}
+
+impl Default for DefinitionsJson {
+    fn default() -> Self {
+        use criteria::definitions::{MOBILIZED, PROPORTIONAL, REDUCTION};
+        Self {
+            factor_of_safety: PROPORTIONAL,
+            strength_reduction_factor: REDUCTION,
+            mobilized_friction_angle: MOBILIZED,
+        }
+    }
 }
 
 /// One named fault.
@@ -188,6 +231,17 @@ pub struct CriterionJson {
     /// "passes", "fails" or "not-checked".
     pub outcome: String,
     pub note: String,
+    /// The stress judged: total, effective (σ′ = σ + p·I) or unaffected by the pore pressure.
+    pub stress_basis: String,
+    /// Mohr–Coulomb and Drucker–Prager: c and tan φ divided by this reach the surface.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub strength_reduction_factor: Option<f64>,
+    /// Mohr–Coulomb and Drucker–Prager: atan(tan φ / F), degrees.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub mobilized_friction_angle_deg: Option<f64>,
+    /// Mohr–Coulomb and Drucker–Prager: how the strength-reduction factor reads.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub strength_reduction_condition: Option<Condition>,
 }
 
 /// The plane as a fault (compression-positive effective stress σn′ = σn − p).
@@ -199,7 +253,17 @@ pub struct FaultJson {
     pub slip_tendency: Option<f64>,
     pub slip_tendency_condition: Condition,
     pub dilation_tendency: Option<f64>,
+    /// τ / (c + σn′ tan φ) with the planes' c and φ; null when not checked.
     pub mohr_coulomb_utilization: Option<f64>,
+    /// "not checked: needs the planes' cohesion and friction angle" when they are not given.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub coulomb_not_checked: Option<String>,
+    /// The Coulomb check's factor of safety under proportional loading (σ and p scaled).
+    pub coulomb_factor_of_safety: Option<f64>,
+    /// (c + σn′ tan φ) / τ: c and tan φ divided by this bring the plane to slip.
+    pub coulomb_strength_reduction_factor: Option<f64>,
+    /// atan(tan φ / F), degrees.
+    pub coulomb_mobilized_friction_angle_deg: Option<f64>,
     /// The pore-pressure increase that brings the plane to slip (negative: already beyond).
     pub pore_pressure_to_slip: Option<f64>,
     pub rake_deg: Option<f64>,
@@ -262,18 +326,6 @@ fn arr(v: &Vector3<f64>) -> [f64; 3] {
     [v.x, v.y, v.z].map(clean)
 }
 
-/// What `analyze` checks besides the state: the material's strengths, the pore pressure for
-/// the fault checks, and named faults.
-#[derive(Debug, Clone, Default)]
-pub struct Checks {
-    /// The strengths.
-    pub strengths: Strengths,
-    /// The pore pressure, Pa, if given.
-    pub pore_pressure_pa: Option<f64>,
-    /// Named faults.
-    pub faults: Vec<crate::study::FaultPlane>,
-}
-
 fn fault_json(
     f: &criteria::FaultCheck,
     pore_pressure_pa: f64,
@@ -287,6 +339,21 @@ fn fault_json(
         slip_tendency_condition: f.slip_tendency.condition,
         dilation_tendency: f.dilation_tendency.utilization.map(clean),
         mohr_coulomb_utilization: f.mohr_coulomb.and_then(|c| c.utilization).map(clean),
+        coulomb_not_checked: f.mohr_coulomb.is_none().then(|| {
+            format!(
+                "not checked: needs {}",
+                crate::study::MeasureChoice::PLANE_STRENGTH_NEEDED
+            )
+        }),
+        coulomb_factor_of_safety: f
+            .coulomb_proportional
+            .and_then(|c| c.factor_of_safety())
+            .map(clean),
+        coulomb_strength_reduction_factor: f.coulomb_reduction.and_then(|r| r.factor).map(clean),
+        coulomb_mobilized_friction_angle_deg: f
+            .coulomb_reduction
+            .and_then(|r| r.mobilized_friction_deg)
+            .map(clean),
         pore_pressure_to_slip: f.pore_pressure_to_slip_pa.map(st),
         rake_deg: f.rake_deg.map(clean),
     }
@@ -343,28 +410,50 @@ pub fn read_faults(
     Ok(out)
 }
 
-/// Builds the JSON object for a state and optional plane.
+/// What of the study `analyze` prints besides the state.
+#[derive(Debug, Clone, Default)]
+pub struct Shown {
+    /// Print the cut plane's section.
+    pub plane: bool,
+    /// Print the cut plane's fault check (a pore pressure or the planes' c and φ is given).
+    pub fault: bool,
+    /// With --project: the file and case.
+    pub project: Option<(String, String)>,
+    /// The values the command line set over the project's.
+    pub from_command_line: Vec<String>,
+}
+
+/// The JSON object of the study's shown state: every number from [`Derived`], the one result
+/// model the window, the report and the envelope read too.
 #[must_use]
-pub fn to_json(input: &StressInput, plane: Option<PlaneNormal>, checks: &Checks) -> AnalyzeJson {
-    let u = input.unit.pascals();
-    let sign = input.convention.sign();
-    let a = Analysis::new(&input.tensor, input.convention);
+pub fn to_json(d: &Derived, shown: &Shown) -> AnalyzeJson {
+    let u = d.unit.pascals();
+    let sign = d.convention.sign();
+    let a = &d.analysis;
+    let tensor = &d.tensor;
     // Every number through `clean`: a value typed in psi comes back as typed.
     let st = |pa: f64| clean(pa / u);
-    let c = input.tensor.components_pa().map(|v| st(sign * v));
+    let c = tensor.components_pa().map(|v| st(sign * v));
     let inv = &a.invariants;
-    let verdicts = criteria::verdicts(&input.tensor, &checks.strengths);
-    let mut ordered = verdicts.clone();
-    criteria::governing_first(&mut ordered);
-    let governing = ordered
+    // `d.verdicts` is governing first; the JSON lists criteria in their fixed order.
+    let mut verdicts = d.verdicts.clone();
+    verdicts.sort_by_key(|v| {
+        criteria::Criterion::ALL
+            .iter()
+            .position(|c| *c == v.criterion)
+    });
+    let governing = d
+        .verdicts
         .first()
         .filter(|v| v.outcome() != Outcome::NotChecked)
         .map(|v| v.criterion.key().to_owned());
-    let material = checks.strengths.mohr_coulomb().and_then(Result::ok);
-    let fault_wanted = checks.pore_pressure_pa.is_some() || material.is_some();
+    let p = d.measure.pore_pressure_pa;
+    let scale = a.principal.values_pa[0]
+        .abs()
+        .max(a.principal.values_pa[2].abs());
     AnalyzeJson {
-        unit: input.unit.symbol().to_owned(),
-        convention: input.convention.key().to_owned(),
+        unit: d.unit.symbol().to_owned(),
+        convention: d.convention.key().to_owned(),
         stress: StressJson {
             xx: c[0],
             yy: c[1],
@@ -396,8 +485,9 @@ pub fn to_json(input: &StressInput, plane: Option<PlaneNormal>, checks: &Checks)
         lode_angle_deg: a.lode_angle_deg.map(clean),
         triaxiality: a.triaxiality.map(clean),
         in_plane: {
-            let [xx, yy, zz, xy, yz, zx] = input.tensor.components_pa();
-            (zz == 0.0 && yz == 0.0 && zx == 0.0).then(|| {
+            let [xx, yy, zz, xy, yz, zx] = tensor.components_pa();
+            let tol = criteria::RELATIVE_TOLERANCE * scale;
+            (zz.abs() <= tol && yz.abs() <= tol && zx.abs() <= tol).then(|| {
                 let (a, b, angle) = crate::mechanics::inputs::in_plane_principal(xx, yy, xy);
                 let mut values = [st(sign * a), st(sign * b)];
                 values.sort_by(|p, q| q.total_cmp(p));
@@ -418,37 +508,46 @@ pub fn to_json(input: &StressInput, plane: Option<PlaneNormal>, checks: &Checks)
                 condition: v.condition,
                 outcome: outcome_key(v.outcome()).to_owned(),
                 note: v.note.clone(),
+                stress_basis: v.basis.text(d.unit),
+                strength_reduction_factor: v.reduction.and_then(|r| r.factor).map(clean),
+                mobilized_friction_angle_deg: v
+                    .reduction
+                    .and_then(|r| r.mobilized_friction_deg)
+                    .map(clean),
+                strength_reduction_condition: v.reduction.map(|r| r.condition),
             })
             .collect(),
         governing_criterion: governing,
         faults: {
-            let p = checks.pore_pressure_pa.unwrap_or(0.0);
-            let mut rows: Vec<NamedFaultJson> = checks
+            let mut rows: Vec<(crate::study::envelope::RankKey, NamedFaultJson)> = d
                 .faults
                 .iter()
-                .filter_map(|f| {
-                    let n = f.normal().ok()?;
-                    let c = criteria::fault_check(&input.tensor, n, p, material.as_ref()).ok()?;
-                    Some(NamedFaultJson {
-                        name: f.name.clone(),
-                        dip_deg: clean(f.dip_deg),
-                        dip_direction_deg: clean(f.dip_direction_deg),
-                        check: fault_json(&c, p, &st),
-                    })
+                .filter_map(|(f, check)| {
+                    let c = check.as_ref()?;
+                    let key = crate::study::envelope::RankKey::new(
+                        crate::study::EnvelopeMeasure::Plane(
+                            crate::mechanics::search::Measure::SlipTendency,
+                        ),
+                        c.slip_tendency.utilization,
+                        c.slip_tendency.condition,
+                    );
+                    Some((
+                        key,
+                        NamedFaultJson {
+                            name: f.name.clone(),
+                            dip_deg: clean(f.dip_deg),
+                            dip_direction_deg: clean(f.dip_direction_deg),
+                            check: fault_json(c, p, &st),
+                        },
+                    ))
                 })
                 .collect();
-            let rank =
-                |r: &NamedFaultJson| match (r.check.slip_tendency, r.check.slip_tendency_condition)
-                {
-                    (Some(v), _) => v,
-                    (None, Condition::EffectiveTension) => f64::INFINITY,
-                    (None, _) => f64::NEG_INFINITY,
-                };
-            rows.sort_by(|a, b| rank(b).total_cmp(&rank(a)));
-            rows
+            rows.sort_by(|a, b| b.0.cmp(&a.0));
+            rows.into_iter().map(|(_, r)| r).collect()
         },
-        plane: plane.map(|n| {
-            let ps = PlaneStress::new(&input.tensor, n, input.convention);
+        plane: shown.plane.then(|| {
+            let n = d.plane;
+            let ps = PlaneStress::new(tensor, n, d.convention);
             PlaneJson {
                 normal: arr(&n.vector()),
                 traction: arr(&(ps.traction_pa / u)),
@@ -456,16 +555,45 @@ pub fn to_json(input: &StressInput, plane: Option<PlaneNormal>, checks: &Checks)
                 shear_stress: st(ps.shear_stress_pa),
                 shear_direction: ps.shear_direction.map(|d| arr(&d)),
                 rake_deg: ps.rake_deg().map(clean),
-                fault: fault_wanted
-                    .then(|| {
-                        let p = checks.pore_pressure_pa.unwrap_or(0.0);
-                        criteria::fault_check(&input.tensor, n, p, material.as_ref()).ok()
-                    })
+                fault: shown
+                    .fault
+                    .then_some(d.fault.as_ref())
                     .flatten()
-                    .map(|f| fault_json(&f, checks.pore_pressure_pa.unwrap_or(0.0), &st)),
+                    .map(|f| fault_json(f, p, &st)),
             }
         }),
+        project: shown.project.as_ref().map(|(file, case)| ProjectRefJson {
+            file: file.clone(),
+            case: case.clone(),
+        }),
+        from_command_line: shown.from_command_line.clone(),
+        pore_pressure: (p != 0.0).then(|| st(p)),
+        definitions: DefinitionsJson::default(),
     }
+}
+
+/// A project of one load case holding `input`'s tensor (typed in pascals, so nothing is lost to
+/// a unit round trip), shown in its unit and convention, with nothing to check it against: the
+/// study behind `analyze --stress` and `rosette`.
+#[must_use]
+pub fn ad_hoc_project(input: &StressInput) -> crate::study::Project {
+    let mut project = crate::study::Project::new("command line", input.unit, input.convention);
+    project.cases.push(crate::study::LoadCase {
+        name: "state".to_owned(),
+        description: String::new(),
+        input: crate::study::CaseInput::Tensor(crate::study::TypedTensor {
+            unit: "Pa".to_owned(),
+            compression_positive: false,
+            components: input.tensor.components_pa(),
+        }),
+    });
+    project
+}
+
+/// The JSON of a state alone (no plane, no material): `rosette` prints this.
+#[must_use]
+pub fn state_json(input: &StressInput) -> AnalyzeJson {
+    to_json(&Derived::new(&ad_hoc_project(input)), &Shown::default())
 }
 
 fn vec_text(v: &[f64; 3]) -> String {
@@ -477,6 +605,16 @@ fn vec_text(v: &[f64; 3]) -> String {
 pub fn to_text(j: &AnalyzeJson) -> String {
     let u = j.unit.as_str();
     let mut s = String::new();
+    if let Some(p) = &j.project {
+        let _ = writeln!(s, "Project {}, {}", p.file, p.case);
+        if !j.from_command_line.is_empty() {
+            let _ = writeln!(
+                s,
+                "  from the command line (over the project's values): {}",
+                j.from_command_line.join(", ")
+            );
+        }
+    }
     let _ = writeln!(
         s,
         "Stress state ({u}, {}; x, y, z right-handed)",
@@ -556,6 +694,13 @@ pub fn to_text(j: &AnalyzeJson) -> String {
         s,
         "Criteria (proportional loading: factor of safety = the factor on every stress that reaches the surface; utilization = 1 / factor)"
     );
+    if let Some(p) = j.pore_pressure {
+        let _ = writeln!(
+            s,
+            "  pore pressure p = {}: Rankine, Mohr–Coulomb and Drucker–Prager on effective stress σ′ = σ + p·I (tension positive); von Mises and Tresca unaffected",
+            with_unit(Some(p), u)
+        );
+    }
     for c in &j.criteria {
         let numbers = match (c.utilization, c.factor_of_safety) {
             (Some(u), Some(f)) => format!("U = {}, factor of safety {}", sig(u, 4), sig(f, 4)),
@@ -584,6 +729,20 @@ pub fn to_text(j: &AnalyzeJson) -> String {
             "  {:<23} {:<11} {numbers}{demand}{note}",
             c.name, c.outcome
         );
+        if let Some(condition) = c.strength_reduction_condition {
+            let reduction = match (c.strength_reduction_factor, c.mobilized_friction_angle_deg) {
+                (Some(f), Some(phi)) => format!(
+                    "strength-reduction factor {} (c and tan φ divided by it reach the surface), mobilized friction angle {}°",
+                    sig(f, 4),
+                    sig(phi, 4)
+                ),
+                _ => format!(
+                    "strength-reduction factor: {}",
+                    crate::study::envelope::standing_text(condition)
+                ),
+            };
+            let _ = writeln!(s, "  {:<23} {:<11} {reduction}", "", "");
+        }
     }
     if let Some(p) = &j.plane {
         let _ = writeln!(s, "Plane with unit normal {}", vec_text(&p.normal));
@@ -628,6 +787,11 @@ pub fn to_text(j: &AnalyzeJson) -> String {
             );
             let _ = writeln!(
                 s,
+                "  ({}; {})",
+                j.definitions.factor_of_safety, j.definitions.strength_reduction_factor
+            );
+            let _ = writeln!(
+                s,
                 "  {:<23} {}",
                 "effective normal σn′",
                 with_unit(Some(f.effective_normal_stress), u)
@@ -644,12 +808,28 @@ pub fn to_text(j: &AnalyzeJson) -> String {
                 "dilation tendency",
                 ratio(f.dilation_tendency)
             );
-            if f.mohr_coulomb_utilization.is_some() || f.pore_pressure_to_slip.is_some() {
+            if let Some(why) = &f.coulomb_not_checked {
+                let _ = writeln!(s, "  {:<23} {why}", "Coulomb check");
+            } else {
                 let _ = writeln!(
                     s,
                     "  {:<23} {}",
-                    "Mohr–Coulomb U",
+                    "Coulomb U τ/(c+σn′tanφ)",
                     ratio(f.mohr_coulomb_utilization)
+                );
+                let _ = writeln!(
+                    s,
+                    "  {:<23} {} (proportional loading, σ and p scaled)",
+                    "factor of safety",
+                    ratio(f.coulomb_factor_of_safety)
+                );
+                let _ = writeln!(
+                    s,
+                    "  {:<23} {} (c and tan φ divided by it reach slip); mobilized φ {}",
+                    "strength reduction",
+                    ratio(f.coulomb_strength_reduction_factor),
+                    f.coulomb_mobilized_friction_angle_deg
+                        .map_or_else(|| "undefined".to_owned(), |a| format!("{}°", sig(a, 5)))
                 );
                 let _ = writeln!(
                     s,
@@ -663,13 +843,29 @@ pub fn to_text(j: &AnalyzeJson) -> String {
     if !j.faults.is_empty() {
         let _ = writeln!(
             s,
-            "Faults (compression positive, σn′ = σn − p), highest slip tendency first"
+            "Faults (compression positive, σn′ = σn − p), highest slip tendency first; rake of the hanging wall's slip (Aki & Richards)"
         );
+        if let Some(why) = j
+            .faults
+            .first()
+            .and_then(|f| f.check.coulomb_not_checked.as_ref())
+        {
+            let _ = writeln!(s, "  Coulomb check {why}");
+        }
         let ratio = |v: Option<f64>| v.map_or_else(|| "undefined".to_owned(), |x| sig(x, 4));
         for f in &j.faults {
+            let coulomb = if f.check.coulomb_not_checked.is_some() {
+                "U not checked".to_owned()
+            } else {
+                format!(
+                    "U {:<9} Δp {}",
+                    ratio(f.check.mohr_coulomb_utilization),
+                    with_unit(f.check.pore_pressure_to_slip, u)
+                )
+            };
             let _ = writeln!(
                 s,
-                "  {:<12} dip {:>5}° / {:>6}°  σn′ {:<14} τ {:<14} Ts {:<9} Td {:<9} U {:<9} Δp {}",
+                "  {:<12} dip {:>5}° / {:>6}°  σn′ {:<14} τ {:<14} Ts {:<9} Td {:<9} rake {:<9} {coulomb}",
                 f.name,
                 sig(f.dip_deg, 4),
                 sig(f.dip_direction_deg, 5),
@@ -677,31 +873,145 @@ pub fn to_text(j: &AnalyzeJson) -> String {
                 with_unit(Some(f.check.shear_stress), u),
                 ratio(f.check.slip_tendency),
                 ratio(f.check.dilation_tendency),
-                ratio(f.check.mohr_coulomb_utilization),
-                with_unit(f.check.pore_pressure_to_slip, u)
+                with_unit(f.check.rake_deg, "°"),
             );
         }
     }
     s
 }
 
-/// Runs the subcommand.
-pub fn run(args: &AnalyzeArgs) -> Result<String, CliError> {
-    let input = args.stress.read()?;
+/// The study `analyze` reads: the project's (with --project), with what the command line sets
+/// over it, or one made of the command line's state and checks.
+fn study(args: &AnalyzeArgs) -> Result<(crate::study::Project, Shown), ArgError> {
     let plane = args.plane.read()?;
     let faults = read_faults(&args.fault, &args.fault_strike)?;
-    let (strengths, pore_pressure_pa) = args
-        .strengths
-        .read(input.unit, plane.is_some() || !faults.is_empty())?;
-    let json = to_json(
-        &input,
-        plane,
-        &Checks {
-            strengths,
-            pore_pressure_pa,
-            faults,
+    let mut from_command_line: Vec<String> = Vec::new();
+    let (mut project, project_ref) = if let (Some(file), Some(case)) =
+        (&args.stress.project, &args.stress.case)
+    {
+        if args.stress.stress.is_some() || args.stress.other.any() {
+            return Err(ArgError::new(
+                "--project",
+                "takes the state from the file: give --stress, --in-situ or --principal without it",
+            ));
+        }
+        let (mut project, _) =
+            crate::study::load(file).map_err(|e| ArgError::new("--project", e))?;
+        if !project.name_used(case) {
+            return Err(ArgError::new(
+                "--case",
+                crate::study::StudyError::Unknown(case.clone()),
+            ));
+        }
+        case.clone_into(&mut project.active);
+        if let Some(unit) = args.stress.unit {
+            project.unit = unit.symbol().to_owned();
+            from_command_line.push("--unit".to_owned());
+        }
+        if args.stress.compression_positive {
+            project.compression_positive = true;
+            from_command_line.push("--compression-positive".to_owned());
+        }
+        (project, Some((file.display().to_string(), case.clone())))
+    } else {
+        let input = args.stress.read()?;
+        (ad_hoc_project(&input), None)
+    };
+    let unit = project.unit().map_err(|e| ArgError::new("--project", e))?;
+    let has_plane = plane.is_some() || project_ref.is_some();
+    let (strengths, pore_pressure_pa) = args.strengths.read(
+        unit,
+        has_plane || !faults.is_empty() || !project.faults.is_empty(),
+    )?;
+    // Each given value replaces the project's; --cohesion and --friction-angle are the
+    // material's and the planes' alike (one strength set typed once).
+    let given = &args.strengths;
+    let m = &mut project.material.strengths;
+    for (text, target, value, name) in [
+        (
+            &given.yield_strength,
+            &mut m.yield_strength_pa,
+            strengths.yield_strength_pa,
+            "--yield-strength",
+        ),
+        (
+            &given.tensile_strength,
+            &mut m.tensile_strength_pa,
+            strengths.tensile_strength_pa,
+            "--tensile-strength",
+        ),
+        (
+            &given.compressive_strength,
+            &mut m.compressive_strength_pa,
+            strengths.compressive_strength_pa,
+            "--compressive-strength",
+        ),
+        (
+            &given.cohesion,
+            &mut m.cohesion_pa,
+            strengths.cohesion_pa,
+            "--cohesion",
+        ),
+    ] {
+        if text.is_some() {
+            *target = value;
+            from_command_line.push(name.to_owned());
+        }
+    }
+    if given.friction_angle.is_some() {
+        m.friction_angle_deg = strengths.friction_angle_deg;
+        from_command_line.push("--friction-angle".to_owned());
+    }
+    if let Some(fit) = given.dp_fit {
+        m.dp_fit = fit;
+        from_command_line.push("--dp-fit".to_owned());
+    }
+    if given.cohesion.is_some() {
+        project.measure.cohesion_pa = strengths.cohesion_pa;
+        project.measure.friction_angle_deg = strengths.friction_angle_deg;
+    }
+    if let Some(p) = pore_pressure_pa {
+        project.measure.pore_pressure_pa = p;
+        from_command_line.push("--pore-pressure".to_owned());
+    }
+    if let Some(n) = plane {
+        project.plane = n;
+        from_command_line.push(if args.plane.normal.is_some() {
+            "--normal".to_owned()
+        } else {
+            "--dip/--dip-direction".to_owned()
+        });
+    }
+    if !faults.is_empty() {
+        project.faults = faults;
+        from_command_line.push("--fault/--fault-strike".to_owned());
+    }
+    let fault = pore_pressure_pa.is_some()
+        || project.measure.pore_pressure_pa != 0.0
+        || project.measure.plane_strength().is_some();
+    if project_ref.is_none() {
+        // Without a project nothing overrides anything.
+        from_command_line.clear();
+    }
+    Ok((
+        project,
+        Shown {
+            plane: has_plane,
+            fault,
+            project: project_ref,
+            from_command_line,
         },
-    );
+    ))
+}
+
+/// Runs the subcommand.
+pub fn run(args: &AnalyzeArgs) -> Result<String, CliError> {
+    let (project, shown) = study(args)?;
+    let d = Derived::new(&project);
+    if let Some(problem) = &d.problem {
+        return Err(ArgError::new("--project", problem).into());
+    }
+    let json = to_json(&d, &shown);
     if args.json {
         let mut text = serde_json::to_string_pretty(&json).map_err(anyhow::Error::from)?;
         text.push('\n');

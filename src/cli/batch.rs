@@ -53,6 +53,11 @@ pub struct BatchArgs {
     /// Keep the N worst rows (default: every row, sorted).
     #[arg(long, value_name = "N")]
     pub top: Option<usize>,
+    /// Keep every row at or beyond this value of the measure (in --unit for stress measures;
+    /// at or below it for sigma3 and normal-min); rows that fail at any scale or have no
+    /// frictional capacity are always kept. With --top, the N worst of those.
+    #[arg(long, value_name = "VALUE", allow_hyphen_values = true)]
+    pub at_or_beyond: Option<String>,
     /// Write the ranked rows as CSV to this file (written whole or not at all).
     #[arg(long, value_name = "FILE", conflicts_with = "json")]
     pub out: Option<PathBuf>,
@@ -78,6 +83,14 @@ pub struct BatchJson {
     pub convention: String,
     pub rows_read: u64,
     pub bad_rows: u64,
+    /// How many rows read stand in each condition (a number, fails at any scale, no frictional
+    /// capacity, never reaches the surface, undefined, not checked).
+    pub conditions: crate::study::envelope::ConditionCounts,
+    /// With --at-or-beyond: the threshold and how many rows reach it.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub at_or_beyond: Option<f64>,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub rows_at_or_beyond: Option<u64>,
     /// The first bad rows (with --skip-bad-rows).
     pub first_bad: Vec<BadJson>,
     /// Worst first.
@@ -103,8 +116,11 @@ pub struct RowJson {
     pub components: [f64; 6],
     /// σ1 ≥ σ2 ≥ σ3 in the convention.
     pub principal: [f64; 3],
-    /// The ranked value; null where undefined.
+    /// The ranked value; null where it is not a number (see `condition`).
     pub value: Option<f64>,
+    /// How the value reads: "defined", "fails-at-any-scale", "effective-tension" (no
+    /// frictional capacity), "never-reaches", "undefined" or "not-checked".
+    pub condition: crate::mechanics::criteria::Condition,
     /// For worst-plane measures: dip and dip direction of the first worst plane, degrees.
     #[serde(skip_serializing_if = "Option::is_none")]
     pub plane: Option<[f64; 2]>,
@@ -182,6 +198,17 @@ pub fn run(args: &BatchArgs) -> Result<String, CliError> {
             return Err(ArgError::new("--rank", format!("{}: {}", c.label(), check.note)).into());
         }
     }
+    let above = args
+        .at_or_beyond
+        .as_deref()
+        .map(|t| {
+            if args.rank.is_stress() {
+                super::stress_value("--at-or-beyond", t, unit)
+            } else {
+                crate::parse::number(t).map_err(|e| ArgError::new("--at-or-beyond", e))
+            }
+        })
+        .transpose()?;
     let options = TableOptions {
         columns: args
             .columns
@@ -194,6 +221,7 @@ pub fn run(args: &BatchArgs) -> Result<String, CliError> {
         decimal_comma: args.decimal_comma,
         skip_bad_rows: args.skip_bad_rows,
         top: args.top,
+        above,
     };
     let measure = table::Measure {
         measure: args.rank,
@@ -262,7 +290,33 @@ pub fn run(args: &BatchArgs) -> Result<String, CliError> {
             eprintln!("planewise: skipped {}", b.located(&name));
         }
     }
-    let json = to_json(&ranked, &name, args.rank, unit, convention, &measure);
+    let mut json = to_json(&ranked, &name, args.rank, unit, convention, &measure);
+    if let Some(v) = above {
+        json.at_or_beyond = Some(clean(if args.rank.is_stress() {
+            unit.from_pa(v)
+        } else {
+            v
+        }));
+        json.rows_at_or_beyond = Some(ranked.at_or_beyond);
+    }
+    if !args.quiet {
+        // The run's description: on standard error, so the CSV stays plain (header first).
+        let what = if args.rank.is_stress() {
+            format!("{unit}, {}", convention.key())
+        } else {
+            "dimensionless".to_owned()
+        };
+        eprintln!(
+            "planewise batch: {name} ranked by {} ({what}), worst first; stresses in {unit}, {}; {}{}",
+            args.rank.key(),
+            convention.key(),
+            ranked.counts.text("rows"),
+            json.rows_at_or_beyond.map_or_else(String::new, |n| format!(
+                "; {n} at or beyond {}",
+                json.at_or_beyond.unwrap_or_default()
+            ))
+        );
+    }
     if args.json {
         let mut text = serde_json::to_string_pretty(&json).map_err(anyhow::Error::from)?;
         text.push('\n');
@@ -302,6 +356,9 @@ fn to_json(
         convention: convention.key().to_owned(),
         rows_read: ranked.total_rows,
         bad_rows: ranked.bad_count,
+        conditions: ranked.counts,
+        at_or_beyond: None,
+        rows_at_or_beyond: None,
         first_bad: ranked
             .bad
             .iter()
@@ -351,6 +408,7 @@ fn to_json(
                     value: r
                         .value
                         .map(|v| clean(if rank.is_stress() { unit.from_pa(v) } else { v })),
+                    condition: r.standing,
                     plane,
                 }
             })
@@ -367,18 +425,11 @@ fn field(text: &str) -> String {
     }
 }
 
+/// Plain RFC 4180 CSV: the header first (units in the column names), one row per ranked row;
+/// the run's description goes to standard error and `--json`.
 fn to_csv(ranked: &Ranked, json: &BatchJson, rank: EnvelopeMeasure) -> String {
     let mut s = String::new();
-    let what = if rank.is_stress() {
-        json.unit.clone()
-    } else {
-        "dimensionless".to_owned()
-    };
-    let _ = writeln!(
-        s,
-        "# planewise batch: {} ranked by {} ({what}), worst first; stresses in {}, {}; {} rows read, {} bad",
-        json.file, json.measure, json.unit, json.convention, json.rows_read, json.bad_rows
-    );
+    let u = &json.unit;
     let mut head: Vec<String> = vec!["line".into()];
     head.extend(
         ranked
@@ -387,9 +438,18 @@ fn to_csv(ranked: &Ranked, json: &BatchJson, rank: EnvelopeMeasure) -> String {
             .iter()
             .map(|&i| field(&ranked.header.names[i])),
     );
-    head.extend(COMPONENTS.iter().map(|c| (*c).to_owned()));
-    head.extend(["sigma1", "sigma2", "sigma3"].map(str::to_owned));
-    head.push(json.measure.clone());
+    head.extend(COMPONENTS.iter().map(|c| format!("{c}_{u}")));
+    head.extend(["sigma1", "sigma2", "sigma3"].map(|p| format!("{p}_{u}")));
+    // σ1 and σ3 are columns already; another measure gets a column of its own.
+    let own_column = !matches!(rank, EnvelopeMeasure::Sigma1 | EnvelopeMeasure::Sigma3);
+    if own_column {
+        head.push(if rank.is_stress() {
+            format!("{}_{u}", json.measure.replace('-', "_"))
+        } else {
+            json.measure.replace('-', "_")
+        });
+    }
+    head.push("condition".to_owned());
     if matches!(rank, EnvelopeMeasure::Plane(_)) {
         head.extend(["dip_deg", "dip_direction_deg"].map(str::to_owned));
     }
@@ -399,10 +459,10 @@ fn to_csv(ranked: &Ranked, json: &BatchJson, rank: EnvelopeMeasure) -> String {
         cells.extend(r.carried.iter().map(|t| field(t)));
         cells.extend(row.components.iter().map(|v| format!("{v}")));
         cells.extend(row.principal.iter().map(|v| format!("{v}")));
-        cells.push(
-            row.value
-                .map_or_else(|| "undefined".to_owned(), |v| format!("{v}")),
-        );
+        if own_column {
+            cells.push(row.value.map_or_else(String::new, |v| format!("{v}")));
+        }
+        cells.push(condition_key(row.condition).to_owned());
         if let Some([dip, dd]) = row.plane {
             cells.push(format!("{dip}"));
             cells.push(format!("{dd}"));
@@ -412,4 +472,17 @@ fn to_csv(ranked: &Ranked, json: &BatchJson, rank: EnvelopeMeasure) -> String {
         let _ = writeln!(s, "{}", cells.join(","));
     }
     s
+}
+
+/// The condition's key as written in JSON (kebab case).
+fn condition_key(c: crate::mechanics::criteria::Condition) -> &'static str {
+    use crate::mechanics::criteria::Condition;
+    match c {
+        Condition::Defined => "defined",
+        Condition::NotChecked => "not-checked",
+        Condition::NeverReaches => "never-reaches",
+        Condition::FailsAtAnyScale => "fails-at-any-scale",
+        Condition::EffectiveTension => "effective-tension",
+        Condition::Undefined => "undefined",
+    }
 }

@@ -10,7 +10,7 @@ use serde::Serialize;
 use super::worst_plane::MaterialArgs;
 use super::{ArgError, CliError};
 use crate::format::{clean, sig};
-use crate::mechanics::search::{SearchSettings, WorstCondition};
+use crate::mechanics::search::WorstCondition;
 use crate::study::{self, EnvelopeMeasure};
 
 /// Arguments of `planewise envelope`.
@@ -39,8 +39,16 @@ pub struct EnvelopeJson {
     pub convention: String,
     /// Worst first.
     pub rows: Vec<RowJson>,
-    /// The governing case or combination (the first row); null for an empty project.
+    /// The governing case or combination (the first row, when it has a number or fails at
+    /// any scale); null otherwise.
     pub governing: Option<String>,
+    /// How many rows stand in each condition.
+    pub conditions: study::envelope::ConditionCounts,
+    /// The pore pressure used (compression positive; effective stress for worst-plane measures
+    /// and the pressure-sensitive criteria); null when none is given.
+    pub pore_pressure: Option<f64>,
+    /// The values the command line set over the project's (argument names).
+    pub from_command_line: Vec<String>,
 }
 
 /// One case or combination.
@@ -61,32 +69,101 @@ pub struct RowJson {
     /// "never-reaches" or "fails-at-any-scale".
     #[serde(skip_serializing_if = "Option::is_none")]
     pub criterion_condition: Option<crate::mechanics::criteria::Condition>,
+    /// How the value reads, whatever the measure: "defined", "fails-at-any-scale",
+    /// "effective-tension" (no frictional capacity), "never-reaches", "undefined" or
+    /// "not-checked". Rows are ranked by it first (see the README).
+    pub standing: crate::mechanics::criteria::Condition,
 }
 
-/// Runs the subcommand.
+/// The project with what the command line sets over it, and the names of those arguments.
+fn with_overrides(
+    args: &EnvelopeArgs,
+    mut project: study::Project,
+    unit: crate::mechanics::StressUnit,
+) -> Result<(study::Project, Vec<String>), ArgError> {
+    let mut from_command_line = Vec::new();
+    let given = &args.material;
+    use crate::mechanics::criteria::Criterion;
+    let (pore_used, strength_used) = match args.measure {
+        EnvelopeMeasure::Plane(m) => (m.uses_friction(), m.uses_material()),
+        EnvelopeMeasure::Utilization(c) => (
+            c != Criterion::VonMises && c != Criterion::Tresca,
+            matches!(c, Criterion::MohrCoulomb | Criterion::DruckerPrager),
+        ),
+        _ => (false, false),
+    };
+    let refuse = |name: &'static str, what: &str| {
+        Err(ArgError::new(
+            name,
+            format!(
+                "applies only to {what} (the measure is {})",
+                args.measure.key()
+            ),
+        ))
+    };
+    if given.pore_pressure.is_some() && !pore_used {
+        return refuse(
+            "--pore-pressure",
+            "slip-tendency, mohr-coulomb and the utilizations of rankine, mohr-coulomb and drucker-prager",
+        );
+    }
+    for (text, name) in [
+        (&given.cohesion, "--cohesion"),
+        (&given.friction_angle, "--friction-angle"),
+    ] {
+        if text.is_some() && !strength_used {
+            return refuse(
+                name,
+                "mohr-coulomb and the utilizations of mohr-coulomb and drucker-prager",
+            );
+        }
+    }
+    let stress = |name: &'static str, text: &Option<String>| {
+        text.as_deref()
+            .map(|t| super::stress_value(name, t, unit))
+            .transpose()
+    };
+    if let Some(p) = stress("--pore-pressure", &given.pore_pressure)? {
+        project.measure.pore_pressure_pa = p;
+        from_command_line.push("--pore-pressure".to_owned());
+    }
+    let friction = given
+        .friction_angle
+        .as_deref()
+        .map(|t| crate::parse::number(t).map_err(|e| ArgError::new("--friction-angle", e)))
+        .transpose()?;
+    if let Some(m) =
+        super::worst_plane::pair_material(stress("--cohesion", &given.cohesion)?, friction)?
+    {
+        // One strength set typed once: the planes' and the material's.
+        project.measure.cohesion_pa = Some(m.cohesion_pa);
+        project.measure.friction_angle_deg = Some(m.friction_angle_deg);
+        project.material.strengths.cohesion_pa = Some(m.cohesion_pa);
+        project.material.strengths.friction_angle_deg = Some(m.friction_angle_deg);
+        from_command_line.extend(["--cohesion".to_owned(), "--friction-angle".to_owned()]);
+    }
+    Ok((project, from_command_line))
+}
+
+/// Runs the subcommand: the project's pore pressure, planes' strength and material, with what
+/// the command line sets over them.
 pub fn run(args: &EnvelopeArgs) -> Result<String, CliError> {
     let measure = args.measure;
     let (project, _) = study::load(&args.project).map_err(|e| ArgError::new("--project", e))?;
     let unit = project.unit().map_err(|e| ArgError::new("--project", e))?;
     let convention = project.convention();
-    let plane_measure = measure.plane();
-    let (pore_pressure_pa, material) = args.material.read(unit, plane_measure, false)?;
-    if let Some(m) = plane_measure
+    let (project, from_command_line) = with_overrides(args, project, unit)?;
+    let settings = project.measure.settings(convention);
+    if let Some(m) = measure.plane()
         && m.uses_material()
-        && material.is_none()
+        && settings.material.is_none()
     {
         return Err(ArgError::new(
             "--measure",
-            "mohr-coulomb needs --cohesion and --friction-angle",
+            "mohr-coulomb needs the planes' cohesion and friction angle: the project has none (set them with `planewise project set-planes`) and no --cohesion and --friction-angle are given",
         )
         .into());
     }
-    let settings = SearchSettings {
-        measure: plane_measure.unwrap_or(crate::mechanics::search::Measure::Shear),
-        convention,
-        pore_pressure_pa,
-        material,
-    };
     let env =
         study::envelope(&project, measure, &settings).map_err(|e| ArgError::new("--project", e))?;
     let u = unit.pascals();
@@ -111,9 +188,14 @@ pub fn run(args: &EnvelopeArgs) -> Result<String, CliError> {
                         .collect()
                 }),
                 criterion_condition: r.verdict,
+                standing: r.standing(),
             })
             .collect(),
         governing: env.governing.clone(),
+        conditions: env.counts,
+        pore_pressure: (project.measure.pore_pressure_pa != 0.0)
+            .then(|| clean(unit.from_pa(project.measure.pore_pressure_pa))),
+        from_command_line,
     };
     if args.json {
         let mut text = serde_json::to_string_pretty(&json).map_err(anyhow::Error::from)?;
@@ -132,20 +214,28 @@ pub fn run(args: &EnvelopeArgs) -> Result<String, CliError> {
         json.measure,
         json.rows.len()
     );
+    if let Some(p) = json.pore_pressure {
+        let _ = writeln!(
+            s,
+            "  pore pressure p = {} {} (effective stress)",
+            sig(p, 6),
+            json.unit
+        );
+    }
+    if !json.from_command_line.is_empty() {
+        let _ = writeln!(
+            s,
+            "  from the command line (over the project's values): {}",
+            json.from_command_line.join(", ")
+        );
+    }
+    let _ = writeln!(s, "  {}", env.counts.text("rows"));
     for (i, r) in json.rows.iter().enumerate() {
-        use crate::mechanics::criteria::Condition;
-        let value = match (r.value, r.condition, r.criterion_condition) {
-            (Some(v), ..) if measure.is_stress() => format!("{} {}", sig(v, 6), json.unit),
-            (Some(v), ..) => sig(v, 6),
-            (None, Some(WorstCondition::EffectiveTension), _) => {
-                "undefined (no frictional capacity)".to_owned()
-            }
-            (None, _, Some(Condition::NotChecked)) => {
-                "not checked (the project's material lacks the strengths)".to_owned()
-            }
-            (None, _, Some(Condition::NeverReaches)) => "never reaches the surface".to_owned(),
-            (None, _, Some(Condition::FailsAtAnyScale)) => "fails at any scale".to_owned(),
-            (None, ..) => "undefined".to_owned(),
+        let row = &env.rows[i];
+        let value = match r.value {
+            Some(v) if measure.is_stress() => format!("{} {}", sig(v, 6), json.unit),
+            Some(v) => sig(v, 6),
+            None => study::envelope::standing_text(row.standing()).to_owned(),
         };
         let mark = if i == 0 && json.governing.is_some() {
             "  ← governs"

@@ -9,7 +9,6 @@ use super::worst_plane::{MaterialArgs, search_settings_in};
 use super::{ArgError, CliError, PlaneArgs, ProjectView, StressArgs, values};
 use crate::draw::mohr::Envelope;
 use crate::export::{self, ImageFormat};
-use crate::mechanics::criteria::MohrCoulomb;
 use crate::mechanics::search::{Measure, worst_plane};
 use crate::study::figures::{self, FigureInput};
 
@@ -53,7 +52,7 @@ pub fn run(args: &MohrArgs) -> Result<String, CliError> {
     let envelope = if let Some(v) = from_project {
         // As the window: the project's material draws the envelope for its mohr-coulomb measure.
         (measure == Some(Measure::MohrCoulomb))
-            .then(|| MohrCoulomb::new(v.measure.cohesion_pa, v.measure.friction_angle_deg).ok())
+            .then(|| v.measure.plane_strength())
             .flatten()
             .map(|material| Envelope {
                 material,

@@ -6,7 +6,7 @@ use std::fmt::Write as _;
 use clap::Args;
 use serde::Serialize;
 
-use super::analyze::{AnalyzeJson, Checks, to_json, to_text};
+use super::analyze::{AnalyzeJson, state_json, to_text};
 use super::{ArgError, CliError, StressInput, values};
 use crate::format::{clean, sig};
 use crate::mechanics::inputs::Rosette;
@@ -127,7 +127,7 @@ pub fn run(args: &RosetteArgs) -> Result<String, CliError> {
         gamma_xy: micro(solved.strains[2]),
         principal_strains: solved.principal.map(micro),
         principal_angle_deg: solved.angle_deg.map(clean),
-        stress: to_json(&input, None, &Checks::default()),
+        stress: state_json(&input),
     };
     if args.json {
         let mut text = serde_json::to_string_pretty(&json).map_err(anyhow::Error::from)?;

@@ -388,7 +388,102 @@ pub struct Verdict {
     pub condition: Condition,
     /// What governs (Rankine: tension or compression), or what is missing when not checked.
     pub note: String,
+    /// Which stress the criterion was judged on (total, effective, or unaffected by the pore
+    /// pressure).
+    pub basis: StressBasis,
+    /// For Mohr–Coulomb and Drucker–Prager: the strength-reduction factor and the mobilized
+    /// friction angle (`None` for the other criteria and when not checked).
+    pub reduction: Option<Reduction>,
 }
+
+/// Which stress a criterion is judged on.
+#[derive(Clone, Copy, Debug, PartialEq, Serialize)]
+#[serde(rename_all = "kebab-case", tag = "kind")]
+pub enum StressBasis {
+    /// Total stress (no pore pressure given).
+    Total,
+    /// Effective stress σ′ = σ + p·I (tension positive; p compression positive), Pa: the
+    /// pressure-sensitive criteria (Rankine, Mohr–Coulomb, Drucker–Prager) when a pore pressure
+    /// is given (Terzaghi's principle of effective stress).
+    Effective {
+        /// The pore pressure p, Pa.
+        pore_pressure_pa: f64,
+    },
+    /// A pore pressure is given but the criterion depends only on the deviatoric stress
+    /// (von Mises, Tresca), which a pressure p·I does not change.
+    Unaffected,
+}
+
+impl StressBasis {
+    /// What it means, in words (the pore pressure in `unit`, for outputs).
+    #[must_use]
+    pub fn text(self, unit: super::StressUnit) -> String {
+        match self {
+            Self::Total => "total stress (no pore pressure given)".to_owned(),
+            Self::Effective { pore_pressure_pa } => format!(
+                "effective stress σ′ = σ + p·I (tension positive), p = {} {unit}",
+                crate::format::sig(unit.from_pa(pore_pressure_pa), 6)
+            ),
+            Self::Unaffected => {
+                "unaffected by the pore pressure (depends only on the deviatoric stress)".to_owned()
+            }
+        }
+    }
+}
+
+/// The strength-reduction reading of a pressure-sensitive criterion: the factor F by which the
+/// cohesion and tan φ are both divided until the state lies on the criterion's surface (the
+/// shear-strength reduction of geotechnical practice, e.g. Griffiths & Lane, Géotechnique
+/// 49(3):387, 1999), and the friction angle mobilized at that point, φm = atan(tan φ / F)
+/// (with the cohesion c / F). F > 1: safe by that margin; F < 1: beyond the surface.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct Reduction {
+    /// F, when defined (see `condition`).
+    pub factor: Option<f64>,
+    /// φm = atan(tan φ / F), degrees, when F is defined.
+    pub mobilized_friction_deg: Option<f64>,
+    /// [`Condition::Defined`]; [`Condition::NeverReaches`] when no reduction reaches the surface
+    /// (no shear: F = ∞); [`Condition::FailsAtAnyScale`] when no F puts the state inside (it lies
+    /// beyond the envelope's apex in tension).
+    pub condition: Condition,
+}
+
+impl Reduction {
+    fn defined(factor: f64, tan_phi: f64) -> Self {
+        let factor = factor.max(0.0);
+        Self {
+            factor: Some(factor),
+            mobilized_friction_deg: Some(if factor > 0.0 {
+                (tan_phi / factor).atan().to_degrees()
+            } else {
+                90.0
+            }),
+            condition: Condition::Defined,
+        }
+    }
+
+    fn not_defined(condition: Condition) -> Self {
+        Self {
+            factor: None,
+            mobilized_friction_deg: None,
+            condition,
+        }
+    }
+}
+
+/// The definition of each safety measure, printed beside it wherever it appears.
+pub mod definitions {
+    /// The proportional-loading factor of safety.
+    pub const PROPORTIONAL: &str = "factor of safety (proportional loading): the number every stress component (and the pore pressure) is multiplied by to reach the criterion's surface; 1 / utilization";
+    /// The strength-reduction factor.
+    pub const REDUCTION: &str = "strength-reduction factor: the number c and tan φ are both divided by until the state reaches the surface";
+    /// The mobilized friction angle.
+    pub const MOBILIZED: &str = "mobilized friction angle: φm = atan(tan φ / F) at the strength-reduction factor F (with c / F)";
+}
+
+/// Relative tolerance below which a stress difference counts as zero (round-off of the
+/// eigenvalues and of sums of stresses of magnitude `scale`).
+pub const RELATIVE_TOLERANCE: f64 = 1e-9;
 
 /// Pass, fail or not checked.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
@@ -422,12 +517,29 @@ impl Verdict {
             factor_of_safety: None,
             condition: Condition::NotChecked,
             note,
+            basis: StressBasis::Total,
+            reduction: None,
         }
     }
 
-    /// The verdict for a demand that scales with the stresses and a fixed strength.
-    fn proportional(criterion: Criterion, demand_pa: f64, strength_pa: f64, note: String) -> Self {
-        let (utilization, factor_of_safety, condition) = if strength_pa > 0.0 {
+    /// The verdict for a demand that scales with the stresses and a fixed strength. A demand
+    /// within [`RELATIVE_TOLERANCE`] × `scale_pa` of zero is zero: a state on a zero-strength
+    /// surface (a cohesionless cone) is on it at every scale (U = 1), not failing or passing on
+    /// round-off.
+    fn proportional(
+        criterion: Criterion,
+        demand_pa: f64,
+        strength_pa: f64,
+        scale_pa: f64,
+        note: String,
+    ) -> Self {
+        let tolerance = RELATIVE_TOLERANCE * scale_pa.abs().max(strength_pa.abs());
+        let demand_pa = if demand_pa.abs() <= tolerance {
+            0.0
+        } else {
+            demand_pa
+        };
+        let (utilization, factor_of_safety, condition) = if strength_pa > tolerance {
             if demand_pa > 0.0 {
                 (
                     Some(demand_pa / strength_pa),
@@ -441,6 +553,9 @@ impl Verdict {
             }
         } else if demand_pa > 0.0 {
             (None, None, Condition::FailsAtAnyScale)
+        } else if demand_pa == 0.0 {
+            // Zero strength and zero demand: on the surface, and there at every scale.
+            (Some(1.0), Some(1.0), Condition::Defined)
         } else {
             (None, None, Condition::NeverReaches)
         };
@@ -452,16 +567,140 @@ impl Verdict {
             factor_of_safety,
             condition,
             note,
+            basis: StressBasis::Total,
+            reduction: None,
         }
     }
 }
 
-/// The verdict of `criterion` for the stored (tension-positive) tensor `t`. Strengths must have
-/// passed [`Strengths::validate`]; an invalid one counts as missing.
+/// The strength-reduction factor of Mohr–Coulomb for principal stresses `s1 ≥ s3` (tension
+/// positive, effective). With the Mohr circle's centre s = −(σ1 + σ3)/2 and radius
+/// r = (σ1 − σ3)/2 (compression positive), the circle touches τ = (c + σ tan φ)/F when
+/// r √(F² + tan² φ) = c + s tan φ, so F = √(((c + s tan φ)/r)² − tan² φ) — worked from the
+/// tangency condition r = c cos φ + s sin φ (Labuz & Zang 2012, eq. 3) with c/F and tan φ/F.
+#[must_use]
+pub fn mohr_coulomb_reduction(m: &MohrCoulomb, s1: f64, s3: f64) -> Reduction {
+    let tan_phi = m.friction_angle_deg.to_radians().tan();
+    let c = m.cohesion_pa;
+    let s = -(s1 + s3) / 2.0;
+    let r = (s1 - s3) / 2.0;
+    let tolerance = RELATIVE_TOLERANCE * s1.abs().max(s3.abs()).max(c);
+    // The least compressive principal stress beyond the apex σ = −c / tan φ: no reduction helps.
+    if c + (s - r) * tan_phi < -tolerance * tan_phi.max(1.0) {
+        return Reduction::not_defined(Condition::FailsAtAnyScale);
+    }
+    if r <= tolerance {
+        return Reduction::not_defined(Condition::NeverReaches);
+    }
+    let ratio = ((c + s * tan_phi) / r).max(tan_phi);
+    Reduction::defined((ratio * ratio - tan_phi * tan_phi).max(0.0).sqrt(), tan_phi)
+}
+
+/// The strength-reduction factor of Drucker–Prager √J2 + α I1 = k with α and k from c/F and
+/// φ_F = atan(tan φ / F) by `fit`. Every fit's apex lies at I1 = k/α = 3c / tan φ whatever F, so
+/// the reduced cones are nested and F follows from the α the state needs,
+/// α_F = √J2 / (3c/tan φ − I1), by inverting the fit's α(φ) (worked from Chen & Han 1988,
+/// §5.4). With φ = 0 (α = 0), F = k / √J2.
+#[must_use]
+pub fn drucker_prager_reduction(
+    m: &MohrCoulomb,
+    fit: DruckerPragerFit,
+    i1_pa: f64,
+    j2_pa2: f64,
+) -> Reduction {
+    let tan_phi = m.friction_angle_deg.to_radians().tan();
+    let root_j2 = j2_pa2.max(0.0).sqrt();
+    let tolerance = RELATIVE_TOLERANCE * i1_pa.abs().max(root_j2).max(m.cohesion_pa);
+    if tan_phi == 0.0 {
+        let (_, k) = fit.alpha_k(m);
+        return if root_j2 <= tolerance {
+            Reduction::not_defined(Condition::NeverReaches)
+        } else {
+            Reduction::defined(k / root_j2, 0.0)
+        };
+    }
+    let apex = 3.0 * m.cohesion_pa / tan_phi;
+    let room = apex - i1_pa;
+    if room <= tolerance {
+        return if root_j2 <= tolerance && room >= -tolerance {
+            // At the apex itself: on the surface for every F.
+            Reduction::defined(1.0, tan_phi)
+        } else {
+            Reduction::not_defined(Condition::FailsAtAnyScale)
+        };
+    }
+    if root_j2 <= tolerance {
+        return Reduction::not_defined(Condition::NeverReaches);
+    }
+    let alpha = root_j2 / room;
+    let r3 = 3.0_f64.sqrt();
+    // sin φ_F or tan φ_F from α; beyond the widest cone (φ_F → 90°) no F puts the state inside.
+    let tan_from_sin = |s: f64| (s < 1.0).then(|| s / (1.0 - s * s).sqrt());
+    let tan_f = match fit {
+        DruckerPragerFit::CompressionMeridian => {
+            tan_from_sin(3.0 * r3 * alpha / (2.0 + r3 * alpha))
+        }
+        DruckerPragerFit::TensionMeridian => (r3 * alpha < 2.0)
+            .then(|| 3.0 * r3 * alpha / (2.0 - r3 * alpha))
+            .and_then(tan_from_sin),
+        DruckerPragerFit::Inscribed => (3.0 * alpha * alpha < 1.0)
+            .then(|| (9.0 * alpha * alpha / (1.0 - 3.0 * alpha * alpha)).sqrt())
+            .and_then(tan_from_sin),
+        DruckerPragerFit::PlaneStrain => (12.0 * alpha * alpha < 1.0)
+            .then(|| (9.0 * alpha * alpha / (1.0 - 12.0 * alpha * alpha)).sqrt()),
+    };
+    match tan_f {
+        Some(t) if t > 0.0 => Reduction::defined(tan_phi / t, tan_phi),
+        _ => Reduction::not_defined(Condition::FailsAtAnyScale),
+    }
+}
+
+/// The verdict of `criterion` for the stored (tension-positive) tensor `t` on total stress (no
+/// pore pressure). Strengths must have passed [`Strengths::validate`]; an invalid one counts as
+/// missing.
 #[must_use]
 pub fn verdict(t: &StressTensor, criterion: Criterion, strengths: &Strengths) -> Verdict {
+    verdict_with_pore_pressure(t, criterion, strengths, 0.0)
+}
+
+/// The verdict of `criterion` with pore pressure `pore_pressure_pa` (compression positive):
+/// the pressure-sensitive criteria (Rankine, Mohr–Coulomb, Drucker–Prager) are judged on the
+/// effective stress σ′ = σ + p·I (tension positive), von Mises and Tresca on σ (a pressure does
+/// not change them). A pore pressure of zero means none is given: total stress.
+#[must_use]
+pub fn verdict_with_pore_pressure(
+    t: &StressTensor,
+    criterion: Criterion,
+    strengths: &Strengths,
+    pore_pressure_pa: f64,
+) -> Verdict {
+    let pressure_sensitive = !matches!(criterion, Criterion::VonMises | Criterion::Tresca);
+    let given = pore_pressure_pa != 0.0 && pore_pressure_pa.is_finite();
+    let basis = match (given, pressure_sensitive) {
+        (false, _) => StressBasis::Total,
+        (true, true) => StressBasis::Effective { pore_pressure_pa },
+        (true, false) => StressBasis::Unaffected,
+    };
+    let effective;
+    let t = if matches!(basis, StressBasis::Effective { .. }) {
+        let [xx, yy, zz, xy, yz, zx] = t.components_pa();
+        let p = pore_pressure_pa;
+        effective = StressTensor::from_pa([xx + p, yy + p, zz + p, xy, yz, zx]).unwrap_or(*t);
+        &effective
+    } else {
+        t
+    };
+    let mut v = verdict_on(t, criterion, strengths);
+    if v.condition != Condition::NotChecked {
+        v.basis = basis;
+    }
+    v
+}
+
+fn verdict_on(t: &StressTensor, criterion: Criterion, strengths: &Strengths) -> Verdict {
     let a = Analysis::new(t, SignConvention::TensionPositive);
     let [s1, _, s3] = a.principal.values_pa;
+    let scale = s1.abs().max(s3.abs());
     let valid = |v: Option<f64>| v.filter(|x| x.is_finite() && *x > 0.0);
     let missing = || format!("not checked: needs the {}", criterion.needs());
     match criterion {
@@ -474,7 +713,7 @@ pub fn verdict(t: &StressTensor, criterion: Criterion, strengths: &Strengths) ->
             } else {
                 a.tresca_pa
             };
-            Verdict::proportional(criterion, demand, fy, String::new())
+            Verdict::proportional(criterion, demand, fy, scale, String::new())
         }
         Criterion::Rankine => {
             let ft = valid(strengths.tensile_strength_pa);
@@ -496,7 +735,7 @@ pub fn verdict(t: &StressTensor, criterion: Criterion, strengths: &Strengths) ->
             } else if fc.is_none() {
                 note.push_str("; compression side not checked (no compressive strength)");
             }
-            Verdict::proportional(criterion, demand, strength, note)
+            Verdict::proportional(criterion, demand, strength, scale, note)
         }
         Criterion::MohrCoulomb | Criterion::DruckerPrager => {
             let Some(Ok(m)) = strengths.mohr_coulomb() else {
@@ -505,32 +744,44 @@ pub fn verdict(t: &StressTensor, criterion: Criterion, strengths: &Strengths) ->
             if criterion == Criterion::MohrCoulomb {
                 let (sin_phi, cos_phi) = m.friction_angle_deg.to_radians().sin_cos();
                 let demand = (s1 - s3) + (s1 + s3) * sin_phi;
-                Verdict::proportional(
+                let mut v = Verdict::proportional(
                     criterion,
                     demand,
                     2.0 * m.cohesion_pa * cos_phi,
+                    scale,
                     String::new(),
-                )
+                );
+                v.reduction = Some(mohr_coulomb_reduction(&m, s1, s3));
+                v
             } else {
                 let (alpha, k) = strengths.dp_fit.alpha_k(&m);
                 let demand = a.invariants.j2.max(0.0).sqrt() + alpha * a.invariants.i1;
-                Verdict::proportional(
+                let mut v = Verdict::proportional(
                     criterion,
                     demand,
                     k,
+                    scale.max(a.invariants.i1.abs()),
                     format!("fit: {}", strengths.dp_fit.label()),
-                )
+                );
+                v.reduction = Some(drucker_prager_reduction(
+                    &m,
+                    strengths.dp_fit,
+                    a.invariants.i1,
+                    a.invariants.j2,
+                ));
+                v
             }
         }
     }
 }
 
-/// Every criterion's verdict, in [`Criterion::ALL`] order.
+/// Every criterion's verdict, in [`Criterion::ALL`] order, with pore pressure
+/// `pore_pressure_pa` (0: none; see [`verdict_with_pore_pressure`]).
 #[must_use]
-pub fn verdicts(t: &StressTensor, strengths: &Strengths) -> Vec<Verdict> {
+pub fn verdicts(t: &StressTensor, strengths: &Strengths, pore_pressure_pa: f64) -> Vec<Verdict> {
     Criterion::ALL
         .iter()
-        .map(|&c| verdict(t, c, strengths))
+        .map(|&c| verdict_with_pore_pressure(t, c, strengths, pore_pressure_pa))
         .collect()
 }
 
@@ -598,6 +849,12 @@ pub struct FaultCheck {
     pub dilation_tendency: Check,
     /// Mohr–Coulomb utilization τ / (c + σn′ tan φ), when c and φ are given.
     pub mohr_coulomb: Option<Check>,
+    /// The Coulomb check's factor of safety under proportional loading (σ and p scaled
+    /// together): λ = c / (τ − σn′ tan φ), with how to read it; `None` without c and φ.
+    pub coulomb_proportional: Option<Check>,
+    /// The Coulomb check's strength-reduction factor F = (c + σn′ tan φ) / τ (= 1 / U on one
+    /// plane) and the mobilized friction angle; `None` without c and φ.
+    pub coulomb_reduction: Option<Reduction>,
     /// The pore-pressure increase that brings the plane to slip, Δp = σn′ − (τ − c) / tan φ, Pa
     /// (negative: the plane is already beyond slip); `None` without c and φ, or with φ = 0 (pore
     /// pressure then does not change the strength).
@@ -620,19 +877,49 @@ pub fn fault_check(
     let ps = PlaneStress::new(t, normal, SignConvention::CompressionPositive);
     let effective = ps.normal_stress_pa - pore_pressure_pa;
     let tau = ps.shear_stress_pa;
-    let (mohr_coulomb, to_slip) = match material {
+    let scale = ps
+        .normal_stress_pa
+        .abs()
+        .max(tau)
+        .max(pore_pressure_pa.abs());
+    let (mohr_coulomb, to_slip, proportional, reduction) = match material {
         Some(m) => {
+            let tolerance = RELATIVE_TOLERANCE * scale.max(m.cohesion_pa);
             let capacity = m.shear_strength_pa(effective);
-            let check = if capacity > 0.0 {
+            let check = if capacity > tolerance {
                 Check::defined(tau / capacity)
             } else {
                 Check::not_defined(Condition::EffectiveTension)
             };
             let tan_phi = m.friction_angle_deg.to_radians().tan();
             let dp = (tan_phi > 0.0).then(|| effective - (tau - m.cohesion_pa) / tan_phi);
-            (Some(check), dp)
+            // Scaling σ and p by λ scales τ and σn′: λ τ = c + λ σn′ tan φ.
+            let excess = tau - effective * tan_phi;
+            let proportional = if excess > tolerance {
+                if m.cohesion_pa > tolerance {
+                    Check::defined(excess / m.cohesion_pa)
+                } else {
+                    Check::not_defined(Condition::FailsAtAnyScale)
+                }
+            } else if excess >= -tolerance && m.cohesion_pa <= tolerance {
+                Check::defined(1.0)
+            } else {
+                Check::not_defined(Condition::NeverReaches)
+            };
+            let reduction = if capacity <= tolerance {
+                if capacity >= -tolerance && tau <= tolerance {
+                    Reduction::defined(1.0, tan_phi)
+                } else {
+                    Reduction::not_defined(Condition::FailsAtAnyScale)
+                }
+            } else if tau <= tolerance {
+                Reduction::not_defined(Condition::NeverReaches)
+            } else {
+                Reduction::defined(capacity / tau, tan_phi)
+            };
+            (Some(check), dp, Some(proportional), Some(reduction))
         }
-        None => (None, None),
+        None => (None, None, None, None),
     };
     Ok(FaultCheck {
         effective_normal_stress_pa: effective,
@@ -640,6 +927,8 @@ pub fn fault_check(
         slip_tendency: slip,
         dilation_tendency: dilation_tendency(t, normal),
         mohr_coulomb,
+        coulomb_proportional: proportional,
+        coulomb_reduction: reduction,
         pore_pressure_to_slip_pa: to_slip,
         rake_deg: PlaneStress::new(t, normal, SignConvention::TensionPositive).rake_deg(),
     })

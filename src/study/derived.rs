@@ -60,7 +60,12 @@ impl Derived {
             Err(e) => (StressTensor::default(), Some(e.to_string())),
         };
         let search = project.measure.settings(convention);
-        let mut verdicts = criteria::verdicts(&tensor, &project.material.strengths);
+        // Pressure-sensitive criteria on effective stress whenever a pore pressure is given.
+        let mut verdicts = criteria::verdicts(
+            &tensor,
+            &project.material.strengths,
+            project.measure.pore_pressure_pa,
+        );
         criteria::governing_first(&mut verdicts);
         let fault = criteria::fault_check(
             &tensor,

@@ -128,8 +128,10 @@ pub struct Envelope {
     pub measure: EnvelopeMeasure,
     /// Worst first.
     pub rows: Vec<EnvelopeRow>,
-    /// The governing row's name (the first row), if any row has a value to rank by.
+    /// The governing row's name (the first row), if it has a number or fails at any scale.
     pub governing: Option<String>,
+    /// How many rows stand in each condition.
+    pub counts: ConditionCounts,
 }
 
 /// A measure's value for one state, with how to read it.
@@ -146,8 +148,164 @@ pub struct MeasureValue {
     pub verdict: Option<Condition>,
 }
 
+impl MeasureValue {
+    /// How the value reads, whatever the measure's kind: [`Condition::Defined`] with a number;
+    /// fails at any scale or no frictional capacity (worst of all); never reaches the surface
+    /// (best of all); undefined; not checked.
+    #[must_use]
+    pub fn standing(&self) -> Condition {
+        standing(self.value, self.condition, self.verdict)
+    }
+}
+
+/// See [`MeasureValue::standing`].
+#[must_use]
+pub fn standing(
+    value: Option<f64>,
+    condition: Option<WorstCondition>,
+    verdict: Option<Condition>,
+) -> Condition {
+    match (verdict, condition) {
+        (Some(c), _) => c,
+        (None, Some(WorstCondition::EffectiveTension)) => Condition::EffectiveTension,
+        (None, Some(WorstCondition::Undefined)) => Condition::Undefined,
+        _ if value.is_some() => Condition::Defined,
+        _ => Condition::Undefined,
+    }
+}
+
+/// Where a state stands in a ranking, larger worse: every ranking (the envelope, `batch`, the
+/// Table tab, the report) orders by this. States that fail at any scale or have no frictional
+/// capacity rank worst, above every number; then the numbers (worst first: the largest, or the
+/// smallest for σ3 and normal-min); then states that never reach the surface (safe at any
+/// scale); then undefined values; then what is not checked.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct RankKey {
+    tier: u8,
+    key: f64,
+}
+
+impl RankKey {
+    /// The key of `value` read as `standing` under `measure`.
+    #[must_use]
+    pub fn new(measure: EnvelopeMeasure, value: Option<f64>, standing: Condition) -> Self {
+        let (tier, key) = match (standing, value) {
+            (Condition::FailsAtAnyScale | Condition::EffectiveTension, _) => (4, 0.0),
+            (Condition::Defined, Some(v)) if measure.worst_is_smallest() => (3, -v),
+            (Condition::Defined, Some(v)) => (3, v),
+            (Condition::NeverReaches, _) => (2, 0.0),
+            (Condition::Undefined | Condition::Defined, _) => (1, 0.0),
+            (Condition::NotChecked, _) => (0, 0.0),
+        };
+        Self { tier, key }
+    }
+
+    /// The key of a threshold value (for "at or beyond").
+    #[must_use]
+    pub fn threshold(measure: EnvelopeMeasure, value: f64) -> Self {
+        Self::new(measure, Some(value), Condition::Defined)
+    }
+
+    /// Total order, larger worse.
+    #[must_use]
+    pub fn cmp(&self, other: &Self) -> std::cmp::Ordering {
+        self.tier
+            .cmp(&other.tier)
+            .then(self.key.total_cmp(&other.key))
+    }
+
+    /// Whether this is at or beyond `threshold` (a state failing at any scale or without
+    /// frictional capacity always is; never-reaching, undefined and unchecked states never are).
+    #[must_use]
+    pub fn at_or_beyond(&self, threshold: &Self) -> bool {
+        self.tier == 4 || (self.tier == 3 && self.key >= threshold.key)
+    }
+}
+
+/// How many states of a ranking stand in each condition.
+#[derive(Clone, Copy, Debug, Default, PartialEq, Eq, serde::Serialize)]
+pub struct ConditionCounts {
+    /// With a number.
+    pub defined: u64,
+    /// Outside a zero-strength surface at any scale (worst).
+    pub fails_at_any_scale: u64,
+    /// Zero or tensile effective normal stress on some plane: no frictional capacity (worst).
+    pub no_frictional_capacity: u64,
+    /// Never reaches the surface when scaled (best).
+    pub never_reaches: u64,
+    /// The measure is undefined for the state.
+    pub undefined: u64,
+    /// The criterion's strengths are not given.
+    pub not_checked: u64,
+}
+
+impl ConditionCounts {
+    /// Counts one state.
+    pub fn add(&mut self, standing: Condition) {
+        match standing {
+            Condition::Defined => self.defined += 1,
+            Condition::FailsAtAnyScale => self.fails_at_any_scale += 1,
+            Condition::EffectiveTension => self.no_frictional_capacity += 1,
+            Condition::NeverReaches => self.never_reaches += 1,
+            Condition::Undefined => self.undefined += 1,
+            Condition::NotChecked => self.not_checked += 1,
+        }
+    }
+
+    /// Adds another count.
+    pub fn merge(&mut self, other: &Self) {
+        self.defined += other.defined;
+        self.fails_at_any_scale += other.fails_at_any_scale;
+        self.no_frictional_capacity += other.no_frictional_capacity;
+        self.never_reaches += other.never_reaches;
+        self.undefined += other.undefined;
+        self.not_checked += other.not_checked;
+    }
+
+    /// One line for summaries: "4 rows: 2 with a value, 1 fail at any scale, …" (zero counts
+    /// left out).
+    #[must_use]
+    pub fn text(&self, noun: &str) -> String {
+        let total = self.defined
+            + self.fails_at_any_scale
+            + self.no_frictional_capacity
+            + self.never_reaches
+            + self.undefined
+            + self.not_checked;
+        let parts: Vec<String> = [
+            (self.defined, "with a value"),
+            (self.fails_at_any_scale, "fail at any scale"),
+            (self.no_frictional_capacity, "without frictional capacity"),
+            (self.never_reaches, "never reach the surface"),
+            (self.undefined, "undefined"),
+            (self.not_checked, "not checked"),
+        ]
+        .into_iter()
+        .filter(|(n, _)| *n > 0)
+        .map(|(n, what)| format!("{n} {what}"))
+        .collect();
+        format!("{total} {noun}: {}", parts.join(", "))
+    }
+}
+
+/// The words for a value that is not a number, by its standing.
+#[must_use]
+pub fn standing_text(standing: Condition) -> &'static str {
+    match standing {
+        Condition::Defined => "",
+        Condition::FailsAtAnyScale => "fails at any scale (zero strength, outside the surface)",
+        Condition::EffectiveTension => {
+            "no frictional capacity (zero or tensile effective normal stress)"
+        }
+        Condition::NeverReaches => "never reaches the surface (safe at any scale)",
+        Condition::Undefined => "undefined for this state",
+        Condition::NotChecked => "not checked (strengths not given)",
+    }
+}
+
 /// `measure` for the state `tensor` shown in `convention`: worst-plane measures with the pore
-/// pressure and material of `plane_settings`, utilizations with `strengths`. The envelope and
+/// pressure and material of `plane_settings`, utilizations with `strengths` and the same pore
+/// pressure (effective stress for the pressure-sensitive criteria). The envelope and
 /// `planewise batch` both evaluate through this.
 pub fn measure_value(
     tensor: &crate::mechanics::StressTensor,
@@ -173,7 +331,13 @@ pub fn measure_value(
             }
         }
         EnvelopeMeasure::Utilization(c) => {
-            let v = criteria::verdict(tensor, c, strengths);
+            // Pressure-sensitive criteria on effective stress with the run's pore pressure.
+            let v = criteria::verdict_with_pore_pressure(
+                tensor,
+                c,
+                strengths,
+                plane_settings.pore_pressure_pa,
+            );
             MeasureValue {
                 value: v.utilization,
                 condition: None,
@@ -228,29 +392,40 @@ pub fn envelope(
             verdict: v.verdict,
         });
     }
-    rows.sort_by(|a, b| rank(measure, b).total_cmp(&rank(measure, a)));
-    // Nothing governs when even the first row has no value to rank by (every criterion not
-    // checked, every value undefined).
+    rows.sort_by(|a, b| b.key(measure).cmp(&a.key(measure)));
+    let mut counts = ConditionCounts::default();
+    for r in &rows {
+        counts.add(r.standing());
+    }
+    // A row governs when it has a number or fails at any scale; nothing governs when the first
+    // row never reaches the surface, is undefined or is not checked.
     let governing = rows
         .first()
-        .filter(|r| rank(measure, r) > f64::NEG_INFINITY)
+        .filter(|r| {
+            matches!(
+                r.standing(),
+                Condition::Defined | Condition::FailsAtAnyScale | Condition::EffectiveTension
+            ) && (r.value.is_some() || r.standing() != Condition::Defined)
+        })
         .map(|r| r.name.clone());
     Ok(Envelope {
         measure,
         rows,
         governing,
+        counts,
     })
 }
 
-/// Larger is worse. Planes without frictional capacity and states outside a zero-strength
-/// criterion at any scale are worst of all; an undefined value (dilation tendency of an
-/// isotropic state, a criterion not checked or never reached) least.
-fn rank(measure: EnvelopeMeasure, row: &EnvelopeRow) -> f64 {
-    match (row.value, row.condition, row.verdict) {
-        (Some(v), ..) if measure.worst_is_smallest() => -v,
-        (Some(v), ..) => v,
-        (None, Some(WorstCondition::EffectiveTension), _)
-        | (None, _, Some(Condition::FailsAtAnyScale)) => f64::INFINITY,
-        (None, ..) => f64::NEG_INFINITY,
+impl EnvelopeRow {
+    /// How the row's value reads (see [`MeasureValue::standing`]).
+    #[must_use]
+    pub fn standing(&self) -> Condition {
+        standing(self.value, self.condition, self.verdict)
+    }
+
+    /// Its place in the ranking.
+    #[must_use]
+    pub fn key(&self, measure: EnvelopeMeasure) -> RankKey {
+        RankKey::new(measure, self.value, self.standing())
     }
 }

@@ -10,7 +10,6 @@ use crate::draw::camera::Camera;
 use crate::draw::map::{MapMarks, MapMeasure, map_frame};
 use crate::draw::mohr::{Envelope, MohrFigure, MohrPoint, mohr_frame, worst_label, worst_points};
 use crate::draw::place::Pinned;
-use crate::mechanics::criteria::MohrCoulomb;
 use crate::mechanics::mohr::MohrCircles;
 use crate::mechanics::search::{Measure, SearchResult, SearchSettings};
 use crate::mechanics::stereonet::orientation_map;
@@ -48,7 +47,7 @@ impl FigureInput {
     pub fn from_derived(d: &Derived, envelope: bool) -> Self {
         let choice = &d.measure;
         let envelope = (envelope || choice.measure == Measure::MohrCoulomb)
-            .then(|| MohrCoulomb::new(choice.cohesion_pa, choice.friction_angle_deg).ok())
+            .then(|| choice.plane_strength())
             .flatten()
             .map(|material| Envelope {
                 material,

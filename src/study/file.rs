@@ -1,14 +1,14 @@
 //! The project file: JSON with our own schema and a `format_version`, written atomically.
 //!
 //! ```json
-//! { "format_version": 1, "name": "…", "unit": "MPa", "compression_positive": false,
+//! { "format_version": 2, "name": "…", "unit": "MPa", "compression_positive": false,
 //!   "cases": [ { "name": "dead", "description": "…",
 //!                "input": { "kind": "tensor", "unit": "MPa", "compression_positive": false,
 //!                           "components": [xx, yy, zz, xy, yz, zx] } } ],
 //!   "combinations": [ { "name": "ULS", "terms": [ { "case": "dead", "factor": 1.35 } ] } ],
 //!   "notes": "", "active": "ULS", "plane": [nx, ny, nz],
-//!   "measure": { "measure": "shear", "pore_pressure_pa": 0, "cohesion_pa": 5e6,
-//!                "friction_angle_deg": 30 } }
+//!   "measure": { "measure": "shear", "pore_pressure_pa": 0, "cohesion_pa": null,
+//!                "friction_angle_deg": null } }
 //! ```
 //!
 //! A load case's `input` may also be `{ "kind": "table-row", "file": "mesh.csv", "line": 1043,
@@ -37,7 +37,15 @@ use serde::{Deserialize, Serialize};
 use super::model::{Project, StudyError};
 
 /// The version this program writes; files with a larger number are refused.
-pub const FORMAT_VERSION: u32 = 1;
+///
+/// Version 2: the planes' cohesion and friction angle in `measure` may be null (not given). A
+/// version-1 file always carried a pair there, and the pair 5 MPa / 30° was the program's
+/// default, not necessarily a value anyone entered; such a pair is dropped on reading (with a
+/// warning), so no check rests on it.
+pub const FORMAT_VERSION: u32 = 2;
+
+/// The planes' cohesion (Pa) and friction angle (degrees) that version 1 put in every project.
+const OLD_DEFAULT_PLANE_STRENGTH: (f64, f64) = (5e6, 30.0);
 
 /// Top-level keys this version knows; others are ignored with a warning.
 const KNOWN_KEYS: [&str; 13] = [
@@ -142,12 +150,28 @@ pub fn load(path: &Path) -> Result<(Project, Vec<String>), FileError> {
             found: version,
         });
     }
-    let warnings = object
+    let mut warnings: Vec<String> = object
         .keys()
         .filter(|k| !KNOWN_KEYS.contains(&k.as_str()))
         .map(|k| format!("{}: unknown key '{k}' ignored", path.display()))
         .collect();
-    let on_disk: OnDisk = serde_json::from_value(value).map_err(|e| malformed(e.to_string()))?;
+    let mut on_disk: OnDisk =
+        serde_json::from_value(value).map_err(|e| malformed(e.to_string()))?;
+    let m = &mut on_disk.project.measure;
+    if version < 2
+        && (m.cohesion_pa, m.friction_angle_deg)
+            == (
+                Some(OLD_DEFAULT_PLANE_STRENGTH.0),
+                Some(OLD_DEFAULT_PLANE_STRENGTH.1),
+            )
+    {
+        m.cohesion_pa = None;
+        m.friction_angle_deg = None;
+        warnings.push(format!(
+            "{}: the planes' cohesion 5 MPa and friction angle 30° were the defaults of format version 1, not necessarily entered; they are dropped (Coulomb checks of planes are not checked until you set them again)",
+            path.display()
+        ));
+    }
     on_disk
         .project
         .validate()

@@ -474,17 +474,19 @@ pub struct Combination {
 }
 
 /// The worst-plane measure and its parameters as the user set them (stresses in pascals).
+/// Nothing here has a value the user did not give: the planes' cohesion and friction angle are
+/// absent until set, and every check that needs them says "not checked" meanwhile.
 #[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
 #[serde(default)]
 pub struct MeasureChoice {
     /// The measure.
     pub measure: Measure,
-    /// Pore pressure, Pa (compression positive).
+    /// Pore pressure, Pa (compression positive); 0 when none is given.
     pub pore_pressure_pa: f64,
-    /// Cohesion, Pa.
-    pub cohesion_pa: f64,
-    /// Friction angle, degrees.
-    pub friction_angle_deg: f64,
+    /// The planes' (discontinuities') cohesion, Pa, when given.
+    pub cohesion_pa: Option<f64>,
+    /// The planes' friction angle, degrees, when given.
+    pub friction_angle_deg: Option<f64>,
 }
 
 impl Default for MeasureChoice {
@@ -492,23 +494,33 @@ impl Default for MeasureChoice {
         Self {
             measure: Measure::Shear,
             pore_pressure_pa: 0.0,
-            cohesion_pa: 5e6,
-            friction_angle_deg: 30.0,
+            cohesion_pa: None,
+            friction_angle_deg: None,
         }
     }
 }
 
 impl MeasureChoice {
-    /// The search settings in `convention`.
+    /// The search settings in `convention` (no material when the planes' c and φ are not both
+    /// given, or not valid).
     #[must_use]
     pub fn settings(&self, convention: SignConvention) -> SearchSettings {
         SearchSettings {
             measure: self.measure,
             convention,
             pore_pressure_pa: self.pore_pressure_pa,
-            material: MohrCoulomb::new(self.cohesion_pa, self.friction_angle_deg).ok(),
+            material: self.plane_strength(),
         }
     }
+
+    /// The planes' Coulomb strength, when both c and φ are given and valid.
+    #[must_use]
+    pub fn plane_strength(&self) -> Option<MohrCoulomb> {
+        MohrCoulomb::new(self.cohesion_pa?, self.friction_angle_deg?).ok()
+    }
+
+    /// What the Coulomb checks of planes lack, as the words after "not checked: needs".
+    pub const PLANE_STRENGTH_NEEDED: &'static str = "the planes' cohesion and friction angle";
 }
 
 /// The material the criteria check against: a name and its strengths (any may be missing).
@@ -794,6 +806,22 @@ impl Project {
             .strengths
             .validate()
             .map_err(|e| StudyError::Invalid(format!("material: {e}")))?;
+        let m = &self.measure;
+        if !(m.pore_pressure_pa.is_finite()
+            && m.pore_pressure_pa.abs() <= crate::mechanics::tensor::MAX_STRESS_PA)
+        {
+            return Err(StudyError::Invalid(
+                "measure: pore_pressure_pa must be a finite stress".to_owned(),
+            ));
+        }
+        if let Some(c) = m.cohesion_pa {
+            MohrCoulomb::new(c, m.friction_angle_deg.unwrap_or(0.0))
+                .map_err(|e| StudyError::Invalid(format!("measure: the planes' {e}")))?;
+        }
+        if let Some(phi) = m.friction_angle_deg {
+            MohrCoulomb::new(m.cohesion_pa.unwrap_or(0.0), phi)
+                .map_err(|e| StudyError::Invalid(format!("measure: the planes' {e}")))?;
+        }
         for fault in &self.faults {
             fault.normal()?;
         }

@@ -69,11 +69,20 @@ impl EnvelopePanel {
         });
         let measure = settings.envelope_measure;
         if matches!(measure, EnvelopeMeasure::Plane(m) if m.uses_friction()) {
+            let strength = project.measure.plane_strength().map_or_else(
+                || "the planes' c and φ not given".to_owned(),
+                |m| {
+                    format!(
+                        "c = {} {unit}, φ = {}°",
+                        crate::format::sig(d.unit.from_pa(m.cohesion_pa), 5),
+                        crate::format::sig(m.friction_angle_deg, 5),
+                        unit = d.unit
+                    )
+                },
+            );
             ui.small(format!(
-                "Pore pressure, cohesion and friction angle from the worst-plane settings: p = {} {unit}, c = {} {unit}, φ = {}°",
+                "Pore pressure and the planes' strength from the worst-plane settings: p = {} {unit}, {strength}",
                 crate::format::sig(d.unit.from_pa(project.measure.pore_pressure_pa), 5),
-                crate::format::sig(d.unit.from_pa(project.measure.cohesion_pa), 5),
-                crate::format::sig(project.measure.friction_angle_deg, 5),
                 unit = d.unit
             ));
         }

@@ -240,11 +240,21 @@ impl FaultsPanel {
                                 ui.monospace(stress(c.shear_stress_pa));
                                 ui.monospace(ratio(c.slip_tendency.utilization));
                                 ui.monospace(ratio(c.dilation_tendency.utilization));
-                                ui.monospace(ratio(c.mohr_coulomb.and_then(|m| m.utilization)));
-                                ui.monospace(
-                                    c.pore_pressure_to_slip_pa
-                                        .map_or_else(|| "undefined (φ = 0)".to_owned(), stress),
-                                );
+                                if c.mohr_coulomb.is_some() {
+                                    ui.monospace(ratio(
+                                        c.mohr_coulomb.and_then(|m| m.utilization),
+                                    ));
+                                    ui.monospace(
+                                        c.pore_pressure_to_slip_pa.map_or_else(
+                                            || "undefined (φ = 0)".to_owned(),
+                                            stress,
+                                        ),
+                                    );
+                                } else {
+                                    let tip = "not checked: needs the planes' cohesion and friction angle (Worst plane section)";
+                                    ui.weak("not checked").on_hover_text(tip);
+                                    ui.weak("not checked").on_hover_text(tip);
+                                }
                                 ui.monospace(c.rake_deg.map_or_else(
                                     || "undefined".to_owned(),
                                     |r| format!("{}°", sig(r, 4)),

@@ -47,29 +47,44 @@ pub fn material_ui(
         choice.pore_pressure_pa = unit.to_pa(p);
     }
     if material {
-        let mut c = unit.from_pa(choice.cohesion_pa);
-        ui.horizontal(|ui| {
-            ui.label("cohesion c");
-            ui.add(
-                egui::DragValue::new(&mut c)
-                    .speed(0.1)
-                    .range(0.0..=f64::MAX)
-                    .suffix(format!(" {unit}")),
-            )
-            .on_hover_text(
-                "Mohr–Coulomb cohesion c (shear strength at zero effective normal stress)",
-            );
-            ui.label("friction φ");
-            ui.add(
-                egui::DragValue::new(&mut choice.friction_angle_deg)
-                    .speed(0.2)
-                    .range(0.0..=89.0)
-                    .suffix("°"),
-            )
-            .on_hover_text("Mohr–Coulomb friction angle φ, degrees");
-        });
-        choice.cohesion_pa = unit.to_pa(c);
-        ui.small("U = τ / (c + (σn − p) tan φ), compression positive");
+        // The planes' strength is the user's to give: nothing is assumed until the box is ticked.
+        let mut given = choice.cohesion_pa.is_some() || choice.friction_angle_deg.is_some();
+        ui.checkbox(&mut given, "the planes' c and φ are given")
+            .on_hover_text("Cohesion and friction angle of the planes (joints, faults) for the Coulomb checks; unticked, those checks are not checked");
+        if given {
+            let mut c = unit.from_pa(choice.cohesion_pa.unwrap_or(0.0));
+            let mut phi = choice.friction_angle_deg.unwrap_or(0.0);
+            ui.horizontal(|ui| {
+                ui.label("cohesion c");
+                ui.add(
+                    egui::DragValue::new(&mut c)
+                        .speed(0.1)
+                        .range(0.0..=f64::MAX)
+                        .suffix(format!(" {unit}")),
+                )
+                .on_hover_text(
+                    "Coulomb cohesion c of the planes (shear strength at zero effective normal stress)",
+                );
+                ui.label("friction φ");
+                ui.add(
+                    egui::DragValue::new(&mut phi)
+                        .speed(0.2)
+                        .range(0.0..=89.0)
+                        .suffix("°"),
+                )
+                .on_hover_text(format!(
+                    "Coulomb friction angle φ of the planes, degrees (μ = tan φ = {})",
+                    crate::format::sig(phi.to_radians().tan(), 4)
+                ));
+            });
+            choice.cohesion_pa = Some(unit.to_pa(c));
+            choice.friction_angle_deg = Some(phi);
+            ui.small("U = τ / (c + (σn − p) tan φ), compression positive");
+        } else {
+            choice.cohesion_pa = None;
+            choice.friction_angle_deg = None;
+            ui.small("not checked: needs the planes' cohesion and friction angle");
+        }
     }
 }
 

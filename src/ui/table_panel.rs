@@ -122,6 +122,7 @@ impl TablePanel {
             decimal_comma: self.decimal_comma,
             skip_bad_rows: self.skip_bad_rows,
             top: Some(self.keep.max(1)),
+            above: None,
         }
     }
 

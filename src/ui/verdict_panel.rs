@@ -35,6 +35,9 @@ pub fn verdict_ui(ui: &mut egui::Ui, d: &Derived, out: &mut Vec<Command>) {
             "unit",
             "utilization",
             "factor of safety",
+            "strength-reduction factor",
+            "mobilized friction angle (°)",
+            "stress judged",
             "note",
         ]
         .map(str::to_owned)
@@ -56,6 +59,19 @@ pub fn verdict_ui(ui: &mut egui::Ui, d: &Derived, out: &mut Vec<Command>) {
                     d.unit.to_string(),
                     v.utilization.map(|u| sig(u, 6)).unwrap_or_default(),
                     v.factor_of_safety.map(|f| sig(f, 6)).unwrap_or_default(),
+                    v.reduction
+                        .and_then(|r| r.factor)
+                        .map(|f| sig(f, 6))
+                        .unwrap_or_default(),
+                    v.reduction
+                        .and_then(|r| r.mobilized_friction_deg)
+                        .map(|f| sig(f, 6))
+                        .unwrap_or_default(),
+                    if v.condition == Condition::NotChecked {
+                        String::new()
+                    } else {
+                        v.basis.text(d.unit)
+                    },
                     v.note.clone(),
                 ]
             })
@@ -97,6 +113,35 @@ fn verdict_row(ui: &mut egui::Ui, v: &Verdict, d: &Derived) {
         tip.push('\n');
         tip.push_str(&v.note);
     }
+    if v.condition != Condition::NotChecked {
+        let _ = write!(tip, "\non {}", v.basis.text(d.unit));
+    }
+    let _ = write!(
+        tip,
+        "\n{}",
+        crate::mechanics::criteria::definitions::PROPORTIONAL
+    );
+    let reduction = v
+        .reduction
+        .map(|r| match (r.factor, r.mobilized_friction_deg) {
+            (Some(f), Some(phi)) => format!(
+                "strength reduction F {} · mobilized φ {}°",
+                sig(f, 3),
+                sig(phi, 3)
+            ),
+            _ => format!(
+                "strength reduction: {}",
+                crate::study::envelope::standing_text(r.condition)
+            ),
+        });
+    if reduction.is_some() {
+        let _ = write!(
+            tip,
+            "\n{}\n{}",
+            crate::mechanics::criteria::definitions::REDUCTION,
+            crate::mechanics::criteria::definitions::MOBILIZED
+        );
+    }
     ui.horizontal(|ui| {
         ui.colored_label(color, format!("{mark} {word}"))
             .on_hover_text(&tip);
@@ -115,6 +160,16 @@ fn verdict_row(ui: &mut egui::Ui, v: &Verdict, d: &Derived) {
         }
         ui.small(numbers).on_hover_text(&tip);
     });
+    if let Some(text) = reduction {
+        ui.small(text).on_hover_text(&tip);
+    }
+    if matches!(
+        v.basis,
+        crate::mechanics::criteria::StressBasis::Effective { .. }
+    ) {
+        ui.small(format!("on {}", v.basis.text(d.unit)))
+            .on_hover_text(&tip);
+    }
 }
 
 /// The material editor's text fields.
