@@ -67,6 +67,8 @@ pub fn dip_text(dip_deg: f64, dip_direction_deg: f64) -> String {
 #[must_use]
 pub fn with_unit(value: Option<f64>, unit: &str) -> String {
     match value {
+        // Degrees follow the number without a space (SI writes 30°, but 30 MPa).
+        Some(v) if v.is_finite() && unit == "°" => format!("{}°", sig(v, 6)),
         Some(v) if v.is_finite() => format!("{} {unit}", sig(v, 6)),
         _ => "undefined".to_owned(),
     }

@@ -353,7 +353,7 @@ fn verdict_table(s: &mut String, verdicts: &[Verdict], unit: StressUnit, notes: 
             Some(r) => match (r.factor, r.mobilized_friction_deg) {
                 (Some(f), Some(phi)) => (sig(f, 6), format!("{}°", sig(phi, 6))),
                 _ => (
-                    crate::study::envelope::standing_text(r.condition).to_owned(),
+                    crate::study::envelope::reduction_text(r.condition).to_owned(),
                     "—".to_owned(),
                 ),
             },

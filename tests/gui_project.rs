@@ -601,7 +601,7 @@ fn results_verdicts_and_envelope_copy_as_markdown_and_csv() {
     let csv = copied(&h);
     assert!(
         csv.starts_with(
-            "criterion,outcome,demand,strength,unit,utilization,factor of safety,note\n"
+            "criterion,outcome,demand,strength,unit,utilization,factor of safety,strength-reduction factor,mobilized friction angle (°),stress judged,note\n"
         ),
         "{csv}"
     );

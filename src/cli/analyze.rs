@@ -40,6 +40,9 @@ pub struct StrengthArgs {
     /// Friction angle φ in degrees, with --cohesion.
     #[arg(long, value_name = "DEG", allow_hyphen_values = true)]
     pub friction_angle: Option<String>,
+    /// Friction coefficient μ instead of --friction-angle (φ = atan μ).
+    #[arg(long, value_name = "MU", allow_hyphen_values = true)]
+    pub friction_coefficient: Option<String>,
     /// How Drucker–Prager is fitted to c and φ.
     #[arg(long, value_name = "FIT")]
     pub dp_fit: Option<DruckerPragerFit>,
@@ -64,11 +67,10 @@ impl StrengthArgs {
                 .map(|t| super::stress_value(name, t, unit))
                 .transpose()
         };
-        let friction = self
-            .friction_angle
-            .as_deref()
-            .map(|t| crate::parse::number(t).map_err(|e| ArgError::new("--friction-angle", e)))
-            .transpose()?;
+        let friction = super::friction_deg(
+            self.friction_angle.as_deref(),
+            self.friction_coefficient.as_deref(),
+        )?;
         let strengths = Strengths {
             yield_strength_pa: stress("--yield-strength", &self.yield_strength)?,
             tensile_strength_pa: stress("--tensile-strength", &self.tensile_strength)?,
@@ -542,7 +544,7 @@ pub fn to_json(d: &Derived, shown: &Shown) -> AnalyzeJson {
                     ))
                 })
                 .collect();
-            rows.sort_by(|a, b| b.0.cmp(&a.0));
+            rows.sort_by_key(|r| std::cmp::Reverse(r.0));
             rows.into_iter().map(|(_, r)| r).collect()
         },
         plane: shown.plane.then(|| {
@@ -594,6 +596,15 @@ pub fn ad_hoc_project(input: &StressInput) -> crate::study::Project {
 #[must_use]
 pub fn state_json(input: &StressInput) -> AnalyzeJson {
     to_json(&Derived::new(&ad_hoc_project(input)), &Shown::default())
+}
+
+/// Slip tendency as printed: the number, or why there is none.
+fn slip_text(f: &FaultJson) -> String {
+    match (f.slip_tendency, f.slip_tendency_condition) {
+        (Some(v), _) => sig(v, 5),
+        (None, Condition::EffectiveTension) => "no capacity (σn′ ≤ 0)".to_owned(),
+        _ => "undefined".to_owned(),
+    }
 }
 
 fn vec_text(v: &[f64; 3]) -> String {
@@ -738,7 +749,7 @@ pub fn to_text(j: &AnalyzeJson) -> String {
                 ),
                 _ => format!(
                     "strength-reduction factor: {}",
-                    crate::study::envelope::standing_text(condition)
+                    crate::study::envelope::reduction_text(condition)
                 ),
             };
             let _ = writeln!(s, "  {:<23} {:<11} {reduction}", "", "");
@@ -796,12 +807,7 @@ pub fn to_text(j: &AnalyzeJson) -> String {
                 "effective normal σn′",
                 with_unit(Some(f.effective_normal_stress), u)
             );
-            let _ = writeln!(
-                s,
-                "  {:<23} {}",
-                "slip tendency τ/σn′",
-                ratio(f.slip_tendency)
-            );
+            let _ = writeln!(s, "  {:<23} {}", "slip tendency τ/σn′", slip_text(f));
             let _ = writeln!(
                 s,
                 "  {:<23} {}",
@@ -871,7 +877,7 @@ pub fn to_text(j: &AnalyzeJson) -> String {
                 sig(f.dip_direction_deg, 5),
                 with_unit(Some(f.check.effective_normal_stress), u),
                 with_unit(Some(f.check.shear_stress), u),
-                ratio(f.check.slip_tendency),
+                slip_text(&f.check),
                 ratio(f.check.dilation_tendency),
                 with_unit(f.check.rake_deg, "°"),
             );
@@ -905,7 +911,7 @@ fn study(args: &AnalyzeArgs) -> Result<(crate::study::Project, Shown), ArgError>
         }
         case.clone_into(&mut project.active);
         if let Some(unit) = args.stress.unit {
-            project.unit = unit.symbol().to_owned();
+            unit.symbol().clone_into(&mut project.unit);
             from_command_line.push("--unit".to_owned());
         }
         if args.stress.compression_positive {
@@ -958,9 +964,13 @@ fn study(args: &AnalyzeArgs) -> Result<(crate::study::Project, Shown), ArgError>
             from_command_line.push(name.to_owned());
         }
     }
-    if given.friction_angle.is_some() {
+    if given.friction_angle.is_some() || given.friction_coefficient.is_some() {
         m.friction_angle_deg = strengths.friction_angle_deg;
-        from_command_line.push("--friction-angle".to_owned());
+        from_command_line.push(if given.friction_angle.is_some() {
+            "--friction-angle".to_owned()
+        } else {
+            "--friction-coefficient".to_owned()
+        });
     }
     if let Some(fit) = given.dp_fit {
         m.dp_fit = fit;

@@ -10,6 +10,7 @@ use serde::Serialize;
 use super::worst_plane::MaterialArgs;
 use super::{ArgError, CliError};
 use crate::format::{clean, sig};
+use crate::mechanics::criteria::Criterion;
 use crate::mechanics::search::WorstCondition;
 use crate::study::{self, EnvelopeMeasure};
 
@@ -83,7 +84,6 @@ fn with_overrides(
 ) -> Result<(study::Project, Vec<String>), ArgError> {
     let mut from_command_line = Vec::new();
     let given = &args.material;
-    use crate::mechanics::criteria::Criterion;
     let (pore_used, strength_used) = match args.measure {
         EnvelopeMeasure::Plane(m) => (m.uses_friction(), m.uses_material()),
         EnvelopeMeasure::Utilization(c) => (
@@ -127,11 +127,10 @@ fn with_overrides(
         project.measure.pore_pressure_pa = p;
         from_command_line.push("--pore-pressure".to_owned());
     }
-    let friction = given
-        .friction_angle
-        .as_deref()
-        .map(|t| crate::parse::number(t).map_err(|e| ArgError::new("--friction-angle", e)))
-        .transpose()?;
+    let friction = super::friction_deg(
+        given.friction_angle.as_deref(),
+        given.friction_coefficient.as_deref(),
+    )?;
     if let Some(m) =
         super::worst_plane::pair_material(stress("--cohesion", &given.cohesion)?, friction)?
     {

@@ -413,6 +413,34 @@ pub fn stress_value(arg: &'static str, text: &str, unit: StressUnit) -> Result<f
     Ok(pa)
 }
 
+/// The friction angle φ in degrees from `--friction-angle DEG` or `--friction-coefficient MU`
+/// (φ = atan μ; one or the other, not both).
+pub fn friction_deg(
+    angle: Option<&str>,
+    coefficient: Option<&str>,
+) -> Result<Option<f64>, ArgError> {
+    match (angle, coefficient) {
+        (Some(_), Some(_)) => Err(ArgError::new(
+            "--friction-coefficient",
+            "give the friction angle or the friction coefficient, not both",
+        )),
+        (Some(t), None) => parse::number(t)
+            .map(Some)
+            .map_err(|e| ArgError::new("--friction-angle", e)),
+        (None, Some(t)) => {
+            let mu = parse::number(t).map_err(|e| ArgError::new("--friction-coefficient", e))?;
+            if mu < 0.0 {
+                return Err(ArgError::new(
+                    "--friction-coefficient",
+                    format!("μ = {mu} must be zero or positive"),
+                ));
+            }
+            Ok(Some(mu.atan().to_degrees()))
+        }
+        (None, None) => Ok(None),
+    }
+}
+
 /// A plane given by its normal or by dip and dip direction.
 #[derive(Debug, Clone, Args)]
 pub struct PlaneArgs {

@@ -32,6 +32,113 @@ pub enum ProjectAction {
     Combine(CombineArgs),
     /// List the cases and combinations with their tensors.
     Show(ShowArgs),
+    /// Set the material's name and strengths (stresses in the project's unit); what is not
+    /// given stays as it was, --clear removes values.
+    SetMaterial(SetMaterialArgs),
+    /// Set the pore pressure (compression positive, in the project's unit; 0 removes it).
+    SetPorePressure(SetPorePressureArgs),
+    /// Set or clear the planes' Coulomb strength (cohesion and friction), used by the fault
+    /// checks and the mohr-coulomb worst plane.
+    SetPlaneStrength(SetPlaneStrengthArgs),
+    /// Set the cut plane.
+    SetCutPlane(SetCutPlaneArgs),
+    /// Set the worst-plane measure.
+    SetMeasure(SetMeasureArgs),
+    /// Add a named plane checked as a fault.
+    AddFault(AddFaultArgs),
+    /// Remove a named fault.
+    RemoveFault(RemoveFaultArgs),
+}
+
+/// `project set-material`.
+#[derive(Debug, Clone, Args)]
+pub struct SetMaterialArgs {
+    /// The project file.
+    pub file: PathBuf,
+    /// The material's name.
+    #[arg(long)]
+    pub name: Option<String>,
+    #[command(flatten)]
+    pub strengths: super::analyze::StrengthArgs,
+    /// Remove these values: yield-strength, tensile-strength, compressive-strength, cohesion,
+    /// friction (comma-separated).
+    #[arg(long, value_name = "LIST", value_delimiter = ',')]
+    pub clear: Vec<String>,
+}
+
+/// `project set-pore-pressure`.
+#[derive(Debug, Clone, Args)]
+pub struct SetPorePressureArgs {
+    /// The project file.
+    pub file: PathBuf,
+    /// The pore pressure in the project's unit, compression positive (0: none).
+    #[arg(allow_hyphen_values = true)]
+    pub value: String,
+}
+
+/// `project set-plane-strength`.
+#[derive(Debug, Clone, Args)]
+pub struct SetPlaneStrengthArgs {
+    /// The project file.
+    pub file: PathBuf,
+    /// The planes' cohesion c in the project's unit.
+    #[arg(
+        long,
+        value_name = "C",
+        allow_hyphen_values = true,
+        required_unless_present = "clear"
+    )]
+    pub cohesion: Option<String>,
+    /// The planes' friction angle φ, degrees.
+    #[arg(long, value_name = "DEG", allow_hyphen_values = true)]
+    pub friction_angle: Option<String>,
+    /// The planes' friction coefficient μ instead (φ = atan μ).
+    #[arg(long, value_name = "MU", allow_hyphen_values = true)]
+    pub friction_coefficient: Option<String>,
+    /// Remove the planes' strength (their Coulomb checks become "not checked").
+    #[arg(long, conflicts_with_all = ["cohesion", "friction_angle", "friction_coefficient"])]
+    pub clear: bool,
+}
+
+/// `project set-cut-plane`.
+#[derive(Debug, Clone, Args)]
+pub struct SetCutPlaneArgs {
+    /// The project file.
+    pub file: PathBuf,
+    #[command(flatten)]
+    pub plane: super::PlaneArgs,
+}
+
+/// `project set-measure`.
+#[derive(Debug, Clone, Args)]
+pub struct SetMeasureArgs {
+    /// The project file.
+    pub file: PathBuf,
+    /// The worst-plane measure.
+    pub measure: crate::mechanics::search::Measure,
+}
+
+/// `project add-fault`.
+#[derive(Debug, Clone, Args)]
+pub struct AddFaultArgs {
+    /// The project file.
+    pub file: PathBuf,
+    /// NAME=DIP/DIPDIRECTION in degrees.
+    #[arg(long, value_name = "NAME=DIP/DIPDIR", allow_hyphen_values = true)]
+    pub fault: Vec<String>,
+    /// NAME=STRIKE/DIP by the right-hand rule.
+    #[arg(long, value_name = "NAME=STRIKE/DIP", allow_hyphen_values = true)]
+    pub fault_strike: Vec<String>,
+}
+
+/// `project remove-fault`.
+#[derive(Debug, Clone, Args)]
+pub struct RemoveFaultArgs {
+    /// The project file.
+    pub file: PathBuf,
+    /// The fault's name.
+    #[arg(long)]
+    pub name: String,
 }
 
 /// `project new`.
@@ -64,6 +171,30 @@ pub struct AddCaseArgs {
     pub stress: Option<String>,
     #[command(flatten)]
     pub other: super::InputArgs,
+    /// Plane stress instead of --stress: sx=…,sy=…,txy=… in the project's unit and convention.
+    #[arg(long, value_name = "KEY=VALUE,…", allow_hyphen_values = true)]
+    pub plane_stress: Option<String>,
+    /// A strain rosette instead of --stress: the three readings EA,EB,EC (with --modulus and
+    /// --poisson; plane stress on a free surface).
+    #[arg(long, value_name = "EA,EB,EC", allow_hyphen_values = true, requires_all = ["modulus", "poisson"])]
+    pub rosette: Option<String>,
+    /// The rosette's gauge angles, degrees counter-clockwise from x.
+    #[arg(
+        long,
+        value_name = "A,B,C",
+        default_value = "0,45,90",
+        allow_hyphen_values = true
+    )]
+    pub gauge_angles: String,
+    /// Unit of the rosette's readings: microstrain or strain.
+    #[arg(long, value_name = "UNIT", default_value = "microstrain")]
+    pub strain_unit: String,
+    /// The rosette's Young's modulus with its unit, e.g. 200GPa.
+    #[arg(long, value_name = "E")]
+    pub modulus: Option<String>,
+    /// The rosette's Poisson's ratio.
+    #[arg(long, value_name = "NU", allow_hyphen_values = true)]
+    pub poisson: Option<String>,
     /// Free text.
     #[arg(long, default_value = "")]
     pub description: String,
@@ -131,25 +262,38 @@ pub fn run(args: &ProjectArgs) -> Result<String, CliError> {
         ProjectAction::AddCase(a) => {
             let mut project = load(&a.file)?;
             let unit = project.unit().map_err(|e| ArgError::new("FILE", e))?;
-            let input = match (&a.stress, a.other.read(unit, project.compression_positive)?) {
-                (Some(_), Some(_)) => {
+            let extra = extra_input(a, &project)?;
+            let given = [a.stress.is_some(), a.other.any(), extra.is_some()]
+                .iter()
+                .filter(|g| **g)
+                .count();
+            if given > 1 {
+                return Err(ArgError::new(
+                    "--stress",
+                    "give one input: --stress, --in-situ, --principal, --plane-stress or --rosette",
+                )
+                .into());
+            }
+            let other = a.other.read(unit, project.compression_positive)?;
+            let input = match (extra, &a.stress, other) {
+                (Some(input), ..) | (None, None, Some((input, _))) => input,
+                (None, Some(_), Some(_)) => {
                     return Err(ArgError::new(
                         "--stress",
                         "cannot be given together with --in-situ or --principal",
                     )
                     .into());
                 }
-                (None, Some((input, _))) => input,
-                (Some(stress), None) => CaseInput::Tensor(TypedTensor {
+                (None, Some(stress), None) => CaseInput::Tensor(TypedTensor {
                     unit: project.unit.clone(),
                     compression_positive: project.compression_positive,
                     components: parse::stress_list(stress)
                         .map_err(|e| ArgError::new("--stress", e))?,
                 }),
-                (None, None) => {
+                (None, None, None) => {
                     return Err(ArgError::new(
                         "--stress",
-                        "is required (or --in-situ, or --principal with --axes)",
+                        "is required (or --in-situ, --principal with --axes, --plane-stress or --rosette)",
                     )
                     .into());
                 }
@@ -206,6 +350,105 @@ pub fn run(args: &ProjectArgs) -> Result<String, CliError> {
             save(&a.file, &project)?;
             Ok(format!("wrote {}\n", a.file.display()))
         }
+        ProjectAction::SetMaterial(a) => set_material(a),
+        ProjectAction::SetPorePressure(a) => {
+            let mut project = load(&a.file)?;
+            let unit = project.unit().map_err(|e| ArgError::new("FILE", e))?;
+            project.measure.pore_pressure_pa = super::stress_value("VALUE", &a.value, unit)?;
+            save(&a.file, &project)?;
+            Ok(format!(
+                "wrote {}: pore pressure {} {unit}\n",
+                a.file.display(),
+                sig(unit.from_pa(project.measure.pore_pressure_pa), 6)
+            ))
+        }
+        ProjectAction::SetPlaneStrength(a) => {
+            let mut project = load(&a.file)?;
+            let unit = project.unit().map_err(|e| ArgError::new("FILE", e))?;
+            if a.clear {
+                project.measure.cohesion_pa = None;
+                project.measure.friction_angle_deg = None;
+                save(&a.file, &project)?;
+                return Ok(format!(
+                    "wrote {}: the planes' strength removed (their Coulomb checks are not checked)\n",
+                    a.file.display()
+                ));
+            }
+            let cohesion = a
+                .cohesion
+                .as_deref()
+                .map(|t| super::stress_value("--cohesion", t, unit))
+                .transpose()?;
+            let friction = super::friction_deg(
+                a.friction_angle.as_deref(),
+                a.friction_coefficient.as_deref(),
+            )?;
+            let m = super::worst_plane::pair_material(cohesion, friction)?
+                .ok_or_else(|| ArgError::new("--cohesion", "is required (or --clear)"))?;
+            project.measure.cohesion_pa = Some(m.cohesion_pa);
+            project.measure.friction_angle_deg = Some(m.friction_angle_deg);
+            save(&a.file, &project)?;
+            Ok(format!(
+                "wrote {}: the planes' cohesion {} {unit}, friction angle {}° (μ = {})\n",
+                a.file.display(),
+                sig(unit.from_pa(m.cohesion_pa), 6),
+                sig(m.friction_angle_deg, 6),
+                sig(m.friction_angle_deg.to_radians().tan(), 6)
+            ))
+        }
+        ProjectAction::SetCutPlane(a) => {
+            let mut project = load(&a.file)?;
+            project.plane = a.plane.read()?.ok_or_else(|| {
+                ArgError::new("--normal", "is required (or --dip and --dip-direction)")
+            })?;
+            save(&a.file, &project)?;
+            let (dip, dd) = project.plane.dip_deg();
+            Ok(format!(
+                "wrote {}: cut plane dip {}° / dip direction {}°\n",
+                a.file.display(),
+                sig(dip, 6),
+                sig(dd, 6)
+            ))
+        }
+        ProjectAction::SetMeasure(a) => {
+            let mut project = load(&a.file)?;
+            project.measure.measure = a.measure;
+            save(&a.file, &project)?;
+            Ok(format!(
+                "wrote {}: worst-plane measure {}\n",
+                a.file.display(),
+                a.measure.key()
+            ))
+        }
+        ProjectAction::AddFault(a) => {
+            let mut project = load(&a.file)?;
+            let faults = super::analyze::read_faults(&a.fault, &a.fault_strike)?;
+            if faults.is_empty() {
+                return Err(ArgError::new("--fault", "is required (or --fault-strike)").into());
+            }
+            for f in faults {
+                if project.faults.iter().any(|g| g.name == f.name) {
+                    return Err(ArgError::new(
+                        "--fault",
+                        format!("a fault named '{}' exists already", f.name),
+                    )
+                    .into());
+                }
+                project.faults.push(f);
+            }
+            save(&a.file, &project)?;
+            Ok(format!("wrote {}\n", a.file.display()))
+        }
+        ProjectAction::RemoveFault(a) => {
+            let mut project = load(&a.file)?;
+            let before = project.faults.len();
+            project.faults.retain(|f| f.name != a.name);
+            if project.faults.len() == before {
+                return Err(ArgError::new("--name", format!("no fault named '{}'", a.name)).into());
+            }
+            save(&a.file, &project)?;
+            Ok(format!("wrote {}\n", a.file.display()))
+        }
         ProjectAction::Show(a) => {
             let (project, warnings) = study::load(&a.file).map_err(|e| ArgError::new("FILE", e))?;
             for w in warnings {
@@ -258,4 +501,126 @@ fn show_text(project: &Project) -> Result<String, CliError> {
         let _ = writeln!(s, "  {:<16} {}", comb.name, terms.join(" + "));
     }
     Ok(s)
+}
+
+/// The plane-stress or rosette input of `add-case`, if one is given.
+fn extra_input(a: &AddCaseArgs, project: &Project) -> Result<Option<CaseInput>, ArgError> {
+    if let Some(text) = &a.plane_stress {
+        let [sx, sy, txy] = parse::key_list(text, ["sx", "sy", "txy"])
+            .map_err(|e| ArgError::new("--plane-stress", e))?;
+        return Ok(Some(CaseInput::PlaneStress(study::PlaneStressInput {
+            unit: project.unit.clone(),
+            compression_positive: project.compression_positive,
+            sx,
+            sy,
+            txy,
+        })));
+    }
+    let Some(readings) = &a.rosette else {
+        return Ok(None);
+    };
+    let strains = parse::numbers::<3>(readings).map_err(|e| ArgError::new("--rosette", e))?;
+    let angles_deg =
+        parse::numbers::<3>(&a.gauge_angles).map_err(|e| ArgError::new("--gauge-angles", e))?;
+    let modulus_text = a.modulus.as_deref().unwrap_or_default().trim();
+    let split = modulus_text
+        .find(|c: char| c.is_ascii_alphabetic() && c != 'e' && c != 'E')
+        .ok_or_else(|| ArgError::new("--modulus", "needs a unit, e.g. 200GPa"))?;
+    let (number, modulus_unit) = modulus_text.split_at(split);
+    let modulus_unit: StressUnit = modulus_unit
+        .trim()
+        .parse()
+        .map_err(|e| ArgError::new("--modulus", e))?;
+    let input = CaseInput::Rosette(study::RosetteInput {
+        angles_deg,
+        strains,
+        strain_unit: a.strain_unit.trim().to_owned(),
+        modulus: parse::number(number).map_err(|e| ArgError::new("--modulus", e))?,
+        modulus_unit: modulus_unit.symbol().to_owned(),
+        poisson: parse::number(a.poisson.as_deref().unwrap_or_default())
+            .map_err(|e| ArgError::new("--poisson", e))?,
+    });
+    input.tensor().map_err(|e| ArgError::new("--rosette", e))?;
+    Ok(Some(input))
+}
+
+/// `project set-material`.
+fn set_material(a: &SetMaterialArgs) -> Result<String, CliError> {
+    let mut project = load(&a.file)?;
+    let unit = project.unit().map_err(|e| ArgError::new("FILE", e))?;
+    let (given, _) = a.strengths.read(unit, true)?;
+    if a.strengths.pore_pressure.is_some() {
+        return Err(ArgError::new(
+            "--pore-pressure",
+            "is the project's, not the material's: use `planewise project set-pore-pressure`",
+        )
+        .into());
+    }
+    let m = &mut project.material;
+    if let Some(name) = &a.name {
+        name.trim().clone_into(&mut m.name);
+    }
+    let s = &mut m.strengths;
+    for (value, target) in [
+        (given.yield_strength_pa, &mut s.yield_strength_pa),
+        (given.tensile_strength_pa, &mut s.tensile_strength_pa),
+        (
+            given.compressive_strength_pa,
+            &mut s.compressive_strength_pa,
+        ),
+        (given.cohesion_pa, &mut s.cohesion_pa),
+        (given.friction_angle_deg, &mut s.friction_angle_deg),
+    ] {
+        if value.is_some() {
+            *target = value;
+        }
+    }
+    if let Some(fit) = a.strengths.dp_fit {
+        s.dp_fit = fit;
+    }
+    for key in a.clear.iter().map(|k| k.trim()) {
+        match key {
+            "yield-strength" => s.yield_strength_pa = None,
+            "tensile-strength" => s.tensile_strength_pa = None,
+            "compressive-strength" => s.compressive_strength_pa = None,
+            "cohesion" => s.cohesion_pa = None,
+            "friction" | "friction-angle" => s.friction_angle_deg = None,
+            other => {
+                return Err(ArgError::new(
+                    "--clear",
+                    format!(
+                        "'{other}' is not one of yield-strength, tensile-strength, compressive-strength, cohesion, friction"
+                    ),
+                )
+                .into());
+            }
+        }
+    }
+    if s.cohesion_pa.is_some() != s.friction_angle_deg.is_some() {
+        return Err(ArgError::new(
+            "--cohesion",
+            "the material's cohesion and friction angle go together (Mohr–Coulomb and Drucker–Prager need both)",
+        )
+        .into());
+    }
+    save(&a.file, &project)?;
+    let text = |v: Option<f64>| {
+        v.map_or_else(
+            || "not given".to_owned(),
+            |x| format!("{} {unit}", sig(unit.from_pa(x), 6)),
+        )
+    };
+    let s = &project.material.strengths;
+    Ok(format!(
+        "wrote {}: yield {}, tensile {}, compressive {}, cohesion {}, friction {}\n",
+        a.file.display(),
+        text(s.yield_strength_pa),
+        text(s.tensile_strength_pa),
+        text(s.compressive_strength_pa),
+        text(s.cohesion_pa),
+        s.friction_angle_deg.map_or_else(
+            || "not given".to_owned(),
+            |phi| format!("{}° (μ = {})", sig(phi, 6), sig(phi.to_radians().tan(), 6))
+        )
+    ))
 }

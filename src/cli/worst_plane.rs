@@ -10,7 +10,6 @@ use crate::format::{clean, sig};
 use crate::mechanics::criteria::{CriterionError, MohrCoulomb};
 use crate::mechanics::search::{Measure, SearchSettings, WorstCondition, worst_plane};
 use crate::mechanics::{PlaneStress, StressUnit};
-use crate::parse;
 
 /// Pore pressure and Mohr–Coulomb material, shared by `worst-plane`, `map` and `mohr`.
 #[derive(Debug, Clone, Args)]
@@ -25,12 +24,18 @@ pub struct MaterialArgs {
     /// Friction angle φ in degrees, for mohr-coulomb.
     #[arg(long, value_name = "DEG", allow_hyphen_values = true)]
     pub friction_angle: Option<String>,
+    /// Friction coefficient μ instead of --friction-angle (φ = atan μ).
+    #[arg(long, value_name = "MU", allow_hyphen_values = true)]
+    pub friction_coefficient: Option<String>,
 }
 
 impl MaterialArgs {
     /// Whether any of the three was given.
     pub(crate) fn any(&self) -> bool {
-        self.pore_pressure.is_some() || self.cohesion.is_some() || self.friction_angle.is_some()
+        self.pore_pressure.is_some()
+            || self.cohesion.is_some()
+            || self.friction_angle.is_some()
+            || self.friction_coefficient.is_some()
     }
 
     /// The pore pressure (Pa, 0 when not given) and the material, if both cohesion and friction
@@ -51,11 +56,10 @@ impl MaterialArgs {
             };
         let pore_pressure_pa = stress_arg("--pore-pressure", &self.pore_pressure)?;
         let cohesion_pa = stress_arg("--cohesion", &self.cohesion)?;
-        let friction = self
-            .friction_angle
-            .as_deref()
-            .map(|t| parse::number(t).map_err(|e| ArgError::new("--friction-angle", e)))
-            .transpose()?;
+        let friction = super::friction_deg(
+            self.friction_angle.as_deref(),
+            self.friction_coefficient.as_deref(),
+        )?;
         let measure_text = measure.map_or_else(
             || "no --measure is given".to_owned(),
             |m| format!("the measure is {}", m.key()),

@@ -179,7 +179,7 @@ pub fn standing(
 /// capacity rank worst, above every number; then the numbers (worst first: the largest, or the
 /// smallest for σ3 and normal-min); then states that never reach the surface (safe at any
 /// scale); then undefined values; then what is not checked.
-#[derive(Clone, Copy, Debug, PartialEq)]
+#[derive(Clone, Copy, Debug)]
 pub struct RankKey {
     tier: u8,
     key: f64,
@@ -206,14 +206,6 @@ impl RankKey {
         Self::new(measure, Some(value), Condition::Defined)
     }
 
-    /// Total order, larger worse.
-    #[must_use]
-    pub fn cmp(&self, other: &Self) -> std::cmp::Ordering {
-        self.tier
-            .cmp(&other.tier)
-            .then(self.key.total_cmp(&other.key))
-    }
-
     /// Whether this is at or beyond `threshold` (a state failing at any scale or without
     /// frictional capacity always is; never-reaching, undefined and unchecked states never are).
     #[must_use]
@@ -221,6 +213,29 @@ impl RankKey {
         self.tier == 4 || (self.tier == 3 && self.key >= threshold.key)
     }
 }
+
+/// Total order, larger worse.
+impl Ord for RankKey {
+    fn cmp(&self, other: &Self) -> std::cmp::Ordering {
+        self.tier
+            .cmp(&other.tier)
+            .then(self.key.total_cmp(&other.key))
+    }
+}
+
+impl PartialOrd for RankKey {
+    fn partial_cmp(&self, other: &Self) -> Option<std::cmp::Ordering> {
+        Some(self.cmp(other))
+    }
+}
+
+impl PartialEq for RankKey {
+    fn eq(&self, other: &Self) -> bool {
+        self.cmp(other) == std::cmp::Ordering::Equal
+    }
+}
+
+impl Eq for RankKey {}
 
 /// How many states of a ranking stand in each condition.
 #[derive(Clone, Copy, Debug, Default, PartialEq, Eq, serde::Serialize)]
@@ -300,6 +315,18 @@ pub fn standing_text(standing: Condition) -> &'static str {
         Condition::NeverReaches => "never reaches the surface (safe at any scale)",
         Condition::Undefined => "undefined for this state",
         Condition::NotChecked => "not checked (strengths not given)",
+    }
+}
+
+/// The words for a strength-reduction factor that is not a number, by its condition.
+#[must_use]
+pub fn reduction_text(condition: Condition) -> &'static str {
+    match condition {
+        Condition::NeverReaches => "infinite (no shear demand: no reduction reaches the surface)",
+        Condition::FailsAtAnyScale | Condition::EffectiveTension => {
+            "none (beyond the envelope's apex in tension: no reduction puts the state inside)"
+        }
+        _ => "undefined",
     }
 }
 
@@ -392,7 +419,7 @@ pub fn envelope(
             verdict: v.verdict,
         });
     }
-    rows.sort_by(|a, b| b.key(measure).cmp(&a.key(measure)));
+    rows.sort_by_key(|r| std::cmp::Reverse(r.key(measure)));
     let mut counts = ConditionCounts::default();
     for r in &rows {
         counts.add(r.standing());

@@ -131,7 +131,7 @@ fn verdict_row(ui: &mut egui::Ui, v: &Verdict, d: &Derived) {
             ),
             _ => format!(
                 "strength reduction: {}",
-                crate::study::envelope::standing_text(r.condition)
+                crate::study::envelope::reduction_text(r.condition)
             ),
         });
     if reduction.is_some() {
