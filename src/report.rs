@@ -222,12 +222,13 @@ fn material(s: &mut String, project: &Project, unit: StressUnit, notes: &mut Foo
             sig(unit.from_pa(mc.pore_pressure_pa), 6)
         )
     };
-    let planes = match mc.plane_strength() {
-        Some(m) => format!(
-            "cohesion {} {unit}, friction angle {}° (μ = tan φ = {}), used for the Coulomb checks of the cut plane, the named faults and the mohr-coulomb worst plane",
+    let planes = match project.plane_strength() {
+        Some((m, from)) => format!(
+            "cohesion {} {unit}, friction angle {}° (μ = tan φ = {}): {}, used for the Coulomb checks of the cut plane, the named faults and the mohr-coulomb worst plane",
             sig(unit.from_pa(m.cohesion_pa), 6),
             sig(m.friction_angle_deg, 6),
-            sig(m.friction_angle_deg.to_radians().tan(), 6)
+            sig(m.friction_angle_deg.to_radians().tan(), 6),
+            from.text()
         ),
         None => format!(
             "not given: the Coulomb checks of planes are not checked (they need {})",
@@ -250,7 +251,7 @@ fn envelopes(
     notes: &mut Footnotes,
 ) -> Result<(), StudyError> {
     s.push_str("<section>\n<h2>Envelope</h2>\n");
-    let settings = project.measure.settings(project.convention());
+    let settings = project.search_settings();
     let mut measures = vec![EnvelopeMeasure::VonMises];
     for c in crate::mechanics::criteria::Criterion::ALL {
         if project.material.strengths.checks(c) {

@@ -556,3 +556,71 @@ fn batch_out_is_a_plain_csv_with_the_header_first() {
         assert_eq!(reader.records().count(), 4);
     }
 }
+
+#[test]
+fn without_the_planes_own_strength_the_material_s_is_the_one_strength_set() {
+    let file = temp("one-set.json");
+    let _ = std::fs::remove_file(&file);
+    let f = file.to_str().unwrap();
+    for args in [
+        vec!["project", "new", f],
+        vec![
+            "project",
+            "add-case",
+            f,
+            "--name",
+            "a",
+            "--stress",
+            "xx=-10,yy=-20,zz=-40,xy=5",
+        ],
+        vec![
+            "project",
+            "set-material",
+            f,
+            "--cohesion",
+            "3",
+            "--friction-angle",
+            "30",
+        ],
+        vec!["project", "set-pore-pressure", f, "5"],
+    ] {
+        common::planewise_ok(&args);
+    }
+    let j = json(&["analyze", "--project", f, "--case", "a", "--json"]);
+    assert_eq!(j["plane_strength_from"], "material");
+    // The cut plane is the project's default x face: σn = −10 MPa, τ = 5 MPa (σxy), so with
+    // p = 5 MPa, σn′ = 5 MPa and U = 5 / (3 + 5 tan 30°) = 0.849365 (worked by hand).
+    let u = j["plane"]["fault"]["mohr_coulomb_utilization"]
+        .as_f64()
+        .unwrap();
+    assert!(
+        (u - 5.0 / (3.0 + 5.0 * 30.0_f64.to_radians().tan())).abs() < 1e-12,
+        "{u}"
+    );
+    // The mohr-coulomb envelope runs on the same strength, not refused.
+    let env = json(&[
+        "envelope",
+        "--project",
+        f,
+        "--measure",
+        "mohr-coulomb",
+        "--json",
+    ]);
+    assert!(env["rows"][0]["value"].as_f64().unwrap() >= u);
+    // Setting the planes' own strength replaces it for the planes only.
+    common::planewise_ok(&[
+        "project",
+        "set-plane-strength",
+        f,
+        "--cohesion",
+        "0",
+        "--friction-coefficient",
+        "0.6",
+    ]);
+    let j = json(&["analyze", "--project", f, "--case", "a", "--json"]);
+    assert_eq!(j["plane_strength_from"], "planes");
+    let u = j["plane"]["fault"]["mohr_coulomb_utilization"]
+        .as_f64()
+        .unwrap();
+    assert!((u - 5.0 / (5.0 * 0.6)).abs() < 1e-12, "{u}");
+}

@@ -169,6 +169,9 @@ pub struct AnalyzeJson {
     pub from_command_line: Vec<String>,
     /// The pore pressure (compression positive) the checks use; null when none is given.
     pub pore_pressure: Option<f64>,
+    /// Whose c and φ the Coulomb checks of planes use: "planes" (their own) or "material";
+    /// null when neither is given (those checks are not checked).
+    pub plane_strength_from: Option<crate::study::model::PlaneStrengthSource>,
     /// What each safety measure means.
     pub definitions: DefinitionsJson,
 }
@@ -570,6 +573,7 @@ pub fn to_json(d: &Derived, shown: &Shown) -> AnalyzeJson {
         }),
         from_command_line: shown.from_command_line.clone(),
         pore_pressure: (p != 0.0).then(|| st(p)),
+        plane_strength_from: d.plane_strength_from,
         definitions: DefinitionsJson::default(),
     }
 }
@@ -793,8 +797,12 @@ pub fn to_text(j: &AnalyzeJson) -> String {
             let ratio = |v: Option<f64>| v.map_or_else(|| "undefined".to_owned(), |x| sig(x, 5));
             let _ = writeln!(
                 s,
-                "Fault check (compression positive, σn′ = σn − p, p = {})",
-                with_unit(Some(f.pore_pressure), u)
+                "Fault check (compression positive, σn′ = σn − p, p = {}; Coulomb with {})",
+                with_unit(Some(f.pore_pressure), u),
+                j.plane_strength_from.map_or(
+                    "no c and φ given",
+                    crate::study::model::PlaneStrengthSource::text
+                )
             );
             let _ = writeln!(
                 s,
@@ -998,7 +1006,7 @@ fn study(args: &AnalyzeArgs) -> Result<(crate::study::Project, Shown), ArgError>
     }
     let fault = pore_pressure_pa.is_some()
         || project.measure.pore_pressure_pa != 0.0
-        || project.measure.plane_strength().is_some();
+        || project.plane_strength().is_some();
     if project_ref.is_none() {
         // Without a project nothing overrides anything.
         from_command_line.clear();

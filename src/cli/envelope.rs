@@ -152,14 +152,14 @@ pub fn run(args: &EnvelopeArgs) -> Result<String, CliError> {
     let unit = project.unit().map_err(|e| ArgError::new("--project", e))?;
     let convention = project.convention();
     let (project, from_command_line) = with_overrides(args, project, unit)?;
-    let settings = project.measure.settings(convention);
+    let settings = project.search_settings();
     if let Some(m) = measure.plane()
         && m.uses_material()
         && settings.material.is_none()
     {
         return Err(ArgError::new(
             "--measure",
-            "mohr-coulomb needs the planes' cohesion and friction angle: the project has none (set them with `planewise project set-planes`) and no --cohesion and --friction-angle are given",
+            "mohr-coulomb needs a cohesion and friction angle: the project has none for the planes or the material (set them with `planewise project set-plane-strength` or `set-material`) and no --cohesion and --friction-angle are given",
         )
         .into());
     }

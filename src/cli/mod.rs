@@ -278,8 +278,10 @@ pub struct ProjectView {
     pub case: String,
     /// The saved cut plane.
     pub plane: crate::mechanics::PlaneNormal,
-    /// The saved measure, pore pressure and material.
+    /// The saved measure, pore pressure and the planes' strength as saved.
     pub measure: crate::study::MeasureChoice,
+    /// The search settings the window uses (the planes' c and φ, else the material's).
+    pub search: crate::mechanics::search::SearchSettings,
     /// The case's captions and pinned notes.
     pub notes: Vec<crate::study::annotations::Annotation>,
 }
@@ -299,7 +301,9 @@ impl StressArgs {
             return Ok(None);
         };
         let (project, _) = crate::study::load(file).map_err(|e| ArgError::new("--project", e))?;
+        let search = project.search_settings();
         Ok(Some(ProjectView {
+            search,
             name: project.name,
             case: case.clone(),
             plane: project.plane,

@@ -52,7 +52,7 @@ pub fn run(args: &MohrArgs) -> Result<String, CliError> {
     let envelope = if let Some(v) = from_project {
         // As the window: the project's material draws the envelope for its mohr-coulomb measure.
         (measure == Some(Measure::MohrCoulomb))
-            .then(|| v.measure.plane_strength())
+            .then_some(v.search.material)
             .flatten()
             .map(|material| Envelope {
                 material,

@@ -149,8 +149,8 @@ pub fn search_settings(
     })
 }
 
-/// Like [`search_settings`]; with `--project` and no material argument, the project's pore
-/// pressure and material are used, as the window does.
+/// Like [`search_settings`]; with `--project`, the project's pore pressure and Coulomb strength
+/// (as the window uses them) where the command line gives none.
 pub fn search_settings_in(
     measure: Measure,
     material: &MaterialArgs,
@@ -158,13 +158,30 @@ pub fn search_settings_in(
     envelope: bool,
     view: Option<&ProjectView>,
 ) -> Result<SearchSettings, ArgError> {
-    match view {
-        Some(v) if !material.any() => Ok(SearchSettings {
-            measure,
-            ..v.measure.settings(input.convention)
-        }),
-        _ => search_settings(measure, material, input, envelope),
+    let Some(v) = view else {
+        return search_settings(measure, material, input, envelope);
+    };
+    let mut settings = SearchSettings {
+        measure,
+        convention: input.convention,
+        ..v.search
+    };
+    if material.any() {
+        let (pore_pressure_pa, strength) = material.read(input.unit, Some(measure), envelope)?;
+        if material.pore_pressure.is_some() {
+            settings.pore_pressure_pa = pore_pressure_pa;
+        }
+        if strength.is_some() {
+            settings.material = strength;
+        }
     }
+    if measure == Measure::MohrCoulomb && settings.material.is_none() {
+        return Err(ArgError::new(
+            "--measure",
+            "mohr-coulomb needs a cohesion and friction angle: the project has none for the planes or the material, and no --cohesion and --friction-angle are given",
+        ));
+    }
+    Ok(settings)
 }
 
 /// Refuses material arguments when no measure uses them (commands whose measure is optional).

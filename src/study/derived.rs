@@ -25,8 +25,10 @@ pub struct Derived {
     pub convention: SignConvention,
     /// The measure as the user set it.
     pub measure: MeasureChoice,
-    /// The search settings in the display convention.
+    /// The search settings in the display convention (with [`Project::plane_strength`]).
     pub search: SearchSettings,
+    /// Whose c and φ the Coulomb checks of planes use (`None`: not checked).
+    pub plane_strength_from: Option<super::model::PlaneStrengthSource>,
     /// Principal stresses, invariants and equivalent stresses in the display convention.
     pub analysis: Analysis,
     /// The worst planes for the measure.
@@ -59,7 +61,7 @@ impl Derived {
             Ok(t) => (t, None),
             Err(e) => (StressTensor::default(), Some(e.to_string())),
         };
-        let search = project.measure.settings(convention);
+        let search = project.search_settings();
         // Pressure-sensitive criteria on effective stress whenever a pore pressure is given.
         let mut verdicts = criteria::verdicts(
             &tensor,
@@ -108,6 +110,7 @@ impl Derived {
             unit,
             convention,
             measure: project.measure,
+            plane_strength_from: project.plane_strength().map(|(_, from)| from),
             analysis: Analysis::new(&tensor, convention),
             worst: worst_plane(&tensor, &search),
             search,

@@ -47,7 +47,7 @@ impl FigureInput {
     pub fn from_derived(d: &Derived, envelope: bool) -> Self {
         let choice = &d.measure;
         let envelope = (envelope || choice.measure == Measure::MohrCoulomb)
-            .then(|| choice.plane_strength())
+            .then_some(d.search.material)
             .flatten()
             .map(|material| Envelope {
                 material,

@@ -520,7 +520,29 @@ impl MeasureChoice {
     }
 
     /// What the Coulomb checks of planes lack, as the words after "not checked: needs".
-    pub const PLANE_STRENGTH_NEEDED: &'static str = "the planes' cohesion and friction angle";
+    pub const PLANE_STRENGTH_NEEDED: &'static str =
+        "the planes' cohesion and friction angle (or the material's)";
+}
+
+/// Whose cohesion and friction angle the Coulomb checks of planes use.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize)]
+#[serde(rename_all = "kebab-case")]
+pub enum PlaneStrengthSource {
+    /// The planes' own (set for the discontinuities).
+    Planes,
+    /// The material's, since the planes' are not given (intact material: one strength set).
+    Material,
+}
+
+impl PlaneStrengthSource {
+    /// Words for outputs.
+    #[must_use]
+    pub fn text(self) -> &'static str {
+        match self {
+            Self::Planes => "the planes' own c and φ",
+            Self::Material => "the material's c and φ (no separate strength given for the planes)",
+        }
+    }
 }
 
 /// The material the criteria check against: a name and its strengths (any may be missing).
@@ -845,6 +867,31 @@ impl Project {
             self.check_combination(combination)?;
         }
         Ok(())
+    }
+
+    /// The Coulomb strength the checks of planes (the cut plane, named faults, the mohr-coulomb
+    /// worst plane) use: the planes' own c and φ when given, else the material's, else none
+    /// (those checks are then "not checked").
+    #[must_use]
+    pub fn plane_strength(&self) -> Option<(MohrCoulomb, PlaneStrengthSource)> {
+        if let Some(m) = self.measure.plane_strength() {
+            return Some((m, PlaneStrengthSource::Planes));
+        }
+        self.material
+            .strengths
+            .mohr_coulomb()
+            .and_then(Result::ok)
+            .map(|m| (m, PlaneStrengthSource::Material))
+    }
+
+    /// The worst-plane search settings: the measure, pore pressure and [`Self::plane_strength`],
+    /// shown in the project's convention.
+    #[must_use]
+    pub fn search_settings(&self) -> SearchSettings {
+        SearchSettings {
+            material: self.plane_strength().map(|(m, _)| m),
+            ..self.measure.settings(self.convention())
+        }
     }
 
     /// The tensor of a load case or combination (pascals, tension positive). A combination's

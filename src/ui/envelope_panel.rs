@@ -29,12 +29,8 @@ impl EnvelopePanel {
     ) -> &Result<Envelope, String> {
         let fresh = matches!(&self.cache, Some((key, _)) if key.0 == *project && key.1 == measure);
         if !fresh {
-            let result = envelope(
-                project,
-                measure,
-                &project.measure.settings(project.convention()),
-            )
-            .map_err(|e| e.to_string());
+            let result =
+                envelope(project, measure, &project.search_settings()).map_err(|e| e.to_string());
             self.cache = Some(((project.clone(), measure), result));
         }
         match &self.cache {
@@ -69,9 +65,9 @@ impl EnvelopePanel {
         });
         let measure = settings.envelope_measure;
         if matches!(measure, EnvelopeMeasure::Plane(m) if m.uses_friction()) {
-            let strength = project.measure.plane_strength().map_or_else(
-                || "the planes' c and φ not given".to_owned(),
-                |m| {
+            let strength = project.plane_strength().map_or_else(
+                || "no c and φ given".to_owned(),
+                |(m, _)| {
                     format!(
                         "c = {} {unit}, φ = {}°",
                         crate::format::sig(d.unit.from_pa(m.cohesion_pa), 5),

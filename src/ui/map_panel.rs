@@ -83,7 +83,7 @@ pub fn material_ui(
         } else {
             choice.cohesion_pa = None;
             choice.friction_angle_deg = None;
-            ui.small("not checked: needs the planes' cohesion and friction angle");
+            ui.small("not given: the material's c and φ are used when it has them; otherwise the Coulomb checks of planes are not checked");
         }
     }
 }

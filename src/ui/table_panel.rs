@@ -151,7 +151,10 @@ impl TablePanel {
         let measure = self.measure;
         let strengths = project.material.strengths;
         let convention = options.convention;
-        let plane = project.measure.settings(convention);
+        let plane = SearchSettings {
+            convention,
+            ..project.search_settings()
+        };
         let settings = SearchSettings {
             measure: measure.plane().unwrap_or(PlaneMeasure::Shear),
             ..plane
