@@ -576,7 +576,17 @@ impl PlanewiseApp {
 
     /// Writes the calculation report of the whole project to `path` (HTML, atomically).
     pub fn report_to(&mut self, path: &Path) {
-        let written = crate::report::html(&self.project, &crate::report::ReportOptions::default())
+        // The file is named (with its SHA-256) only when the report is of it as saved.
+        let source = self
+            .file
+            .as_ref()
+            .filter(|_| !self.dirty())
+            .and_then(|f| crate::report::SourceFile::read(f).ok());
+        let options = crate::report::ReportOptions {
+            source,
+            ..crate::report::ReportOptions::default()
+        };
+        let written = crate::report::html(&self.project, &options)
             .map_err(|e| e.to_string())
             .and_then(|text| {
                 crate::export::write_atomic(path, text.as_bytes()).map_err(|e| e.to_string())

@@ -33,16 +33,48 @@ pub struct ReportOptions {
     pub cases: Vec<String>,
     /// Figures per case.
     pub figures: Vec<ReportFigure>,
-    /// The date printed in the title block (YYYY-MM-DD).
+    /// The date and time printed in the title block (ISO 8601 with its offset).
     pub date: String,
+    /// The project file checked, when the report is of a file as saved: its name and SHA-256.
+    pub source: Option<SourceFile>,
 }
+
+/// A project file as the report identifies it.
+#[derive(Clone, Debug, PartialEq, Eq)]
+pub struct SourceFile {
+    /// The file's name as given.
+    pub name: String,
+    /// SHA-256 of its bytes, lower-case hexadecimal.
+    pub sha256: String,
+}
+
+impl SourceFile {
+    /// Reads `path` and hashes its bytes.
+    pub fn read(path: &std::path::Path) -> std::io::Result<Self> {
+        use sha2::Digest as _;
+        let bytes = std::fs::read(path)?;
+        let digest = sha2::Sha256::digest(&bytes);
+        Ok(Self {
+            name: path.display().to_string(),
+            sha256: digest.iter().fold(String::with_capacity(64), |mut s, b| {
+                let _ = write!(s, "{b:02x}");
+                s
+            }),
+        })
+    }
+}
+
+/// The commit the program was built from ("unknown" outside a git work tree; "+changes" when
+/// built from a changed tree).
+pub const BUILD_COMMIT: &str = env!("PLANEWISE_COMMIT");
 
 impl Default for ReportOptions {
     fn default() -> Self {
         Self {
             cases: Vec::new(),
             figures: vec![ReportFigure::View3d, ReportFigure::Mohr],
-            date: today(),
+            date: now_iso8601(),
+            source: None,
         }
     }
 }
@@ -50,9 +82,30 @@ impl Default for ReportOptions {
 /// Today's date from the system clock, YYYY-MM-DD (UTC).
 #[must_use]
 pub fn today() -> String {
-    let days = std::time::SystemTime::now()
+    let seconds = std::time::SystemTime::now()
         .duration_since(std::time::UNIX_EPOCH)
-        .map_or(0, |d| d.as_secs() / 86_400);
+        .map_or(0, |d| d.as_secs());
+    date_of(seconds / 86_400)
+}
+
+/// The date and time now, ISO 8601 in UTC with its offset: `2026-12-03T14:05:09+00:00`.
+#[must_use]
+pub fn now_iso8601() -> String {
+    let seconds = std::time::SystemTime::now()
+        .duration_since(std::time::UNIX_EPOCH)
+        .map_or(0, |d| d.as_secs());
+    let s = seconds % 86_400;
+    format!(
+        "{}T{:02}:{:02}:{:02}+00:00",
+        date_of(seconds / 86_400),
+        s / 3600,
+        s / 60 % 60,
+        s % 60
+    )
+}
+
+/// The civil date of `days` since 1970-01-01.
+fn date_of(days: u64) -> String {
     // Civil date from days since 1970-01-01 (H. Hinnant's algorithm, public domain).
     let z = days.cast_signed() + 719_468;
     let era = z.div_euclid(146_097);
@@ -141,6 +194,27 @@ pub fn html(project: &Project, options: &ReportOptions) -> Result<String, StudyE
         env!("CARGO_PKG_VERSION"),
         escape(&options.date),
         convention.key()
+    );
+    let (file, sha) = options.source.as_ref().map_or_else(
+        || {
+            (
+                "not a saved file (unsaved changes, or made in memory)".to_owned(),
+                "—".to_owned(),
+            )
+        },
+        |f| (escape(&f.name), f.sha256.clone()),
+    );
+    let _ = write!(
+        s,
+        "<table class=\"identity\">\n<tr><th>project file</th><td>{file}</td></tr>\n<tr><th>SHA-256 of the file</th><td><code>{sha}</code></td></tr>\n<tr><th>revision</th><td>{}</td></tr>\n<tr><th>program</th><td>Planewise {} (build {})</td></tr>\n<tr><th>made</th><td>{}</td></tr>\n</table>\n",
+        if project.revision.is_empty() {
+            "(none given)".to_owned()
+        } else {
+            escape(&project.revision)
+        },
+        env!("CARGO_PKG_VERSION"),
+        escape(BUILD_COMMIT),
+        escape(&options.date)
     );
     s.push_str("<table class=\"sign-off\"><tr><th>Prepared by</th><th>Checked by</th><th>Date</th></tr><tr><td></td><td></td><td></td></tr></table>\n</header>\n");
     // Scope and cautions.

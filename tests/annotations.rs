@@ -206,6 +206,7 @@ fn the_command_line_and_the_report_write_notes_and_captions_escaped() {
             cases: Vec::new(),
             figures: vec![planewise::report::ReportFigure::Mohr],
             date: "2026-12-03".into(),
+            source: None,
         },
     )
     .unwrap();
@@ -242,6 +243,7 @@ fn the_report_names_a_table_rows_file_and_line() {
             cases: vec!["row 7 of mesh.csv".into()],
             figures: Vec::new(),
             date: "2026-12-03".into(),
+            source: None,
         },
     )
     .unwrap();

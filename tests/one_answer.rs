@@ -624,3 +624,73 @@ fn without_the_planes_own_strength_the_material_s_is_the_one_strength_set() {
         .unwrap();
     assert!((u - 5.0 / (5.0 * 0.6)).abs() < 1e-12, "{u}");
 }
+
+#[test]
+fn the_report_identifies_what_it_checked() {
+    let file = temp("identified.json");
+    let _ = std::fs::remove_file(&file);
+    let f = file.to_str().unwrap();
+    for args in [
+        vec!["project", "new", f, "--name", "Invented: identified"],
+        vec![
+            "project",
+            "add-case",
+            f,
+            "--name",
+            "a",
+            "--stress",
+            "xx=-10,yy=-20,zz=-40,xy=5",
+        ],
+        vec!["project", "set-revision", f, "C, issued for checking"],
+        vec![
+            "project",
+            "set-plane-strength",
+            f,
+            "--cohesion",
+            "1",
+            "--friction-angle",
+            "30",
+        ],
+        vec!["project", "add-fault", f, "--fault", "F1=60/120"],
+    ] {
+        common::planewise_ok(&args);
+    }
+    let out = temp("identified.html");
+    common::planewise_ok(&["report", "--project", f, "--out", out.to_str().unwrap()]);
+    let html = std::fs::read_to_string(&out).unwrap();
+    // SHA-256 from coreutils' sha256sum, an implementation outside the project.
+    let sum = std::process::Command::new("sha256sum")
+        .arg(&file)
+        .output()
+        .unwrap();
+    let sum = String::from_utf8_lossy(&sum.stdout);
+    let sha = sum.split_whitespace().next().unwrap();
+    assert_eq!(sha.len(), 64);
+    assert!(
+        html.contains(sha),
+        "the report lacks the file's SHA-256 {sha}"
+    );
+    assert!(html.contains("identified.json"));
+    assert!(html.contains("C, issued for checking"));
+    assert!(html.contains(&format!("Planewise {}", env!("CARGO_PKG_VERSION"))));
+    assert!(html.contains("(build "), "no build commit");
+    // ISO 8601 date and time with its offset.
+    let made = html.split("<th>made</th><td>").nth(1).unwrap();
+    let made = &made[..made.find('<').unwrap()];
+    let b = made.as_bytes();
+    assert_eq!(made.len(), 25, "{made}");
+    assert!(
+        b[4] == b'-' && b[7] == b'-' && b[10] == b'T' && b[13] == b':' && &made[19..] == "+00:00",
+        "{made}"
+    );
+    // The fault table carries the rake.
+    assert!(html.contains("<th>rake"), "no rake column");
+    let text =
+        String::from_utf8(common::planewise_ok(&["analyze", "--project", f, "--case", "a"]).stdout)
+            .unwrap();
+    let fault_line = text
+        .lines()
+        .find(|l| l.trim_start().starts_with("F1"))
+        .unwrap();
+    assert!(fault_line.contains("rake"), "{fault_line}");
+}

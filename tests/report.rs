@@ -24,6 +24,7 @@ fn options() -> ReportOptions {
         cases: Vec::new(),
         figures: vec![ReportFigure::View3d, ReportFigure::Map, ReportFigure::Mohr],
         date: "2026-12-02".to_owned(),
+        source: None,
     }
 }
 

@@ -48,6 +48,17 @@ pub enum ProjectAction {
     AddFault(AddFaultArgs),
     /// Remove a named fault.
     RemoveFault(RemoveFaultArgs),
+    /// Set the project's revision (printed in every report).
+    SetRevision(SetRevisionArgs),
+}
+
+/// `project set-revision`.
+#[derive(Debug, Clone, Args)]
+pub struct SetRevisionArgs {
+    /// The project file.
+    pub file: PathBuf,
+    /// The revision, free text (e.g. "B, issued for checking").
+    pub revision: String,
 }
 
 /// `project set-material`.
@@ -448,6 +459,16 @@ pub fn run(args: &ProjectArgs) -> Result<String, CliError> {
             }
             save(&a.file, &project)?;
             Ok(format!("wrote {}\n", a.file.display()))
+        }
+        ProjectAction::SetRevision(a) => {
+            let mut project = load(&a.file)?;
+            a.revision.trim().clone_into(&mut project.revision);
+            save(&a.file, &project)?;
+            Ok(format!(
+                "wrote {}: revision {}\n",
+                a.file.display(),
+                project.revision
+            ))
         }
         ProjectAction::Show(a) => {
             let (project, warnings) = study::load(&a.file).map_err(|e| ArgError::new("FILE", e))?;

@@ -37,9 +37,12 @@ pub fn run(args: &ReportArgs) -> Result<String, CliError> {
     if !ext.eq_ignore_ascii_case("html") && !ext.eq_ignore_ascii_case("htm") {
         return Err(ArgError::new("--out", "the report is HTML: name the file .html").into());
     }
+    let source = crate::report::SourceFile::read(&args.project)
+        .map_err(|e| ArgError::new("--project", format!("{}: {e}", args.project.display())))?;
     let options = ReportOptions {
         cases: args.cases.iter().map(|c| c.trim().to_owned()).collect(),
         figures: args.figures.clone(),
+        source: Some(source),
         ..ReportOptions::default()
     };
     let text = html(&project, &options).map_err(|e| ArgError::new("--cases", e))?;

@@ -48,7 +48,7 @@ pub const FORMAT_VERSION: u32 = 2;
 const OLD_DEFAULT_PLANE_STRENGTH: (f64, f64) = (5e6, 30.0);
 
 /// Top-level keys this version knows; others are ignored with a warning.
-const KNOWN_KEYS: [&str; 13] = [
+const KNOWN_KEYS: [&str; 14] = [
     "format_version",
     "name",
     "unit",
@@ -56,6 +56,7 @@ const KNOWN_KEYS: [&str; 13] = [
     "cases",
     "combinations",
     "notes",
+    "revision",
     "active",
     "plane",
     "measure",

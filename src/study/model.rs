@@ -606,6 +606,9 @@ pub struct Project {
     /// Free text.
     #[serde(default)]
     pub notes: String,
+    /// The revision the user gives the project (printed in every report; free text).
+    #[serde(default, skip_serializing_if = "String::is_empty")]
+    pub revision: String,
     /// The case or combination the window shows (empty or unknown: the first one).
     #[serde(default)]
     pub active: String,
@@ -668,6 +671,7 @@ impl Project {
             cases: Vec::new(),
             combinations: Vec::new(),
             notes: String::new(),
+            revision: String::new(),
             active: String::new(),
             plane: default_plane(),
             measure: MeasureChoice::default(),
