@@ -754,7 +754,10 @@ impl PlanewiseApp {
                 }
                 if !matches!(
                     edit,
-                    Edit::SetTensor(_) | Edit::SetPlane(_) | Edit::SetMeasure(_)
+                    Edit::SetComponents(_)
+                        | Edit::SetComponent(..)
+                        | Edit::SetPlane(_)
+                        | Edit::SetMeasure(_)
                 ) {
                     self.after_external_change();
                 }

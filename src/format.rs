@@ -38,6 +38,43 @@ pub fn clean(value: f64) -> f64 {
     format!("{value:.14e}").parse().unwrap_or(value)
 }
 
+/// `value` with round-off removed: zero when its magnitude is below 1e-9 × `scale` (the
+/// magnitude of the state it belongs to, in the same unit), never −0, else [`clean`]. What is
+/// left below that is eigenvalue and conversion round-off, not a result.
+#[must_use]
+pub fn clean_relative(value: f64, scale: f64) -> f64 {
+    if value.abs() <= crate::mechanics::criteria::RELATIVE_TOLERANCE * scale.abs() || value == 0.0 {
+        return 0.0;
+    }
+    clean(value)
+}
+
+/// An angle in degrees as the searches resolve it: rounded to 1e-6°, −0 as 0, and (with
+/// `wrap`) 360° as 0°. The numerical searches locate a plane to about 1e-7°; more digits are
+/// noise (`dip 60.0000000821544`).
+#[must_use]
+pub fn angle(deg: f64, wrap: bool) -> f64 {
+    if !deg.is_finite() {
+        return deg;
+    }
+    let mut a = (deg * 1e6).round() / 1e6;
+    if wrap && a >= 360.0 {
+        a -= 360.0;
+    }
+    if a == 0.0 { 0.0 } else { a }
+}
+
+/// `value` to the nine significant digits a numerical plane search resolves (the plane is found
+/// to about 1e-7°, so stresses on it are good to about 1e-9 of the state): `-14.2`, not
+/// `-14.2000000426836`.
+#[must_use]
+pub fn resolved(value: f64) -> f64 {
+    if !value.is_finite() || value == 0.0 {
+        return value;
+    }
+    format!("{value:.8e}").parse().unwrap_or(value)
+}
+
 /// Significant digits that tell every neighbour in `values` apart (at least `min_digits`, at
 /// most 15): for axis ticks and colour-bar labels, so that no two neighbouring labels read the
 /// same unless their values are the same.

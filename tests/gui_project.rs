@@ -752,3 +752,47 @@ fn cancel_stops_a_long_table_read() {
             .is_some_and(|m| m.contains("cancelled"))
     );
 }
+
+#[test]
+fn a_value_typed_in_ksi_is_saved_as_typed() {
+    use planewise::mechanics::StressUnit;
+    use planewise::study::{CaseInput, LoadCase, TypedTensor};
+    // An invented state typed in ksi.
+    let mut project = Project::new(
+        "Invented: ksi",
+        StressUnit::Ksi,
+        SignConvention::TensionPositive,
+    );
+    project.cases.push(LoadCase {
+        name: "a".to_owned(),
+        description: String::new(),
+        input: CaseInput::Tensor(TypedTensor {
+            unit: "ksi".to_owned(),
+            compression_positive: false,
+            components: [1.1, -0.7, 0.3, 0.13, 0.0, 0.0],
+        }),
+    });
+    let mut h = harness_on(PlanewiseApp::new(
+        project,
+        None,
+        Settings::default(),
+        Box::new(NoDialogs),
+    ));
+    type_into(&mut h, "σxx", "0.21");
+    leave_text_field(&mut h);
+    let path = temp("ksi.json");
+    h.state_mut().save_to(&path);
+    h.run();
+    let saved: serde_json::Value =
+        serde_json::from_str(&std::fs::read_to_string(&path).unwrap()).unwrap();
+    let components = &saved["cases"][0]["input"]["components"];
+    assert_eq!(saved["cases"][0]["input"]["unit"], "ksi");
+    // Exactly as typed: no trip through pascals.
+    assert_eq!(components[0].as_f64(), Some(0.21), "{components}");
+    assert_eq!(components[3].as_f64(), Some(0.13), "{components}");
+    let (read, _) = planewise::study::load(&path).unwrap();
+    let CaseInput::Tensor(t) = &read.cases[0].input else {
+        panic!("not a tensor");
+    };
+    assert_eq!(t.components[0], 0.21);
+}

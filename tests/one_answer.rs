@@ -694,3 +694,54 @@ fn the_report_identifies_what_it_checked() {
         .unwrap();
     assert!(fault_line.contains("rake"), "{fault_line}");
 }
+
+#[test]
+fn round_off_prints_as_zero_and_repeated_roots_are_said() {
+    // A general plane-stress state: σ2 = 0 exactly (the z direction), printed 0, not 1e-15.
+    let j = json(&["analyze", "--stress", "xx=50,yy=-20,xy=30,zx=0", "--json"]);
+    let values = j["principal"]["values"].as_array().unwrap();
+    assert_eq!(values[1].as_f64(), Some(0.0), "{values:?}");
+    for d in j["principal"]["directions"].as_array().unwrap() {
+        for c in d.as_array().unwrap() {
+            let c = c.as_f64().unwrap();
+            assert!(c == 0.0 || c.abs() > 1e-9, "round-off in a direction: {c}");
+        }
+    }
+    // Hydrostatic: no planes of largest shear, and the repeated roots are said.
+    let j = json(&["analyze", "--stress", "xx=-30,yy=-30,zz=-30", "--json"]);
+    assert!(
+        j["max_shear_normals"].is_null(),
+        "{}",
+        j["max_shear_normals"]
+    );
+    assert!(j["principal"]["note"].as_str().unwrap().contains("equal"));
+    let j = json(&["analyze", "--stress", "xx=10,yy=10.0000001,zz=3", "--json"]);
+    assert!(
+        j["principal"]["note"]
+            .as_str()
+            .unwrap()
+            .contains("ill-determined")
+    );
+    let j = json(&["analyze", "--stress", "xx=10,yy=8,zz=3", "--json"]);
+    assert!(j["principal"]["note"].is_null());
+    // A numerical worst plane prints what the search resolves (no dip 60.0000000821544).
+    let j = json(&[
+        "worst-plane",
+        "--stress",
+        "xx=-30,yy=-10,zz=-20,xy=4",
+        "--measure",
+        "slip-tendency",
+        "--json",
+    ]);
+    for p in j["planes"].as_array().unwrap() {
+        for key in ["dip_deg", "dip_direction_deg"] {
+            let v = p[key].as_f64().unwrap();
+            assert_eq!(v, (v * 1e6).round() / 1e6, "{key} {v}");
+        }
+        let sn = p["normal_stress"].as_f64().unwrap();
+        // Worked by hand: the σ1–σ3 circle (compression positive) has centre c = 20 MPa and
+        // radius r = √(10² + 4²); the tangent from the origin touches it at
+        // σn = (c² − r²)/c = (400 − 116)/20 = 14.2 MPa (compression).
+        assert_eq!(sn, -14.2, "σn on the worst plane");
+    }
+}

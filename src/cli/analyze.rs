@@ -143,7 +143,9 @@ pub struct AnalyzeJson {
     pub von_mises: f64,
     pub tresca: f64,
     pub max_shear: f64,
-    pub max_shear_normals: [[f64; 3]; 2],
+    /// The normals of the planes of largest shear, (n1 ± n3)/√2; null for a state without shear
+    /// (hydrostatic: every plane carries the same stress and no shear).
+    pub max_shear_normals: Option<[[f64; 3]; 2]>,
     pub octahedral: OctahedralJson,
     pub lode_angle_deg: Option<f64>,
     pub triaxiality: Option<f64>,
@@ -290,6 +292,10 @@ pub struct StressJson {
 pub struct PrincipalJson {
     pub values: [f64; 3],
     pub directions: [[f64; 3]; 3],
+    /// When two principal values differ by less than 1e-6 of the state's magnitude: their
+    /// directions are ill-determined (any pair in their plane is as good).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub note: Option<String>,
 }
 
 /// I1 (unit), I2 (unit²), I3 (unit³), J2 (unit²), J3 (unit³).
@@ -327,8 +333,28 @@ pub struct PlaneJson {
     pub fault: Option<FaultJson>,
 }
 
+/// A unit vector's components, round-off below 1e-9 printed as 0.
 fn arr(v: &Vector3<f64>) -> [f64; 3] {
-    [v.x, v.y, v.z].map(clean)
+    [v.x, v.y, v.z].map(|c| crate::format::clean_relative(c, 1.0))
+}
+
+/// The note on nearly repeated principal values `[σ1, σ2, σ3]` (Pa), if any.
+fn repeated_note(values: [f64; 3]) -> Option<String> {
+    let scale = values[0].abs().max(values[2].abs());
+    let close = |a: f64, b: f64| (a - b).abs() <= 1e-6 * scale;
+    let which = match (close(values[0], values[1]), close(values[1], values[2])) {
+        (true, true) => {
+            "σ1, σ2 and σ3 are equal (to 1e-6 of the magnitude): every direction is principal"
+        }
+        (true, false) => {
+            "σ1 and σ2 differ by less than 1e-6 of the magnitude: their directions are ill-determined (any pair in their plane)"
+        }
+        (false, true) => {
+            "σ2 and σ3 differ by less than 1e-6 of the magnitude: their directions are ill-determined (any pair in their plane)"
+        }
+        (false, false) => return None,
+    };
+    (scale > 0.0).then(|| which.to_owned())
 }
 
 fn fault_json(
@@ -437,7 +463,14 @@ pub fn to_json(d: &Derived, shown: &Shown) -> AnalyzeJson {
     let a = &d.analysis;
     let tensor = &d.tensor;
     // Every number through `clean`: a value typed in psi comes back as typed.
-    let st = |pa: f64| clean(pa / u);
+    let scale = a.principal.values_pa[0]
+        .abs()
+        .max(a.principal.values_pa[2].abs())
+        .max(tensor.max_abs_component_pa());
+    // Round-off below 1e-9 of the state's magnitude prints as 0 (no −7.85e-17, no −0).
+    let st = |pa: f64| crate::format::clean_relative(pa, scale) / u;
+    let st = |pa: f64| clean(st(pa));
+    let power = |v: f64, k: i32| clean(crate::format::clean_relative(v, scale.powi(k)) / u.powi(k));
     let c = tensor.components_pa().map(|v| st(sign * v));
     let inv = &a.invariants;
     // `d.verdicts` is governing first; the JSON lists criteria in their fixed order.
@@ -453,9 +486,6 @@ pub fn to_json(d: &Derived, shown: &Shown) -> AnalyzeJson {
         .filter(|v| v.outcome() != Outcome::NotChecked)
         .map(|v| v.criterion.key().to_owned());
     let p = d.measure.pore_pressure_pa;
-    let scale = a.principal.values_pa[0]
-        .abs()
-        .max(a.principal.values_pa[2].abs());
     AnalyzeJson {
         unit: d.unit.symbol().to_owned(),
         convention: d.convention.key().to_owned(),
@@ -470,19 +500,21 @@ pub fn to_json(d: &Derived, shown: &Shown) -> AnalyzeJson {
         principal: PrincipalJson {
             values: a.principal.values_pa.map(st),
             directions: a.principal.directions.map(|d| arr(&d)),
+            note: repeated_note(a.principal.values_pa),
         },
         invariants: InvariantsJson {
             i1: st(inv.i1),
-            i2: clean(inv.i2 / (u * u)),
-            i3: clean(inv.i3 / (u * u * u)),
-            j2: clean(inv.j2 / (u * u)),
-            j3: clean(inv.j3 / (u * u * u)),
+            i2: power(inv.i2, 2),
+            i3: power(inv.i3, 3),
+            j2: power(inv.j2, 2),
+            j3: power(inv.j3, 3),
         },
         mean_stress: st(a.mean_stress_pa),
         von_mises: st(a.von_mises_pa),
         tresca: st(a.tresca_pa),
         max_shear: st(a.max_shear_pa),
-        max_shear_normals: a.max_shear_normals.map(|n| arr(&n)),
+        max_shear_normals: (a.max_shear_pa > criteria::RELATIVE_TOLERANCE * scale)
+            .then(|| a.max_shear_normals.map(|n| arr(&n))),
         octahedral: OctahedralJson {
             normal: st(a.octahedral_normal_pa),
             shear: st(a.octahedral_shear_pa),
@@ -663,6 +695,9 @@ pub fn to_text(j: &AnalyzeJson) -> String {
             vec_text(d)
         );
     }
+    if let Some(note) = &j.principal.note {
+        let _ = writeln!(s, "  note: {note}");
+    }
     let rows: [(&str, String); 13] = [
         ("I1", with_unit(Some(j.invariants.i1), u)),
         ("I2", with_unit(Some(j.invariants.i2), &format!("{u}²"))),
@@ -686,12 +721,22 @@ pub fn to_text(j: &AnalyzeJson) -> String {
     for (name, value) in rows {
         let _ = writeln!(s, "  {name:<23} {value}");
     }
-    let _ = writeln!(
-        s,
-        "  max-shear plane normals {} and {}",
-        vec_text(&j.max_shear_normals[0]),
-        vec_text(&j.max_shear_normals[1])
-    );
+    match &j.max_shear_normals {
+        Some([a, b]) => {
+            let _ = writeln!(
+                s,
+                "  max-shear plane normals {} and {}",
+                vec_text(a),
+                vec_text(b)
+            );
+        }
+        None => {
+            let _ = writeln!(
+                s,
+                "  max-shear planes        none: no plane carries shear (hydrostatic state)"
+            );
+        }
+    }
     if let Some(p) = &j.in_plane {
         let _ = writeln!(
             s,

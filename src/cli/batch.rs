@@ -347,7 +347,9 @@ fn to_json(
     measure: &table::Measure<'_>,
 ) -> BatchJson {
     let sign = convention.sign();
-    let shown = |pa: f64| clean(sign * unit.from_pa(pa));
+    // Round-off below 1e-9 of the row's magnitude prints as 0.
+    let shown =
+        |pa: f64, scale: f64| clean(sign * unit.from_pa(crate::format::clean_relative(pa, scale)));
     let names = &ranked.header.names;
     BatchJson {
         file: file.to_owned(),
@@ -372,9 +374,15 @@ fn to_json(
             .rows
             .iter()
             .map(|r| {
-                let principal =
-                    crate::mechanics::principal::principal_values_in(&r.tensor, convention)
-                        .map(|v| clean(unit.from_pa(v)));
+                let principal = crate::mechanics::principal::principal_values_in(
+                    &r.tensor, convention,
+                )
+                .map(|v| {
+                    clean(unit.from_pa(crate::format::clean_relative(
+                        v,
+                        r.tensor.max_abs_component_pa(),
+                    )))
+                });
                 let plane = matches!(rank, EnvelopeMeasure::Plane(_))
                     .then(|| {
                         crate::study::envelope::measure_value(
@@ -386,9 +394,12 @@ fn to_json(
                         )
                         .ok()
                         .and_then(|v| {
-                            v.planes
-                                .first()
-                                .map(|w| [clean(w.dip_deg), clean(w.dip_direction_deg)])
+                            v.planes.first().map(|w| {
+                                [
+                                    crate::format::angle(w.dip_deg, false),
+                                    crate::format::angle(w.dip_direction_deg, true),
+                                ]
+                            })
                         })
                     })
                     .flatten();
@@ -403,7 +414,10 @@ fn to_json(
                             (names[i].clone(), serde_json::Value::String(text.clone()))
                         })
                         .collect(),
-                    components: r.tensor.components_pa().map(shown),
+                    components: r
+                        .tensor
+                        .components_pa()
+                        .map(|v| shown(v, r.tensor.max_abs_component_pa())),
                     principal,
                     value: r
                         .value

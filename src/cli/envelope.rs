@@ -183,7 +183,12 @@ pub fn run(args: &EnvelopeArgs) -> Result<String, CliError> {
                 planes: r.condition.map(|_| {
                     r.planes
                         .iter()
-                        .map(|p| [clean(p.dip_deg), clean(p.dip_direction_deg)])
+                        .map(|p| {
+                            [
+                                crate::format::angle(p.dip_deg, false),
+                                crate::format::angle(p.dip_direction_deg, true),
+                            ]
+                        })
                         .collect()
                 }),
                 criterion_condition: r.verdict,

@@ -312,6 +312,7 @@ pub fn run(args: &WorstPlaneArgs) -> Result<String, CliError> {
     let result =
         worst_plane(&input.tensor, &settings).map_err(|e| ArgError::new("--measure", e))?;
     let u = unit.pascals();
+    let scale = input.tensor.max_abs_component_pa();
     let json = WorstPlaneJson {
         measure: measure.key().to_owned(),
         unit: unit.symbol().to_owned(),
@@ -332,12 +333,24 @@ pub fn run(args: &WorstPlaneArgs) -> Result<String, CliError> {
                 let n = p.normal.vector();
                 let rake_deg =
                     PlaneStress::new(&input.tensor, p.normal, input.convention).rake_deg();
+                // Planes found numerically carry what the search resolves, no more.
+                let resolve = |v: f64| {
+                    if matches!(measure, Measure::SlipTendency | Measure::MohrCoulomb) {
+                        crate::format::resolved(v)
+                    } else {
+                        v
+                    }
+                };
                 PlaneJson {
-                    normal: [n.x, n.y, n.z].map(clean),
-                    dip_deg: clean(p.dip_deg),
-                    dip_direction_deg: clean(p.dip_direction_deg),
-                    normal_stress: clean(p.normal_stress_pa / u),
-                    shear_stress: clean(p.shear_stress_pa / u),
+                    normal: [n.x, n.y, n.z].map(|c| resolve(crate::format::clean_relative(c, 1.0))),
+                    dip_deg: crate::format::angle(p.dip_deg, false),
+                    dip_direction_deg: crate::format::angle(p.dip_direction_deg, true),
+                    normal_stress: resolve(clean(
+                        crate::format::clean_relative(p.normal_stress_pa, scale) / u,
+                    )),
+                    shear_stress: resolve(clean(
+                        crate::format::clean_relative(p.shear_stress_pa, scale) / u,
+                    )),
                     rake_deg: rake_deg.map(clean),
                 }
             })

@@ -6,13 +6,18 @@ use super::model::{
     CaseInput, Combination, FaultPlane, InputKind, LoadCase, Material, MeasureChoice, Project,
     StudyError, Term, TypedTensor, check_name,
 };
-use crate::mechanics::{PlaneNormal, SignConvention, StressTensor, StressUnit};
+use crate::mechanics::{Component, PlaneNormal, SignConvention, StressUnit};
 
 /// One change of a project.
 #[derive(Clone, Debug, PartialEq)]
 pub enum Edit {
-    /// The active load case's stress (stored as typed in the project's unit and convention).
-    SetTensor(StressTensor),
+    /// The active load case's six components as typed, in the project's unit and convention
+    /// (xx, yy, zz, xy, yz, zx), stored as typed: the study converts them to pascals, nothing
+    /// else does, so a value typed in ksi is saved as typed.
+    SetComponents([f64; 6]),
+    /// One component of the active load case as typed in the project's unit and convention;
+    /// the others stay as they were typed.
+    SetComponent(Component, f64),
     /// The active load case's input (same or another kind).
     SetInput(CaseInput),
     /// A new load case whose input is of this kind (zero stresses), shown at once.
@@ -80,33 +85,66 @@ pub enum Edit {
     Replace(Box<Project>),
 }
 
+/// The active load case's typed tensor in the project's unit and convention, ready to be
+/// edited: kept as typed when it already is in them, else converted once (a table row becomes
+/// an ordinary typed tensor). Refused for a combination or another input kind.
+fn typed_tensor(p: &mut Project) -> Result<&mut TypedTensor, StudyError> {
+    let name = active(p)?;
+    let unit = p.unit()?;
+    let sign = p.convention().sign();
+    let compression_positive = p.compression_positive;
+    let case = p.cases.iter_mut().find(|c| c.name == name).ok_or_else(|| {
+        StudyError::Invalid(format!(
+            "'{name}' is a combination: edit its load cases or factors, or make a load case from it"
+        ))
+    })?;
+    if case.input.kind() != InputKind::Tensor {
+        return Err(StudyError::Invalid(format!(
+            "'{name}' is given as {}: edit that input",
+            case.input.kind().label()
+        )));
+    }
+    let as_typed = match &case.input {
+        CaseInput::Tensor(t)
+            if t.unit == unit.symbol() && t.compression_positive == compression_positive =>
+        {
+            t.components
+        }
+        other => other
+            .tensor()?
+            .components_pa()
+            .map(|v| sign * unit.from_pa(v)),
+    };
+    case.input = CaseInput::Tensor(TypedTensor {
+        unit: unit.symbol().to_owned(),
+        compression_positive,
+        components: as_typed,
+    });
+    match &mut case.input {
+        CaseInput::Tensor(t) => Ok(t),
+        _ => Err(StudyError::Invalid(format!("'{name}': not a tensor input"))),
+    }
+}
+
 impl Edit {
     /// The project after this edit, or why it cannot be made (the project is not changed).
     pub fn apply(&self, project: &Project) -> Result<Project, StudyError> {
         let mut p = project.clone();
         match self {
-            Self::SetTensor(tensor) => {
-                let name = active(&p)?;
-                let unit = p.unit()?;
-                let sign = p.convention().sign();
-                let components = tensor.components_pa().map(|v| sign * unit.from_pa(v));
-                let compression_positive = p.compression_positive;
-                let case = p.cases.iter_mut().find(|c| c.name == name).ok_or_else(|| {
-                    StudyError::Invalid(format!(
-                        "'{name}' is a combination: edit its load cases or factors, or make a load case from it"
-                    ))
-                })?;
-                if case.input.kind() != InputKind::Tensor {
-                    return Err(StudyError::Invalid(format!(
-                        "'{name}' is given as {}: edit that input",
-                        case.input.kind().label()
-                    )));
-                }
-                case.input = CaseInput::Tensor(TypedTensor {
-                    unit: unit.symbol().to_owned(),
-                    compression_positive,
-                    components,
-                });
+            Self::SetComponents(values) => {
+                let typed = typed_tensor(&mut p)?;
+                typed.components = *values;
+                typed.tensor()?;
+            }
+            Self::SetComponent(component, value) => {
+                let typed = typed_tensor(&mut p)?;
+                // Components are stored in Component::ALL order (xx, yy, zz, xy, yz, zx).
+                let i = Component::ALL
+                    .iter()
+                    .position(|c| c == component)
+                    .unwrap_or_default();
+                typed.components[i] = *value;
+                typed.tensor()?;
             }
             Self::SetInput(input) => {
                 let name = active(&p)?;

@@ -218,10 +218,12 @@ impl StressPanel {
         ui.horizontal_wrapped(|ui| {
             for preset in Preset::ALL {
                 if ui.small_button(preset.label()).clicked() {
-                    let components = preset.components();
-                    if let Ok(tensor) = StressTensor::from_components(components, d.unit, 1.0) {
+                    // Presets are tension positive; typed in the shown convention.
+                    let sign = d.convention.sign();
+                    let components = preset.components().map(|v| sign * v);
+                    if StressTensor::from_components(components, d.unit, sign).is_ok() {
                         out.push(Command::Edit {
-                            edit: Edit::SetTensor(tensor),
+                            edit: Edit::SetComponents(components),
                             coalesce: None,
                         });
                         self.reset();
@@ -282,9 +284,9 @@ impl StressPanel {
         match parse::numbers::<6>(&self.paste) {
             Ok(values) => {
                 match StressTensor::from_components(values, d.unit, d.convention.sign()) {
-                    Ok(tensor) => {
+                    Ok(_) => {
                         out.push(Command::Edit {
-                            edit: Edit::SetTensor(tensor),
+                            edit: Edit::SetComponents(values),
                             coalesce: None,
                         });
                         self.paste_error = None;
@@ -337,12 +339,12 @@ impl StressPanel {
             Ok(value) => {
                 let pa = d.convention.sign() * d.unit.to_pa(value);
                 match d.tensor.with_component_pa(comp, pa) {
-                    Ok(tensor) => {
+                    Ok(_) => {
                         self.errors[r][c] = None;
                         self.errors[mr][mc] = None;
                         let (ur, uc) = comp.index();
                         out.push(Command::Edit {
-                            edit: Edit::SetTensor(tensor),
+                            edit: Edit::SetComponent(comp, value),
                             coalesce: Some(Coalesce::Cell(ur, uc)),
                         });
                     }
