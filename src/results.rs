@@ -456,8 +456,9 @@ pub fn fault_rows(
     out
 }
 
-/// Short words for a condition, for [`Value::Undefined`].
-fn standing_word(c: crate::mechanics::criteria::Condition) -> &'static str {
+/// Short words for a condition, for [`Value::Undefined`] and table cells.
+#[must_use]
+pub fn standing_word(c: crate::mechanics::criteria::Condition) -> &'static str {
     use crate::mechanics::criteria::Condition;
     match c {
         Condition::NeverReaches => "never reaches the surface",

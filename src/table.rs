@@ -22,8 +22,7 @@ use rayon::prelude::*;
 
 use crate::mechanics::criteria::Condition;
 use crate::mechanics::{SignConvention, StressTensor, StressUnit};
-use crate::study::EnvelopeMeasure;
-use crate::study::envelope::{ConditionCounts, RankKey};
+use crate::study::envelope::{ConditionCounts, RankKey, Ranking};
 
 /// How the fields of a row are separated.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
@@ -202,68 +201,8 @@ pub struct Ranked {
 /// How many bad rows are kept to report.
 pub const KEEP_BAD: usize = 20;
 
-/// The ranking measure with what it needs.
-pub struct Measure<'a> {
-    /// What to rank by.
-    pub measure: EnvelopeMeasure,
-    /// The table's convention (values of σ1, σ3 and normal stresses are reported in it).
-    pub convention: SignConvention,
-    /// Pore pressure and material of worst-plane measures.
-    pub plane_settings: &'a crate::mechanics::search::SearchSettings,
-    /// Strengths of criterion utilizations.
-    pub strengths: &'a crate::mechanics::criteria::Strengths,
-}
-
-impl Measure<'_> {
-    /// The value for one tensor and how it reads: closed forms for the equivalent and
-    /// principal stresses, the same code as the envelope for worst-plane measures and
-    /// utilizations.
-    pub fn value(&self, t: &StressTensor) -> Result<(Option<f64>, Condition), String> {
-        let [xx, yy, zz, xy, yz, zx] = t.components_pa();
-        let number = |v: f64| Ok((Some(v), Condition::Defined));
-        match self.measure {
-            EnvelopeMeasure::VonMises => number(
-                (0.5 * ((xx - yy).powi(2) + (yy - zz).powi(2) + (zz - xx).powi(2))
-                    + 3.0 * (xy * xy + yz * yz + zx * zx))
-                    .sqrt(),
-            ),
-            EnvelopeMeasure::Tresca | EnvelopeMeasure::MaxShear => {
-                let [s1, _, s3] = crate::mechanics::principal::principal_values_pa(t);
-                let tresca = s1 - s3;
-                number(if self.measure == EnvelopeMeasure::Tresca {
-                    tresca
-                } else {
-                    0.5 * tresca
-                })
-            }
-            EnvelopeMeasure::Sigma1 | EnvelopeMeasure::Sigma3 => {
-                let [first, _, last] =
-                    crate::mechanics::principal::principal_values_in(t, self.convention);
-                number(if self.measure == EnvelopeMeasure::Sigma1 {
-                    first
-                } else {
-                    last
-                })
-            }
-            other => {
-                let v = crate::study::envelope::measure_value(
-                    t,
-                    other,
-                    self.convention,
-                    self.plane_settings,
-                    self.strengths,
-                )
-                .map_err(|e| e.to_string())?;
-                Ok((v.value, v.standing()))
-            }
-        }
-    }
-
-    /// The value's place in the ranking (larger worse).
-    fn key(&self, value: Option<f64>, standing: Condition) -> RankKey {
-        RankKey::new(self.measure, value, standing)
-    }
-}
+/// The ranking measure with what it needs: the study's one [`Ranking`].
+pub type Measure<'a> = Ranking<'a>;
 
 /// A row in the heap, ordered by its key then by line (earlier first among equals).
 struct Keyed {
@@ -605,12 +544,12 @@ fn parse_part(
         })();
         match result {
             Ok(mut row) => {
-                let (value, standing) = measure.value(&row.tensor)?;
-                row.value = value;
-                row.standing = standing;
+                let evaluated = measure.evaluate(&row.tensor).map_err(|e| e.to_string())?;
+                let key = measure.key(&evaluated);
+                row.value = evaluated.value;
+                row.standing = evaluated.standing();
                 part.rows += 1;
-                part.counts.add(standing);
-                let key = measure.key(value, standing);
+                part.counts.add(row.standing);
                 if let Some(t) = &threshold {
                     if !key.at_or_beyond(t) {
                         continue;

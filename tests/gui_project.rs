@@ -796,3 +796,36 @@ fn a_value_typed_in_ksi_is_saved_as_typed() {
     };
     assert_eq!(t.components[0], 0.21);
 }
+
+/// The Table tab ranks conditions as batch and the envelope do: a row without frictional
+/// capacity first, above every number, and the tab counts each condition.
+#[test]
+fn the_table_tab_ranks_rows_without_frictional_capacity_first() {
+    let path = temp("conditions.csv");
+    // Invented rows: B has effective tension (σ3 = 5 MPa > p = 0).
+    std::fs::write(
+        &path,
+        "id,xx,yy,zz,xy,yz,zx\nA,-10,-20,-30,0,0,0\nB,5,-20,-30,0,0,0\nC,-10,-11,-60,0,0,0\nD,-50,-50,-50,0,0,0\n",
+    )
+    .unwrap();
+    let mut h = demo();
+    h.state_mut().settings.central = planewise::session::Central::Table;
+    h.state_mut().table_panel.measure = planewise::study::EnvelopeMeasure::Plane(
+        planewise::mechanics::search::Measure::SlipTendency,
+    );
+    h.run();
+    type_into(&mut h, "Table file path", path.to_str().unwrap());
+    h.get_by_label("Preview").click();
+    h.run();
+    h.get_by_label("Read and rank").click();
+    wait_for_table(&mut h);
+    let ranked = h.state().table_panel.ranked.clone().unwrap();
+    assert_eq!(ranked.rows[0].carried[0], "B");
+    assert_eq!(ranked.counts.no_frictional_capacity, 1);
+    h.run();
+    assert!(
+        h.query_by_label_contains("1 without frictional capacity")
+            .is_some()
+    );
+    assert!(h.query_by_label("no frictional capacity").is_some());
+}

@@ -385,15 +385,7 @@ fn to_json(
                 });
                 let plane = matches!(rank, EnvelopeMeasure::Plane(_))
                     .then(|| {
-                        crate::study::envelope::measure_value(
-                            &r.tensor,
-                            rank,
-                            convention,
-                            measure.plane_settings,
-                            measure.strengths,
-                        )
-                        .ok()
-                        .and_then(|v| {
+                        measure.evaluate(&r.tensor).ok().and_then(|v| {
                             v.planes.first().map(|w| {
                                 [
                                     crate::format::angle(w.dip_deg, false),

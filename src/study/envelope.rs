@@ -2,7 +2,6 @@
 //! the governing one named.
 
 use super::model::{Project, StudyError};
-use crate::mechanics::Analysis;
 use crate::mechanics::criteria::{self, Condition, Criterion};
 use crate::mechanics::search::{Measure, SearchSettings, WorstCondition, WorstPlane, worst_plane};
 
@@ -330,65 +329,100 @@ pub fn reduction_text(condition: Condition) -> &'static str {
     }
 }
 
-/// `measure` for the state `tensor` shown in `convention`: worst-plane measures with the pore
-/// pressure and material of `plane_settings`, utilizations with `strengths` and the same pore
-/// pressure (effective stress for the pressure-sensitive criteria). The envelope and
-/// `planewise batch` both evaluate through this.
-pub fn measure_value(
-    tensor: &crate::mechanics::StressTensor,
-    measure: EnvelopeMeasure,
-    convention: crate::mechanics::SignConvention,
-    plane_settings: &SearchSettings,
-    strengths: &criteria::Strengths,
-) -> Result<MeasureValue, StudyError> {
-    Ok(match measure {
-        EnvelopeMeasure::Plane(m) => {
-            let settings = SearchSettings {
-                measure: m,
-                convention,
-                ..*plane_settings
-            };
-            let r =
-                worst_plane(tensor, &settings).map_err(|e| StudyError::Invalid(e.to_string()))?;
-            MeasureValue {
-                value: r.value,
-                condition: Some(r.condition),
-                planes: r.planes,
-                verdict: None,
+/// A measure with what it needs to evaluate a state: the one evaluation every ranking (the
+/// envelope, `planewise batch`, the Table tab, the report) goes through, and its rank key.
+#[derive(Clone, Copy, Debug)]
+pub struct Ranking<'a> {
+    /// What to rank by.
+    pub measure: EnvelopeMeasure,
+    /// The convention values are reported in (σ1, σ3 and normal stresses).
+    pub convention: crate::mechanics::SignConvention,
+    /// Pore pressure and Coulomb strength of worst-plane measures; its pore pressure also puts
+    /// the pressure-sensitive criteria on effective stress.
+    pub plane_settings: &'a SearchSettings,
+    /// Strengths of criterion utilizations.
+    pub strengths: &'a criteria::Strengths,
+}
+
+impl Ranking<'_> {
+    /// The measure's value for the state `tensor` (stored, tension positive) and how it reads:
+    /// closed forms for the equivalent and principal stresses, the worst-plane search for plane
+    /// measures, the verdict (with the pore pressure: effective stress for the
+    /// pressure-sensitive criteria) for utilizations.
+    pub fn evaluate(
+        &self,
+        tensor: &crate::mechanics::StressTensor,
+    ) -> Result<MeasureValue, StudyError> {
+        let number = |v: f64| MeasureValue {
+            value: Some(v),
+            condition: None,
+            planes: Vec::new(),
+            verdict: None,
+        };
+        Ok(match self.measure {
+            EnvelopeMeasure::VonMises => {
+                let [xx, yy, zz, xy, yz, zx] = tensor.components_pa();
+                number(
+                    (0.5 * ((xx - yy).powi(2) + (yy - zz).powi(2) + (zz - xx).powi(2))
+                        + 3.0 * (xy * xy + yz * yz + zx * zx))
+                        .sqrt(),
+                )
             }
-        }
-        EnvelopeMeasure::Utilization(c) => {
-            // Pressure-sensitive criteria on effective stress with the run's pore pressure.
-            let v = criteria::verdict_with_pore_pressure(
-                tensor,
-                c,
-                strengths,
-                plane_settings.pore_pressure_pa,
-            );
-            MeasureValue {
-                value: v.utilization,
-                condition: None,
-                planes: Vec::new(),
-                verdict: Some(v.condition),
+            EnvelopeMeasure::Tresca | EnvelopeMeasure::MaxShear => {
+                let [s1, _, s3] = crate::mechanics::principal::principal_values_pa(tensor);
+                let tresca = s1 - s3;
+                number(if self.measure == EnvelopeMeasure::Tresca {
+                    tresca
+                } else {
+                    0.5 * tresca
+                })
             }
-        }
-        other => {
-            let a = Analysis::new(tensor, convention);
-            let v = match other {
-                EnvelopeMeasure::VonMises => a.von_mises_pa,
-                EnvelopeMeasure::Tresca => a.tresca_pa,
-                EnvelopeMeasure::MaxShear => a.max_shear_pa,
-                EnvelopeMeasure::Sigma1 => a.principal.values_pa[0],
-                _ => a.principal.values_pa[2],
-            };
-            MeasureValue {
-                value: Some(v),
-                condition: None,
-                planes: Vec::new(),
-                verdict: None,
+            EnvelopeMeasure::Sigma1 | EnvelopeMeasure::Sigma3 => {
+                let [first, _, last] =
+                    crate::mechanics::principal::principal_values_in(tensor, self.convention);
+                number(if self.measure == EnvelopeMeasure::Sigma1 {
+                    first
+                } else {
+                    last
+                })
             }
-        }
-    })
+            EnvelopeMeasure::Plane(m) => {
+                let settings = SearchSettings {
+                    measure: m,
+                    convention: self.convention,
+                    ..*self.plane_settings
+                };
+                let r = worst_plane(tensor, &settings)
+                    .map_err(|e| StudyError::Invalid(e.to_string()))?;
+                MeasureValue {
+                    value: r.value,
+                    condition: Some(r.condition),
+                    planes: r.planes,
+                    verdict: None,
+                }
+            }
+            EnvelopeMeasure::Utilization(c) => {
+                let v = criteria::verdict_with_pore_pressure(
+                    tensor,
+                    c,
+                    self.strengths,
+                    self.plane_settings.pore_pressure_pa,
+                );
+                MeasureValue {
+                    value: v.utilization,
+                    condition: None,
+                    planes: Vec::new(),
+                    verdict: Some(v.condition),
+                }
+            }
+        })
+    }
+
+    /// The place of `value` in the ranking (larger worse).
+    #[must_use]
+    pub fn key(&self, value: &MeasureValue) -> RankKey {
+        RankKey::new(self.measure, value.value, value.standing())
+    }
 }
 
 /// The envelope of `measure` over every case and combination of `project`. `plane_settings`
@@ -399,17 +433,16 @@ pub fn envelope(
     measure: EnvelopeMeasure,
     plane_settings: &SearchSettings,
 ) -> Result<Envelope, StudyError> {
-    let convention = project.convention();
+    let ranking = Ranking {
+        measure,
+        convention: project.convention(),
+        plane_settings,
+        strengths: &project.material.strengths,
+    };
     let mut rows = Vec::new();
     for (name, combination) in project.names() {
         let tensor = project.tensor(name)?;
-        let v = measure_value(
-            &tensor,
-            measure,
-            convention,
-            plane_settings,
-            &project.material.strengths,
-        )?;
+        let v = ranking.evaluate(&tensor)?;
         rows.push(EnvelopeRow {
             name: name.to_owned(),
             combination,

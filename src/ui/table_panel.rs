@@ -286,6 +286,15 @@ impl TablePanel {
                 {
                     order.sort_by(|&a, &b| r.rows[a].carried[c].cmp(&r.rows[b].carried[c]));
                 }
+                // The ranked value sorts by the one rank rule (failing at any scale or without
+                // frictional capacity worst, never reaching best), not by the bare number.
+                SortKey::Value => order.sort_by_key(|&i| {
+                    crate::study::envelope::RankKey::new(
+                        self.measure,
+                        r.rows[i].value,
+                        r.rows[i].standing,
+                    )
+                }),
                 _ => order.sort_by(|&a, &b| number(a).total_cmp(&number(b))),
             }
             if self.sort.1 {
@@ -446,11 +455,13 @@ impl TablePanel {
         };
         let unit = self.unit;
         let sign = if self.compression_positive { -1.0 } else { 1.0 };
-        let value_text = |v: Option<f64>| match v {
+        let value_text = |v: Option<f64>, standing| match v {
             Some(v) if self.measure.is_stress() => crate::format::sig(unit.from_pa(v), 5),
             Some(v) => crate::format::sig(v, 4),
-            None => "undefined".to_owned(),
+            None => crate::results::standing_word(standing).to_owned(),
         };
+        ui.small(r.counts.text("rows read"))
+            .on_hover_text("Rows that fail at any scale or have no frictional capacity rank worst, above every number; rows that never reach the surface rank best; undefined values follow, with their reason");
         for b in r.bad.iter().take(5) {
             ui.colored_label(
                 ui.visuals().warn_fg_color,
@@ -543,7 +554,7 @@ impl TablePanel {
                                         );
                                     };
                                     cell(ui, row.line.to_string());
-                                    cell(ui, value_text(row.value));
+                                    cell(ui, value_text(row.value, row.standing));
                                     for t in &row.carried {
                                         cell(ui, t.clone());
                                     }
