@@ -21,6 +21,9 @@ pub const FORMAT_VERSION: u32 = 2;
 /// The file name the save dialog and the in-window path entry suggest.
 const SUGGESTED_FIGURE_NAME: &str = "planewise-figure.png";
 
+/// The file a start writes in the data folder and removes once its first frames are drawn.
+const STARTING_MARKER: &str = "starting.txt";
+
 /// Key of the saved state in eframe's storage.
 const STORAGE_KEY: &str = "planewise-state";
 
@@ -140,6 +143,8 @@ pub struct PlanewiseApp {
     close_allowed: bool,
     /// Where the working copy is autosaved (`None`: no autosave).
     autosave_dir: Option<PathBuf>,
+    /// The start marker to remove once the first frames are drawn.
+    start_marker: Option<PathBuf>,
     /// The working copy found at start, offered back.
     pub recovery: Option<crate::autosave::WorkingCopy>,
     /// What `go` left to do once the current command is done.
@@ -189,6 +194,7 @@ impl PlanewiseApp {
             after_save: None,
             close_allowed: false,
             autosave_dir: None,
+            start_marker: None,
             recovery: None,
             last_autosave: (0.0, None),
             follow_up: None,
@@ -220,15 +226,47 @@ impl PlanewiseApp {
             .and_then(|s| eframe::get_value::<Saved>(s, STORAGE_KEY))
             .filter(|s| s.format_version <= FORMAT_VERSION)
             .unwrap_or_default();
+        // A start that did not reach its first frames leaves its marker behind: then the file it
+        // was opening is not reopened (it may be what stopped it), and the window says so.
+        let marker = autosave_dir.as_ref().map(|d| d.join(STARTING_MARKER));
+        let unfinished = marker
+            .as_ref()
+            .and_then(|m| std::fs::read_to_string(m).ok());
+        let mut note = None;
         let (project, file) = match project {
             Some((p, path)) => (p, Some(path)),
-            None => saved
-                .file
-                .as_ref()
-                .and_then(|path| study::load(path).ok().map(|(p, _)| (p, Some(path.clone()))))
-                .unwrap_or_else(|| (Project::demo(), None)),
+            None => match (&saved.file, unfinished) {
+                (Some(path), Some(_)) => {
+                    note = Some(format!(
+                        "The last start did not finish while opening {}; it was not reopened and the demo is shown (File → Open opens it again)",
+                        path.display()
+                    ));
+                    (Project::demo(), None)
+                }
+                (Some(path), None) => match study::load(path) {
+                    Ok((p, _)) => (p, Some(path.clone())),
+                    Err(e) => {
+                        note = Some(format!("Could not reopen the last project: {e}"));
+                        (Project::demo(), None)
+                    }
+                },
+                (None, _) => (Project::demo(), None),
+            },
         };
+        if let Some(m) = &marker {
+            let what = file
+                .as_ref()
+                .map_or_else(|| "the demo".to_owned(), |f| f.display().to_string());
+            if let Some(dir) = m.parent() {
+                let _ = std::fs::create_dir_all(dir);
+            }
+            let _ = std::fs::write(m, what);
+        }
         let mut app = Self::new(project, file, saved.settings, Box::new(NativeDialogs));
+        app.start_marker = marker;
+        if let Some(note) = note {
+            app.set_status(note, true);
+        }
         if let Some(dir) = autosave_dir {
             app.recovery = crate::autosave::read(&dir);
             app.autosave_dir = Some(dir);
@@ -1101,6 +1139,11 @@ impl PlanewiseApp {
             ));
         }
         self.frames += 1;
+        if self.frames >= 3
+            && let Some(marker) = self.start_marker.take()
+        {
+            let _ = std::fs::remove_file(marker);
+        }
     }
 
     fn screenshot_step(&mut self, ctx: &egui::Context) {

@@ -141,6 +141,41 @@ pub fn write_atomic(path: &Path, bytes: &[u8]) -> Result<(), ExportError> {
     })
 }
 
+/// Whether `a` and `b` are the same existing file: by device and inode on Unix (so two
+/// spellings, a symbolic link or a hard link of one file are the same file), by canonical path
+/// elsewhere. A path that does not exist is no file.
+#[must_use]
+pub fn same_file(a: &Path, b: &Path) -> bool {
+    #[cfg(unix)]
+    {
+        use std::os::unix::fs::MetadataExt as _;
+        match (std::fs::metadata(a), std::fs::metadata(b)) {
+            (Ok(x), Ok(y)) => x.dev() == y.dev() && x.ino() == y.ino(),
+            _ => false,
+        }
+    }
+    #[cfg(not(unix))]
+    {
+        match (a.canonicalize(), b.canonicalize()) {
+            (Ok(x), Ok(y)) => x == y,
+            _ => false,
+        }
+    }
+}
+
+/// Refuses an output that is one of the command's inputs (the same file, however spelled):
+/// writing it would destroy the input.
+pub fn not_an_input(out: &Path, inputs: &[&Path]) -> Result<(), String> {
+    match inputs.iter().find(|input| same_file(out, input)) {
+        Some(input) => Err(format!(
+            "{} is the input {}: writing there would destroy it; choose another output",
+            out.display(),
+            input.display()
+        )),
+        None => Ok(()),
+    }
+}
+
 /// Encodes `frame` in the format the path names and writes it atomically.
 pub fn write_figure(path: &Path, frame: &Frame, title: &str) -> Result<(), ExportError> {
     let format = ImageFormat::from_path(path)?;

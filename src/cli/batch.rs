@@ -198,6 +198,12 @@ pub fn run(args: &BatchArgs) -> Result<String, CliError> {
             return Err(ArgError::new("--rank", format!("{}: {}", c.label(), check.note)).into());
         }
     }
+    if let Some(out) = &args.out
+        && args.file != "-"
+    {
+        crate::export::not_an_input(out, &[std::path::Path::new(&args.file)])
+            .map_err(|e| ArgError::new("--out", e))?;
+    }
     let above = args
         .at_or_beyond
         .as_deref()

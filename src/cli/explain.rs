@@ -11,7 +11,7 @@ use crate::draw::svg::escape;
 use crate::export::ImageFormat;
 use crate::study::figures;
 use crate::study::walkthrough::steps;
-use crate::study::{CaseInput, Derived, LoadCase, Project, TypedTensor};
+use crate::study::{Derived, Project};
 
 /// Arguments of `planewise explain`.
 #[derive(Debug, Clone, Args)]
@@ -29,6 +29,10 @@ pub struct ExplainArgs {
     /// Figure format: svg or png.
     #[arg(long, value_name = "FORMAT", default_value = "svg")]
     pub format: String,
+    /// Replace files of the same names already in the folder (without it, existing files are
+    /// left alone and nothing is written).
+    #[arg(long)]
+    pub replace: bool,
 }
 
 /// The project the walk-through explains: the named case of `--project`, or a one-case project
@@ -46,26 +50,8 @@ fn state(args: &ExplainArgs) -> Result<Project, ArgError> {
         p.active.clone_from(case);
         p
     } else {
-        let input = args.stress.read()?;
-        let sign = input.convention.sign();
-        let components = crate::mechanics::Component::ALL
-            .map(|k| input.unit.from_pa(sign * input.tensor.component_pa(k)));
-        let mut p = Project::new("command line", input.unit, input.convention);
-        p.add_case(
-            LoadCase {
-                name: "stress".into(),
-                description: String::new(),
-                input: CaseInput::Tensor(TypedTensor {
-                    unit: input.unit.symbol().to_owned(),
-                    compression_positive: input.convention
-                        == crate::mechanics::SignConvention::CompressionPositive,
-                    components,
-                }),
-            },
-            false,
-        )
-        .map_err(|e| ArgError::new("--stress", e))?;
-        p
+        // The same one-case project `analyze --stress` reads (typed in pascals: nothing lost).
+        super::analyze::ad_hoc_project(&args.stress.read()?)
     };
     if let Some(n) = plane {
         project.plane = n;
@@ -90,6 +76,31 @@ pub fn run(args: &ExplainArgs) -> Result<String, CliError> {
     let d = Derived::new(&project);
     if let Some(problem) = &d.problem {
         return Err(ArgError::new("--case", problem).into());
+    }
+    // Every file this run writes: refused over an input always, over an existing file unless
+    // --replace — before anything is written.
+    let names: Vec<String> = steps(&d)
+        .iter()
+        .enumerate()
+        .map(|(i, step)| format!("{:02}-{}.{ext}", i + 1, step.kind.slug()))
+        .chain(std::iter::once("index.html".to_owned()))
+        .collect();
+    for name in &names {
+        let path = args.out.join(name);
+        if let Some(input) = &args.stress.project {
+            crate::export::not_an_input(&path, &[input.as_path()])
+                .map_err(|e| ArgError::new("--out", e))?;
+        }
+        if !args.replace && path.exists() {
+            return Err(ArgError::new(
+                "--out",
+                format!(
+                    "{} exists already: nothing written (give --replace to replace the walk-through's files)",
+                    path.display()
+                ),
+            )
+            .into());
+        }
     }
     std::fs::create_dir_all(&args.out)
         .map_err(|e| ArgError::new("--out", format!("{}: {e}", args.out.display())))?;

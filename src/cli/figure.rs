@@ -59,6 +59,10 @@ pub fn run(args: &FigureArgs) -> Result<String, CliError> {
     let (w, h) = args.size;
     let preset = args.view;
     ImageFormat::from_path(&args.out).map_err(|e| ArgError::new("--out", e))?;
+    if let Some(project) = &args.stress.project {
+        crate::export::not_an_input(&args.out, &[project.as_path()])
+            .map_err(|e| ArgError::new("--out", e))?;
+    }
     let mut layers = match &args.layers {
         Some(list) => values::layers(list),
         None => Layers::default(),

@@ -48,6 +48,10 @@ pub fn run(args: &MapArgs) -> Result<String, CliError> {
     let (w, h) = args.size;
     let resolution = usize::from(args.resolution);
     ImageFormat::from_path(&args.out).map_err(|e| ArgError::new("--out", e))?;
+    if let Some(project) = &args.stress.project {
+        crate::export::not_an_input(&args.out, &[project.as_path()])
+            .map_err(|e| ArgError::new("--out", e))?;
+    }
     let worst = worst_plane(&input.tensor, &settings).map_err(|e| ArgError::new("--measure", e))?;
     let map_range = args
         .range

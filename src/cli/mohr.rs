@@ -67,6 +67,10 @@ pub fn run(args: &MohrArgs) -> Result<String, CliError> {
     };
     let (w, h) = args.size;
     ImageFormat::from_path(&args.out).map_err(|e| ArgError::new("--out", e))?;
+    if let Some(project) = &args.stress.project {
+        crate::export::not_an_input(&args.out, &[project.as_path()])
+            .map_err(|e| ArgError::new("--out", e))?;
+    }
     let (search, worst) = match measure {
         Some(measure) => {
             let settings =

@@ -37,6 +37,8 @@ pub fn run(args: &ReportArgs) -> Result<String, CliError> {
     if !ext.eq_ignore_ascii_case("html") && !ext.eq_ignore_ascii_case("htm") {
         return Err(ArgError::new("--out", "the report is HTML: name the file .html").into());
     }
+    crate::export::not_an_input(&args.out, &[args.project.as_path()])
+        .map_err(|e| ArgError::new("--out", e))?;
     let source = crate::report::SourceFile::read(&args.project)
         .map_err(|e| ArgError::new("--project", format!("{}: {e}", args.project.display())))?;
     let options = ReportOptions {

@@ -47,12 +47,13 @@ impl Rect {
         self.contains(inner.min) && self.contains(inner.max)
     }
 
-    /// The point of the rectangle nearest to `p`.
+    /// The point of the rectangle nearest to `p`. Total: an empty or non-finite rectangle
+    /// gives a point without panicking (`f32::clamp` would).
     #[must_use]
     pub fn nearest(&self, p: Pos) -> Pos {
         [
-            p[0].clamp(self.min[0], self.max[0]),
-            p[1].clamp(self.min[1], self.max[1]),
+            p[0].max(self.min[0]).min(self.max[0]),
+            p[1].max(self.min[1]).min(self.max[1]),
         ]
     }
 
@@ -552,6 +553,10 @@ impl Pinned<Pos> {
 /// away from it, and the text with a halo.
 pub fn draw_notes(frame: &mut Frame, notes: &[Pinned<Pos>], sizes: super::Sizes) {
     for note in notes {
+        // A pin off any finite pixel (a value far outside the picture's scale) is not drawn.
+        if !(note.pin.iter().chain(&note.offset).all(|v| v.is_finite())) {
+            continue;
+        }
         let note = &note.inside(frame.width, frame.height, sizes.text);
         let rect = note.rect(sizes.text);
         let end = rect.nearest(note.pin);

@@ -118,6 +118,50 @@ impl Annotation {
         }
     }
 
+    /// Checks every number a file can put here: finite, stresses within the limit the stress
+    /// tensor has, normals not zero, 3D points and offsets within ±1000 (world units, text
+    /// sizes). The error names the key.
+    pub fn validate(&self) -> Result<(), String> {
+        let limit = crate::mechanics::tensor::MAX_STRESS_PA;
+        let within = |key: &str, v: f64, bound: f64| {
+            if v.is_finite() && v.abs() <= bound {
+                Ok(())
+            } else {
+                Err(format!(
+                    "{key} = {v} is not a finite number within ±{bound:e}"
+                ))
+            }
+        };
+        for (i, v) in self.offset.iter().enumerate() {
+            within(&format!("offset[{i}]"), f64::from(*v), 1e3)?;
+        }
+        match &self.pin {
+            None => Ok(()),
+            Some(Pin::Mohr {
+                normal_stress_pa,
+                shear_stress_pa,
+            }) => {
+                within("pin.normal_stress_pa", *normal_stress_pa, limit)?;
+                within("pin.shear_stress_pa", *shear_stress_pa, limit)
+            }
+            Some(Pin::Pole { normal }) => {
+                for (i, v) in normal.iter().enumerate() {
+                    within(&format!("pin.normal[{i}]"), *v, 1e6)?;
+                }
+                if normal.iter().map(|v| v * v).sum::<f64>() < 1e-24 {
+                    return Err("pin.normal is the zero vector".to_owned());
+                }
+                Ok(())
+            }
+            Some(Pin::Space { at }) => {
+                for (i, v) in at.iter().enumerate() {
+                    within(&format!("pin.at[{i}]"), *v, 1e3)?;
+                }
+                Ok(())
+            }
+        }
+    }
+
     /// Whether it is a caption.
     #[must_use]
     pub fn is_caption(&self) -> bool {

@@ -851,6 +851,10 @@ impl Project {
         for fault in &self.faults {
             fault.normal()?;
         }
+        for (i, a) in self.annotations.iter().enumerate() {
+            a.validate()
+                .map_err(|e| StudyError::Invalid(format!("annotations[{i}].{e}")))?;
+        }
         let mut names: Vec<&str> = Vec::new();
         for name in self
             .cases

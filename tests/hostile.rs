@@ -1,0 +1,371 @@
+//! Nothing crashes and nothing is lost: hostile numbers in a project file are refused with the
+//! key named (never a panic in any front end), the window does not reopen a file that stopped
+//! its last start, and no command writes its output over one of its inputs.
+
+#![allow(
+    clippy::unwrap_used,
+    reason = "a test that cannot compute its reference should panic loudly"
+)]
+
+mod common;
+
+use std::collections::HashMap;
+use std::path::PathBuf;
+
+use planewise::app::PlanewiseApp;
+
+fn temp(name: &str) -> PathBuf {
+    let dir = std::env::temp_dir().join(format!("planewise-hostile-{}", std::process::id()));
+    std::fs::create_dir_all(&dir).unwrap();
+    dir.join(name)
+}
+
+/// The demo project with `annotation` added (an invented note), written to `name`.
+fn with_annotation(name: &str, annotation: serde_json::Value) -> PathBuf {
+    let demo = std::fs::read_to_string(concat!(
+        env!("CARGO_MANIFEST_DIR"),
+        "/assets/demo-bracket-project.json"
+    ))
+    .unwrap();
+    let mut v: serde_json::Value = serde_json::from_str(&demo).unwrap();
+    v["annotations"].as_array_mut().unwrap().push(annotation);
+    let file = temp(name);
+    std::fs::write(&file, serde_json::to_string_pretty(&v).unwrap()).unwrap();
+    file
+}
+
+fn hostile_files() -> Vec<(PathBuf, &'static str)> {
+    vec![
+        (
+            with_annotation(
+                "mohr-1e308.json",
+                serde_json::json!({"case": "ULS 1", "figure": "mohr", "text": "far",
+                    "pin": {"on": "mohr", "normal_stress_pa": 1e308, "shear_stress_pa": 1.0}}),
+            ),
+            "pin.normal_stress_pa",
+        ),
+        (
+            with_annotation(
+                "offset-huge.json",
+                serde_json::json!({"case": "ULS 1", "figure": "mohr", "text": "far",
+                    "pin": {"on": "mohr", "normal_stress_pa": 1e6, "shear_stress_pa": 1e6},
+                    "offset": [1e30, 0.0]}),
+            ),
+            "offset[0]",
+        ),
+        (
+            with_annotation(
+                "space-1e308.json",
+                serde_json::json!({"case": "ULS 1", "figure": "view3d", "text": "far",
+                    "pin": {"on": "space", "at": [1e308, 0.0, 0.0]}}),
+            ),
+            "pin.at[0]",
+        ),
+        (
+            with_annotation(
+                "pole-zero.json",
+                serde_json::json!({"case": "ULS 1", "figure": "map", "text": "none",
+                    "pin": {"on": "pole", "normal": [0.0, 0.0, 0.0]}}),
+            ),
+            "pin.normal",
+        ),
+    ]
+}
+
+#[test]
+fn hostile_numbers_are_refused_with_the_key_named_by_every_front_end() {
+    for (file, key) in hostile_files() {
+        let f = file.to_str().unwrap();
+        let before = std::fs::read(&file).unwrap();
+        let e = planewise::study::load(&file).unwrap_err().to_string();
+        assert!(e.contains(key), "{f}: '{e}' does not name {key}");
+        let out = temp("out.svg");
+        let html = temp("out.html");
+        let dir = temp("explained");
+        for args in [
+            vec!["project", "show", f],
+            vec!["report", "--project", f, "--out", html.to_str().unwrap()],
+            vec![
+                "mohr",
+                "--project",
+                f,
+                "--case",
+                "ULS 1",
+                "--out",
+                out.to_str().unwrap(),
+            ],
+            vec![
+                "figure",
+                "--project",
+                f,
+                "--case",
+                "ULS 1",
+                "--out",
+                out.to_str().unwrap(),
+            ],
+            vec![
+                "explain",
+                "--project",
+                f,
+                "--case",
+                "ULS 1",
+                "--out",
+                dir.to_str().unwrap(),
+            ],
+            vec!["analyze", "--project", f, "--case", "ULS 1"],
+        ] {
+            let run = common::planewise(&args);
+            let stderr = String::from_utf8_lossy(&run.stderr);
+            assert_eq!(run.status.code(), Some(2), "{args:?}: {stderr}");
+            assert!(stderr.contains(key), "{args:?}: {stderr}");
+            assert!(!stderr.contains("panicked"), "{args:?}: {stderr}");
+        }
+        assert_eq!(std::fs::read(&file).unwrap(), before, "{f} was changed");
+    }
+}
+
+#[test]
+fn drawing_notes_is_total_for_any_number() {
+    use planewise::draw::place::{Pinned, draw_notes};
+    let mut frame = planewise::draw::Frame {
+        width: 400.0,
+        height: 300.0,
+        background: planewise::scene::style::BACKGROUND,
+        prims: Vec::new(),
+    };
+    for v in [
+        f32::INFINITY,
+        f32::NEG_INFINITY,
+        f32::NAN,
+        f32::MAX,
+        -f32::MAX,
+        1e30,
+    ] {
+        let notes = vec![
+            Pinned {
+                pin: [v, 10.0],
+                text: "a".into(),
+                offset: [1.0, 1.0],
+            },
+            Pinned {
+                pin: [10.0, 10.0],
+                text: "b".into(),
+                offset: [v, v],
+            },
+        ];
+        draw_notes(&mut frame, &notes, planewise::draw::Sizes::default());
+    }
+}
+
+/// An in-memory stand-in for eframe's storage.
+#[derive(Default)]
+struct Memory(HashMap<String, String>);
+
+impl eframe::Storage for Memory {
+    fn get_string(&self, key: &str) -> Option<String> {
+        self.0.get(key).cloned()
+    }
+    fn set_string(&mut self, key: &str, value: String) {
+        self.0.insert(key.to_owned(), value);
+    }
+    fn remove_string(&mut self, key: &str) {
+        self.0.remove(key);
+    }
+    fn flush(&mut self) {}
+}
+
+fn storage_with_last(file: &std::path::Path) -> Memory {
+    let mut memory = Memory::default();
+    let saved = planewise::app::Saved {
+        file: Some(file.to_owned()),
+        ..planewise::app::Saved::default()
+    };
+    eframe::set_value(&mut memory, "planewise-state", &saved);
+    memory
+}
+
+#[test]
+fn the_window_opens_the_demo_and_says_why_when_the_last_project_is_hostile() {
+    let (file, key) = hostile_files().remove(0);
+    let data = temp("data-hostile");
+    let _ = std::fs::remove_dir_all(&data);
+    let memory = storage_with_last(&file);
+    let app = PlanewiseApp::start(Some(&memory), None, Some(data.clone()));
+    assert_eq!(app.project, planewise::study::Project::demo());
+    let status = app.status.as_ref().unwrap();
+    assert!(status.error && status.text.contains(key), "{status:?}");
+}
+
+#[test]
+fn a_start_that_did_not_finish_is_not_repeated() {
+    // A project that loads: the marker alone says the last start stopped while opening it.
+    let file = temp("fine.json");
+    planewise::study::save(&file, &planewise::study::Project::demo()).unwrap();
+    let data = temp("data-unfinished");
+    let _ = std::fs::remove_dir_all(&data);
+    let memory = storage_with_last(&file);
+    // A start that ends normally leaves no marker once its first frames are drawn.
+    let app = PlanewiseApp::start(Some(&memory), None, Some(data.clone()));
+    assert_eq!(app.file.as_deref(), Some(file.as_path()));
+    let mut h = egui_kittest::Harness::builder()
+        .with_size(egui::vec2(1280.0, 800.0))
+        .build_ui_state(|ui, app: &mut PlanewiseApp| app.show(ui), app);
+    h.run_steps(4);
+    assert!(!data.join("starting.txt").exists(), "the marker stayed");
+    // A start that stops before its first frames leaves the marker: the next start does not
+    // reopen the file and says why.
+    let stopped = PlanewiseApp::start(Some(&memory), None, Some(data.clone()));
+    drop(stopped);
+    let next = PlanewiseApp::start(Some(&memory), None, Some(data.clone()));
+    assert_eq!(next.file, None);
+    let status = next.status.as_ref().unwrap();
+    assert!(
+        status.text.contains("did not finish") && status.text.contains("fine.json"),
+        "{status:?}"
+    );
+}
+
+#[test]
+fn no_command_writes_its_output_over_an_input() {
+    let project = temp("input.json");
+    planewise::study::save(&project, &planewise::study::Project::demo()).unwrap();
+    let p = project.to_str().unwrap();
+    // The same file spelled another way, and through a symbolic link.
+    let spelled = format!("{}/./input.json", project.parent().unwrap().display());
+    let link = temp("link.json");
+    let _ = std::fs::remove_file(&link);
+    std::os::unix::fs::symlink(&project, &link).unwrap();
+    let table = temp("t.csv");
+    std::fs::write(&table, "id,xx,yy,zz,xy,yz,zx\nA,1,2,3,0,0,0\n").unwrap();
+    let t = table.to_str().unwrap();
+    let before = std::fs::read(&project).unwrap();
+    let table_before = std::fs::read(&table).unwrap();
+    for args in [
+        vec![
+            "batch",
+            t,
+            "--unit",
+            "MPa",
+            "--rank",
+            "von-mises",
+            "--out",
+            t,
+        ],
+        vec![
+            "figure",
+            "--project",
+            p,
+            "--case",
+            "dead",
+            "--out",
+            &spelled,
+        ],
+        vec![
+            "map",
+            "--project",
+            p,
+            "--case",
+            "dead",
+            "--out",
+            link.to_str().unwrap(),
+        ],
+        vec!["mohr", "--project", &spelled, "--case", "dead", "--out", p],
+        vec!["report", "--project", p, "--out", link.to_str().unwrap()],
+    ] {
+        // map/figure/mohr/report refuse on the extension first when it is .json; rename a
+        // link and a copy with the right extension where the format matters.
+        let run = common::planewise(&args);
+        let stderr = String::from_utf8_lossy(&run.stderr);
+        assert_eq!(run.status.code(), Some(2), "{args:?}: {stderr}");
+        assert!(stderr.contains("--out"), "{args:?}: {stderr}");
+    }
+    // With the right extension the identity check itself refuses.
+    let svg_link = temp("input-link.svg");
+    let _ = std::fs::remove_file(&svg_link);
+    std::os::unix::fs::symlink(&project, &svg_link).unwrap();
+    let html_link = temp("input-link.html");
+    let _ = std::fs::remove_file(&html_link);
+    std::os::unix::fs::symlink(&project, &html_link).unwrap();
+    for args in [
+        vec![
+            "figure",
+            "--project",
+            p,
+            "--case",
+            "dead",
+            "--out",
+            svg_link.to_str().unwrap(),
+        ],
+        vec![
+            "mohr",
+            "--project",
+            p,
+            "--case",
+            "dead",
+            "--out",
+            svg_link.to_str().unwrap(),
+        ],
+        vec![
+            "map",
+            "--project",
+            p,
+            "--case",
+            "dead",
+            "--out",
+            svg_link.to_str().unwrap(),
+        ],
+        vec![
+            "report",
+            "--project",
+            p,
+            "--out",
+            html_link.to_str().unwrap(),
+        ],
+    ] {
+        let run = common::planewise(&args);
+        let stderr = String::from_utf8_lossy(&run.stderr);
+        assert_eq!(run.status.code(), Some(2), "{args:?}: {stderr}");
+        assert!(stderr.contains("destroy"), "{args:?}: {stderr}");
+    }
+    assert_eq!(
+        std::fs::read(&project).unwrap(),
+        before,
+        "the project was changed"
+    );
+    assert_eq!(
+        std::fs::read(&table).unwrap(),
+        table_before,
+        "the table was changed"
+    );
+    // explain: an existing index.html is left alone unless --replace is given.
+    let dir = temp("walk");
+    let _ = std::fs::remove_dir_all(&dir);
+    std::fs::create_dir_all(&dir).unwrap();
+    std::fs::write(dir.join("index.html"), "mine").unwrap();
+    let d = dir.to_str().unwrap();
+    let run = common::planewise(&["explain", "--project", p, "--case", "dead", "--out", d]);
+    assert_eq!(
+        run.status.code(),
+        Some(2),
+        "{}",
+        String::from_utf8_lossy(&run.stderr)
+    );
+    assert_eq!(
+        std::fs::read_to_string(dir.join("index.html")).unwrap(),
+        "mine"
+    );
+    common::planewise_ok(&[
+        "explain",
+        "--project",
+        p,
+        "--case",
+        "dead",
+        "--out",
+        d,
+        "--replace",
+    ]);
+    assert_ne!(
+        std::fs::read_to_string(dir.join("index.html")).unwrap(),
+        "mine"
+    );
+}
