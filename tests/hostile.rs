@@ -369,3 +369,56 @@ fn no_command_writes_its_output_over_an_input() {
         "mine"
     );
 }
+
+proptest::proptest! {
+    #![proptest_config(proptest::prelude::ProptestConfig::with_cases(64))]
+
+    /// Any Unicode in the project's name, a caption and a note (control characters and
+    /// bidirectional overrides included) gives SVG that a strict XML parser reads, for every
+    /// figure, and a report without raw control characters.
+    #[test]
+    fn any_text_gives_svg_that_parses(text in proptest::prelude::any::<String>()) {
+        use planewise::study::annotations::{Annotation, FigureKind, Pin};
+        use planewise::study::figures::{self, FigureInput};
+        let mut p = planewise::study::Project::demo();
+        p.name.clone_from(&text);
+        let case = p.active_name().unwrap().to_owned();
+        p.annotations.push(Annotation::caption(&case, FigureKind::Mohr, &text));
+        p.annotations.push(Annotation::note(
+            &case,
+            Pin::Mohr { normal_stress_pa: 1e7, shear_stress_pa: 2e7 },
+            &text,
+        ));
+        p.annotations.push(Annotation::note(&case, Pin::Space { at: [0.5, 0.5, 0.5] }, &text));
+        let d = planewise::study::Derived::new(&p);
+        let input = FigureInput::from_derived(&d, false);
+        let sizes = planewise::draw::Sizes::for_export(800.0, 600.0);
+        let frames = [
+            figures::mohr(&input, 800, 600, sizes),
+            figures::view_3d(
+                &input,
+                planewise::scene::Layers::default(),
+                planewise::scene::FaceChoice::FacingViewer,
+                &planewise::draw::camera::Camera::default(),
+                800,
+                600,
+                sizes,
+            ),
+        ];
+        for frame in &frames {
+            let svg = planewise::draw::svg::to_svg(frame, &text);
+            if let Err(e) = roxmltree::Document::parse(&svg) {
+                proptest::prop_assert!(false, "{e}: {text:?}");
+            }
+        }
+        let html = planewise::report::html(&p, &planewise::report::ReportOptions {
+            figures: Vec::new(),
+            ..planewise::report::ReportOptions::default()
+        }).unwrap();
+        proptest::prop_assert!(
+            !html.chars().any(|c| (c.is_control() && !matches!(c, '\n' | '\t' | '\r'))
+                || ('\u{202a}'..='\u{202e}').contains(&c)),
+            "a raw control or override character in the report"
+        );
+    }
+}

@@ -197,7 +197,14 @@ proptest! {
         for measure in [Measure::Shear, Measure::NormalMax, Measure::NormalMin, Measure::Traction, Measure::DilationTendency] {
             for convention in [SignConvention::TensionPositive, SignConvention::CompressionPositive] {
                 let s = SearchSettings { measure, convention, pore_pressure_pa: 0.0, material: None };
-                check(&t, &s, true)?;
+                // The traction magnitude has a near-flat ridge between two principal directions
+                // whose |σi| are nearly equal: the brute force's zoom can stop ~1e-8 below the
+                // maximum there (proptest found 133510336.58 vs 133510335.49 Pa), as for the
+                // numerical measures above; the search is then held to beating it.
+                let mut magnitudes = planewise::mechanics::principal_values_pa(&t).map(f64::abs);
+                magnitudes.sort_by(|a, b| b.total_cmp(a));
+                let close = measure != Measure::Traction || magnitudes[0] - magnitudes[1] > 0.05 * magnitudes[0];
+                check(&t, &s, close)?;
                 let closed = worst_plane(&t, &s).unwrap().value.unwrap();
                 let numeric = numerical_value(&t, &s).unwrap();
                 let scale = if measure.is_stress() { 100.0 * MPA } else { 1.0 };

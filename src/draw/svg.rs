@@ -12,11 +12,30 @@ pub const FONT_FAMILY: &str = "DejaVu Sans";
 /// Text made safe inside XML and HTML elements and attribute values.
 #[must_use]
 pub fn escape(text: &str) -> String {
-    text.replace('&', "&amp;")
-        .replace('<', "&lt;")
-        .replace('>', "&gt;")
-        .replace('"', "&quot;")
-        .replace('\'', "&#39;")
+    use std::fmt::Write as _;
+    let mut out = String::with_capacity(text.len());
+    for c in text.chars() {
+        match c {
+            '&' => out.push_str("&amp;"),
+            '<' => out.push_str("&lt;"),
+            '>' => out.push_str("&gt;"),
+            '"' => out.push_str("&quot;"),
+            '\'' => out.push_str("&#39;"),
+            '\t' | '\n' | '\r' => out.push(c),
+            // Characters XML 1.0 forbids (C0 controls, U+FFFE, U+FFFF) and C1 controls: a
+            // visible replacement, so one pasted vertical tab cannot make the file unreadable.
+            '\u{0}'..='\u{1f}' | '\u{7f}'..='\u{9f}' | '\u{fffe}' | '\u{ffff}' => {
+                out.push('\u{fffd}');
+            }
+            // Bidirectional embeddings, overrides and isolates would reorder the text around
+            // them without showing why: shown as their code point instead.
+            '\u{202a}'..='\u{202e}' | '\u{2066}'..='\u{2069}' => {
+                let _ = write!(out, "[U+{:04X}]", u32::from(c));
+            }
+            _ => out.push(c),
+        }
+    }
+    out
 }
 
 fn paint(attr: &str, c: Rgba) -> String {
