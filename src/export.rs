@@ -113,8 +113,41 @@ pub fn encode(frame: &Frame, format: ImageFormat, title: &str) -> Result<Vec<u8>
     })
 }
 
-/// Writes `bytes` to `path` atomically.
+/// Writes `bytes` to `path` atomically: a temporary file in the same folder, synced, then
+/// renamed over the old one, so a crash leaves the old file or the new one. The new file keeps
+/// the old one's permissions; a symbolic link is written through to its target; a read-only
+/// file or anything that is not a regular file (a device, a pipe) is refused and left as it was;
+/// temporaries that killed writes left beside the file are removed.
 pub fn write_atomic(path: &Path, bytes: &[u8]) -> Result<(), ExportError> {
+    let refuse = |why: String| ExportError::Io {
+        path: path.to_owned(),
+        cause: std::io::Error::other(why),
+    };
+    // A symbolic link is written through: its target gets the new content, the link stays.
+    let target = match std::fs::symlink_metadata(path) {
+        Ok(m) if m.file_type().is_symlink() => {
+            std::fs::canonicalize(path).map_err(|cause| ExportError::Io {
+                path: path.to_owned(),
+                cause,
+            })?
+        }
+        _ => path.to_owned(),
+    };
+    let existing = std::fs::metadata(&target).ok();
+    if let Some(m) = &existing {
+        if !m.is_file() {
+            return Err(refuse(
+                "not a regular file (a device, pipe or folder); nothing written".to_owned(),
+            ));
+        }
+        if m.permissions().readonly() {
+            return Err(refuse(
+                "the file is read-only; nothing written (make it writable first if it should change)"
+                    .to_owned(),
+            ));
+        }
+    }
+    let path = target.as_path();
     let io = |cause| ExportError::Io {
         path: path.to_owned(),
         cause,
@@ -126,9 +159,14 @@ pub fn write_atomic(path: &Path, bytes: &[u8]) -> Result<(), ExportError> {
     let name = path
         .file_name()
         .map_or_else(|| "figure".into(), |n| n.to_string_lossy().into_owned());
+    remove_stale_temporaries(dir, &name);
     let tmp = dir.join(format!(".{name}.{}.tmp", std::process::id()));
     let result = std::fs::File::create(&tmp).and_then(|mut f| {
         f.write_all(bytes)?;
+        // The replaced file's permissions carry over to the new one.
+        if let Some(m) = &existing {
+            f.set_permissions(m.permissions())?;
+        }
         f.sync_all()
     });
     if let Err(e) = result {
@@ -139,6 +177,36 @@ pub fn write_atomic(path: &Path, bytes: &[u8]) -> Result<(), ExportError> {
         let _ = std::fs::remove_file(&tmp);
         io(e)
     })
+}
+
+/// Removes temporary files of our own naming (`.NAME.PID.tmp`) beside `name` that a process
+/// no longer running left behind (a write killed half-way).
+fn remove_stale_temporaries(dir: &Path, name: &str) {
+    let Ok(entries) = std::fs::read_dir(dir) else {
+        return;
+    };
+    let prefix = format!(".{name}.");
+    for entry in entries.flatten() {
+        let file = entry.file_name();
+        let Some(rest) = file
+            .to_str()
+            .and_then(|f| f.strip_prefix(&prefix))
+            .and_then(|r| r.strip_suffix(".tmp"))
+        else {
+            continue;
+        };
+        let Ok(pid) = rest.parse::<u32>() else {
+            continue;
+        };
+        // Whether the writer still runs is known only where /proc lists processes; elsewhere
+        // every temporary is left alone.
+        let alive = pid == std::process::id()
+            || !cfg!(target_os = "linux")
+            || Path::new(&format!("/proc/{pid}")).exists();
+        if !alive {
+            let _ = std::fs::remove_file(entry.path());
+        }
+    }
 }
 
 /// Whether `a` and `b` are the same existing file: by device and inode on Unix (so two

@@ -422,3 +422,57 @@ proptest::proptest! {
         );
     }
 }
+
+#[test]
+fn the_atomic_writer_keeps_permissions_follows_links_and_refuses_the_rest() {
+    use planewise::export::write_atomic;
+    use std::os::unix::fs::{FileTypeExt as _, PermissionsExt as _};
+    let mode = |p: &std::path::Path| std::fs::metadata(p).unwrap().permissions().mode() & 0o777;
+    // Permissions carry over.
+    let file = temp("perm.json");
+    std::fs::write(&file, "old").unwrap();
+    std::fs::set_permissions(&file, std::fs::Permissions::from_mode(0o640)).unwrap();
+    write_atomic(&file, b"new").unwrap();
+    assert_eq!(std::fs::read_to_string(&file).unwrap(), "new");
+    assert_eq!(mode(&file), 0o640);
+    // A read-only file is refused and left alone (whoever runs the test, root included).
+    let ro = temp("read-only.json");
+    let _ = std::fs::set_permissions(&ro, std::fs::Permissions::from_mode(0o644));
+    std::fs::write(&ro, "keep").unwrap();
+    std::fs::set_permissions(&ro, std::fs::Permissions::from_mode(0o444)).unwrap();
+    let e = write_atomic(&ro, b"new").unwrap_err().to_string();
+    assert!(e.contains("read-only"), "{e}");
+    assert_eq!(std::fs::read_to_string(&ro).unwrap(), "keep");
+    assert_eq!(mode(&ro), 0o444);
+    // A symbolic link is written through: the shared target changes, the link stays a link.
+    let shared = temp("shared.json");
+    std::fs::write(&shared, "old").unwrap();
+    let link = temp("my-link.json");
+    let _ = std::fs::remove_file(&link);
+    std::os::unix::fs::symlink(&shared, &link).unwrap();
+    write_atomic(&link, b"through").unwrap();
+    assert_eq!(std::fs::read_to_string(&shared).unwrap(), "through");
+    assert!(
+        std::fs::symlink_metadata(&link)
+            .unwrap()
+            .file_type()
+            .is_symlink()
+    );
+    // A pipe is not replaced by a regular file.
+    let fifo = temp("pipe");
+    let _ = std::fs::remove_file(&fifo);
+    let made = std::process::Command::new("mkfifo")
+        .arg(&fifo)
+        .status()
+        .unwrap();
+    assert!(made.success());
+    let e = write_atomic(&fifo, b"x").unwrap_err().to_string();
+    assert!(e.contains("not a regular file"), "{e}");
+    assert!(std::fs::metadata(&fifo).unwrap().file_type().is_fifo());
+    // A temporary a killed write left behind (a process id that is not running) is removed on
+    // the next save; one of a running process is not.
+    let stale = temp(".perm.json.4000000.tmp");
+    std::fs::write(&stale, "half").unwrap();
+    write_atomic(&file, b"again").unwrap();
+    assert!(!stale.exists(), "the stale temporary stayed");
+}

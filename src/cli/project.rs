@@ -543,20 +543,13 @@ fn extra_input(a: &AddCaseArgs, project: &Project) -> Result<Option<CaseInput>, 
     let strains = parse::numbers::<3>(readings).map_err(|e| ArgError::new("--rosette", e))?;
     let angles_deg =
         parse::numbers::<3>(&a.gauge_angles).map_err(|e| ArgError::new("--gauge-angles", e))?;
-    let modulus_text = a.modulus.as_deref().unwrap_or_default().trim();
-    let split = modulus_text
-        .find(|c: char| c.is_ascii_alphabetic() && c != 'e' && c != 'E')
-        .ok_or_else(|| ArgError::new("--modulus", "needs a unit, e.g. 200GPa"))?;
-    let (number, modulus_unit) = modulus_text.split_at(split);
-    let modulus_unit: StressUnit = modulus_unit
-        .trim()
-        .parse()
-        .map_err(|e| ArgError::new("--modulus", e))?;
+    let (modulus, modulus_unit) =
+        super::rosette::modulus_as_typed(a.modulus.as_deref().unwrap_or_default())?;
     let input = CaseInput::Rosette(study::RosetteInput {
         angles_deg,
         strains,
         strain_unit: a.strain_unit.trim().to_owned(),
-        modulus: parse::number(number).map_err(|e| ArgError::new("--modulus", e))?,
+        modulus,
         modulus_unit: modulus_unit.symbol().to_owned(),
         poisson: parse::number(a.poisson.as_deref().unwrap_or_default())
             .map_err(|e| ArgError::new("--poisson", e))?,

@@ -69,8 +69,14 @@ pub struct RosetteJson {
     pub stress: AnalyzeJson,
 }
 
-/// A number followed by a stress unit, e.g. `70GPa` or `70 GPa`.
+/// A number followed by a stress unit, e.g. `70GPa` or `70 GPa`, in pascals.
 fn modulus(text: &str) -> Result<f64, ArgError> {
+    let (value, unit) = modulus_as_typed(text)?;
+    Ok(unit.to_pa(value))
+}
+
+/// A modulus as typed: the number and its stress unit (`70GPa` → 70, GPa).
+pub fn modulus_as_typed(text: &str) -> Result<(f64, StressUnit), ArgError> {
     let t = text.trim();
     let split = t
         .find(|c: char| c.is_ascii_alphabetic() && c != 'e' && c != 'E')
@@ -86,7 +92,7 @@ fn modulus(text: &str) -> Result<f64, ArgError> {
         .parse()
         .map_err(|e| ArgError::new("--modulus", e))?;
     let value = parse::number(number).map_err(|e| ArgError::new("--modulus", e))?;
-    Ok(unit.to_pa(value))
+    Ok((value, unit))
 }
 
 /// Runs the subcommand.
