@@ -268,7 +268,10 @@ impl PlanewiseApp {
             app.set_status(note, true);
         }
         if let Some(dir) = autosave_dir {
-            app.recovery = crate::autosave::read(&dir);
+            match crate::autosave::read(&dir) {
+                Ok(copy) => app.recovery = copy,
+                Err(message) => app.set_status(message, true),
+            }
             app.autosave_dir = Some(dir);
         }
         app
@@ -979,19 +982,30 @@ impl PlanewiseApp {
         }
     }
 
+    /// The window is asked to close: `false` when it must stay open to ask about unsaved
+    /// changes. On a close, the working copy is removed — but only once the user has answered
+    /// the recovery question (closing while it is open keeps the copy for the next start).
+    pub fn close_requested(&mut self) -> bool {
+        if self.dirty() && !self.close_allowed {
+            self.leaving = Some(Leaving::Quit);
+            return false;
+        }
+        if self.recovery.is_none()
+            && let Some(dir) = &self.autosave_dir
+        {
+            crate::autosave::clear(dir);
+        }
+        true
+    }
+
     /// Draws the whole window into `ui` and applies what the user asked for. Used by the real
     /// window and by the interaction tests.
     pub fn show(&mut self, ui: &mut egui::Ui) {
         let ctx = ui.ctx().clone();
         self.install_fonts(&ctx);
         self.poll_dialog();
-        if ctx.input(|i| i.viewport().close_requested()) {
-            if self.dirty() && !self.close_allowed {
-                ctx.send_viewport_cmd(egui::ViewportCommand::CancelClose);
-                self.leaving = Some(Leaving::Quit);
-            } else if let Some(dir) = &self.autosave_dir {
-                crate::autosave::clear(dir);
-            }
+        if ctx.input(|i| i.viewport().close_requested()) && !self.close_requested() {
+            ctx.send_viewport_cmd(egui::ViewportCommand::CancelClose);
         }
         let mut commands = Self::shortcuts(&ctx);
         let history = (self.history.can_undo(), self.history.can_redo());

@@ -41,22 +41,44 @@ pub fn write(dir: &Path, project: &Project, source: Option<&Path>) -> Result<(),
     study::save(&dir.join(COPY), project)
 }
 
-/// The working copy left in `dir`, if there is one that loads.
-#[must_use]
-pub fn read(dir: &Path) -> Option<WorkingCopy> {
+/// The working copy left in `dir`, if there is one. One that cannot be read (garbage, cut
+/// short, a newer format) is never deleted: it is renamed aside and the error says where, so
+/// the window can tell the user.
+pub fn read(dir: &Path) -> Result<Option<WorkingCopy>, String> {
     let path = dir.join(COPY);
-    let (project, _) = study::load(&path).ok()?;
+    if !path.exists() {
+        return Ok(None);
+    }
+    let project = match study::load(&path) {
+        Ok((project, _)) => project,
+        Err(e) => {
+            let stamp = SystemTime::now()
+                .duration_since(SystemTime::UNIX_EPOCH)
+                .map_or(0, |d| d.as_secs());
+            let aside = dir.join(format!("working-copy.unreadable-{stamp}.json"));
+            return Err(match std::fs::rename(&path, &aside) {
+                Ok(()) => format!(
+                    "The working copy the last run left could not be read ({e}); it is kept at {}",
+                    aside.display()
+                ),
+                Err(r) => format!(
+                    "The working copy the last run left could not be read ({e}) nor set aside ({r}); it is still at {}",
+                    path.display()
+                ),
+            });
+        }
+    };
     let source = std::fs::read_to_string(dir.join(SOURCE))
         .ok()
         .map(|s| s.trim().to_owned())
         .filter(|s| !s.is_empty())
         .map(PathBuf::from);
     let written = std::fs::metadata(&path).and_then(|m| m.modified()).ok();
-    Some(WorkingCopy {
+    Ok(Some(WorkingCopy {
         project,
         source,
         written,
-    })
+    }))
 }
 
 /// Removes the working copy (after a save or a clean exit).

@@ -262,12 +262,12 @@ fn the_autosaved_working_copy_is_offered_back_after_a_crash() {
     leave_text_field(&mut h);
     // Nothing is written before the interval has passed…
     h.state_mut().autosave(1.0);
-    assert!(planewise::autosave::read(&dir).is_none());
+    assert!(planewise::autosave::read(&dir).unwrap().is_none());
     // …and the working copy after it.
     h.state_mut()
         .autosave(planewise::autosave::INTERVAL_S + 1.0);
     let edited = h.state().project.clone();
-    let copy = planewise::autosave::read(&dir).unwrap();
+    let copy = planewise::autosave::read(&dir).unwrap().unwrap();
     assert_eq!(copy.project, edited);
     drop(h); // the "crash": no clean exit, so the copy stays
 
@@ -278,7 +278,16 @@ fn the_autosaved_working_copy_is_offered_back_after_a_crash() {
         Box::new(NoDialogs),
     );
     app.set_autosave_dir(Some(dir.clone()));
-    app.recovery = planewise::autosave::read(&dir);
+    app.recovery = planewise::autosave::read(&dir).unwrap();
+    // Closing the window while the question is open keeps the working copy.
+    assert!(
+        app.close_requested(),
+        "nothing unsaved: the window may close"
+    );
+    assert!(
+        planewise::autosave::read(&dir).unwrap().is_some(),
+        "the working copy was deleted"
+    );
     let mut h = harness_on(app);
     h.get_by_label_contains("did not close normally");
     h.get_by_label("Recover").click();
@@ -828,4 +837,37 @@ fn the_table_tab_ranks_rows_without_frictional_capacity_first() {
             .is_some()
     );
     assert!(h.query_by_label("no frictional capacity").is_some());
+}
+
+#[test]
+fn an_unreadable_working_copy_is_kept_aside_and_said() {
+    let dir = temp("autosave-unreadable");
+    let _ = std::fs::remove_dir_all(&dir);
+    std::fs::create_dir_all(&dir).unwrap();
+    std::fs::write(
+        dir.join("working-copy.json"),
+        "{ \"format_version\": 2, \"name\": ",
+    )
+    .unwrap();
+    let app = PlanewiseApp::start(None, None, Some(dir.clone()));
+    let status = app.status.clone().unwrap();
+    assert!(
+        status.error && status.text.contains("kept at"),
+        "{status:?}"
+    );
+    let kept: Vec<_> = std::fs::read_dir(&dir)
+        .unwrap()
+        .flatten()
+        .filter(|e| {
+            e.file_name()
+                .to_string_lossy()
+                .starts_with("working-copy.unreadable-")
+        })
+        .collect();
+    assert_eq!(kept.len(), 1);
+    assert_eq!(
+        std::fs::read_to_string(kept[0].path()).unwrap(),
+        "{ \"format_version\": 2, \"name\": "
+    );
+    assert!(app.recovery.is_none());
 }
