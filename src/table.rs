@@ -196,6 +196,9 @@ pub struct Ranked {
     pub counts: ConditionCounts,
     /// With [`TableOptions::above`]: how many rows are at or beyond the threshold.
     pub at_or_beyond: u64,
+    /// The last line has no line end: the file may have been cut short (its last row was read
+    /// as it stands).
+    pub unterminated: bool,
 }
 
 /// How many bad rows are kept to report.
@@ -414,13 +417,25 @@ fn header(
             })?;
         components[*k] = i;
     }
+    let mapped = components;
     for (i, name) in names.iter().enumerate() {
-        if let Some(k) = component_of(name)
-            && components[k] == usize::MAX
-            && !components.contains(&i)
-        {
-            components[k] = i;
+        let Some(k) = component_of(name) else {
+            continue;
+        };
+        if mapped[k] != usize::MAX || mapped.contains(&i) {
+            continue;
         }
+        if components[k] != usize::MAX {
+            return Err(bad(format!(
+                "columns {} ('{}') and {} ('{name}') both name {}; say which with --columns {}=NAME",
+                components[k] + 1,
+                names[components[k]],
+                i + 1,
+                COMPONENTS[k],
+                COMPONENTS[k]
+            )));
+        }
+        components[k] = i;
     }
     let missing: Vec<&str> = (0..6)
         .filter(|&k| components[k] == usize::MAX)
@@ -597,6 +612,7 @@ pub fn rank(
     let mut counts = ConditionCounts::default();
     let mut bad: Vec<BadRow> = Vec::new();
     let mut eof = false;
+    let mut unterminated = false;
     let threads = rayon::current_num_threads().max(1);
     while !eof {
         // Fill the buffer up to a block.
@@ -617,6 +633,9 @@ pub fn rank(
             return Err(TableError::Cancelled);
         }
         // Whole lines only; the rest waits for the next block.
+        if eof && buffer.last().is_some_and(|b| *b != b'\n') {
+            unterminated = true;
+        }
         let end = if eof {
             buffer.len()
         } else {
@@ -706,6 +725,7 @@ pub fn rank(
         bad,
         counts,
         at_or_beyond,
+        unterminated,
     })
 }
 

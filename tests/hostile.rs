@@ -476,3 +476,103 @@ fn the_atomic_writer_keeps_permissions_follows_links_and_refuses_the_rest() {
     write_atomic(&file, b"again").unwrap();
     assert!(!stale.exists(), "the stale temporary stayed");
 }
+
+/// The demo project's JSON with `change` applied, written to `name`.
+fn demo_changed(name: &str, change: impl Fn(&mut serde_json::Value)) -> PathBuf {
+    let demo = std::fs::read_to_string(concat!(
+        env!("CARGO_MANIFEST_DIR"),
+        "/assets/demo-bracket-project.json"
+    ))
+    .unwrap();
+    let mut v: serde_json::Value = serde_json::from_str(&demo).unwrap();
+    change(&mut v);
+    let file = temp(name);
+    std::fs::write(&file, serde_json::to_string_pretty(&v).unwrap()).unwrap();
+    file
+}
+
+#[test]
+fn checks_that_were_missing_now_refuse() {
+    for (file, says) in [
+        (
+            demo_changed("cohesion.json", |v| {
+                v["material"]["cohesion_pa"] = (-5.0).into()
+            }),
+            "cohesion",
+        ),
+        (
+            demo_changed("friction.json", |v| {
+                v["material"]["friction_angle_deg"] = 95.0.into();
+            }),
+            "friction angle 95",
+        ),
+        (
+            demo_changed("faults.json", |v| {
+                v["faults"] = serde_json::json!([
+                    {"name": "F", "dip_deg": 10.0, "dip_direction_deg": 20.0},
+                    {"name": "F", "dip_deg": 30.0, "dip_direction_deg": 40.0}
+                ]);
+            }),
+            "used twice",
+        ),
+        (
+            demo_changed("version0.json", |v| v["format_version"] = 0.into()),
+            "format_version 0",
+        ),
+    ] {
+        let run = common::planewise(&["project", "show", file.to_str().unwrap()]);
+        let stderr = String::from_utf8_lossy(&run.stderr);
+        assert_eq!(run.status.code(), Some(2), "{file:?}: {stderr}");
+        assert!(stderr.contains(says), "{file:?}: {stderr}");
+    }
+    // A byte-order mark before the JSON is accepted.
+    let demo = std::fs::read_to_string(concat!(
+        env!("CARGO_MANIFEST_DIR"),
+        "/assets/demo-bracket-project.json"
+    ))
+    .unwrap();
+    let bom = temp("bom.json");
+    std::fs::write(&bom, format!("\u{feff}{demo}")).unwrap();
+    common::planewise_ok(&["project", "show", bom.to_str().unwrap()]);
+    // A device is not read (it would never end).
+    let run = common::planewise(&["project", "show", "/dev/zero"]);
+    assert_eq!(run.status.code(), Some(2));
+    assert!(String::from_utf8_lossy(&run.stderr).contains("not a regular file"));
+    // SHmax below Shmin is refused, saying which is which.
+    let run = common::planewise(&["analyze", "--in-situ", "sv=30,shmax=10,shmin=20,azimuth=0"]);
+    let stderr = String::from_utf8_lossy(&run.stderr);
+    assert_eq!(run.status.code(), Some(2), "{stderr}");
+    assert!(
+        stderr.contains("--in-situ") && stderr.contains("SHmax (10"),
+        "{stderr}"
+    );
+    // Two columns naming one component are refused; a last line without its line end is said.
+    let table = temp("dup.csv");
+    std::fs::write(&table, "id,xx,xx,yy,zz,xy,yz,zx\nA,1,2,3,4,5,6,7\n").unwrap();
+    let run = common::planewise(&[
+        "batch",
+        table.to_str().unwrap(),
+        "--unit",
+        "MPa",
+        "--rank",
+        "von-mises",
+    ]);
+    let stderr = String::from_utf8_lossy(&run.stderr);
+    assert_eq!(run.status.code(), Some(2), "{stderr}");
+    assert!(stderr.contains("both name xx"), "{stderr}");
+    let cut = temp("cut.csv");
+    std::fs::write(&cut, "id,xx,yy,zz,xy,yz,zx\nA,1,2,3,4,5,6\nB,1,2,3,4,5,6").unwrap();
+    let run = common::planewise_ok(&[
+        "batch",
+        cut.to_str().unwrap(),
+        "--unit",
+        "MPa",
+        "--rank",
+        "von-mises",
+        "--quiet",
+        "--json",
+    ]);
+    assert!(String::from_utf8_lossy(&run.stderr).contains("may have been cut short"));
+    let j: serde_json::Value = serde_json::from_slice(&run.stdout).unwrap();
+    assert_eq!(j["last_line_unterminated"], true);
+}

@@ -83,6 +83,8 @@ pub struct BatchJson {
     pub convention: String,
     pub rows_read: u64,
     pub bad_rows: u64,
+    /// The last line had no line end (the file may have been cut short).
+    pub last_line_unterminated: bool,
     /// How many rows read stand in each condition (a number, fails at any scale, no frictional
     /// capacity, never reaches the surface, undefined, not checked).
     pub conditions: crate::study::envelope::ConditionCounts,
@@ -296,6 +298,12 @@ pub fn run(args: &BatchArgs) -> Result<String, CliError> {
             eprintln!("planewise: skipped {}", b.located(&name));
         }
     }
+    if ranked.unterminated {
+        // Said even with --quiet: a table cut short is worth knowing.
+        eprintln!(
+            "planewise: warning: {name}: the last line has no line end; the file may have been cut short (its last row was read as it stands)"
+        );
+    }
     let mut json = to_json(&ranked, &name, args.rank, unit, convention, &measure);
     if let Some(v) = above {
         json.at_or_beyond = Some(clean(if args.rank.is_stress() {
@@ -364,6 +372,7 @@ fn to_json(
         convention: convention.key().to_owned(),
         rows_read: ranked.total_rows,
         bad_rows: ranked.bad_count,
+        last_line_unterminated: ranked.unterminated,
         conditions: ranked.counts,
         at_or_beyond: None,
         rows_at_or_beyond: None,

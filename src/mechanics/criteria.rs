@@ -347,6 +347,13 @@ impl Strengths {
                 positive(v, what)?;
             }
         }
+        // Each of c and φ on its own, so that a lone bad value is refused too.
+        if let Some(c) = self.cohesion_pa {
+            MohrCoulomb::new(c, 0.0)?;
+        }
+        if let Some(phi) = self.friction_angle_deg {
+            MohrCoulomb::new(0.0, phi)?;
+        }
         self.mohr_coulomb().transpose().map(|_| ())
     }
 

@@ -33,6 +33,16 @@ pub enum InputError {
     /// The principal values are not ordered σ1 ≥ σ2 ≥ σ3.
     #[error("principal values must be ordered s1 ≥ s2 ≥ s3 in the convention they are typed in")]
     Order,
+    /// SHmax below Shmin: the names say which horizontal stress is the larger.
+    #[error(
+        "SHmax ({shmax}) is below Shmin ({shmin}): SHmax is the larger horizontal stress — swap them (and give the azimuth of the larger)"
+    )]
+    HorizontalOrder {
+        /// SHmax as typed.
+        shmax: f64,
+        /// Shmin as typed.
+        shmin: f64,
+    },
     /// The resulting tensor is out of range.
     #[error(transparent)]
     Tensor(#[from] TensorError),
@@ -76,6 +86,12 @@ pub fn in_situ(
         .all(|v| v.is_finite())
     {
         return Err(InputError::NotFinite("in-situ stresses and azimuth"));
+    }
+    if shmax_pa < shmin_pa {
+        return Err(InputError::HorizontalOrder {
+            shmax: shmax_pa,
+            shmin: shmin_pa,
+        });
     }
     let a = azimuth_deg.to_radians();
     let h = Vector3::new(a.sin(), a.cos(), 0.0);

@@ -44,6 +44,10 @@ use super::model::{Project, StudyError};
 /// warning), so no check rests on it.
 pub const FORMAT_VERSION: u32 = 2;
 
+/// The largest project file read (256 MiB): far above any real project (100,000 load cases
+/// take about 30 MB), and a stop for a file that is not one.
+pub const MAX_FILE_BYTES: u64 = 256 << 20;
+
 /// The planes' cohesion (Pa) and friction angle (degrees) that version 1 put in every project.
 const OLD_DEFAULT_PLANE_STRENGTH: (f64, f64) = (5e6, 30.0);
 
@@ -114,10 +118,26 @@ pub enum FileError {
 
 /// Reads a project. Returns it with warnings (unknown keys that were ignored).
 pub fn load(path: &Path) -> Result<(Project, Vec<String>), FileError> {
-    let text = std::fs::read_to_string(path).map_err(|cause| FileError::Io {
+    let io = |cause| FileError::Io {
         path: path.to_owned(),
         cause,
-    })?;
+    };
+    // Only regular files of a sane size: a device or pipe (`/dev/zero`) would never end.
+    let meta = std::fs::metadata(path).map_err(io)?;
+    if !meta.is_file() {
+        return Err(io(std::io::Error::other(
+            "not a regular file (a device, pipe or folder)",
+        )));
+    }
+    if meta.len() > MAX_FILE_BYTES {
+        return Err(io(std::io::Error::other(format!(
+            "{} bytes is above the {MAX_FILE_BYTES}-byte limit of a project file",
+            meta.len()
+        ))));
+    }
+    let text = std::fs::read_to_string(path).map_err(io)?;
+    // A byte-order mark some editors put first is not part of the JSON.
+    let text = text.strip_prefix('\u{feff}').unwrap_or(&text);
     if text.trim().is_empty() {
         return Err(FileError::Empty(path.to_owned()));
     }
@@ -125,7 +145,7 @@ pub fn load(path: &Path) -> Result<(Project, Vec<String>), FileError> {
         path: path.to_owned(),
         message,
     };
-    let value: serde_json::Value = serde_json::from_str(&text).map_err(|e| {
+    let value: serde_json::Value = serde_json::from_str(text).map_err(|e| {
         malformed(format!(
             "not a Planewise project file (JSON error at line {}, column {}: {e})",
             e.line(),
@@ -145,6 +165,11 @@ pub fn load(path: &Path) -> Result<(Project, Vec<String>), FileError> {
             "not a Planewise project file (no format_version)".to_owned(),
         ));
     };
+    if version == 0 {
+        return Err(malformed(
+            "format_version 0 is not a Planewise project file version (they start at 1)".to_owned(),
+        ));
+    }
     if version > u64::from(FORMAT_VERSION) {
         return Err(FileError::Future {
             path: path.to_owned(),

@@ -848,8 +848,14 @@ impl Project {
             MohrCoulomb::new(m.cohesion_pa.unwrap_or(0.0), phi)
                 .map_err(|e| StudyError::Invalid(format!("measure: the planes' {e}")))?;
         }
-        for fault in &self.faults {
+        for (i, fault) in self.faults.iter().enumerate() {
             fault.normal()?;
+            if self.faults[..i].iter().any(|f| f.name == fault.name) {
+                return Err(StudyError::Invalid(format!(
+                    "faults: the name '{}' is used twice",
+                    fault.name
+                )));
+            }
         }
         for (i, a) in self.annotations.iter().enumerate() {
             a.validate()
