@@ -496,7 +496,7 @@ fn checks_that_were_missing_now_refuse() {
     for (file, says) in [
         (
             demo_changed("cohesion.json", |v| {
-                v["material"]["cohesion_pa"] = (-5.0).into()
+                v["material"]["cohesion_pa"] = (-5.0).into();
             }),
             "cohesion",
         ),
