@@ -47,20 +47,29 @@ fn main() -> ExitCode {
     match run(&command) {
         Ok(out) => {
             let mut stdout = std::io::stdout().lock();
-            if stdout
+            match stdout
                 .write_all(out.as_bytes())
                 .and_then(|()| stdout.flush())
-                .is_err()
             {
-                return ExitCode::FAILURE;
+                Ok(()) => ExitCode::SUCCESS,
+                // The reader stopped early (`… | head`): nothing is wrong.
+                Err(e) if e.kind() == std::io::ErrorKind::BrokenPipe => ExitCode::SUCCESS,
+                Err(e) => {
+                    eprintln!("planewise: could not write the output: {e}");
+                    ExitCode::FAILURE
+                }
             }
-            ExitCode::SUCCESS
         }
         Err(CliError::Arg(e)) => {
             eprintln!("planewise: {e}");
             ExitCode::from(2)
         }
         Err(CliError::Other(e)) => {
+            if e.downcast_ref::<std::io::Error>()
+                .is_some_and(|io| io.kind() == std::io::ErrorKind::BrokenPipe)
+            {
+                return ExitCode::SUCCESS;
+            }
             eprintln!("planewise: {e:#}");
             ExitCode::FAILURE
         }

@@ -398,6 +398,16 @@ fn header(
                 .to_owned()
         })
         .collect();
+    // A header can be any length (a file that is not a table): messages quote at most 200
+    // characters of it.
+    let listed = {
+        let all = names.join(", ");
+        if all.chars().count() > 200 {
+            format!("{}…", all.chars().take(200).collect::<String>())
+        } else {
+            all
+        }
+    };
     let bad = |message: String| TableError::Header {
         file: file.to_owned(),
         line: number,
@@ -410,9 +420,8 @@ fn header(
             .position(|n| n.eq_ignore_ascii_case(name.trim()))
             .ok_or_else(|| {
                 bad(format!(
-                    "--columns names '{name}' for {}, but the header has no such column (it has: {})",
+                    "--columns names '{name}' for {}, but the header has no such column (it has: {listed})",
                     COMPONENTS[*k],
-                    names.join(", ")
                 ))
             })?;
         components[*k] = i;
@@ -443,10 +452,9 @@ fn header(
         .collect();
     if !missing.is_empty() {
         return Err(bad(format!(
-            "no column for {} in the header ({} separated: {}); name them with --columns xx=NAME,…",
+            "no column for {} in the header ({} separated: {listed}); name them with --columns xx=NAME,…",
             missing.join(", "),
             delimiter.name(),
-            names.join(", ")
         )));
     }
     let carried = (0..names.len())

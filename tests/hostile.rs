@@ -576,3 +576,178 @@ fn checks_that_were_missing_now_refuse() {
     let j: serde_json::Value = serde_json::from_slice(&run.stdout).unwrap();
     assert_eq!(j["last_line_unterminated"], true);
 }
+
+#[test]
+fn messages_say_what_happened() {
+    // A finite number that overflows once converted.
+    common::assert_bad_input(
+        "analyze",
+        &[(
+            &["--stress", "xx=1e308", "--unit", "GPa"],
+            "exceeds the limit of 1e30 Pa once converted",
+        )],
+    );
+    // add-case names the input, not the name.
+    let file = temp("messages.json");
+    let _ = std::fs::remove_file(&file);
+    let f = file.to_str().unwrap();
+    common::planewise_ok(&["project", "new", f]);
+    common::assert_bad_input(
+        "project",
+        &[
+            (
+                &["add-case", f, "--name", "a", "--stress", "xx=1e308"],
+                "--stress",
+            ),
+            (
+                &["add-case", f, "--name", "a", "--stress", "xx=1e308"],
+                "exceeds",
+            ),
+        ],
+    );
+    // Negative numbers name their argument.
+    let table = temp("m.csv");
+    std::fs::write(&table, "id,xx,yy,zz,xy,yz,zx\nA,1,2,3,0,0,0\n").unwrap();
+    let t = table.to_str().unwrap();
+    let out = temp("m.svg");
+    let o = out.to_str().unwrap();
+    common::assert_bad_input(
+        "batch",
+        &[(
+            &[t, "--unit", "MPa", "--rank", "von-mises", "--top", "-5"],
+            "--top",
+        )],
+    );
+    common::assert_bad_input(
+        "figure",
+        &[(
+            &["--stress", "xx=1", "--size", "-5x100", "--out", o],
+            "--size",
+        )],
+    );
+    common::assert_bad_input(
+        "map",
+        &[(
+            &[
+                "--stress",
+                "xx=1",
+                "--measure",
+                "shear",
+                "--resolution",
+                "-5",
+                "--out",
+                o,
+            ],
+            "--resolution",
+        )],
+    );
+    common::assert_bad_input(
+        "rosette",
+        &[(
+            &[
+                "--strains",
+                "1,2,3",
+                "--modulus",
+                "-70GPa",
+                "--poisson",
+                "0.3",
+            ],
+            "--modulus",
+        )],
+    );
+    // A folder given as the table is named.
+    let dir = temp("a-folder");
+    std::fs::create_dir_all(&dir).unwrap();
+    common::assert_bad_input(
+        "batch",
+        &[(
+            &[
+                dir.to_str().unwrap(),
+                "--unit",
+                "MPa",
+                "--rank",
+                "von-mises",
+            ],
+            "FILE",
+        )],
+    );
+    // A huge header is quoted short.
+    let wide = temp("wide.csv");
+    std::fs::write(
+        &wide,
+        format!(
+            "{}\n1\n",
+            (0..20_000)
+                .map(|i| format!("c{i}"))
+                .collect::<Vec<_>>()
+                .join(",")
+        ),
+    )
+    .unwrap();
+    let run = common::planewise(&[
+        "batch",
+        wide.to_str().unwrap(),
+        "--unit",
+        "MPa",
+        "--rank",
+        "von-mises",
+    ]);
+    assert_eq!(run.status.code(), Some(2));
+    assert!(
+        run.stderr.len() < 1000,
+        "{} bytes on stderr",
+        run.stderr.len()
+    );
+    // Output that cannot be written says so; a reader that stops early is no error.
+    let full = std::process::Command::new(env!("CARGO_BIN_EXE_planewise"))
+        .args(["analyze", "--stress", "xx=1"])
+        .stdout(std::fs::File::create("/dev/full").unwrap())
+        .output()
+        .unwrap();
+    assert_eq!(full.status.code(), Some(1));
+    assert!(String::from_utf8_lossy(&full.stderr).contains("could not write"));
+    let mut child = std::process::Command::new(env!("CARGO_BIN_EXE_planewise"))
+        .args([
+            "batch",
+            t,
+            "--unit",
+            "MPa",
+            "--rank",
+            "von-mises",
+            "--quiet",
+        ])
+        .stdout(std::process::Stdio::piped())
+        .stderr(std::process::Stdio::piped())
+        .spawn()
+        .unwrap();
+    drop(child.stdout.take());
+    let done = child.wait_with_output().unwrap();
+    assert!(!String::from_utf8_lossy(&done.stderr).contains("Broken pipe"));
+    // explain that cannot write exits 1, as every command does.
+    let blocked = temp("blocker");
+    std::fs::write(&blocked, "a file where the folder would go").unwrap();
+    let run = common::planewise(&[
+        "explain",
+        "--stress",
+        "xx=1",
+        "--out",
+        blocked.join("sub").to_str().unwrap(),
+    ]);
+    assert_eq!(
+        run.status.code(),
+        Some(1),
+        "{}",
+        String::from_utf8_lossy(&run.stderr)
+    );
+    // project show does not pass terminal escapes through.
+    let mut p = planewise::study::Project::demo();
+    p.name = "bad\u{1b}[2Jname".to_owned();
+    let esc = temp("escape.json");
+    planewise::study::save(&esc, &p).unwrap();
+    let shown = common::planewise_ok(&["project", "show", esc.to_str().unwrap()]);
+    assert!(
+        !shown.stdout.contains(&0x1b),
+        "an escape reached the terminal"
+    );
+    assert!(String::from_utf8_lossy(&shown.stdout).contains("\\u{1b}"));
+}

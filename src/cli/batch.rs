@@ -51,7 +51,7 @@ pub struct BatchArgs {
     #[command(flatten)]
     pub strengths: StrengthArgs,
     /// Keep the N worst rows (default: every row, sorted).
-    #[arg(long, value_name = "N")]
+    #[arg(long, value_name = "N", allow_hyphen_values = true)]
     pub top: Option<usize>,
     /// Keep every row at or beyond this value of the measure (in --unit for stress measures;
     /// at or below it for sigma3 and normal-min); rows that fail at any scale or have no
@@ -269,6 +269,9 @@ pub fn run(args: &BatchArgs) -> Result<String, CliError> {
     let ranked = if args.file == "-" {
         table::rank(std::io::stdin().lock(), &name, &options, &measure, progress)
     } else {
+        if std::fs::metadata(&args.file).is_ok_and(|m| m.is_dir()) {
+            return Err(ArgError::new("FILE", format!("{name} is a folder, not a table")).into());
+        }
         let f = std::fs::File::open(&args.file)
             .map_err(|cause| ArgError::new("FILE", format!("{name}: {cause}")))?;
         table::rank(f, &name, &options, &measure, progress)

@@ -24,7 +24,7 @@ pub struct ExplainArgs {
     #[arg(long, value_name = "DIR")]
     pub out: PathBuf,
     /// Figure size in pixels, WIDTHxHEIGHT.
-    #[arg(long, value_name = "WxH", default_value = "1280x900", value_parser = values::size)]
+    #[arg(long, value_name = "WxH", default_value = "1280x900", value_parser = values::size, allow_hyphen_values = true)]
     pub size: (u32, u32),
     /// Figure format: svg or png.
     #[arg(long, value_name = "FORMAT", default_value = "svg")]
@@ -102,8 +102,9 @@ pub fn run(args: &ExplainArgs) -> Result<String, CliError> {
             .into());
         }
     }
+    // A folder that cannot be made is a failure to write (exit 1), as for every other command.
     std::fs::create_dir_all(&args.out)
-        .map_err(|e| ArgError::new("--out", format!("{}: {e}", args.out.display())))?;
+        .map_err(|e| anyhow::anyhow!("could not make {}: {e}", args.out.display()))?;
     let (w, h) = args.size;
     let sizes = crate::draw::Sizes::for_export(w as f32, h as f32);
     let title = format!("{} — {}", project.name, d.name);

@@ -27,7 +27,7 @@ pub struct FigureArgs {
     #[command(flatten)]
     pub title: values::TitleArgs,
     /// Image size in pixels, WIDTHxHEIGHT.
-    #[arg(long, value_name = "WxH", default_value = "1600x1200", value_parser = values::size)]
+    #[arg(long, value_name = "WxH", default_value = "1600x1200", value_parser = values::size, allow_hyphen_values = true)]
     pub size: (u32, u32),
     /// View direction (the eye's side).
     #[arg(

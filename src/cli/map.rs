@@ -28,14 +28,14 @@ pub struct MapArgs {
     #[command(flatten)]
     pub title: values::TitleArgs,
     /// Image size in pixels, WIDTHxHEIGHT.
-    #[arg(long, value_name = "WxH", default_value = "1200x900", value_parser = values::size)]
+    #[arg(long, value_name = "WxH", default_value = "1200x900", value_parser = values::size, allow_hyphen_values = true)]
     pub size: (u32, u32),
     /// Colour the map from MIN to MAX (in the stress unit for stress measures) instead of the
     /// data's range, so one extreme value does not flatten the map.
     #[arg(long, value_name = "MIN,MAX", allow_hyphen_values = true)]
     pub range: Option<String>,
     /// Map cells per side (16 to 1024).
-    #[arg(long, value_name = "N", default_value = "256", value_parser = clap::value_parser!(u16).range(16..=1024))]
+    #[arg(long, value_name = "N", default_value = "256", value_parser = clap::value_parser!(u16).range(16..=1024), allow_hyphen_values = true)]
     pub resolution: u16,
 }
 

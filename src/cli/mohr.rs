@@ -33,7 +33,7 @@ pub struct MohrArgs {
     #[command(flatten)]
     pub title: values::TitleArgs,
     /// Image size in pixels, WIDTHxHEIGHT.
-    #[arg(long, value_name = "WxH", default_value = "1200x800", value_parser = values::size)]
+    #[arg(long, value_name = "WxH", default_value = "1200x800", value_parser = values::size, allow_hyphen_values = true)]
     pub size: (u32, u32),
 }
 

@@ -201,7 +201,7 @@ pub struct AddCaseArgs {
     #[arg(long, value_name = "UNIT", default_value = "microstrain")]
     pub strain_unit: String,
     /// The rosette's Young's modulus with its unit, e.g. 200GPa.
-    #[arg(long, value_name = "E")]
+    #[arg(long, value_name = "E", allow_hyphen_values = true)]
     pub modulus: Option<String>,
     /// The rosette's Poisson's ratio.
     #[arg(long, value_name = "NU", allow_hyphen_values = true)]
@@ -314,9 +314,25 @@ pub fn run(args: &ProjectArgs) -> Result<String, CliError> {
                 description: a.description.clone(),
                 input,
             };
-            project
-                .add_case(case, a.replace)
-                .map_err(|e| ArgError::new("--name", e))?;
+            // A name that is taken or malformed is the name's fault; anything else is the input's.
+            let input_arg = if a.stress.is_some() {
+                "--stress"
+            } else if a.plane_stress.is_some() {
+                "--plane-stress"
+            } else if a.rosette.is_some() {
+                "--rosette"
+            } else if a.other.in_situ.is_some() {
+                "--in-situ"
+            } else {
+                "--principal"
+            };
+            project.add_case(case, a.replace).map_err(|e| match e {
+                study::StudyError::Duplicate(_) => ArgError::new("--name", e),
+                study::StudyError::Invalid(ref m) if m.contains("name") => {
+                    ArgError::new("--name", e)
+                }
+                other => ArgError::new(input_arg, other),
+            })?;
             save(&a.file, &project)?;
             Ok(format!("wrote {}\n", a.file.display()))
         }
@@ -487,6 +503,20 @@ pub fn run(args: &ProjectArgs) -> Result<String, CliError> {
     }
 }
 
+/// Text from a file made safe for a terminal: control characters (escape sequences among them)
+/// shown as `\u{…}` instead of acting on the terminal.
+fn terminal_safe(text: &str) -> String {
+    text.chars()
+        .map(|c| {
+            if c.is_control() {
+                format!("\\u{{{:x}}}", u32::from(c))
+            } else {
+                c.to_string()
+            }
+        })
+        .collect()
+}
+
 fn show_text(project: &Project) -> Result<String, CliError> {
     let unit = project.unit().map_err(|e| ArgError::new("FILE", e))?;
     let convention = project.convention();
@@ -494,7 +524,7 @@ fn show_text(project: &Project) -> Result<String, CliError> {
     let _ = writeln!(
         s,
         "Project: {} ({unit}, {convention}; components xx, yy, zz, xy, yz, zx)",
-        project.name
+        terminal_safe(&project.name)
     );
     let _ = writeln!(s, "Load cases:");
     for case in &project.cases {
@@ -507,9 +537,9 @@ fn show_text(project: &Project) -> Result<String, CliError> {
         let _ = writeln!(
             s,
             "  {:<16} {}  {}",
-            case.name,
+            terminal_safe(&case.name),
             c.join(", "),
-            case.description
+            terminal_safe(&case.description)
         );
     }
     let _ = writeln!(s, "Combinations (Σ factor × case tensor):");
@@ -517,9 +547,14 @@ fn show_text(project: &Project) -> Result<String, CliError> {
         let terms: Vec<String> = comb
             .terms
             .iter()
-            .map(|t| format!("{} × {}", sig(t.factor, 6), t.case))
+            .map(|t| format!("{} × {}", sig(t.factor, 6), terminal_safe(&t.case)))
             .collect();
-        let _ = writeln!(s, "  {:<16} {}", comb.name, terms.join(" + "));
+        let _ = writeln!(
+            s,
+            "  {:<16} {}",
+            terminal_safe(&comb.name),
+            terms.join(" + ")
+        );
     }
     Ok(s)
 }

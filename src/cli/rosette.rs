@@ -41,7 +41,7 @@ pub struct RosetteArgs {
     #[arg(long, value_name = "UNIT", default_value = "microstrain")]
     pub strain_unit: StrainUnit,
     /// Young's modulus with its unit, e.g. 70GPa or 200000MPa.
-    #[arg(long, value_name = "E")]
+    #[arg(long, value_name = "E", allow_hyphen_values = true)]
     pub modulus: String,
     /// Poisson's ratio, −1 < ν < 0.5.
     #[arg(long, value_name = "NU", allow_hyphen_values = true)]

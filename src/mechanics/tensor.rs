@@ -83,6 +83,16 @@ pub enum TensorError {
     /// The component's magnitude exceeds [`MAX_STRESS_PA`].
     #[error("component {} is out of range (magnitude above 1e30 Pa)", .0.key())]
     OutOfRange(Component),
+    /// A finite number typed in a unit that exceeds the limit once converted to pascals.
+    #[error("component {} = {typed} {unit} exceeds the limit of 1e30 Pa once converted to pascals", .component.key())]
+    OutOfRangeAfterConversion {
+        /// The component.
+        component: Component,
+        /// The number as typed.
+        typed: f64,
+        /// Its unit.
+        unit: &'static str,
+    },
 }
 
 /// A symmetric Cauchy stress tensor, stored in pascals, tension positive, in right-handed
@@ -166,6 +176,14 @@ impl StressTensor {
         for (value, comp) in components.iter().zip(Component::ALL) {
             if !value.is_finite() {
                 return Err(TensorError::NonFinite(comp));
+            }
+            let pa = unit.to_pa(*value);
+            if !pa.is_finite() || pa.abs() > MAX_STRESS_PA {
+                return Err(TensorError::OutOfRangeAfterConversion {
+                    component: comp,
+                    typed: *value,
+                    unit: unit.symbol(),
+                });
             }
         }
         Self::from_pa(components.map(|v| sign * unit.to_pa(v)))
@@ -274,7 +292,11 @@ mod tests {
         );
         assert_eq!(
             StressTensor::from_components([0.0, 0.0, 0.0, 0.0, 0.0, 1e300], StressUnit::Ksi, 1.0),
-            Err(TensorError::OutOfRange(Component::Zx))
+            Err(TensorError::OutOfRangeAfterConversion {
+                component: Component::Zx,
+                typed: 1e300,
+                unit: "ksi"
+            })
         );
     }
 
