@@ -465,9 +465,7 @@ fn case_section(
     options: &ReportOptions,
     notes: &mut Footnotes,
 ) -> Result<(), StudyError> {
-    let mut shown = project.clone();
-    name.clone_into(&mut shown.active);
-    let d = Derived::new(&shown);
+    let d = Derived::of(project, name);
     if let Some(problem) = &d.problem {
         return Err(StudyError::Invalid(problem.clone()));
     }

@@ -527,10 +527,9 @@ fn show_text(project: &Project) -> Result<String, CliError> {
         terminal_safe(&project.name)
     );
     let _ = writeln!(s, "Load cases:");
-    for case in &project.cases {
-        let t = project
-            .tensor(&case.name)
-            .map_err(|e| ArgError::new("FILE", e))?;
+    let tensors = project.all_tensors();
+    for (case, (_, _, t)) in project.cases.iter().zip(&tensors) {
+        let t = t.clone().map_err(|e| ArgError::new("FILE", e))?;
         let c = t
             .components_pa()
             .map(|v| sig(convention.sign() * unit.from_pa(v), 6));

@@ -54,9 +54,16 @@ impl Derived {
     /// Computes everything for the project's shown case or combination.
     #[must_use]
     pub fn new(project: &Project) -> Self {
+        Self::of(project, project.active_name().unwrap_or_default())
+    }
+
+    /// Computes everything for the case or combination `name` of `project` (whichever is
+    /// active): the report's way through every case without copying the project for each.
+    #[must_use]
+    pub fn of(project: &Project, name: &str) -> Self {
         let unit = project.unit().unwrap_or(StressUnit::MPa);
         let convention = project.convention();
-        let name = project.active_name().unwrap_or_default().to_owned();
+        let name = name.to_owned();
         let (tensor, problem) = match project.tensor(&name) {
             Ok(t) => (t, None),
             Err(e) => (StressTensor::default(), Some(e.to_string())),

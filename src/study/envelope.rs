@@ -440,9 +440,8 @@ pub fn envelope(
         strengths: &project.material.strengths,
     };
     let mut rows = Vec::new();
-    for (name, combination) in project.names() {
-        let tensor = project.tensor(name)?;
-        let v = ranking.evaluate(&tensor)?;
+    for (name, combination, tensor) in project.all_tensors() {
+        let v = ranking.evaluate(&tensor?)?;
         rows.push(EnvelopeRow {
             name: name.to_owned(),
             combination,

@@ -801,27 +801,28 @@ impl Project {
     }
 
     fn check_combination(&self, combination: &Combination) -> Result<(), StudyError> {
-        if combination.terms.is_empty() {
-            return Err(StudyError::Invalid(format!(
-                "combination '{}' has no terms",
-                combination.name
-            )));
-        }
-        for term in &combination.terms {
-            if !self.cases.iter().any(|c| c.name == term.case) {
-                return Err(StudyError::BadTerm {
-                    combination: combination.name.clone(),
-                    case: term.case.clone(),
-                });
-            }
-            if !term.factor.is_finite() {
-                return Err(StudyError::Invalid(format!(
-                    "combination '{}': the factor of '{}' is not a finite number",
-                    combination.name, term.case
-                )));
-            }
-        }
-        self.combination_tensor(combination).map(|_| ())
+        check_combination_with(combination, &self.case_index())
+    }
+
+    /// The load cases by name (for lookups in loops over many cases and combinations).
+    fn case_index(&self) -> std::collections::HashMap<&str, &LoadCase> {
+        self.cases.iter().map(|c| (c.name.as_str(), c)).collect()
+    }
+
+    /// Every case and combination with its tensor, cases first, in file order: one pass with a
+    /// name index (linear in the project's size, for listings and envelopes of big projects).
+    #[must_use]
+    pub fn all_tensors(&self) -> Vec<(&str, bool, Result<StressTensor, StudyError>)> {
+        let index = self.case_index();
+        self.cases
+            .iter()
+            .map(|c| (c.name.as_str(), false, case_tensor(c)))
+            .chain(
+                self.combinations
+                    .iter()
+                    .map(|c| (c.name.as_str(), true, combination_tensor_with(c, &index))),
+            )
+            .collect()
     }
 
     /// Checks everything a loaded file promises: unique names, valid tensors, combinations of
@@ -861,7 +862,7 @@ impl Project {
             a.validate()
                 .map_err(|e| StudyError::Invalid(format!("annotations[{i}].{e}")))?;
         }
-        let mut names: Vec<&str> = Vec::new();
+        let mut names: std::collections::HashSet<&str> = std::collections::HashSet::new();
         for name in self
             .cases
             .iter()
@@ -869,16 +870,16 @@ impl Project {
             .chain(self.combinations.iter().map(|c| c.name.as_str()))
         {
             check_name(name)?;
-            if names.contains(&name) {
+            if !names.insert(name) {
                 return Err(StudyError::Duplicate(name.to_owned()));
             }
-            names.push(name);
         }
         for case in &self.cases {
             case_tensor(case)?;
         }
+        let index = self.case_index();
         for combination in &self.combinations {
-            self.check_combination(combination)?;
+            check_combination_with(combination, &index)?;
         }
         Ok(())
     }
@@ -921,23 +922,7 @@ impl Project {
     }
 
     fn combination_tensor(&self, combination: &Combination) -> Result<StressTensor, StudyError> {
-        let mut sum = [0.0; 6];
-        for term in &combination.terms {
-            let case = self
-                .cases
-                .iter()
-                .find(|c| c.name == term.case)
-                .ok_or_else(|| StudyError::BadTerm {
-                    combination: combination.name.clone(),
-                    case: term.case.clone(),
-                })?;
-            let t = case_tensor(case)?.components_pa();
-            for (s, v) in sum.iter_mut().zip(t) {
-                *s += term.factor * v;
-            }
-        }
-        StressTensor::from_pa(sum)
-            .map_err(|e| StudyError::Invalid(format!("combination '{}': {e}", combination.name)))
+        combination_tensor_with(combination, &self.case_index())
     }
 
     /// Every case and combination name, cases first, in file order.
@@ -949,6 +934,57 @@ impl Project {
             .chain(self.combinations.iter().map(|c| (c.name.as_str(), true)))
             .collect()
     }
+}
+
+/// Checks a combination's terms (cases that exist, finite factors) and its tensor, the cases
+/// looked up in `index`.
+fn check_combination_with(
+    combination: &Combination,
+    index: &std::collections::HashMap<&str, &LoadCase>,
+) -> Result<(), StudyError> {
+    if combination.terms.is_empty() {
+        return Err(StudyError::Invalid(format!(
+            "combination '{}' has no terms",
+            combination.name
+        )));
+    }
+    for term in &combination.terms {
+        if !index.contains_key(term.case.as_str()) {
+            return Err(StudyError::BadTerm {
+                combination: combination.name.clone(),
+                case: term.case.clone(),
+            });
+        }
+        if !term.factor.is_finite() {
+            return Err(StudyError::Invalid(format!(
+                "combination '{}': the factor of '{}' is not a finite number",
+                combination.name, term.case
+            )));
+        }
+    }
+    combination_tensor_with(combination, index).map(|_| ())
+}
+
+/// Σ factor × case tensor, the cases looked up in `index`.
+fn combination_tensor_with(
+    combination: &Combination,
+    index: &std::collections::HashMap<&str, &LoadCase>,
+) -> Result<StressTensor, StudyError> {
+    let mut sum = [0.0; 6];
+    for term in &combination.terms {
+        let case = index
+            .get(term.case.as_str())
+            .ok_or_else(|| StudyError::BadTerm {
+                combination: combination.name.clone(),
+                case: term.case.clone(),
+            })?;
+        let t = case_tensor(case)?.components_pa();
+        for (s, v) in sum.iter_mut().zip(t) {
+            *s += term.factor * v;
+        }
+    }
+    StressTensor::from_pa(sum)
+        .map_err(|e| StudyError::Invalid(format!("combination '{}': {e}", combination.name)))
 }
 
 fn case_tensor(case: &LoadCase) -> Result<StressTensor, StudyError> {
