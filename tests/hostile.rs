@@ -751,3 +751,45 @@ fn messages_say_what_happened() {
     );
     assert!(String::from_utf8_lossy(&shown.stdout).contains("\\u{1b}"));
 }
+
+#[test]
+fn unknown_keys_survive_load_and_save_at_every_level() {
+    let file = demo_changed("unknown.json", |v| {
+        v["from_a_newer_version"] = serde_json::json!({"kept": [1, 2, 3]});
+        v["cases"][0]["colour"] = "red".into();
+        v["combinations"][0]["checked_by"] = "A. N. Other".into();
+        v["combinations"][0]["terms"][0]["source"] = "table 4".into();
+        v["material"]["grade"] = "S275 (invented)".into();
+        v["faults"] = serde_json::json!([{"name": "F", "dip_deg": 10.0, "dip_direction_deg": 20.0, "survey": 7}]);
+    });
+    let f = file.to_str().unwrap();
+    // One warning naming each.
+    let shown = common::planewise_ok(&["project", "show", f]);
+    let stderr = String::from_utf8_lossy(&shown.stderr);
+    assert_eq!(stderr.lines().count(), 1, "{stderr}");
+    for key in [
+        "from_a_newer_version",
+        "cases[0].colour",
+        "combinations[0].checked_by",
+        "combinations[0].terms[0].source",
+        "material.grade",
+        "faults[0].survey",
+    ] {
+        assert!(stderr.contains(key), "{key}: {stderr}");
+    }
+    // A command that rewrites the file keeps them.
+    common::planewise_ok(&[
+        "project", "add-case", f, "--name", "new", "--stress", "xx=1",
+    ]);
+    let v: serde_json::Value =
+        serde_json::from_str(&std::fs::read_to_string(&file).unwrap()).unwrap();
+    assert_eq!(
+        v["from_a_newer_version"],
+        serde_json::json!({"kept": [1, 2, 3]})
+    );
+    assert_eq!(v["cases"][0]["colour"], "red");
+    assert_eq!(v["combinations"][0]["checked_by"], "A. N. Other");
+    assert_eq!(v["combinations"][0]["terms"][0]["source"], "table 4");
+    assert_eq!(v["material"]["grade"], "S275 (invented)");
+    assert_eq!(v["faults"][0]["survey"], 7);
+}

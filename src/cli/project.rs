@@ -310,6 +310,7 @@ pub fn run(args: &ProjectArgs) -> Result<String, CliError> {
                 }
             };
             let case = LoadCase {
+                unknown: crate::study::model::UnknownKeys::new(),
                 name: a.name.trim().to_owned(),
                 description: a.description.clone(),
                 input,
@@ -356,6 +357,7 @@ pub fn run(args: &ProjectArgs) -> Result<String, CliError> {
                     ArgError::new("--factors", format!("factor of '{}' {e}", case.trim()))
                 })?;
                 terms.push(Term {
+                    unknown: crate::study::model::UnknownKeys::new(),
                     case: case.trim().to_owned(),
                     factor,
                 });
@@ -372,7 +374,14 @@ pub fn run(args: &ProjectArgs) -> Result<String, CliError> {
                 .into());
             }
             project
-                .add_combination(Combination { name, terms }, a.replace)
+                .add_combination(
+                    Combination {
+                        unknown: crate::study::model::UnknownKeys::new(),
+                        name,
+                        terms,
+                    },
+                    a.replace,
+                )
                 .map_err(|e| ArgError::new("--factors", e))?;
             save(&a.file, &project)?;
             Ok(format!("wrote {}\n", a.file.display()))

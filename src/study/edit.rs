@@ -162,6 +162,7 @@ impl Edit {
                 let name = p.unused_name("case");
                 let input = kind.blank(p.unit()?, p.compression_positive);
                 p.cases.push(LoadCase {
+                    unknown: crate::study::model::UnknownKeys::new(),
                     name: name.clone(),
                     description: String::new(),
                     input,
@@ -226,6 +227,7 @@ impl Edit {
                 let name = p.unused_name("case");
                 let unit = p.unit()?;
                 p.cases.push(LoadCase {
+                    unknown: crate::study::model::UnknownKeys::new(),
                     name: name.clone(),
                     description: String::new(),
                     input: CaseInput::Tensor(TypedTensor {
@@ -258,6 +260,7 @@ impl Edit {
                 let unit = p.unit()?;
                 let sign = p.convention().sign();
                 p.cases.push(LoadCase {
+                    unknown: crate::study::model::UnknownKeys::new(),
                     name: case_name.clone(),
                     description: format!("The summed tensor of '{name}', made a load case"),
                     input: CaseInput::Tensor(TypedTensor {
@@ -296,12 +299,14 @@ impl Edit {
                     .cases
                     .iter()
                     .map(|c| Term {
+                        unknown: crate::study::model::UnknownKeys::new(),
                         case: c.name.clone(),
                         factor: 1.0,
                     })
                     .collect();
                 p.add_combination(
                     Combination {
+                        unknown: crate::study::model::UnknownKeys::new(),
                         name: name.clone(),
                         terms,
                     },
@@ -315,6 +320,7 @@ impl Edit {
                 }
                 p.add_combination(
                     Combination {
+                        unknown: crate::study::model::UnknownKeys::new(),
                         name: name.clone(),
                         terms: terms.clone(),
                     },

@@ -26,6 +26,9 @@
 //! (no `pin`) and notes pinned to a figure's point (`"on"`: `mohr`, `pole` with a `normal`,
 //! `space` with an `at`).
 //!
+//! Keys this version does not know (at the top level, in a case, a combination, a term, the
+//! material or a fault) are kept as read and written back, and named in one warning.
+//!
 //! `active`, `plane`, `measure`, `material`, `faults` and `annotations` were added within
 //! version 1 and are optional (the first case, the x face and the shear measure when absent),
 //! so files written before them load.
@@ -50,24 +53,6 @@ pub const MAX_FILE_BYTES: u64 = 256 << 20;
 
 /// The planes' cohesion (Pa) and friction angle (degrees) that version 1 put in every project.
 const OLD_DEFAULT_PLANE_STRENGTH: (f64, f64) = (5e6, 30.0);
-
-/// Top-level keys this version knows; others are ignored with a warning.
-const KNOWN_KEYS: [&str; 14] = [
-    "format_version",
-    "name",
-    "unit",
-    "compression_positive",
-    "cases",
-    "combinations",
-    "notes",
-    "revision",
-    "active",
-    "plane",
-    "measure",
-    "material",
-    "faults",
-    "annotations",
-];
 
 #[derive(Serialize, Deserialize)]
 struct OnDisk {
@@ -176,13 +161,17 @@ pub fn load(path: &Path) -> Result<(Project, Vec<String>), FileError> {
             found: version,
         });
     }
-    let mut warnings: Vec<String> = object
-        .keys()
-        .filter(|k| !KNOWN_KEYS.contains(&k.as_str()))
-        .map(|k| format!("{}: unknown key '{k}' ignored", path.display()))
-        .collect();
+    let mut warnings: Vec<String> = Vec::new();
     let mut on_disk: OnDisk =
         serde_json::from_value(value).map_err(|e| malformed(e.to_string()))?;
+    let unknown = on_disk.project.unknown_keys();
+    if !unknown.is_empty() {
+        warnings.push(format!(
+            "{}: keys this version does not know are kept as they are and written back: {}",
+            path.display(),
+            unknown.join(", ")
+        ));
+    }
     let m = &mut on_disk.project.measure;
     if version < 2
         && (m.cohesion_pa, m.friction_angle_deg)

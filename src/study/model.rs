@@ -453,7 +453,14 @@ pub struct LoadCase {
     pub description: String,
     /// The stress.
     pub input: CaseInput,
+    /// Keys this version does not know, kept as read and written back.
+    #[serde(flatten, default, skip_serializing_if = "serde_json::Map::is_empty")]
+    pub unknown: UnknownKeys,
 }
+
+/// Keys of a project file this version of Planewise does not know (written by a newer one, or
+/// by hand): kept as they were read, written back on save, and named in one warning.
+pub type UnknownKeys = serde_json::Map<String, serde_json::Value>;
 
 /// One term of a combination: a load case times a factor.
 #[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
@@ -462,6 +469,9 @@ pub struct Term {
     pub case: String,
     /// The factor (any finite number; negative and zero allowed).
     pub factor: f64,
+    /// Keys this version does not know, kept as read.
+    #[serde(flatten, default, skip_serializing_if = "serde_json::Map::is_empty")]
+    pub unknown: UnknownKeys,
 }
 
 /// A factored combination Σ factor × case tensor.
@@ -471,6 +481,9 @@ pub struct Combination {
     pub name: String,
     /// The terms.
     pub terms: Vec<Term>,
+    /// Keys this version does not know, kept as read.
+    #[serde(flatten, default, skip_serializing_if = "serde_json::Map::is_empty")]
+    pub unknown: UnknownKeys,
 }
 
 /// The worst-plane measure and its parameters as the user set them (stresses in pascals).
@@ -554,6 +567,9 @@ pub struct Material {
     /// Strengths, Pa, and the Drucker–Prager fit.
     #[serde(flatten)]
     pub strengths: Strengths,
+    /// Keys this version does not know, kept as read.
+    #[serde(flatten, default, skip_serializing_if = "serde_json::Map::is_empty")]
+    pub unknown: UnknownKeys,
 }
 
 /// A named plane checked as a fault (a joint, a fault, a bedding plane…).
@@ -565,6 +581,9 @@ pub struct FaultPlane {
     pub dip_deg: f64,
     /// Dip direction, degrees clockwise from north.
     pub dip_direction_deg: f64,
+    /// Keys this version does not know, kept as read.
+    #[serde(flatten, default, skip_serializing_if = "serde_json::Map::is_empty")]
+    pub unknown: UnknownKeys,
 }
 
 impl FaultPlane {
@@ -629,6 +648,9 @@ pub struct Project {
     /// Captions and pinned notes on the figures, per load case or combination.
     #[serde(default, skip_serializing_if = "Vec::is_empty")]
     pub annotations: Vec<super::annotations::Annotation>,
+    /// Top-level keys this version does not know, kept as read and written back.
+    #[serde(flatten, default, skip_serializing_if = "serde_json::Map::is_empty")]
+    pub unknown: UnknownKeys,
 }
 
 fn default_unit() -> String {
@@ -678,7 +700,32 @@ impl Project {
             material: Material::default(),
             faults: Vec::new(),
             annotations: Vec::new(),
+            unknown: UnknownKeys::new(),
         }
+    }
+
+    /// Every key of the file this version does not know, with where it sits
+    /// (`cases[2].colour`), for the one warning a load gives.
+    #[must_use]
+    pub fn unknown_keys(&self) -> Vec<String> {
+        let mut out: Vec<String> = self.unknown.keys().cloned().collect();
+        let mut add = |place: String, map: &UnknownKeys| {
+            out.extend(map.keys().map(|k| format!("{place}.{k}")));
+        };
+        add("material".to_owned(), &self.material.unknown);
+        for (i, c) in self.cases.iter().enumerate() {
+            add(format!("cases[{i}]"), &c.unknown);
+        }
+        for (i, c) in self.combinations.iter().enumerate() {
+            add(format!("combinations[{i}]"), &c.unknown);
+            for (j, t) in c.terms.iter().enumerate() {
+                add(format!("combinations[{i}].terms[{j}]"), &t.unknown);
+            }
+        }
+        for (i, f) in self.faults.iter().enumerate() {
+            add(format!("faults[{i}]"), &f.unknown);
+        }
+        out
     }
 
     /// The built-in demo project (an invented scenario, said so in its name and notes).

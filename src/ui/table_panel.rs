@@ -600,6 +600,7 @@ impl TablePanel {
             let psign = d.convention.sign();
             out.push(Command::Edit {
                 edit: Edit::AddTableRow(LoadCase {
+                    unknown: crate::study::model::UnknownKeys::new(),
                     name,
                     description: format!(
                         "From {}, line {}{}",
