@@ -872,3 +872,13 @@ fn an_unreadable_working_copy_is_kept_aside_and_said() {
     );
     assert!(app.recovery.is_none());
 }
+
+/// The Envelope tab counts each condition, as batch and the Table tab do.
+#[test]
+fn the_envelope_tab_counts_conditions() {
+    let mut h = demo();
+    h.state_mut().settings.central = planewise::session::Central::Envelope;
+    h.run();
+    // The invented demo: three cases and two combinations, all with a von Mises value.
+    assert!(h.query_by_label("5 rows: 5 with a value").is_some());
+}

@@ -3,8 +3,6 @@
 
 use crate::draw::map::MapMeasure;
 use crate::format::dip_text;
-use crate::mechanics::criteria::Condition;
-use crate::mechanics::search::WorstCondition;
 use crate::session::{Command, Settings};
 use crate::study::{Derived, Edit, Envelope, EnvelopeMeasure, Project, envelope};
 
@@ -117,6 +115,8 @@ impl EnvelopePanel {
                 return;
             }
         };
+        ui.small(env.counts.text("rows"))
+            .on_hover_text("Failing at any scale or without frictional capacity ranks worst, above every number; never reaching the surface ranks best; then undefined, then not checked");
         let table = crate::results::TextTable {
             title: format!(
                 "Planewise envelope of {}, {}",
@@ -143,7 +143,10 @@ impl EnvelopePanel {
                             (crate::format::sig(d.unit.from_pa(v), 6), d.unit.to_string())
                         }
                         Some(v) => (crate::format::sig(v, 6), String::new()),
-                        None => ("undefined".to_owned(), String::new()),
+                        None => (
+                            crate::results::standing_word(r.standing()).to_owned(),
+                            String::new(),
+                        ),
                     };
                     let kind = if r.combination {
                         "combination"
@@ -214,25 +217,13 @@ impl EnvelopePanel {
                         } else {
                             "load case"
                         });
-                        match (row.value, row.condition) {
-                            (Some(v), _) => {
+                        // One rule for every ranking's words (study::envelope::standing_text).
+                        match row.value {
+                            Some(v) => {
                                 ui.monospace(value_text(v));
                             }
-                            (None, Some(WorstCondition::EffectiveTension)) => {
-                                ui.label("no frictional capacity (effective tension)");
-                            }
-                            (None, None) if row.verdict.is_some() => {
-                                ui.label(match row.verdict {
-                                    Some(Condition::NotChecked) => {
-                                        "not checked (material lacks the strengths)"
-                                    }
-                                    Some(Condition::NeverReaches) => "never reaches the surface",
-                                    Some(Condition::FailsAtAnyScale) => "fails at any scale",
-                                    _ => "undefined",
-                                });
-                            }
-                            (None, _) => {
-                                ui.label("undefined");
+                            None => {
+                                ui.label(crate::study::envelope::standing_text(row.standing()));
                             }
                         }
                         let color = if governs {
