@@ -432,6 +432,16 @@ fn rankings_put_failing_states_first_and_never_reaching_states_last() {
     assert_eq!(ids(&j), ["C"], "{j}");
 }
 
+/// The envelope's row names, worst first.
+fn row_names(j: &serde_json::Value) -> Vec<&str> {
+    j["rows"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .map(|r| r["name"].as_str().unwrap())
+        .collect()
+}
+
 #[test]
 fn the_envelope_ranks_by_the_same_rule() {
     let file = temp("ranked.json");
@@ -456,12 +466,7 @@ fn the_envelope_ranks_by_the_same_rule() {
         "slip-tendency",
         "--json",
     ]);
-    let names: Vec<&str> = j["rows"]
-        .as_array()
-        .unwrap()
-        .iter()
-        .map(|r| r["name"].as_str().unwrap())
-        .collect();
+    let names = row_names(&j);
     assert_eq!(names[0], "B", "{j}");
     assert_eq!(j["governing"], "B");
     assert_eq!(*names.last().unwrap(), "D", "no shear, least: {j}");
@@ -478,12 +483,7 @@ fn the_envelope_ranks_by_the_same_rule() {
         "30",
         "--json",
     ]);
-    let names: Vec<&str> = j["rows"]
-        .as_array()
-        .unwrap()
-        .iter()
-        .map(|r| r["name"].as_str().unwrap())
-        .collect();
+    let names = row_names(&j);
     assert_eq!(names, ["B", "C", "A", "D"], "{j}");
     assert_eq!(j["conditions"]["fails_at_any_scale"], 2);
     assert_eq!(j["conditions"]["never_reaches"], 1);
