@@ -157,6 +157,12 @@ pub fn to_svg(frame: &Frame, title: &str) -> String {
         }
     }
     s.push_str("</svg>\n");
+    // In debug builds (every test run, and the binary the tests drive) each SVG written is read
+    // back by a strict XML parser: a character XML forbids cannot slip through unnoticed.
+    debug_assert!(
+        resvg::usvg::roxmltree::Document::parse(&s).is_ok(),
+        "the SVG written is not well-formed XML"
+    );
     s
 }
 
