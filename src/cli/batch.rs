@@ -486,7 +486,7 @@ fn to_csv(ranked: &Ranked, json: &BatchJson, rank: EnvelopeMeasure) -> String {
         if own_column {
             cells.push(row.value.map_or_else(String::new, |v| format!("{v}")));
         }
-        cells.push(condition_key(row.condition).to_owned());
+        cells.push(row.condition.key().to_owned());
         if let Some([dip, dd]) = row.plane {
             cells.push(format!("{dip}"));
             cells.push(format!("{dd}"));
@@ -496,17 +496,4 @@ fn to_csv(ranked: &Ranked, json: &BatchJson, rank: EnvelopeMeasure) -> String {
         let _ = writeln!(s, "{}", cells.join(","));
     }
     s
-}
-
-/// The condition's key as written in JSON (kebab case).
-fn condition_key(c: crate::mechanics::criteria::Condition) -> &'static str {
-    use crate::mechanics::criteria::Condition;
-    match c {
-        Condition::Defined => "defined",
-        Condition::NotChecked => "not-checked",
-        Condition::NeverReaches => "never-reaches",
-        Condition::FailsAtAnyScale => "fails-at-any-scale",
-        Condition::EffectiveTension => "effective-tension",
-        Condition::Undefined => "undefined",
-    }
 }

@@ -57,6 +57,21 @@ pub enum Condition {
     Undefined,
 }
 
+impl Condition {
+    /// The key, as JSON and CSV outputs write it (the serde name).
+    #[must_use]
+    pub fn key(self) -> &'static str {
+        match self {
+            Self::Defined => "defined",
+            Self::NotChecked => "not-checked",
+            Self::NeverReaches => "never-reaches",
+            Self::FailsAtAnyScale => "fails-at-any-scale",
+            Self::EffectiveTension => "effective-tension",
+            Self::Undefined => "undefined",
+        }
+    }
+}
+
 /// The result of checking one criterion or measure.
 #[derive(Clone, Copy, Debug, PartialEq)]
 pub struct Check {
@@ -939,4 +954,23 @@ pub fn fault_check(
         pore_pressure_to_slip_pa: to_slip,
         rake_deg: PlaneStress::new(t, normal, SignConvention::TensionPositive).rake_deg(),
     })
+}
+
+#[cfg(test)]
+mod tests {
+    use super::Condition;
+
+    #[test]
+    fn condition_keys_are_the_serde_names() {
+        for c in [
+            Condition::Defined,
+            Condition::NotChecked,
+            Condition::NeverReaches,
+            Condition::FailsAtAnyScale,
+            Condition::EffectiveTension,
+            Condition::Undefined,
+        ] {
+            assert_eq!(serde_json::to_value(c).ok(), Some(c.key().into()));
+        }
+    }
 }
