@@ -670,8 +670,11 @@ fn the_walkthrough_steps_with_the_keys_and_shows_each_steps_plane_and_view() {
 /// Waits (up to a few seconds of real time) for the Table tab's background read to end.
 fn wait_for_table(h: &mut Harness<'static, PlanewiseApp>) {
     for _ in 0..200 {
-        h.run();
+        // While the read runs the tab repaints for its progress bar: step frame by frame
+        // (`run` would insist on settling), and settle once the read has ended.
+        h.step();
         if !h.state().table_panel.reading() {
+            h.run();
             return;
         }
         std::thread::sleep(std::time::Duration::from_millis(20));
