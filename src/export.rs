@@ -1,7 +1,6 @@
 //! Writing exported files: format from the file name, written atomically (a temporary file in
 //! the same folder, then a rename) so a failed export never leaves half a file behind.
 
-use std::io::Write as _;
 use std::path::{Path, PathBuf};
 
 use crate::draw::{Anchor, Frame, Prim, png, svg};
@@ -119,6 +118,15 @@ pub fn encode(frame: &Frame, format: ImageFormat, title: &str) -> Result<Vec<u8>
 /// file or anything that is not a regular file (a device, a pipe) is refused and left as it was;
 /// temporaries that killed writes left beside the file are removed.
 pub fn write_atomic(path: &Path, bytes: &[u8]) -> Result<(), ExportError> {
+    write_atomic_with(path, |w| w.write_all(bytes))
+}
+
+/// [`write_atomic`] with the content written by `write` (through a buffer), for outputs made
+/// as they are written instead of held whole; an error from `write` leaves the old file.
+pub fn write_atomic_with(
+    path: &Path,
+    write: impl FnOnce(&mut dyn std::io::Write) -> std::io::Result<()>,
+) -> Result<(), ExportError> {
     let refuse = |why: String| ExportError::Io {
         path: path.to_owned(),
         cause: std::io::Error::other(why),
@@ -161,8 +169,12 @@ pub fn write_atomic(path: &Path, bytes: &[u8]) -> Result<(), ExportError> {
         .map_or_else(|| "figure".into(), |n| n.to_string_lossy().into_owned());
     remove_stale_temporaries(dir, &name);
     let tmp = dir.join(format!(".{name}.{}.tmp", std::process::id()));
-    let result = std::fs::File::create(&tmp).and_then(|mut f| {
-        f.write_all(bytes)?;
+    let result = std::fs::File::create(&tmp).and_then(|f| {
+        let mut buffered = std::io::BufWriter::with_capacity(1 << 16, f);
+        write(&mut buffered)?;
+        let f = buffered
+            .into_inner()
+            .map_err(std::io::IntoInnerError::into_error)?;
         // The replaced file's permissions carry over to the new one.
         if let Some(m) = &existing {
             f.set_permissions(m.permissions())?;

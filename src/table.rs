@@ -16,7 +16,7 @@
 //! parallel (rayon). Quoted fields may hold delimiters and quotes but not line breaks.
 
 use std::collections::BinaryHeap;
-use std::io::Read;
+use std::io::{Read, Seek};
 
 use rayon::prelude::*;
 
@@ -65,6 +65,10 @@ pub struct TableOptions {
     pub skip_bad_rows: bool,
     /// Keep only the N worst rows (`None`: all, sorted).
     pub top: Option<usize>,
+    /// With `top: None`: keep of each row only its key and where it is in the file (40 bytes a
+    /// row, [`Place`]) instead of the row itself; [`Ranked::ordered`] then reads the rows again
+    /// from the file, worst first. For rankings of every row of tables larger than memory.
+    pub by_place: bool,
     /// Keep only the rows at or beyond this value (the measure's value: Pa for stresses, in the
     /// table's convention; else dimensionless); rows failing at any scale or without frictional
     /// capacity always are.
@@ -83,6 +87,7 @@ impl TableOptions {
             decimal_comma: false,
             skip_bad_rows: false,
             top: None,
+            by_place: false,
             above: None,
         }
     }
@@ -118,6 +123,19 @@ pub struct Row {
     /// How the value reads: a number, or why not (fails at any scale, no frictional capacity,
     /// never reaches the surface, undefined).
     pub standing: Condition,
+}
+
+/// Where a kept row is in the file, with its rank key: all that a full ranking holds per row
+/// with [`TableOptions::by_place`] (40 bytes).
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct Place {
+    key: RankKey,
+    /// Line number (1-based).
+    line: u64,
+    /// Byte offset of the line's start in the file.
+    offset: u64,
+    /// The line's length in bytes (without its line end).
+    len: u32,
 }
 
 /// A row that could not be read.
@@ -177,6 +195,16 @@ pub enum TableError {
     /// Stopped by the caller.
     #[error("cancelled")]
     Cancelled,
+    /// A row read again for the output no longer reads as it did when it was ranked.
+    #[error(
+        "{file}:{line}: the file changed while it was ranked (this row now reads differently); the output is incomplete"
+    )]
+    Changed {
+        /// The file's name as given.
+        file: String,
+        /// Line number.
+        line: u64,
+    },
 }
 
 /// The outcome of ranking a table.
@@ -184,8 +212,11 @@ pub enum TableError {
 pub struct Ranked {
     /// The header.
     pub header: Header,
-    /// Rows, worst first (the top N, or all).
+    /// Rows, worst first (the top N, or all); empty with [`TableOptions::by_place`], where
+    /// [`Ranked::ordered`] reads them.
     pub rows: Vec<Row>,
+    /// With [`TableOptions::by_place`]: where every kept row is, worst first.
+    pub places: Vec<Place>,
     /// Rows read (good ones).
     pub total_rows: u64,
     /// Bad rows skipped (with `skip_bad_rows`).
@@ -199,6 +230,63 @@ pub struct Ranked {
     /// The last line has no line end: the file may have been cut short (its last row was read
     /// as it stands).
     pub unterminated: bool,
+}
+
+impl Ranked {
+    /// How many rows are kept (the top N, or all).
+    #[must_use]
+    pub fn kept(&self) -> usize {
+        self.rows.len() + self.places.len()
+    }
+
+    /// The kept rows, worst first. With [`TableOptions::by_place`] each is read again from
+    /// `source` (the file that was ranked, `file` in messages) and checked against its rank key;
+    /// otherwise they are the rows held.
+    pub fn ordered<'a>(
+        &'a self,
+        source: Option<&'a std::fs::File>,
+        file: &'a str,
+        options: &'a TableOptions,
+        measure: &'a Measure<'a>,
+    ) -> impl Iterator<Item = Result<Row, TableError>> + 'a {
+        let held = self.rows.iter().cloned().map(Ok);
+        let mut bytes = Vec::new();
+        let read_again = self.places.iter().map(move |p| {
+            let changed = || TableError::Changed {
+                file: file.to_owned(),
+                line: p.line,
+            };
+            let io = |cause| TableError::Io {
+                file: file.to_owned(),
+                cause,
+            };
+            let mut f = source.ok_or_else(changed)?;
+            bytes.resize(p.len as usize, 0);
+            f.seek(std::io::SeekFrom::Start(p.offset)).map_err(io)?;
+            f.read_exact(&mut bytes).map_err(io)?;
+            let mut fields = Vec::new();
+            split(&bytes, self.header.delimiter, &mut fields);
+            let mut row = read_row(
+                &fields,
+                p.line,
+                &self.header,
+                options,
+                measure.convention,
+                true,
+            )
+            .map_err(|_| changed())?;
+            let evaluated = measure
+                .evaluate(&row.tensor)
+                .map_err(|e| TableError::Measure(e.to_string()))?;
+            if measure.key(&evaluated) != p.key {
+                return Err(changed());
+            }
+            row.value = evaluated.value;
+            row.standing = evaluated.standing();
+            Ok(row)
+        });
+        held.chain(read_again)
+    }
 }
 
 /// How many bad rows are kept to report.
@@ -235,10 +323,11 @@ impl Ord for Keyed {
     }
 }
 
-/// Rows kept so far: a bounded heap for the top N, or everything.
+/// Rows kept so far: a bounded heap for the top N, every row, or every row's place.
 struct Kept {
     limit: Option<usize>,
     heap: BinaryHeap<Keyed>,
+    places: Vec<Place>,
 }
 
 impl Kept {
@@ -246,6 +335,7 @@ impl Kept {
         Self {
             limit,
             heap: BinaryHeap::new(),
+            places: Vec::new(),
         }
     }
 
@@ -267,15 +357,20 @@ impl Kept {
         for item in other.heap {
             self.push(item);
         }
+        self.places.extend(other.places);
     }
 
-    /// Worst first.
-    fn into_rows(self) -> Vec<Row> {
-        self.heap
+    /// Worst first (and among equals the earlier line first): the rows, and the places.
+    fn into_ranked(mut self) -> (Vec<Row>, Vec<Place>) {
+        self.places
+            .sort_unstable_by(|a, b| b.key.cmp(&a.key).then(a.line.cmp(&b.line)));
+        let rows = self
+            .heap
             .into_sorted_vec()
             .into_iter()
             .map(|k| k.row)
-            .collect()
+            .collect();
+        (rows, self.places)
     }
 }
 
@@ -479,10 +574,86 @@ struct Part {
     at_or_beyond: u64,
 }
 
-/// Parses the lines of `bytes` (whole lines), the first being line `first_line`.
+/// One row's fields read: the components converted to pascals, tension positive, and (with
+/// `carry`) the carried columns' text; the measure is not yet evaluated.
+fn read_row(
+    fields: &[std::borrow::Cow<'_, [u8]>],
+    number: u64,
+    header: &Header,
+    options: &TableOptions,
+    convention: SignConvention,
+    carry: bool,
+) -> Result<Row, BadRow> {
+    let width = header.names.len();
+    let to_pa = |v: f64| convention.sign() * options.unit.to_pa(v);
+    let fail = |column: Option<usize>, message: String| BadRow {
+        line: number,
+        column,
+        message,
+    };
+    if fields.len() != width {
+        return Err(fail(
+            None,
+            format!("{} fields, but the header has {width}", fields.len()),
+        ));
+    }
+    let mut c = [0.0; 6];
+    for (k, &i) in header.components.iter().enumerate() {
+        let raw = trim(&fields[i]);
+        let raw = raw
+            .strip_prefix(b"\"")
+            .and_then(|r| r.strip_suffix(b"\""))
+            .unwrap_or(raw);
+        let parsed = if options.decimal_comma {
+            let swapped: Vec<u8> = raw
+                .iter()
+                .map(|&b| if b == b',' { b'.' } else { b })
+                .collect();
+            fast_float2::parse::<f64, _>(&swapped)
+        } else {
+            fast_float2::parse::<f64, _>(raw)
+        };
+        let text = || String::from_utf8_lossy(raw).into_owned();
+        match parsed {
+            Ok(v) if v.is_finite() => c[k] = to_pa(v),
+            Ok(_) => {
+                return Err(fail(
+                    Some(i + 1),
+                    format!("{} = \"{}\" is not a finite number", COMPONENTS[k], text()),
+                ));
+            }
+            Err(_) if raw.is_empty() => {
+                return Err(fail(Some(i + 1), format!("{} is empty", COMPONENTS[k])));
+            }
+            Err(_) => {
+                return Err(fail(Some(i + 1), format!("\"{}\" is not a number", text())));
+            }
+        }
+    }
+    let tensor = StressTensor::from_pa(c).map_err(|e| fail(None, e.to_string()))?;
+    Ok(Row {
+        line: number,
+        carried: if carry {
+            header
+                .carried
+                .iter()
+                .map(|&i| String::from_utf8_lossy(trim(&fields[i])).into_owned())
+                .collect()
+        } else {
+            Vec::new()
+        },
+        tensor,
+        value: None,
+        standing: Condition::Undefined,
+    })
+}
+
+/// Parses the lines of `bytes` (whole lines), the first being line `first_line` at byte
+/// `base` of the file.
 fn parse_part(
     bytes: &[u8],
     first_line: u64,
+    base: u64,
     header: &Header,
     options: &TableOptions,
     measure: &Measure<'_>,
@@ -499,72 +670,31 @@ fn parse_part(
         .above
         .map(|v| RankKey::threshold(measure.measure, v));
     let mut fields = Vec::new();
-    let width = header.names.len();
-    let to_pa = |v: f64| measure.convention.sign() * options.unit.to_pa(v);
+    let by_place = options.by_place && options.top.is_none();
     for (k, line) in bytes.split(|b| *b == b'\n').enumerate() {
         let number = first_line + k as u64;
         if skipped(line) {
             continue;
         }
         split(line, header.delimiter, &mut fields);
-        let fail = |column: Option<usize>, message: String| BadRow {
-            line: number,
-            column,
-            message,
-        };
-        let result: Result<Row, BadRow> = (|| {
-            if fields.len() != width {
-                return Err(fail(
-                    None,
-                    format!("{} fields, but the header has {width}", fields.len()),
-                ));
-            }
-            let mut c = [0.0; 6];
-            for (k, &i) in header.components.iter().enumerate() {
-                let raw = trim(&fields[i]);
-                let raw = raw
-                    .strip_prefix(b"\"")
-                    .and_then(|r| r.strip_suffix(b"\""))
-                    .unwrap_or(raw);
-                let parsed = if options.decimal_comma {
-                    let swapped: Vec<u8> = raw
-                        .iter()
-                        .map(|&b| if b == b',' { b'.' } else { b })
-                        .collect();
-                    fast_float2::parse::<f64, _>(&swapped)
-                } else {
-                    fast_float2::parse::<f64, _>(raw)
-                };
-                let text = || String::from_utf8_lossy(raw).into_owned();
-                match parsed {
-                    Ok(v) if v.is_finite() => c[k] = to_pa(v),
-                    Ok(_) => {
-                        return Err(fail(
-                            Some(i + 1),
-                            format!("{} = \"{}\" is not a finite number", COMPONENTS[k], text()),
-                        ));
-                    }
-                    Err(_) if raw.is_empty() => {
-                        return Err(fail(Some(i + 1), format!("{} is empty", COMPONENTS[k])));
-                    }
-                    Err(_) => {
-                        return Err(fail(Some(i + 1), format!("\"{}\" is not a number", text())));
-                    }
-                }
-            }
-            let tensor = StressTensor::from_pa(c).map_err(|e| fail(None, e.to_string()))?;
-            Ok(Row {
+        let mut result = read_row(
+            &fields,
+            number,
+            header,
+            options,
+            measure.convention,
+            !by_place,
+        );
+        // Where the line is (its line end, a '\r' included, is left out when it is read again).
+        let offset = base + (line.as_ptr() as usize - bytes.as_ptr() as usize) as u64;
+        let len = u32::try_from(line.len()).unwrap_or(u32::MAX);
+        if by_place && len == u32::MAX {
+            result = Err(BadRow {
                 line: number,
-                carried: header
-                    .carried
-                    .iter()
-                    .map(|&i| String::from_utf8_lossy(trim(&fields[i])).into_owned())
-                    .collect(),
-                tensor,
-                value: None,
-                standing: Condition::Undefined,
-            })
-        })();
+                column: None,
+                message: "the line is longer than 4 GiB".to_owned(),
+            });
+        }
         match result {
             Ok(mut row) => {
                 let evaluated = measure.evaluate(&row.tensor).map_err(|e| e.to_string())?;
@@ -579,7 +709,16 @@ fn parse_part(
                     }
                     part.at_or_beyond += 1;
                 }
-                part.kept.push(Keyed { key, row });
+                if by_place {
+                    part.kept.places.push(Place {
+                        key,
+                        line: number,
+                        offset,
+                        len,
+                    });
+                } else {
+                    part.kept.push(Keyed { key, row });
+                }
             }
             Err(bad) => {
                 part.bad_count += 1;
@@ -613,6 +752,8 @@ pub fn rank(
     };
     let mut buffer: Vec<u8> = Vec::with_capacity(BLOCK + 4096);
     let mut read_total = 0u64;
+    // Bytes of the source before the buffer's first byte.
+    let mut drained = 0u64;
     let mut next_line = 1u64;
     let mut header_found: Option<Header> = None;
     let mut kept = Kept::new(options.top);
@@ -671,12 +812,13 @@ pub fn rank(
             }
         }
         let Some(h) = &header_found else {
-            let consumed = end;
-            buffer.drain(..consumed);
+            buffer.drain(..end);
+            drained += end as u64;
             continue;
         };
-        // Parts of about equal size, cut at line ends, with their first line numbers.
-        let mut parts: Vec<(&[u8], u64)> = Vec::new();
+        // Parts of about equal size, cut at line ends, with their first line numbers and where
+        // they start in the source.
+        let mut parts: Vec<(&[u8], u64, u64)> = Vec::new();
         let target = (block.len() / (threads * 4)).max(64 << 10);
         let mut rest = block;
         let mut line = next_line;
@@ -690,14 +832,15 @@ pub fn rank(
             // A part ends with '\n', so its last split piece is empty: lines = count of '\n'.
             let lines = memchr::memchr_iter(b'\n', part).count() as u64;
             let part = part.strip_suffix(b"\n").unwrap_or(part);
-            parts.push((part, line));
+            let at = drained + (part.as_ptr() as usize - buffer.as_ptr() as usize) as u64;
+            parts.push((part, line, at));
             line += lines.max(1);
             rest = tail;
         }
         next_line = line;
         let results: Vec<Result<Part, String>> = parts
             .par_iter()
-            .map(|(bytes, first)| parse_part(bytes, *first, h, options, measure))
+            .map(|(bytes, first, at)| parse_part(bytes, *first, *at, h, options, measure))
             .collect();
         for r in results {
             let part = r.map_err(TableError::Measure)?;
@@ -719,15 +862,18 @@ pub fn rank(
             });
         }
         buffer.drain(..end);
+        drained += end as u64;
     }
     let header = header_found.ok_or_else(|| TableError::Header {
         file: file.to_owned(),
         line: next_line.saturating_sub(1).max(1),
         message: "no header row: the table is empty".to_owned(),
     })?;
+    let (rows, places) = kept.into_ranked();
     Ok(Ranked {
         header,
-        rows: kept.into_rows(),
+        rows,
+        places,
         total_rows,
         bad_count,
         bad,

@@ -245,16 +245,22 @@ fn every_bad_row_is_located_and_nothing_is_written() {
     );
 }
 
-fn rank_text(text: &[u8], options: &TableOptions) -> Result<planewise::table::Ranked, String> {
+/// `f` given the von Mises ranking measure in `convention`.
+fn with_von_mises<T>(convention: SignConvention, f: impl FnOnce(&Measure<'_>) -> T) -> T {
     let settings = SearchSettings::plain(PlaneMeasure::Shear, SignConvention::TensionPositive);
     let strengths = Strengths::default();
-    let measure = Measure {
+    f(&Measure {
         measure: EnvelopeMeasure::VonMises,
-        convention: options.convention,
+        convention,
         plane_settings: &settings,
         strengths: &strengths,
-    };
-    rank(text, "t.csv", options, &measure, |_| true).map_err(|e| e.to_string())
+    })
+}
+
+fn rank_text(text: &[u8], options: &TableOptions) -> Result<planewise::table::Ranked, String> {
+    with_von_mises(options.convention, |measure| {
+        rank(text, "t.csv", options, measure, |_| true).map_err(|e| e.to_string())
+    })
 }
 
 fn options() -> TableOptions {
@@ -341,6 +347,135 @@ fn standard_input_reads_like_a_file() {
     assert_eq!(v["file"], "standard input");
     assert_eq!(v["unit"], "kPa");
     assert_eq!(v["rows"].as_array().unwrap().len(), 2);
+}
+
+/// A full ranking by place against the same ranking held whole, on a table that spans several
+/// of the reader's 8 MB blocks, in the text forms that move byte offsets (a BOM, comments,
+/// CRLF, blank lines, quoted carried fields with delimiters) and with equal rows (ties keep file
+/// order).
+#[test]
+fn a_full_ranking_by_place_reads_the_rows_held_whole() {
+    let path = temp("places.csv");
+    // Every row gets the same number of fields: the quoted field replaces x.
+    let (text, _) = table(300_000);
+    let mut out = String::from("\u{feff}# invented rows for a test\r\n\r\n");
+    for (k, line) in text.lines().enumerate() {
+        if k > 0 && k % 1000 == 0 {
+            out.push_str("# a comment\r\n\r\n");
+        }
+        let line = if k > 0 && k % 7 == 0 {
+            let (id, rest) = line.split_once(',').unwrap();
+            let (_, rest) = rest.split_once(',').unwrap();
+            format!("{id},\"a, \"\"quoted\"\" x\",{rest}")
+        } else {
+            line.to_owned()
+        };
+        out.push_str(&line);
+        out.push_str("\r\n");
+        if k % 5000 == 1 {
+            out.push_str(&line);
+            out.push_str("\r\n");
+        }
+    }
+    assert!(out.len() > 2 * (8 << 20), "the table spans several blocks");
+    std::fs::write(&path, &out).unwrap();
+    with_von_mises(SignConvention::TensionPositive, |measure| {
+        by_place_against_held(&path, &out, measure);
+    });
+}
+
+fn by_place_against_held(path: &std::path::Path, out: &str, measure: &Measure<'_>) {
+    let held_options = options();
+    let place_options = TableOptions {
+        by_place: true,
+        ..options()
+    };
+    let file = std::fs::File::open(path).unwrap();
+    let held = rank(&file, "places.csv", &held_options, measure, |_| true).unwrap();
+    let file = std::fs::File::open(path).unwrap();
+    let placed = rank(&file, "places.csv", &place_options, measure, |_| true).unwrap();
+    assert!(placed.rows.is_empty());
+    assert_eq!(placed.kept(), held.kept());
+    assert_eq!(placed.counts, held.counts);
+    let again: Vec<_> = placed
+        .ordered(Some(&file), "places.csv", &place_options, measure)
+        .map(Result::unwrap)
+        .collect();
+    assert_eq!(again, held.rows, "the same rows, in the same order");
+    assert!(again.iter().any(|r| r.carried[1] == "a, \"quoted\" x"));
+
+    // The file changed between the ranking and the output: said, never written as if nothing
+    // happened.
+    let worst = &again[0];
+    let mut bytes = std::fs::read(path).unwrap();
+    let start = out
+        .match_indices("\r\n")
+        .nth(usize::try_from(worst.line).unwrap() - 2)
+        .map(|(i, _)| i + 2)
+        .unwrap();
+    // The last digit of the row's zx: the same length, another value.
+    let digit = start + out[start..].find("\r\n").unwrap() - 1;
+    bytes[digit] = if bytes[digit] == b'1' { b'2' } else { b'1' };
+    std::fs::write(path, &bytes).unwrap();
+    let first = placed
+        .ordered(Some(&file), "places.csv", &place_options, measure)
+        .next()
+        .unwrap();
+    let message = first.unwrap_err().to_string();
+    assert!(
+        message.contains(&format!(
+            "places.csv:{}: the file changed while it was ranked",
+            worst.line
+        )),
+        "{message}"
+    );
+}
+
+#[test]
+fn a_full_ranking_of_standard_input_writes_what_the_file_gives() {
+    let path = temp("full-stdin.csv");
+    let (text, _) = table(3_000);
+    std::fs::write(&path, &text).unwrap();
+    let file = path.to_str().unwrap();
+    for extra in [&[][..], &["--json"][..]] {
+        let mut args = vec![
+            "batch",
+            "-",
+            "--unit",
+            "MPa",
+            "--rank",
+            "von-mises",
+            "--quiet",
+        ];
+        args.extend(extra);
+        let mut child = std::process::Command::new(env!("CARGO_BIN_EXE_planewise"))
+            .args(&args)
+            .stdin(std::process::Stdio::piped())
+            .stdout(std::process::Stdio::piped())
+            .spawn()
+            .unwrap();
+        let mut stdin = child.stdin.take().unwrap();
+        let body = text.clone();
+        let writer = std::thread::spawn(move || {
+            use std::io::Write;
+            stdin.write_all(body.as_bytes()).unwrap();
+        });
+        let piped = child.wait_with_output().unwrap();
+        writer.join().unwrap();
+        assert!(piped.status.success());
+        args[1] = file;
+        let from_file = planewise_ok(&args);
+        let piped = String::from_utf8(piped.stdout).unwrap();
+        let from_file = String::from_utf8(from_file.stdout).unwrap();
+        assert_eq!(
+            piped.replace("\"standard input\"", "FILE"),
+            from_file.replace(&format!("{file:?}"), "FILE"),
+            "{extra:?}"
+        );
+        if extra.is_empty() {
+            assert_eq!(piped.lines().count(), 3_001, "a header and every row");
+        }
+    }
 }
 
 proptest! {

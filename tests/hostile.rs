@@ -761,6 +761,13 @@ fn unknown_keys_survive_load_and_save_at_every_level() {
         v["combinations"][0]["terms"][0]["source"] = "table 4".into();
         v["material"]["grade"] = "S275 (invented)".into();
         v["faults"] = serde_json::json!([{"name": "F", "dip_deg": 10.0, "dip_direction_deg": 20.0, "survey": 7}]);
+        // Inside objects without a map of their own: a case's input, the measure, a note and
+        // its pin.
+        v["cases"][1]["input"]["gauge"] = "G-12".into();
+        v["measure"] =
+            serde_json::json!({"measure": "shear", "pore_pressure_pa": 0.0, "smoothing": 3});
+        v["annotations"][0]["layer"] = 2.into();
+        v["annotations"][0]["pin"] = serde_json::json!({"on": "mohr", "normal_stress_pa": 1.0, "shear_stress_pa": 2.0, "marker": "star"});
     });
     let f = file.to_str().unwrap();
     // One warning naming each.
@@ -774,6 +781,10 @@ fn unknown_keys_survive_load_and_save_at_every_level() {
         "combinations[0].terms[0].source",
         "material.grade",
         "faults[0].survey",
+        "cases[\"live\"].input.gauge",
+        "measure.smoothing",
+        "annotations[0].layer",
+        "annotations[0].pin.marker",
     ] {
         assert!(stderr.contains(key), "{key}: {stderr}");
     }
@@ -792,4 +803,39 @@ fn unknown_keys_survive_load_and_save_at_every_level() {
     assert_eq!(v["combinations"][0]["terms"][0]["source"], "table 4");
     assert_eq!(v["material"]["grade"], "S275 (invented)");
     assert_eq!(v["faults"][0]["survey"], 7);
+    assert_eq!(v["cases"][1]["input"]["gauge"], "G-12");
+    assert_eq!(v["measure"]["smoothing"], 3);
+    assert_eq!(v["annotations"][0]["layer"], 2);
+    assert_eq!(v["annotations"][0]["pin"]["marker"], "star");
+    // In the order they were written: the project's own keys first, as always.
+    let text = std::fs::read_to_string(&file).unwrap();
+    assert!(
+        text.trim_start().starts_with("{\n  \"format_version\""),
+        "{text}"
+    );
+}
+
+#[test]
+fn unknown_keys_of_a_case_input_stay_with_its_kind_and_its_name() {
+    use planewise::study::model::UnknownInside;
+    use serde_json::json;
+    let read = json!({"cases": [
+        {"name": "a", "input": {"kind": "tensor", "unit": "MPa", "gauge": 1}},
+        {"name": "b", "input": {"kind": "tensor", "unit": "MPa", "gauge": 2}},
+    ]});
+    let known = json!({"cases": [
+        {"name": "a", "input": {"kind": "tensor", "unit": "MPa"}},
+        {"name": "b", "input": {"kind": "tensor", "unit": "MPa"}},
+    ]});
+    let inside = UnknownInside::between(&read, &known).unwrap();
+    // The cases reordered and b's input made another kind: a keeps its key, b's is dropped.
+    let mut now = json!({"cases": [
+        {"name": "b", "input": {"kind": "in-situ", "unit": "MPa"}},
+        {"name": "c", "input": {"kind": "tensor", "unit": "MPa"}},
+        {"name": "a", "input": {"kind": "tensor", "unit": "MPa"}},
+    ]});
+    inside.restore(&mut now);
+    assert_eq!(now["cases"][2]["input"]["gauge"], 1);
+    assert!(now["cases"][0]["input"].get("gauge").is_none());
+    assert!(now["cases"][1]["input"].get("gauge").is_none());
 }

@@ -74,8 +74,8 @@ pub struct BatchArgs {
 }
 
 /// The JSON contract.
-#[derive(Debug, Serialize)]
-pub struct BatchJson {
+#[derive(Serialize)]
+pub struct BatchJson<'a> {
     pub file: String,
     pub measure: String,
     /// Unit of every stress below (components, principal values, stress measures).
@@ -95,8 +95,45 @@ pub struct BatchJson {
     pub rows_at_or_beyond: Option<u64>,
     /// The first bad rows (with --skip-bad-rows).
     pub first_bad: Vec<BadJson>,
-    /// Worst first.
-    pub rows: Vec<RowJson>,
+    /// Worst first (written one by one as they are read again, never held together).
+    pub rows: Rows<'a>,
+}
+
+/// The ranked rows in order, made into [`RowJson`] as they are written.
+pub struct Rows<'a> {
+    ranked: &'a Ranked,
+    source: Option<&'a std::fs::File>,
+    file: &'a str,
+    options: &'a TableOptions,
+    measure: &'a table::Measure<'a>,
+    rank: EnvelopeMeasure,
+    unit: StressUnit,
+}
+
+impl Rows<'_> {
+    /// The rows in order, each with its [`RowJson`].
+    fn each(&self) -> impl Iterator<Item = Result<(table::Row, RowJson), TableError>> + '_ {
+        self.ranked
+            .ordered(self.source, self.file, self.options, self.measure)
+            .map(|r| {
+                r.map(|r| {
+                    let json =
+                        row_json(&r, &self.ranked.header, self.rank, self.unit, self.measure);
+                    (r, json)
+                })
+            })
+    }
+}
+
+impl Serialize for Rows<'_> {
+    fn serialize<S: serde::Serializer>(&self, serializer: S) -> Result<S::Ok, S::Error> {
+        use serde::ser::{Error as _, SerializeSeq as _};
+        let mut seq = serializer.serialize_seq(Some(self.ranked.kept()))?;
+        for row in self.each() {
+            seq.serialize_element(&row.map_err(S::Error::custom)?.1)?;
+        }
+        seq.end()
+    }
 }
 
 /// A bad row.
@@ -229,6 +266,7 @@ pub fn run(args: &BatchArgs) -> Result<String, CliError> {
         decimal_comma: args.decimal_comma,
         skip_bad_rows: args.skip_bad_rows,
         top: args.top,
+        by_place: args.top.is_none(),
         above,
     };
     let measure = table::Measure {
@@ -266,15 +304,36 @@ pub fn run(args: &BatchArgs) -> Result<String, CliError> {
         }
         true
     };
-    let ranked = if args.file == "-" {
-        table::rank(std::io::stdin().lock(), &name, &options, &measure, progress)
+    // A full ranking holds each row's place, not the row, and reads the rows again in order:
+    // from the file, or from a copy of standard input spilled to a temporary file.
+    let (ranked, source) = if args.file == "-" {
+        let stdin = std::io::stdin().lock();
+        if options.by_place {
+            let spill = spill_file().map_err(anyhow::Error::from)?;
+            let tee = Tee {
+                from: stdin,
+                copy: std::io::BufWriter::new(&spill),
+            };
+            (
+                table::rank(tee, &name, &options, &measure, progress),
+                Some(spill),
+            )
+        } else {
+            (
+                table::rank(stdin, &name, &options, &measure, progress),
+                None,
+            )
+        }
     } else {
         if std::fs::metadata(&args.file).is_ok_and(|m| m.is_dir()) {
             return Err(ArgError::new("FILE", format!("{name} is a folder, not a table")).into());
         }
         let f = std::fs::File::open(&args.file)
             .map_err(|cause| ArgError::new("FILE", format!("{name}: {cause}")))?;
-        table::rank(f, &name, &options, &measure, progress)
+        (
+            table::rank(&f, &name, &options, &measure, progress),
+            Some(f),
+        )
     };
     let ranked = match ranked {
         Ok(r) => r,
@@ -307,7 +366,16 @@ pub fn run(args: &BatchArgs) -> Result<String, CliError> {
             "planewise: warning: {name}: the last line has no line end; the file may have been cut short (its last row was read as it stands)"
         );
     }
-    let mut json = to_json(&ranked, &name, args.rank, unit, convention, &measure);
+    let rows = Rows {
+        ranked: &ranked,
+        source: source.as_ref(),
+        file: &name,
+        options: &options,
+        measure: &measure,
+        rank: args.rank,
+        unit,
+    };
+    let mut json = to_json(rows, &name, unit, convention);
     if let Some(v) = above {
         json.at_or_beyond = Some(clean(if args.rank.is_stress() {
             unit.from_pa(v)
@@ -334,43 +402,72 @@ pub fn run(args: &BatchArgs) -> Result<String, CliError> {
             ))
         );
     }
-    if args.json {
-        let mut text = serde_json::to_string_pretty(&json).map_err(anyhow::Error::from)?;
-        text.push('\n');
-        return Ok(text);
-    }
-    let csv = to_csv(&ranked, &json, args.rank);
+    // Written row by row as the rows are read again: the output is never held whole.
+    let write = |w: &mut dyn std::io::Write| -> std::io::Result<()> {
+        if args.json {
+            serde_json::to_writer_pretty(&mut *w, &json)?;
+            w.write_all(b"\n")
+        } else {
+            write_csv(w, &json)
+        }
+    };
     if let Some(path) = &args.out {
-        crate::export::write_atomic(path, csv.as_bytes()).map_err(anyhow::Error::from)?;
+        crate::export::write_atomic_with(path, write).map_err(anyhow::Error::from)?;
         Ok(format!(
             "wrote {} ({} rows)\n",
             path.display(),
-            json.rows.len()
+            ranked.kept()
         ))
     } else {
-        // Large outputs go straight to standard output.
-        let mut out = std::io::stdout().lock();
-        out.write_all(csv.as_bytes()).map_err(anyhow::Error::from)?;
+        let mut out = std::io::BufWriter::with_capacity(1 << 16, std::io::stdout().lock());
+        write(&mut out)
+            .and_then(|()| out.flush())
+            .map_err(anyhow::Error::from)?;
         Ok(String::new())
     }
 }
 
-fn to_json(
-    ranked: &Ranked,
+/// An unnamed temporary file (removed from its folder as soon as it is open, so nothing is left
+/// behind even if the run is killed), for a copy of standard input.
+fn spill_file() -> std::io::Result<std::fs::File> {
+    let path = std::env::temp_dir().join(format!(".planewise-batch.{}.tmp", std::process::id()));
+    let file = std::fs::OpenOptions::new()
+        .read(true)
+        .write(true)
+        .create_new(true)
+        .open(&path)?;
+    // Where an open file cannot be removed, it stays until the system clears its temporaries.
+    let _ = std::fs::remove_file(&path);
+    Ok(file)
+}
+
+/// A reader that copies what it reads into `copy`.
+struct Tee<R, W: std::io::Write> {
+    from: R,
+    copy: W,
+}
+
+impl<R: std::io::Read, W: std::io::Write> std::io::Read for Tee<R, W> {
+    fn read(&mut self, buf: &mut [u8]) -> std::io::Result<usize> {
+        let n = self.from.read(buf)?;
+        self.copy.write_all(&buf[..n])?;
+        if n == 0 {
+            self.copy.flush()?;
+        }
+        Ok(n)
+    }
+}
+
+fn to_json<'a>(
+    rows: Rows<'a>,
     file: &str,
-    rank: EnvelopeMeasure,
     unit: StressUnit,
     convention: SignConvention,
-    measure: &table::Measure<'_>,
-) -> BatchJson {
-    let sign = convention.sign();
-    // Round-off below 1e-9 of the row's magnitude prints as 0.
-    let shown =
-        |pa: f64, scale: f64| clean(sign * unit.from_pa(crate::format::clean_relative(pa, scale)));
-    let names = &ranked.header.names;
+) -> BatchJson<'a> {
+    let ranked = rows.ranked;
     BatchJson {
         file: file.to_owned(),
-        measure: rank.key().to_owned(),
+        measure: rows.rank.key().to_owned(),
         unit: unit.symbol().to_owned(),
         convention: convention.key().to_owned(),
         rows_read: ranked.total_rows,
@@ -388,55 +485,65 @@ fn to_json(
                 message: b.message.clone(),
             })
             .collect(),
-        rows: ranked
-            .rows
+        rows,
+    }
+}
+
+/// One ranked row as written.
+fn row_json(
+    r: &table::Row,
+    header: &table::Header,
+    rank: EnvelopeMeasure,
+    unit: StressUnit,
+    measure: &table::Measure<'_>,
+) -> RowJson {
+    let convention = measure.convention;
+    let sign = convention.sign();
+    // Round-off below 1e-9 of the row's magnitude prints as 0.
+    let shown =
+        |pa: f64, scale: f64| clean(sign * unit.from_pa(crate::format::clean_relative(pa, scale)));
+    let principal =
+        crate::mechanics::principal::principal_values_in(&r.tensor, convention).map(|v| {
+            clean(unit.from_pa(crate::format::clean_relative(
+                v,
+                r.tensor.max_abs_component_pa(),
+            )))
+        });
+    let plane = matches!(rank, EnvelopeMeasure::Plane(_))
+        .then(|| {
+            measure.evaluate(&r.tensor).ok().and_then(|v| {
+                v.planes.first().map(|w| {
+                    [
+                        crate::format::angle(w.dip_deg, false),
+                        crate::format::angle(w.dip_direction_deg, true),
+                    ]
+                })
+            })
+        })
+        .flatten();
+    RowJson {
+        line: r.line,
+        carried: header
+            .carried
             .iter()
-            .map(|r| {
-                let principal = crate::mechanics::principal::principal_values_in(
-                    &r.tensor, convention,
+            .zip(&r.carried)
+            .map(|(&i, text)| {
+                (
+                    header.names[i].clone(),
+                    serde_json::Value::String(text.clone()),
                 )
-                .map(|v| {
-                    clean(unit.from_pa(crate::format::clean_relative(
-                        v,
-                        r.tensor.max_abs_component_pa(),
-                    )))
-                });
-                let plane = matches!(rank, EnvelopeMeasure::Plane(_))
-                    .then(|| {
-                        measure.evaluate(&r.tensor).ok().and_then(|v| {
-                            v.planes.first().map(|w| {
-                                [
-                                    crate::format::angle(w.dip_deg, false),
-                                    crate::format::angle(w.dip_direction_deg, true),
-                                ]
-                            })
-                        })
-                    })
-                    .flatten();
-                RowJson {
-                    line: r.line,
-                    carried: ranked
-                        .header
-                        .carried
-                        .iter()
-                        .zip(&r.carried)
-                        .map(|(&i, text)| {
-                            (names[i].clone(), serde_json::Value::String(text.clone()))
-                        })
-                        .collect(),
-                    components: r
-                        .tensor
-                        .components_pa()
-                        .map(|v| shown(v, r.tensor.max_abs_component_pa())),
-                    principal,
-                    value: r
-                        .value
-                        .map(|v| clean(if rank.is_stress() { unit.from_pa(v) } else { v })),
-                    condition: r.standing,
-                    plane,
-                }
             })
             .collect(),
+        components: r
+            .tensor
+            .components_pa()
+            .map(|v| shown(v, r.tensor.max_abs_component_pa())),
+        principal,
+        value: r
+            .value
+            .map(|v| clean(if rank.is_stress() { unit.from_pa(v) } else { v })),
+        condition: r.standing,
+        plane,
     }
 }
 
@@ -451,17 +558,13 @@ fn field(text: &str) -> String {
 
 /// Plain RFC 4180 CSV: the header first (units in the column names), one row per ranked row;
 /// the run's description goes to standard error and `--json`.
-fn to_csv(ranked: &Ranked, json: &BatchJson, rank: EnvelopeMeasure) -> String {
-    let mut s = String::new();
+fn write_csv(w: &mut dyn std::io::Write, json: &BatchJson<'_>) -> std::io::Result<()> {
+    let rows = &json.rows;
+    let header = &rows.ranked.header;
+    let rank = rows.rank;
     let u = &json.unit;
     let mut head: Vec<String> = vec!["line".into()];
-    head.extend(
-        ranked
-            .header
-            .carried
-            .iter()
-            .map(|&i| field(&ranked.header.names[i])),
-    );
+    head.extend(header.carried.iter().map(|&i| field(&header.names[i])));
     head.extend(COMPONENTS.iter().map(|c| format!("{c}_{u}")));
     head.extend(["sigma1", "sigma2", "sigma3"].map(|p| format!("{p}_{u}")));
     // σ1 and σ3 are columns already; another measure gets a column of its own.
@@ -474,26 +577,37 @@ fn to_csv(ranked: &Ranked, json: &BatchJson, rank: EnvelopeMeasure) -> String {
         });
     }
     head.push("condition".to_owned());
-    if matches!(rank, EnvelopeMeasure::Plane(_)) {
+    let plane = matches!(rank, EnvelopeMeasure::Plane(_));
+    if plane {
         head.extend(["dip_deg", "dip_direction_deg"].map(str::to_owned));
     }
-    let _ = writeln!(s, "{}", head.join(","));
-    for (row, r) in json.rows.iter().zip(&ranked.rows) {
-        let mut cells: Vec<String> = vec![row.line.to_string()];
-        cells.extend(r.carried.iter().map(|t| field(t)));
-        cells.extend(row.components.iter().map(|v| format!("{v}")));
-        cells.extend(row.principal.iter().map(|v| format!("{v}")));
+    writeln!(w, "{}", head.join(","))?;
+    let mut line = String::new();
+    for row in rows.each() {
+        let (r, row) = row.map_err(std::io::Error::other)?;
+        line.clear();
+        let _ = write!(line, "{}", row.line);
+        for t in &r.carried {
+            line.push(',');
+            line.push_str(&field(t));
+        }
+        for v in row.components.iter().chain(&row.principal) {
+            let _ = write!(line, ",{v}");
+        }
         if own_column {
-            cells.push(row.value.map_or_else(String::new, |v| format!("{v}")));
+            line.push(',');
+            if let Some(v) = row.value {
+                let _ = write!(line, "{v}");
+            }
         }
-        cells.push(row.condition.key().to_owned());
+        let _ = write!(line, ",{}", row.condition.key());
         if let Some([dip, dd]) = row.plane {
-            cells.push(format!("{dip}"));
-            cells.push(format!("{dd}"));
-        } else if matches!(rank, EnvelopeMeasure::Plane(_)) {
-            cells.extend(["", ""].map(str::to_owned));
+            let _ = write!(line, ",{dip},{dd}");
+        } else if plane {
+            line.push_str(",,");
         }
-        let _ = writeln!(s, "{}", cells.join(","));
+        line.push('\n');
+        w.write_all(line.as_bytes())?;
     }
-    s
+    Ok(())
 }

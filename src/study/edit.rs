@@ -27,7 +27,7 @@ pub enum Edit {
     /// The worst-plane measure, pore pressure and the planes' cohesion and friction.
     SetMeasure(MeasureChoice),
     /// The material the criteria check against.
-    SetMaterial(Material),
+    SetMaterial(Box<Material>),
     /// The named fault planes.
     SetFaults(Vec<FaultPlane>),
     /// Every caption and pinned note (each names its case and figure).
@@ -44,7 +44,7 @@ pub enum Edit {
     AddCase,
     /// A load case taken from a row of an imported table (replacing a case of the same name),
     /// shown at once.
-    AddTableRow(LoadCase),
+    AddTableRow(Box<LoadCase>),
     /// A copy of a case or combination, shown at once.
     Duplicate(String),
     /// The active combination's summed tensor as a new load case.
@@ -196,7 +196,7 @@ impl Edit {
                     .strengths
                     .validate()
                     .map_err(|e| StudyError::Invalid(format!("material: {e}")))?;
-                p.material = material.clone();
+                p.material = (**material).clone();
             }
             Self::SetUnit(unit) => unit.symbol().clone_into(&mut p.unit),
             Self::SetConvention(c) => {
@@ -220,7 +220,7 @@ impl Edit {
                 if p.is_combination(&case.name) {
                     return Err(StudyError::Duplicate(case.name.clone()));
                 }
-                p.add_case(case.clone(), true)?;
+                p.add_case((**case).clone(), true)?;
                 p.active.clone_from(&case.name);
             }
             Self::AddCase => {

@@ -163,7 +163,11 @@ pub fn load(path: &Path) -> Result<(Project, Vec<String>), FileError> {
     }
     let mut warnings: Vec<String> = Vec::new();
     let mut on_disk: OnDisk =
-        serde_json::from_value(value).map_err(|e| malformed(e.to_string()))?;
+        serde_json::from_value(value.clone()).map_err(|e| malformed(e.to_string()))?;
+    // Unknown keys inside objects without a map of their own: the file less what is written.
+    let known = serde_json::to_value(&on_disk).map_err(|e| malformed(e.to_string()))?;
+    on_disk.project.unknown_inside =
+        crate::study::model::UnknownInside::between(&value, &known).map(Box::new);
     let unknown = on_disk.project.unknown_keys();
     if !unknown.is_empty() {
         warnings.push(format!(
@@ -208,10 +212,15 @@ pub fn save(path: &Path, project: &Project) -> Result<(), FileError> {
         format_version: FORMAT_VERSION,
         project: project.clone(),
     };
-    let mut text = serde_json::to_string_pretty(&on_disk).map_err(|e| FileError::Malformed {
+    let malformed = |e: serde_json::Error| FileError::Malformed {
         path: path.to_owned(),
         message: e.to_string(),
-    })?;
+    };
+    let mut value = serde_json::to_value(&on_disk).map_err(malformed)?;
+    if let Some(inside) = &project.unknown_inside {
+        inside.restore(&mut value);
+    }
+    let mut text = serde_json::to_string_pretty(&value).map_err(malformed)?;
     text.push('\n');
     crate::export::write_atomic(path, text.as_bytes()).map_err(|e| match e {
         crate::export::ExportError::Io { path, cause } => FileError::Io { path, cause },

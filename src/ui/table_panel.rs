@@ -122,6 +122,7 @@ impl TablePanel {
             decimal_comma: self.decimal_comma,
             skip_bad_rows: self.skip_bad_rows,
             top: Some(self.keep.max(1)),
+            by_place: false,
             above: None,
         }
     }
@@ -599,7 +600,7 @@ impl TablePanel {
             let project_unit = d.unit;
             let psign = d.convention.sign();
             out.push(Command::Edit {
-                edit: Edit::AddTableRow(LoadCase {
+                edit: Edit::AddTableRow(Box::new(LoadCase {
                     unknown: crate::study::model::UnknownKeys::new(),
                     name,
                     description: format!(
@@ -626,7 +627,7 @@ impl TablePanel {
                                 .map(|c| psign * project_unit.from_pa(c)),
                         },
                     }),
-                }),
+                })),
                 coalesce: None,
             });
         }

@@ -295,7 +295,7 @@ impl MaterialPanel {
                     if &m != material {
                         self.sent = Some(m.clone());
                         out.push(Command::Edit {
-                            edit: Edit::SetMaterial(m),
+                            edit: Edit::SetMaterial(Box::new(m)),
                             coalesce: Some(crate::session::Coalesce::MaterialFields),
                         });
                     }
