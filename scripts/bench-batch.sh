@@ -2,7 +2,8 @@
 # Times `planewise batch` against the obvious alternative on the same generated table: pandas'
 # C parser plus numpy's batched eigvalsh (principal values) and von Mises, top 100. Both read
 # the same 1,000,000-row CSV (id + six components, an invented random field, generated here and
-# never committed). Prints each time (best of 3) and the ratio. Needs python3 with pip (installs
+# never committed). Prints each time (best of 3), the ratio, and the peak memory of a top-100
+# and of a full ranking. Needs python3 with pip (installs
 # pandas and numpy when missing).
 #   scripts/bench-batch.sh [ROWS]
 set -euo pipefail
@@ -56,3 +57,15 @@ theirs=$(best python3 "$dir/alternative.py" "$table")
 echo "planewise batch (top 100 by von Mises): ${ours} s"
 echo "pandas C parser + numpy eigvalsh:        ${theirs} s"
 python3 -c "print(f'ratio: {$theirs / $ours:.1f}x')"
+# Peak memory (resident set, from GNU time) of the top-100 run and of a full ranking written to a
+# file: the full ranking holds 40 bytes a row, the top-N run a fixed amount.
+if [ -x /usr/bin/time ]; then
+    for run in "--top 100" ""; do
+        # shellcheck disable=SC2086
+        /usr/bin/time -f "planewise batch ${run:-(every row)}: %M KB peak, %e s" \
+            target/release/planewise batch "$table" --unit MPa --rank von-mises $run --quiet \
+            --out "$dir/ranked.csv" >/dev/null
+    done
+else
+    echo "peak memory: needs GNU time (/usr/bin/time; Debian package 'time')"
+fi
