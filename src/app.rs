@@ -301,6 +301,13 @@ impl PlanewiseApp {
         }
     }
 
+    /// Opens the Table tab on `path` with its preview (`--table`): no ranking yet, since the
+    /// table's unit is the user's to choose first.
+    pub fn open_table(&mut self, path: &std::path::Path) {
+        self.settings.central = Central::Table;
+        self.table_panel.load_preview(&path.display().to_string());
+    }
+
     /// Whether the project has changes not saved to its file.
     #[must_use]
     pub fn dirty(&self) -> bool {
@@ -1270,8 +1277,7 @@ pub fn run(
             }
             if let Some(path) = &table {
                 app.settings.central = Central::Table;
-                app.table_panel.load_preview(&path.display().to_string());
-                app.table_panel.start(&cc.egui_ctx, &app.project);
+                app.open_table(path);
             }
             if let Some(path) = shot {
                 app.screenshot_on_start(path);

@@ -53,6 +53,18 @@ pub fn number(text: &str) -> Result<f64, NumberError> {
     }
 }
 
+/// A number typed in a field that holds one number: as [`number`], and a single decimal comma
+/// with no point (`12,5`) reads as the decimal point it is (a field of one number has no list
+/// separator to confuse it with).
+pub fn cell_number(text: &str) -> Result<f64, NumberError> {
+    let t = text.trim();
+    if t.matches(',').count() == 1 && !t.contains('.') {
+        number(&t.replace(',', "."))
+    } else {
+        number(t)
+    }
+}
+
 /// Why a `key=value,…` stress list is unusable.
 #[derive(Debug, Clone, PartialEq, Eq, thiserror::Error)]
 pub enum StressListError {

@@ -127,12 +127,34 @@ fn bad_text_shows_an_error_and_keeps_the_state() {
         assert_eq!(h.state().project, before, "{bad:?} changed the state");
         let error = h.state().stress_panel.first_error().unwrap_or_default();
         assert!(error.starts_with("σzz:"), "{bad:?}: error '{error}'");
+        // The message names the cell and the value analysed in its place.
+        let before_zz = mpa(h.state(), Component::Zz);
+        let said = format!(
+            "analysed with the last valid value, σzz = {} MPa",
+            planewise::format::sig(before_zz, 8).replace('-', "−")
+        );
         assert!(
-            h.query_by_label_contains("the last valid state is kept")
-                .is_some(),
-            "{bad:?}: no message on screen"
+            h.query_by_label_contains(&said).is_some(),
+            "{bad:?}: no message '{said}' on screen"
         );
     }
+}
+
+/// A cell holds one number, so a decimal comma reads as the decimal point it is.
+#[test]
+fn a_decimal_comma_in_a_cell_reads_as_a_decimal_point() {
+    let mut h = harness();
+    type_into(&mut h, "σxx", "12,5");
+    assert_eq!(h.state().stress_panel.first_error(), None);
+    assert!((mpa(h.state(), Component::Xx) - 12.5).abs() < 1e-12);
+    // Two commas are no number: flagged, and the value in use said.
+    type_into(&mut h, "σxx", "1,2,5");
+    assert!(h.state().stress_panel.first_error().is_some());
+    assert!((mpa(h.state(), Component::Xx) - 12.5).abs() < 1e-12);
+    assert!(
+        h.query_by_label_contains("analysed with the last valid value, σxx = 12.5 MPa")
+            .is_some()
+    );
 }
 
 #[test]

@@ -55,6 +55,22 @@ fn type_into(h: &mut Harness<'static, PlanewiseApp>, name: &str, text: &str) {
     h.run();
 }
 
+/// Chooses the Table tab's unit as a user does: the picker, then the unit.
+fn choose_table_unit(h: &mut Harness<'static, PlanewiseApp>, unit: &str) {
+    h.get_by_label("table unit").click();
+    h.run();
+    h.get_all_by_label(unit).last().unwrap().click();
+    h.run();
+    assert_eq!(
+        h.state()
+            .table_panel
+            .unit
+            .map(planewise::mechanics::StressUnit::symbol),
+        Some(unit),
+        "the unit picker did not take {unit}"
+    );
+}
+
 fn leave_text_field(h: &mut Harness<'static, PlanewiseApp>) {
     h.key_press(egui::Key::Escape);
     h.run();
@@ -439,7 +455,7 @@ fn the_measure_and_material_are_undoable_project_edits() {
     let before = h.state().project.measure;
     h.get_by_label("measure").click();
     h.run();
-    h.get_by_label("mohr-coulomb").click();
+    h.get_by_label("Mohr–Coulomb utilization of planes").click();
     h.run();
     assert_eq!(
         h.state().project.measure.measure,
@@ -707,6 +723,16 @@ fn an_imported_table_ranks_and_a_clicked_row_becomes_the_shown_case() {
     type_into(&mut h, "Table file path", path.to_str().unwrap());
     h.get_by_label("Preview").click();
     h.run();
+    // No unit, no ranking: a table does not say its unit.
+    h.get_by_label("Read and rank").click();
+    h.run();
+    assert!(!h.state().table_panel.reading());
+    assert!(h.state().table_panel.ranked.is_none());
+    assert!(
+        h.query_by_label("Choose the unit to read the table")
+            .is_some()
+    );
+    choose_table_unit(&mut h, "MPa");
     h.get_by_label("Read and rank").click();
     wait_for_table(&mut h);
     let ranked = h.state().table_panel.ranked.clone().unwrap();
@@ -750,6 +776,7 @@ fn cancel_stops_a_long_table_read() {
     h.get_by_label("Table").click();
     h.run();
     type_into(&mut h, "Table file path", path.to_str().unwrap());
+    choose_table_unit(&mut h, "MPa");
     h.get_by_label("Read and rank").click();
     h.run();
     assert!(h.state().table_panel.reading());
@@ -830,6 +857,7 @@ fn the_table_tab_ranks_rows_without_frictional_capacity_first() {
     type_into(&mut h, "Table file path", path.to_str().unwrap());
     h.get_by_label("Preview").click();
     h.run();
+    choose_table_unit(&mut h, "MPa");
     h.get_by_label("Read and rank").click();
     wait_for_table(&mut h);
     let ranked = h.state().table_panel.ranked.clone().unwrap();
@@ -884,4 +912,73 @@ fn the_envelope_tab_counts_conditions() {
     h.run();
     // The invented demo: three cases and two combinations, all with a von Mises value.
     assert!(h.query_by_label("5 rows: 5 with a value").is_some());
+}
+
+/// `--table FILE` opens the preview and waits for the unit: nothing is ranked in a guessed unit.
+#[test]
+fn a_table_given_at_start_waits_for_its_unit() {
+    let path = temp("start-table.csv");
+    std::fs::write(&path, "id,xx,yy,zz,xy,yz,zx\nA,1,2,3,4,5,6\n").unwrap();
+    let mut app = PlanewiseApp::demo(Box::new(NoDialogs));
+    app.open_table(&path);
+    let mut h = harness_on(app);
+    h.run_steps(4);
+    assert_eq!(
+        h.state().settings.central,
+        planewise::session::Central::Table
+    );
+    assert!(!h.state().table_panel.reading());
+    assert!(h.state().table_panel.ranked.is_none());
+    assert!(
+        h.query_by_label("Choose the unit to read the table")
+            .is_some()
+    );
+}
+
+/// Each column header stands over its own column's cells, however long the header's words
+/// (the ranked measure's name is the longest).
+#[test]
+fn table_headers_stand_over_their_columns() {
+    let path = temp("aligned.csv");
+    // Invented: each component a different number, so each cell is found by its text.
+    std::fs::write(
+        &path,
+        "element id,xx,yy,zz,xy,yz,zx\nE1,11.5,22.5,33.5,44.5,55.5,66.5\n",
+    )
+    .unwrap();
+    let mut h = demo();
+    h.state_mut().settings.central = planewise::session::Central::Table;
+    h.state_mut().table_panel.measure = planewise::study::EnvelopeMeasure::Utilization(
+        planewise::mechanics::criteria::Criterion::VonMises,
+    );
+    h.run();
+    type_into(&mut h, "Table file path", path.to_str().unwrap());
+    h.get_by_label("Preview").click();
+    h.run();
+    choose_table_unit(&mut h, "MPa");
+    h.get_by_label("Read and rank").click();
+    wait_for_table(&mut h);
+    h.run();
+    for (header, cell) in [
+        ("element id", "E1"),
+        ("xx (MPa)", "11.5"),
+        ("yy (MPa)", "22.5"),
+        ("zz (MPa)", "33.5"),
+        ("xy (MPa)", "44.5"),
+        ("yz (MPa)", "55.5"),
+        ("zx (MPa)", "66.5"),
+    ] {
+        // The list's header is a sort button; its cell is the lowest text of that value (the
+        // preview above shows the raw fields too).
+        let head = h.get(by().role(Role::Button).label(header)).rect();
+        let value = h
+            .get_all_by_label(cell)
+            .map(|n| n.rect())
+            .max_by(|a, b| a.top().total_cmp(&b.top()))
+            .unwrap();
+        assert!(
+            value.left() >= head.left() - 1.0 && value.right() <= head.right() + 1.0,
+            "{header}: header {head:?}, its cell {value:?}"
+        );
+    }
 }

@@ -71,6 +71,20 @@ impl Measure {
         }
     }
 
+    /// The name a person reads (the key stays for the command line and files).
+    #[must_use]
+    pub fn label(self) -> &'static str {
+        match self {
+            Self::Shear => "shear stress τ",
+            Self::NormalMax => "normal stress σn, largest",
+            Self::NormalMin => "normal stress σn, smallest",
+            Self::Traction => "traction |t|",
+            Self::SlipTendency => "slip tendency",
+            Self::DilationTendency => "dilation tendency",
+            Self::MohrCoulomb => "Mohr–Coulomb utilization of planes",
+        }
+    }
+
     /// Parses a key.
     #[must_use]
     pub fn from_key(key: &str) -> Option<Self> {

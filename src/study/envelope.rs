@@ -72,6 +72,20 @@ impl EnvelopeMeasure {
         }
     }
 
+    /// The name a person reads, in the trade's spelling (the key stays for the command line).
+    #[must_use]
+    pub fn label(self) -> String {
+        match self {
+            Self::VonMises => "von Mises stress".to_owned(),
+            Self::Tresca => "Tresca stress".to_owned(),
+            Self::MaxShear => "largest shear stress".to_owned(),
+            Self::Sigma1 => "σ1".to_owned(),
+            Self::Sigma3 => "σ3".to_owned(),
+            Self::Plane(m) => format!("worst plane: {}", m.label()),
+            Self::Utilization(c) => format!("utilization: {}", c.label()),
+        }
+    }
+
     /// The worst-plane measure, if it is one.
     #[must_use]
     pub fn plane(self) -> Option<Measure> {

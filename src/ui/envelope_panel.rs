@@ -49,10 +49,10 @@ impl EnvelopePanel {
         ui.horizontal_wrapped(|ui| {
             ui.label("Rank every load case and combination by");
             egui::ComboBox::from_id_salt("envelope-measure")
-                .selected_text(settings.envelope_measure.key())
+                .selected_text(settings.envelope_measure.label())
                 .show_ui(ui, |ui| {
                     for m in measures() {
-                        ui.selectable_value(&mut settings.envelope_measure, m, m.key());
+                        ui.selectable_value(&mut settings.envelope_measure, m, m.label());
                     }
                 })
                 .response
@@ -120,7 +120,7 @@ impl EnvelopePanel {
         let table = crate::results::TextTable {
             title: format!(
                 "Planewise envelope of {}, {}",
-                measure.key(),
+                measure.label(),
                 d.convention.key()
             ),
             header: [

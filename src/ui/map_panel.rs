@@ -94,10 +94,10 @@ pub fn worst_plane_ui(ui: &mut egui::Ui, d: &Derived, out: &mut Vec<Command>) {
     let mut edited = d.measure;
     let choice = &mut edited;
     egui::ComboBox::from_label("measure")
-        .selected_text(choice.measure.key())
+        .selected_text(choice.measure.label())
         .show_ui(ui, |ui| {
             for m in Measure::ALL {
-                ui.selectable_value(&mut choice.measure, m, m.key());
+                ui.selectable_value(&mut choice.measure, m, m.label());
             }
         });
     let unit = d.unit;

@@ -203,11 +203,23 @@ impl StressPanel {
             }
             return;
         }
-        if let Some(e) = self.first_error() {
-            ui.colored_label(
-                ui.visuals().error_fg_color,
-                format!("⚠ {e} — the last valid state is kept"),
-            );
+        // Each cell that does not read, with the value analysed in its place.
+        for r in 0..3 {
+            for c in 0..3 {
+                let (Some(e), Some(comp)) = (&self.errors[r][c], Component::at(r, c)) else {
+                    continue;
+                };
+                let used = d.convention.sign() * d.unit.from_pa(d.tensor.component_pa(comp));
+                let name = cell_name(r, c);
+                ui.colored_label(
+                    ui.visuals().error_fg_color,
+                    format!(
+                        "⚠ {name}: {e}; analysed with the last valid value, {name} = {} {}",
+                        sig(used, 8).replace('-', "−"),
+                        d.unit
+                    ),
+                );
+            }
         }
         ui.small(format!(
             "σij in {} ({}); off-diagonal cells edit their mirror too.",
@@ -335,7 +347,7 @@ impl StressPanel {
             return;
         };
         let (mr, mc) = (c, r);
-        match parse::number(&self.cells[r][c]) {
+        match parse::cell_number(&self.cells[r][c]) {
             Ok(value) => {
                 let pa = d.convention.sign() * d.unit.to_pa(value);
                 match d.tensor.with_component_pa(comp, pa) {

@@ -29,7 +29,11 @@ struct Job {
     cancel: Arc<AtomicBool>,
     bytes: Arc<AtomicU64>,
     size: Option<u64>,
+    read_with: (StressUnit, bool, EnvelopeMeasure),
 }
+
+/// Said when a read is asked for before the unit is chosen.
+const UNIT_FIRST: &str = "Choose the table's unit first: a table does not say, and a wrong unit is off by up to a factor of a million.";
 
 /// The tab's state.
 pub struct TablePanel {
@@ -39,8 +43,9 @@ pub struct TablePanel {
     mapping: [String; 6],
     /// The preview: header and first rows, or what is wrong.
     preview: Option<Result<Preview, String>>,
-    /// Unit of the components.
-    pub unit: StressUnit,
+    /// Unit of the components: none until the user chooses (a table does not say, and a guess
+    /// is off by up to a factor of a million).
+    pub unit: Option<StressUnit>,
     /// The components are compression positive.
     pub compression_positive: bool,
     /// Numbers use a decimal comma.
@@ -54,6 +59,9 @@ pub struct TablePanel {
     job: Option<Job>,
     /// The last result.
     pub ranked: Option<Ranked>,
+    /// What the last result was read with: unit, compression positive, measure (the choices
+    /// may have changed since; the rows are shown as read).
+    read_with: Option<(StressUnit, bool, EnvelopeMeasure)>,
     /// The last error or cancellation, said in the tab.
     pub message: Option<String>,
     /// Text the rows must contain (any carried column).
@@ -80,7 +88,7 @@ impl Default for TablePanel {
             path: String::new(),
             mapping: Default::default(),
             preview: None,
-            unit: StressUnit::MPa,
+            unit: None,
             compression_positive: false,
             decimal_comma: false,
             measure: EnvelopeMeasure::VonMises,
@@ -88,6 +96,7 @@ impl Default for TablePanel {
             skip_bad_rows: false,
             job: None,
             ranked: None,
+            read_with: None,
             message: None,
             filter: String::new(),
             sort: (None, true),
@@ -104,7 +113,8 @@ impl TablePanel {
         self.job.is_some()
     }
 
-    fn options(&self) -> TableOptions {
+    /// The reading options in `unit` (the header does not depend on it).
+    fn options(&self, unit: StressUnit) -> TableOptions {
         TableOptions {
             columns: self
                 .mapping
@@ -113,7 +123,7 @@ impl TablePanel {
                 .filter(|(_, n)| !n.trim().is_empty())
                 .map(|(k, n)| (k, n.clone()))
                 .collect(),
-            unit: self.unit,
+            unit,
             convention: if self.compression_positive {
                 SignConvention::CompressionPositive
             } else {
@@ -134,7 +144,7 @@ impl TablePanel {
             std::fs::File::open(path)
                 .map_err(|e| format!("{path}: {e}"))
                 .and_then(|f| {
-                    crate::table::preview(f, path, &self.options(), 256 << 10)
+                    crate::table::preview(f, path, &self.options(StressUnit::Pa), 256 << 10)
                         .map_err(|e| e.to_string())
                 }),
         );
@@ -147,9 +157,14 @@ impl TablePanel {
 
     /// Starts reading the table in a background thread.
     pub fn start(&mut self, ctx: &egui::Context, project: &Project) {
+        let Some(unit) = self.unit else {
+            self.message = Some(UNIT_FIRST.to_owned());
+            return;
+        };
         let path = PathBuf::from(self.path.trim());
-        let options = self.options();
+        let options = self.options(unit);
         let measure = self.measure;
+        let read_with = (unit, self.compression_positive, measure);
         let strengths = project.material.strengths;
         let convention = options.convention;
         let plane = SearchSettings {
@@ -198,6 +213,7 @@ impl TablePanel {
                     cancel,
                     bytes,
                     size,
+                    read_with,
                 });
             }
             Err(e) => self.message = Some(format!("could not start reading: {e}")),
@@ -230,6 +246,7 @@ impl TablePanel {
                     }
                 ));
                 self.ranked = Some(ranked);
+                self.read_with = Some(job.read_with);
                 self.order_key = None;
                 self.job = None;
             }
@@ -255,7 +272,7 @@ impl TablePanel {
         if self.order_key.as_ref() == Some(&key) {
             return;
         }
-        let Some(r) = &self.ranked else {
+        let (Some(r), Some((_, _, measure))) = (&self.ranked, self.read_with) else {
             self.order.clear();
             return;
         };
@@ -291,7 +308,7 @@ impl TablePanel {
                 // frictional capacity worst, never reaching best), not by the bare number.
                 SortKey::Value => order.sort_by_key(|&i| {
                     crate::study::envelope::RankKey::new(
-                        self.measure,
+                        measure,
                         r.rows[i].value,
                         r.rows[i].standing,
                     )
@@ -346,25 +363,26 @@ impl TablePanel {
         }
         ui.horizontal_wrapped(|ui| {
             ui.label("Unit");
-            egui::ComboBox::from_id_salt("planewise-table-unit")
-                .selected_text(self.unit.symbol())
+            let unit = egui::ComboBox::from_id_salt("planewise-table-unit")
+                .selected_text(self.unit.map_or("choose…", StressUnit::symbol))
                 .show_ui(ui, |ui| {
                     for u in StressUnit::ALL {
-                        ui.selectable_value(&mut self.unit, u, u.symbol());
+                        ui.selectable_value(&mut self.unit, Some(u), u.symbol());
                     }
                 })
-                .response
-                .widget_info(|| {
-                    egui::WidgetInfo::labeled(egui::Role::ComboBox, true, "table unit")
-                });
+                .response;
+            unit.widget_info(|| {
+                egui::WidgetInfo::labeled(egui::Role::ComboBox, true, "table unit")
+            });
+            unit.on_hover_text("The unit the table's components are written in: a table does not say, so it is yours to choose");
             ui.checkbox(&mut self.compression_positive, "compression +");
             ui.checkbox(&mut self.decimal_comma, "decimal comma");
             ui.label("rank by");
             egui::ComboBox::from_id_salt("planewise-table-measure")
-                .selected_text(self.measure.key())
+                .selected_text(self.measure.label())
                 .show_ui(ui, |ui| {
                     for m in EnvelopeMeasure::ALL {
-                        ui.selectable_value(&mut self.measure, m, m.key());
+                        ui.selectable_value(&mut self.measure, m, m.label());
                     }
                 })
                 .response
@@ -377,13 +395,24 @@ impl TablePanel {
             ui.checkbox(&mut self.skip_bad_rows, "skip bad rows");
         });
         ui.horizontal(|ui| {
-            let ready = !self.path.trim().is_empty() && self.job.is_none();
+            let ready = !self.path.trim().is_empty() && self.job.is_none() && self.unit.is_some();
             if ui
                 .add_enabled(ready, egui::Button::new("Read and rank"))
                 .on_hover_text("Read the whole table in the background and keep the worst rows")
+                .on_disabled_hover_text(if self.unit.is_none() {
+                    UNIT_FIRST
+                } else {
+                    "Give a table file first (or wait for the read in progress)"
+                })
                 .clicked()
             {
                 self.start(ui.ctx(), project);
+            }
+            if self.unit.is_none() && !self.path.trim().is_empty() {
+                ui.colored_label(
+                    ui.visuals().warn_fg_color,
+                    "Choose the unit to read the table",
+                );
             }
             if let Some(job) = &self.job {
                 let read = job.bytes.load(Ordering::Relaxed);
@@ -454,10 +483,12 @@ impl TablePanel {
         let Some(r) = &self.ranked else {
             return;
         };
-        let unit = self.unit;
-        let sign = if self.compression_positive { -1.0 } else { 1.0 };
+        let Some((unit, compression_positive, measure)) = self.read_with else {
+            return;
+        };
+        let sign = if compression_positive { -1.0 } else { 1.0 };
         let value_text = |v: Option<f64>, standing| match v {
-            Some(v) if self.measure.is_stress() => crate::format::sig(unit.from_pa(v), 5),
+            Some(v) if measure.is_stress() => crate::format::sig(unit.from_pa(v), 5),
             Some(v) => crate::format::sig(v, 4),
             None => crate::results::standing_word(standing).to_owned(),
         };
@@ -469,7 +500,7 @@ impl TablePanel {
                 format!("skipped {}", b.located(&self.path)),
             );
         }
-        histogram(ui, r, self.measure, unit);
+        histogram(ui, r, measure, unit);
         ui.horizontal(|ui| {
             ui.label("Filter:");
             ui.add(
@@ -486,10 +517,10 @@ impl TablePanel {
         let mut columns: Vec<(String, SortKey)> = vec![
             ("line".into(), SortKey::Line),
             (
-                if self.measure.is_stress() {
-                    format!("{} ({unit})", self.measure.key())
+                if measure.is_stress() {
+                    format!("{} ({unit})", measure.label())
                 } else {
-                    self.measure.key().to_owned()
+                    measure.label()
                 },
                 SortKey::Value,
             ),
@@ -507,7 +538,22 @@ impl TablePanel {
                 .enumerate()
                 .map(|(k, c)| (format!("{c} ({unit})"), SortKey::Component(k))),
         );
-        let width = (ui.available_width() / columns.len() as f32 - 8.0).clamp(58.0, 110.0);
+        // One width per column, shared by its header and its cells: wide enough for the
+        // header's words and its sort mark, so no header drifts over the next column.
+        let base = (ui.available_width() / columns.len() as f32 - 8.0).clamp(58.0, 110.0);
+        let small = egui::TextStyle::Small.resolve(ui.style());
+        let pad = 2.0 * ui.spacing().button_padding.x;
+        let widths: Vec<f32> = columns
+            .iter()
+            .map(|(name, _)| {
+                let text = ui.ctx().fonts_mut(|f| {
+                    f.layout_no_wrap(format!("{name} ↓"), small.clone(), egui::Color32::WHITE)
+                        .size()
+                        .x
+                });
+                base.max((text + pad).ceil()).min(240.0)
+            })
+            .collect();
         let mut clicked_sort = None;
         let row_height = ui.text_style_height(&egui::TextStyle::Body) + 4.0;
         let mut chosen = None;
@@ -516,7 +562,7 @@ impl TablePanel {
             .id_salt("planewise-table-wide")
             .show(ui, |ui| {
                 ui.horizontal(|ui| {
-                    for (name, key) in &columns {
+                    for ((name, key), &width) in columns.iter().zip(&widths) {
                         let mark = match self.sort {
                             (Some(k), desc) if k == *key => {
                                 if desc {
@@ -530,7 +576,9 @@ impl TablePanel {
                         if ui
                             .add_sized(
                                 [width, 20.0],
-                                egui::Button::new(format!("{name}{mark}")).small(),
+                                egui::Button::new(format!("{name}{mark}"))
+                                    .small()
+                                    .truncate(),
                             )
                             .on_hover_text(format!("Sort by {name}"))
                             .clicked()
@@ -548,9 +596,11 @@ impl TablePanel {
                             let comps = row.tensor.components_pa();
                             let rect = ui
                                 .horizontal(|ui| {
-                                    let cell = |ui: &mut egui::Ui, t: String| {
+                                    let mut width = widths.iter();
+                                    let mut cell = |ui: &mut egui::Ui, t: String| {
+                                        let w = width.next().copied().unwrap_or(base);
                                         ui.add_sized(
-                                            [width, row_height - 2.0],
+                                            [w, row_height - 2.0],
                                             egui::Label::new(t).truncate(),
                                         );
                                     };
@@ -698,7 +748,7 @@ fn histogram(ui: &mut egui::Ui, r: &Ranked, measure: EnvelopeMeasure, unit: Stre
     );
     response.on_hover_text(format!(
         "Histogram of {} over the {} kept rows (20 bins)",
-        measure.key(),
+        measure.label(),
         values.len()
     ));
 }
