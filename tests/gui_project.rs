@@ -837,6 +837,24 @@ fn a_value_typed_in_ksi_is_saved_as_typed() {
     assert_eq!(t.components[0], 0.21);
 }
 
+/// The demo with the table at `path` read in MPa and ranked by `measure` in the Table tab.
+fn table_ranked(
+    path: &std::path::Path,
+    measure: planewise::study::EnvelopeMeasure,
+) -> Harness<'static, PlanewiseApp> {
+    let mut h = demo();
+    h.state_mut().settings.central = planewise::session::Central::Table;
+    h.state_mut().table_panel.measure = measure;
+    h.run();
+    type_into(&mut h, "Table file path", path.to_str().unwrap());
+    h.get_by_label("Preview").click();
+    h.run();
+    choose_table_unit(&mut h, "MPa");
+    h.get_by_label("Read and rank").click();
+    wait_for_table(&mut h);
+    h
+}
+
 /// The Table tab ranks conditions as batch and the envelope do: a row without frictional
 /// capacity first, above every number, and the tab counts each condition.
 #[test]
@@ -848,18 +866,12 @@ fn the_table_tab_ranks_rows_without_frictional_capacity_first() {
         "id,xx,yy,zz,xy,yz,zx\nA,-10,-20,-30,0,0,0\nB,5,-20,-30,0,0,0\nC,-10,-11,-60,0,0,0\nD,-50,-50,-50,0,0,0\n",
     )
     .unwrap();
-    let mut h = demo();
-    h.state_mut().settings.central = planewise::session::Central::Table;
-    h.state_mut().table_panel.measure = planewise::study::EnvelopeMeasure::Plane(
-        planewise::mechanics::search::Measure::SlipTendency,
+    let mut h = table_ranked(
+        &path,
+        planewise::study::EnvelopeMeasure::Plane(
+            planewise::mechanics::search::Measure::SlipTendency,
+        ),
     );
-    h.run();
-    type_into(&mut h, "Table file path", path.to_str().unwrap());
-    h.get_by_label("Preview").click();
-    h.run();
-    choose_table_unit(&mut h, "MPa");
-    h.get_by_label("Read and rank").click();
-    wait_for_table(&mut h);
     let ranked = h.state().table_panel.ranked.clone().unwrap();
     assert_eq!(ranked.rows[0].carried[0], "B");
     assert_eq!(ranked.counts.no_frictional_capacity, 1);
@@ -946,18 +958,12 @@ fn table_headers_stand_over_their_columns() {
         "element id,xx,yy,zz,xy,yz,zx\nE1,11.5,22.5,33.5,44.5,55.5,66.5\n",
     )
     .unwrap();
-    let mut h = demo();
-    h.state_mut().settings.central = planewise::session::Central::Table;
-    h.state_mut().table_panel.measure = planewise::study::EnvelopeMeasure::Utilization(
-        planewise::mechanics::criteria::Criterion::VonMises,
+    let mut h = table_ranked(
+        &path,
+        planewise::study::EnvelopeMeasure::Utilization(
+            planewise::mechanics::criteria::Criterion::VonMises,
+        ),
     );
-    h.run();
-    type_into(&mut h, "Table file path", path.to_str().unwrap());
-    h.get_by_label("Preview").click();
-    h.run();
-    choose_table_unit(&mut h, "MPa");
-    h.get_by_label("Read and rank").click();
-    wait_for_table(&mut h);
     h.run();
     for (header, cell) in [
         ("element id", "E1"),
