@@ -436,7 +436,7 @@ fn clicking_the_mohr_diagram_moves_the_plane_to_that_point() {
 fn dragging_the_normal_handle_turns_the_plane_in_one_undo_step() {
     use planewise::scene::{NORMAL_LENGTH, Scene};
     let mut h = harness();
-    let rect = h.get_by_label_contains("Drag the white handle").rect();
+    let rect = h.get_by_label("3D view picture").rect();
     let app = h.state();
     let camera = app.settings.camera;
     let d = Derived::new(&app.project);

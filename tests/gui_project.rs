@@ -988,3 +988,23 @@ fn table_headers_stand_over_their_columns() {
         );
     }
 }
+
+/// The 3D view's help sits on a "?" inside the picture and shows there, once, below the tabs
+/// and tools (it used to be the whole picture's tooltip, drawn over the tab row).
+#[test]
+fn the_view_help_covers_no_control() {
+    let mut h = demo();
+    let tab = h.get_by_label("3D view").rect();
+    h.get_by_label("3D view help").hover();
+    h.run_steps(30);
+    let shown: Vec<egui::Rect> = h
+        .get_all_by_label_contains("drag to orbit")
+        .map(|n| n.rect())
+        .collect();
+    assert_eq!(shown.len(), 1, "one help text, not the picture's as well");
+    assert!(
+        shown[0].top() > tab.bottom(),
+        "the help {:?} covers the tabs {tab:?}",
+        shown[0]
+    );
+}

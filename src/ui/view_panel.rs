@@ -11,6 +11,12 @@ use crate::study::{Derived, Edit};
 
 use super::notes_panel;
 
+/// Side of the help button in the picture's corner, points.
+const HELP_BUTTON: f32 = 22.0;
+
+/// How the 3D view is driven (the "?" in its corner; Help → Keys and mouse lists it too).
+pub const VIEW_HELP: &str = "3D view: drag to orbit, right-drag to pan, scroll to zoom, double-click to reset. Drag the white handle at the tip of n to turn the cut plane. Keys 1–7: view presets.";
+
 /// Radius of the sphere new notes in the 3D view are pinned on, world units (inside the
 /// cube's corners, outside its face centres).
 const NOTE_SPHERE: f64 = 0.6;
@@ -113,6 +119,7 @@ pub fn view_ui(
 
     let size = ui.available_size().max(egui::vec2(64.0, 64.0));
     let (rect, response) = ui.allocate_exact_size(size, egui::Sense::click_and_drag());
+    response.widget_info(|| egui::WidgetInfo::labeled(egui::Role::Image, true, "3D view picture"));
     let worst = worst_normals(d, settings);
     let input = |settings: &Settings| SceneInput {
         tensor: &d.tensor,
@@ -168,9 +175,6 @@ pub fn view_ui(
             egui::CursorIcon::Grab
         });
     }
-    let response = response.on_hover_text(
-        "3D view: drag to orbit, right-drag to pan, scroll to zoom, double-click to reset. Drag the white handle at the tip of n to turn the cut plane. Keys 1–7: view presets.",
-    );
 
     // Notes: pinned to world points on a sphere inside the cube's corners.
     let shown = notes_panel::on_screen(&d.name, FigureKind::View3d, notes, |pin| match pin {
@@ -261,9 +265,18 @@ pub fn view_ui(
     );
     let shapes = egui_backend::shapes(&frame, rect, ui.ctx());
     ui.painter_at(rect).extend(shapes);
+    // The help sits on a "?" in the picture's lower right corner (free of the legend, the
+    // axes and the labels), never over the tabs and tools above the picture.
+    let help_at = egui::Rect::from_min_size(
+        rect.right_bottom() - egui::vec2(HELP_BUTTON + 6.0, HELP_BUTTON + 6.0),
+        egui::vec2(HELP_BUTTON, HELP_BUTTON),
+    );
+    ui.put(help_at, egui::Button::new("?").small())
+        .on_hover_text(VIEW_HELP)
+        .widget_info(|| egui::WidgetInfo::labeled(egui::Role::Button, true, "3D view help"));
     if folds {
         let at = egui::Rect::from_min_size(
-            rect.right_bottom() - egui::vec2(64.0, 30.0),
+            rect.right_bottom() - egui::vec2(64.0 + HELP_BUTTON + 6.0, 30.0),
             egui::vec2(56.0, 22.0),
         );
         let text = if key_open { "Hide key" } else { "Key" };
