@@ -23,7 +23,7 @@ with open(sys.argv[1], "w") as f:
              random.gauss(0, 20) + 60 * k, random.gauss(0, 8), random.gauss(0, 10)]
         f.write(f"E{i + 1},{x:.2f},{y:.2f}," + ",".join(f"{a:.3f}" for a in v) + "\n")
 PY
-scripts/gui-smoke.sh screenshots/window-table.png table --table target/screenshot-table.csv
+scripts/gui-smoke.sh screenshots/window-table.png table --table target/screenshot-table.csv --table-unit MPa
 # The built-in demo project (an invented scenario) and its first factored combination; the cut
 # plane comes from the project.
 demo=(--project assets/demo-bracket-project.json --case "ULS 1")

@@ -1220,9 +1220,13 @@ pub fn run(
     screenshot: Option<&Path>,
     tab: Option<Central>,
     project: Option<&Path>,
-    table: Option<&Path>,
+    table: Option<(&Path, Option<crate::mechanics::StressUnit>)>,
 ) -> anyhow::Result<()> {
-    const HEADLESS: &str = "the headless subcommands analyze, figure, worst-plane, map and mohr need none (see planewise --help)";
+    let names = crate::cli::subcommand_names();
+    let headless = format!(
+        "the subcommands {} need none (see planewise --help)",
+        crate::format::series(&names)
+    );
     // A project named on the command line must load before the window opens: a bad file is
     // said on one line, as for every other bad input.
     let project = project
@@ -1237,7 +1241,7 @@ pub fn run(
         && std::env::var_os("WAYLAND_DISPLAY").is_none()
     {
         anyhow::bail!(
-            "no display found (neither DISPLAY nor WAYLAND_DISPLAY is set), so the window cannot open; {HEADLESS}"
+            "no display found (neither DISPLAY nor WAYLAND_DISPLAY is set), so the window cannot open; {headless}"
         );
     }
     let options = eframe::NativeOptions {
@@ -1251,7 +1255,7 @@ pub fn run(
     let outcome: Arc<Mutex<Option<Result<(), String>>>> = Arc::new(Mutex::new(None));
     let outcome_for_app = Arc::clone(&outcome);
     let shot = screenshot.map(Path::to_path_buf);
-    let table = table.map(Path::to_path_buf);
+    let table = table.map(|(path, unit)| (path.to_path_buf(), unit));
     eframe::run_native(
         "planewise",
         options,
@@ -1275,9 +1279,13 @@ pub fn run(
             if let Some(tab) = tab {
                 app.settings.central = tab;
             }
-            if let Some(path) = &table {
-                app.settings.central = Central::Table;
-                app.open_table(path);
+            if let Some((path, unit)) = table {
+                app.open_table(&path);
+                // A unit said on the command line is the user's: the table is read at once.
+                if let Some(unit) = unit {
+                    app.table_panel.unit = Some(unit);
+                    app.table_panel.start(&cc.egui_ctx, &app.project);
+                }
             }
             if let Some(path) = shot {
                 app.screenshot_on_start(path);
@@ -1294,7 +1302,7 @@ pub fn run(
             .unwrap_or(&text)
             .trim()
             .to_owned();
-        anyhow::anyhow!("could not open the window ({text}); {HEADLESS}")
+        anyhow::anyhow!("could not open the window ({text}); {headless}")
     })?;
     if screenshot.is_some() {
         let result = outcome

@@ -130,6 +130,16 @@ pub fn round_step(x: f64) -> f64 {
     step * p
 }
 
+/// Items as a sentence lists them: `a`, `a and b`, `a, b and c`.
+#[must_use]
+pub fn series(items: &[String]) -> String {
+    match items {
+        [] => String::new(),
+        [one] => one.clone(),
+        [rest @ .., last] => format!("{} and {last}", rest.join(", ")),
+    }
+}
+
 #[cfg(test)]
 mod tests {
     use super::sig;

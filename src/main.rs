@@ -24,7 +24,15 @@ fn main() -> ExitCode {
                 .take_while(|l| !l.trim().is_empty())
                 .map(str::trim)
                 .collect();
-            let message = message.join(" ");
+            let mut message = message.join(" ");
+            // clap's "tip: a similar subcommand exists: 'analyze'" follows the blank line.
+            for tip in rendered
+                .lines()
+                .filter_map(|l| l.trim().strip_prefix("tip: "))
+            {
+                message.push_str("; ");
+                message.push_str(tip);
+            }
             let message = message.strip_prefix("error: ").unwrap_or(&message);
             eprintln!("planewise: {message} (see planewise --help)");
             return ExitCode::from(2);
@@ -35,7 +43,7 @@ fn main() -> ExitCode {
             cli.screenshot.as_deref(),
             cli.tab,
             cli.project.as_deref(),
-            cli.table.as_deref(),
+            cli.table.as_deref().map(|t| (t, cli.table_unit)),
         ) {
             Ok(()) => ExitCode::SUCCESS,
             Err(e) => {

@@ -21,6 +21,43 @@ pub enum NumberError {
     /// A non-zero number so small that it becomes zero in f64.
     #[error("'{0}' is too small (it underflows to zero)")]
     Underflow(String),
+    /// A number with a unit written after it.
+    #[error(
+        "'{text}' has a unit in it: write {number} alone and give {unit} once as the unit of every stress, with --unit or the window's unit picker"
+    )]
+    UnitInside {
+        /// As typed.
+        text: String,
+        /// The number part.
+        number: String,
+        /// The unit as Planewise spells it.
+        unit: String,
+    },
+}
+
+/// `275MPa`, `120 kpa`: a number followed by a stress unit's symbol (any case), split.
+fn unit_inside(t: &str) -> Option<NumberError> {
+    let symbols = crate::mechanics::StressUnit::ALL
+        .into_iter()
+        .map(|u| (u.symbol(), u.symbol()))
+        .chain(["N/mm²", "N/mm2", "N/mm^2"].map(|n| (n, "MPa")));
+    for (written, unit) in symbols {
+        let Some(cut) = t.len().checked_sub(written.len()) else {
+            continue;
+        };
+        let (Some(number), Some(suffix)) = (t.get(..cut), t.get(cut..)) else {
+            continue;
+        };
+        let number = number.trim();
+        if suffix.eq_ignore_ascii_case(written) && number.parse::<f64>().is_ok() {
+            return Some(NumberError::UnitInside {
+                text: t.to_owned(),
+                number: number.to_owned(),
+                unit: unit.to_owned(),
+            });
+        }
+    }
+    None
 }
 
 /// Parses one finite decimal number; surrounding white space is ignored.
@@ -31,7 +68,7 @@ pub fn number(text: &str) -> Result<f64, NumberError> {
     }
     let value: f64 = t
         .parse()
-        .map_err(|_| NumberError::NotANumber(t.to_owned()))?;
+        .map_err(|_| unit_inside(t).unwrap_or_else(|| NumberError::NotANumber(t.to_owned())))?;
     if value == 0.0 {
         // "1e-400" parses to 0; a non-zero digit before the exponent means the user meant
         // something else than zero.
@@ -74,6 +111,11 @@ pub enum StressListError {
     /// An item has no `=`.
     #[error("item '{0}' is not of the form key=value")]
     NotKeyValue(String),
+    /// Bare numbers, as other tools write a tensor: their order is not known.
+    #[error(
+        "{0} bare numbers: components are named, since tools order them differently (xx yy zz xy yz zx, or Voigt's xx yy zz yz zx xy); write xx=…,yy=…,zz=…,xy=…,yz=…,zx=… (omitted ones are 0)"
+    )]
+    BareNumbers(usize),
     /// A key is none of xx yy zz xy yz zx (or yx zy xz).
     #[error("unknown component '{0}' (expected xx, yy, zz, xy, yz, zx)")]
     UnknownKey(String),
@@ -97,6 +139,14 @@ pub fn stress_list(text: &str) -> Result<[f64; 6], StressListError> {
     let mut seen = [false; 6];
     if text.split(',').all(|s| s.trim().is_empty()) {
         return Err(StressListError::Empty);
+    }
+    let items: Vec<&str> = text
+        .split([',', ';', ' ', '\t'])
+        .map(str::trim)
+        .filter(|s| !s.is_empty())
+        .collect();
+    if items.len() > 1 && items.iter().all(|i| i.parse::<f64>().is_ok()) {
+        return Err(StressListError::BareNumbers(items.len()));
     }
     for item in text.split(',').map(str::trim).filter(|s| !s.is_empty()) {
         let Some((key, value)) = item.split_once('=') else {

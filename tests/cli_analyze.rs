@@ -223,9 +223,98 @@ fn without_a_display_the_window_says_so_in_one_line() {
     let stderr = String::from_utf8_lossy(&out.stderr);
     assert_eq!(stderr.trim_end().lines().count(), 1, "{stderr}");
     assert!(stderr.contains("no display found"), "{stderr}");
+    // Every subcommand, from the command definitions.
+    for name in planewise::cli::subcommand_names() {
+        assert!(stderr.contains(&name), "{name}: {stderr}");
+    }
     assert!(
-        stderr.contains("analyze") && stderr.contains("figure"),
+        stderr.contains("batch") && stderr.contains("report"),
         "{stderr}"
     );
     assert!(!stderr.contains(".rs"), "{stderr}");
+}
+
+/// Messages that say what to do instead (issue: the first hour at the command line).
+#[test]
+fn messages_say_what_was_meant() {
+    let demo = concat!(
+        env!("CARGO_MANIFEST_DIR"),
+        "/assets/demo-bracket-project.json"
+    );
+    common::assert_bad_input(
+        "analyze",
+        &[
+            // Bare numbers: components are named, in no order guessed.
+            (
+                &["--stress", "120,-35,15,48,-12,22"],
+                "6 bare numbers: components are named",
+            ),
+            (&["--stress", "1 2 3 4 5 6 7 8 9"], "9 bare numbers"),
+            // A unit in the wrong case: did you mean; mPa stays refused as millipascals.
+            (&["--stress", "xx=1", "--unit", "Mpa"], "did you mean MPa?"),
+            (&["--stress", "xx=1", "--unit", "kpa"], "did you mean kPa?"),
+            (&["--stress", "xx=1", "--unit", "Ksi"], "did you mean ksi?"),
+            (
+                &["--stress", "xx=1", "--unit", "mPa"],
+                "mPa is millipascals",
+            ),
+            // A unit inside a value goes in --unit.
+            (
+                &["--stress", "xx=120MPa"],
+                "'120MPa' has a unit in it: write 120 alone and give MPa once",
+            ),
+            (
+                &["--stress", "xx=1", "--yield-strength", "275MPa"],
+                "--yield-strength: '275MPa' has a unit in it",
+            ),
+            // An unknown case lists the project's names.
+            (
+                &["--project", demo, "--case", "ULS 3"],
+                "no load case or combination named 'ULS 3' (the project has dead, live, thermal, ULS 1, ULS 2)",
+            ),
+        ],
+    );
+    let mpa = common::planewise(&["analyze", "--stress", "xx=1", "--unit", "mPa"]);
+    assert!(!String::from_utf8_lossy(&mpa.stderr).contains("did you mean"));
+    // A misspelled subcommand gets the one meant.
+    for (typed, meant) in [("analyse", "'analyze'"), ("worstplane", "'worst-plane'")] {
+        let out = common::planewise(&[typed]);
+        let stderr = String::from_utf8_lossy(&out.stderr);
+        assert_eq!(out.status.code(), Some(2));
+        assert_eq!(stderr.trim_end().lines().count(), 1, "{stderr}");
+        assert!(stderr.contains(meant), "{typed}: {stderr}");
+    }
+}
+
+/// The conventions footer follows --help of the subcommands that take a stress convention,
+/// not -h, and not the others; every long help ends with the caution.
+#[test]
+fn the_conventions_footer_is_where_its_options_are() {
+    let help = |args: &[&str]| String::from_utf8(common::planewise_ok(args).stdout).unwrap();
+    for sub in [
+        "analyze",
+        "figure",
+        "worst-plane",
+        "map",
+        "mohr",
+        "explain",
+        "batch",
+    ] {
+        let long = help(&[sub, "--help"]);
+        assert!(
+            long.contains("--compression-positive"),
+            "{sub} takes the option"
+        );
+        assert!(long.contains("Conventions:"), "{sub} --help");
+        assert!(!help(&[sub, "-h"]).contains("Conventions:"), "{sub} -h");
+    }
+    for sub in ["project", "envelope", "rosette", "report"] {
+        let long = help(&[sub, "--help"]);
+        assert!(!long.contains("Conventions:"), "{sub} --help");
+        assert!(
+            long.contains("licensed engineering practice"),
+            "{sub} --help"
+        );
+    }
+    assert!(help(&["worst-plane", "--help"]).contains("largest, or smallest for normal-min"));
 }

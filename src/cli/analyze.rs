@@ -960,10 +960,7 @@ fn study(args: &AnalyzeArgs) -> Result<(crate::study::Project, Shown), ArgError>
         let (mut project, _) =
             crate::study::load(file).map_err(|e| ArgError::new("--project", e))?;
         if !project.name_used(case) {
-            return Err(ArgError::new(
-                "--case",
-                crate::study::StudyError::Unknown(case.clone()),
-            ));
+            return Err(super::no_such_case(&project, case));
         }
         case.clone_into(&mut project.active);
         if let Some(unit) = args.stress.unit {

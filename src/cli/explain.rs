@@ -42,10 +42,7 @@ fn state(args: &ExplainArgs) -> Result<Project, ArgError> {
     let mut project = if let (Some(file), Some(case)) = (&args.stress.project, &args.stress.case) {
         let (mut p, _) = crate::study::load(file).map_err(|e| ArgError::new("--project", e))?;
         if !p.name_used(case) {
-            return Err(ArgError::new(
-                "--case",
-                format!("no load case or combination named '{case}'"),
-            ));
+            return Err(super::no_such_case(&p, case));
         }
         p.active.clone_from(case);
         p

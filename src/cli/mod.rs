@@ -37,9 +37,14 @@ from strike (dip direction − 90°) to that slip, −180° to 180°, reverse +9
 Planewise is an aid for engineers. Check inputs and results independently; design decisions \
 follow the applicable codes and licensed engineering practice.";
 
+/// The caution alone, after the help of subcommands that take no stress convention.
+const CAUTION: &str = "\
+Planewise is an aid for engineers. Check inputs and results independently; design decisions \
+follow the applicable codes and licensed engineering practice.";
+
 /// The program's command line.
 #[derive(Debug, Parser)]
-#[command(name = "planewise", version, about = "Stress at a point: principal stresses, tractions, criteria.", after_help = CONVENTIONS)]
+#[command(name = "planewise", version, about = "Stress at a point: principal stresses, tractions, criteria.", after_long_help = CAUTION)]
 pub struct Cli {
     /// What to do; without a subcommand the desktop window opens.
     #[command(subcommand)]
@@ -54,49 +59,94 @@ pub struct Cli {
     /// Open the window on this project file.
     #[arg(long, value_name = "FILE")]
     pub project: Option<std::path::PathBuf>,
-    /// Open the window's Table tab on this finite-element table and rank it (von Mises, MPa,
-    /// tension positive; change them in the tab).
+    /// Open the window's Table tab on this finite-element table: its preview and column
+    /// mapping; choose the table's unit there, then read and rank it.
     #[arg(long, value_name = "FILE")]
     pub table: Option<std::path::PathBuf>,
+    /// The unit of the --table file's components; given, the table is read and ranked at once
+    /// (von Mises, tension positive; change them in the tab).
+    #[arg(long, value_name = "UNIT", requires = "table", value_parser = values::unit)]
+    pub table_unit: Option<StressUnit>,
 }
 
 /// The subcommands.
 #[derive(Debug, Subcommand)]
 pub enum Command {
     /// Principal stresses, invariants, equivalent stresses and (optionally) the traction on one plane.
-    #[command(after_help = CONVENTIONS)]
+    #[command(after_long_help = CONVENTIONS)]
     Analyze(analyze::AnalyzeArgs),
     /// The annotated 3D view (cube, tractions, cut plane, principal axes) as SVG or PNG.
-    #[command(after_help = CONVENTIONS)]
+    #[command(after_long_help = CONVENTIONS)]
     Figure(figure::FigureArgs),
-    /// The plane orientation(s) on which a measure (shear, slip tendency, Mohr–Coulomb…) is largest.
-    #[command(after_help = CONVENTIONS)]
+    /// The plane orientation(s) on which a measure (shear, slip tendency, Mohr–Coulomb…) is
+    /// largest, or smallest for normal-min.
+    #[command(after_long_help = CONVENTIONS)]
     WorstPlane(worst_plane::WorstPlaneArgs),
     /// Every plane orientation on an equal-area projection, coloured by a measure, as SVG or PNG.
-    #[command(after_help = CONVENTIONS)]
+    #[command(after_long_help = CONVENTIONS)]
     Map(map::MapArgs),
     /// The three Mohr circles with the admissible region, the cut plane's point, the worst planes
     /// of a measure and the Mohr–Coulomb envelope, as SVG or PNG.
-    #[command(after_help = CONVENTIONS)]
+    #[command(after_long_help = CONVENTIONS)]
     Mohr(mohr::MohrArgs),
     /// Create a project file and add load cases and factored combinations to it.
+    #[command(after_long_help = CAUTION)]
     Project(project::ProjectArgs),
     /// One measure over every load case and combination of a project, worst first.
-    #[command(after_help = CONVENTIONS)]
+    #[command(after_long_help = CAUTION)]
     Envelope(envelope::EnvelopeArgs),
     /// Three strain-gauge readings on a free surface: strains, principal strains and angle, and
     /// the plane-stress state with its analysis.
+    #[command(after_long_help = CAUTION)]
     Rosette(rosette::RosetteArgs),
     /// The calculation report of a project: one self-contained HTML file to print and sign.
+    #[command(after_long_help = CAUTION)]
     Report(report::ReportArgs),
     /// The walk-through of a load case (element, cut plane, principal and largest-shear planes,
     /// worst plane, verdict) as numbered annotated figures and an HTML page with the captions.
-    #[command(after_help = CONVENTIONS)]
+    #[command(after_long_help = CONVENTIONS)]
     Explain(explain::ExplainArgs),
     /// A finite-element result table (one stress state per row) ranked by a measure, worst
     /// first, streaming: the top N or every row, as CSV or JSON.
-    #[command(after_help = CONVENTIONS)]
+    #[command(after_long_help = CONVENTIONS)]
     Batch(batch::BatchArgs),
+}
+
+/// `--case` names nothing in the project: said with the names it has.
+#[must_use]
+pub fn no_such_case(project: &crate::study::Project, case: &str) -> ArgError {
+    const SHOWN: usize = 12;
+    let names: Vec<&str> = project
+        .cases
+        .iter()
+        .map(|c| c.name.as_str())
+        .chain(project.combinations.iter().map(|c| c.name.as_str()))
+        .collect();
+    let list = if names.is_empty() {
+        "the project has none".to_owned()
+    } else if names.len() > SHOWN {
+        format!(
+            "the project has {}, … ({} in all; planewise project show lists them)",
+            names[..SHOWN].join(", "),
+            names.len()
+        )
+    } else {
+        format!("the project has {}", names.join(", "))
+    };
+    ArgError::new(
+        "--case",
+        format!("no load case or combination named '{case}' ({list})"),
+    )
+}
+
+/// The names of every subcommand, for messages (from the command definitions).
+#[must_use]
+pub fn subcommand_names() -> Vec<String> {
+    use clap::CommandFactory as _;
+    Cli::command()
+        .get_subcommands()
+        .map(|c| c.get_name().to_owned())
+        .collect()
 }
 
 /// The stress state, as every subcommand takes it.
@@ -148,9 +198,13 @@ impl StressArgs {
             ));
         }
         let (project, _) = crate::study::load(file).map_err(|e| ArgError::new("--project", e))?;
-        let tensor = project
-            .tensor(case)
-            .map_err(|e| ArgError::new("--case", e))?;
+        let tensor = project.tensor(case).map_err(|e| {
+            if project.name_used(case) {
+                ArgError::new("--case", e)
+            } else {
+                no_such_case(&project, case)
+            }
+        })?;
         let project_unit = project.unit().map_err(|e| ArgError::new("--project", e))?;
         let convention = if self.compression_positive {
             SignConvention::CompressionPositive

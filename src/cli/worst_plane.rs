@@ -1,4 +1,5 @@
-//! `planewise worst-plane`: the plane orientation(s) where a measure is largest.
+//! `planewise worst-plane`: the plane orientation(s) where a measure is largest (smallest for
+//! normal-min).
 
 use std::fmt::Write as _;
 

@@ -88,12 +88,32 @@ impl fmt::Display for StressUnit {
     }
 }
 
-/// The unit text was none of Pa, kPa, MPa, GPa, bar, psi, ksi (or N/mm² for MPa).
+/// The unit text was none of Pa, kPa, MPa, GPa, bar, psi, ksi (or N/mm² for MPa). The message
+/// suggests the unit a wrong case was likely meant as (`Mpa` → MPa), except that `mPa` is
+/// millipascals, said as such and never read as MPa.
 #[derive(Debug, Clone, PartialEq, Eq, thiserror::Error)]
-#[error(
-    "unknown stress unit '{0}' (expected one of Pa, kPa, MPa (alias N/mm²), GPa, bar, psi, ksi, written exactly so)"
-)]
+#[error("unknown stress unit '{0}': {hint}", hint = self.hint())]
 pub struct UnknownUnit(pub String);
+
+impl UnknownUnit {
+    fn hint(&self) -> String {
+        let t = self.0.trim();
+        let expected =
+            "the units are Pa, kPa, MPa or N/mm², GPa, bar, psi and ksi, written exactly so";
+        if t == "mPa" {
+            return format!(
+                "mPa is millipascals, which Planewise does not take; megapascals are MPa. {expected}"
+            );
+        }
+        match StressUnit::ALL
+            .into_iter()
+            .find(|u| u.symbol().eq_ignore_ascii_case(t))
+        {
+            Some(u) => format!("did you mean {u}? Unit symbols are case-sensitive; {expected}"),
+            None => expected.to_owned(),
+        }
+    }
+}
 
 impl FromStr for StressUnit {
     type Err = UnknownUnit;

@@ -541,15 +541,28 @@ impl TablePanel {
         // One width per column, shared by its header and its cells: wide enough for the
         // header's words and its sort mark, so no header drifts over the next column.
         let base = (ui.available_width() / columns.len() as f32 - 8.0).clamp(58.0, 110.0);
-        let small = egui::TextStyle::Small.resolve(ui.style());
-        let pad = 2.0 * ui.spacing().button_padding.x;
+        // Measured in the largest of the styles a button's text may take.
+        let fonts: Vec<egui::FontId> = [egui::TextStyle::Button, egui::TextStyle::Body]
+            .iter()
+            .map(|t| t.resolve(ui.style()))
+            .collect();
+        let pad = 2.0 * ui.spacing().button_padding.x + 4.0;
         let widths: Vec<f32> = columns
             .iter()
             .map(|(name, _)| {
                 let text = ui.ctx().fonts_mut(|f| {
-                    f.layout_no_wrap(format!("{name} ↓"), small.clone(), egui::Color32::WHITE)
-                        .size()
-                        .x
+                    fonts
+                        .iter()
+                        .map(|font| {
+                            f.layout_no_wrap(
+                                format!("{name} ↓"),
+                                font.clone(),
+                                egui::Color32::WHITE,
+                            )
+                            .size()
+                            .x
+                        })
+                        .fold(0.0, f32::max)
                 });
                 base.max((text + pad).ceil()).min(240.0)
             })
