@@ -894,6 +894,7 @@ impl PlanewiseApp {
                 Key::Num5,
                 Key::Num6,
                 Key::Num7,
+                Key::Num8,
             ];
             for (key, preset) in keys.into_iter().zip(ViewPreset::ALL) {
                 if ctx.input_mut(|i| i.consume_key(Modifiers::NONE, key)) {

@@ -165,3 +165,64 @@ fn explain_writes_numbered_figures_and_a_page_with_the_captions() {
     assert_eq!(out.status.code(), Some(2));
     assert!(String::from_utf8_lossy(&out.stderr).contains("--case"));
 }
+
+/// Each step's camera shows the vectors it talks about near full length: in orthographic
+/// projection a unit vector v is seen sqrt(1 − (e·v)²) long, e towards the eye; at least 60 %
+/// for the plane's normal, its shear direction and the traction (cut plane, largest shear,
+/// worst plane) and for σ1's and σ3's directions (principal planes), for every demo case and
+/// combination. The traction t = σ·n and τ = t − σn·n: Cauchy's formula (any mechanics text).
+#[test]
+fn each_step_sees_its_vectors_near_full_length() {
+    use planewise::mechanics::PlaneNormal;
+    let project = Project::demo();
+    let names: Vec<String> = project
+        .cases
+        .iter()
+        .map(|c| c.name.clone())
+        .chain(project.combinations.iter().map(|c| c.name.clone()))
+        .collect();
+    let seen = |e: &nalgebra::Vector3<f64>, v: &nalgebra::Vector3<f64>| {
+        let u = v.normalize();
+        (1.0 - e.dot(&u).powi(2)).max(0.0).sqrt()
+    };
+    for name in &names {
+        let d = demo_case(name);
+        let m = d.tensor.matrix_pa();
+        let plane_vectors = |n: &PlaneNormal| {
+            let n = n.vector();
+            let t = m * n;
+            let tau = t - n * n.dot(&t);
+            let mut out = vec![("n", n), ("t", t)];
+            // A shear below 1e-6 of the traction has no direction to see.
+            if tau.norm() > 1e-6 * t.norm() {
+                out.push(("τ", tau));
+            }
+            out
+        };
+        for step in steps(&d) {
+            let e = step.camera.towards_eye();
+            let vectors: Vec<(&str, nalgebra::Vector3<f64>)> = match step.kind {
+                StepKind::CutPlane | StepKind::MaxShear | StepKind::Worst => {
+                    plane_vectors(&step.plane)
+                }
+                StepKind::Principal => vec![
+                    ("n1", d.analysis.principal.directions[0]),
+                    ("n3", d.analysis.principal.directions[2]),
+                ],
+                _ => continue,
+            };
+            for (what, v) in vectors {
+                if v.norm() == 0.0 {
+                    continue;
+                }
+                let fraction = seen(&e, &v);
+                assert!(
+                    fraction >= 0.6,
+                    "{name}, step {:?}: {what} seen at {:.0} % of its length",
+                    step.kind,
+                    100.0 * fraction
+                );
+            }
+        }
+    }
+}

@@ -33,7 +33,7 @@ pub struct FigureArgs {
     #[arg(
         long,
         value_name = "VIEW",
-        default_value = "iso",
+        default_value = "three-quarter",
         allow_hyphen_values = true
     )]
     pub view: ViewPreset,

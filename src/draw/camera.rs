@@ -16,6 +16,9 @@ pub enum Projection {
 /// Named view directions.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize, Deserialize)]
 pub enum ViewPreset {
+    /// Eye off every symmetry axis, a little above (yaw 30°, pitch 20°): near and far corners
+    /// of the cube stand apart, so it reads one way round. The start view.
+    ThreeQuarter,
     /// Eye along (1, 1, 1).
     Isometric,
     /// Eye on +x looking back at the origin.
@@ -34,7 +37,8 @@ pub enum ViewPreset {
 
 impl ViewPreset {
     /// All presets in menu order.
-    pub const ALL: [Self; 7] = [
+    pub const ALL: [Self; 8] = [
+        Self::ThreeQuarter,
         Self::Isometric,
         Self::PosX,
         Self::NegX,
@@ -48,6 +52,7 @@ impl ViewPreset {
     #[must_use]
     pub fn key(self) -> &'static str {
         match self {
+            Self::ThreeQuarter => "three-quarter",
             Self::Isometric => "iso",
             Self::PosX => "x",
             Self::NegX => "-x",
@@ -68,6 +73,7 @@ impl ViewPreset {
     #[must_use]
     pub fn label(self) -> &'static str {
         match self {
+            Self::ThreeQuarter => "Three-quarter",
             Self::Isometric => "Isometric",
             Self::PosX => "From +x",
             Self::NegX => "From −x",
@@ -83,6 +89,7 @@ impl ViewPreset {
     pub fn yaw_pitch_deg(self) -> (f64, f64) {
         let iso_pitch = (1.0 / 2.0_f64.sqrt()).atan().to_degrees();
         match self {
+            Self::ThreeQuarter => (30.0, 20.0),
             Self::Isometric => (45.0, iso_pitch),
             Self::PosX => (0.0, 0.0),
             Self::NegX => (180.0, 0.0),
@@ -111,8 +118,9 @@ pub struct Camera {
 }
 
 impl Default for Camera {
+    /// The three-quarter view: off-axis, so the cube does not read as a flat hexagon.
     fn default() -> Self {
-        Self::from_preset(ViewPreset::Isometric)
+        Self::from_preset(ViewPreset::ThreeQuarter)
     }
 }
 

@@ -566,6 +566,33 @@ fn push_triad(frame: &mut Frame, view: &ScreenFromWorld, sizes: Sizes) {
         ("y", Vector3::y()),
         ("z", Vector3::z()),
     ];
+    // Labels beyond the axes' tips, pushed apart where two axes point almost the same way on
+    // screen (an eye between +x and −y, low down, sees x and y both going right).
+    let mut labels: [[f32; 2]; 3] = std::array::from_fn(|i| {
+        let [sx, sy] = view.screen_direction(&axes[i].1);
+        [
+            origin[0] + (sx * len * 1.3) as f32,
+            origin[1] + (sy * len * 1.3) as f32,
+        ]
+    });
+    let apart = 1.3 * sizes.text;
+    for _ in 0..4 {
+        for (a, b) in [(0, 1), (0, 2), (1, 2)] {
+            let d = [labels[b][0] - labels[a][0], labels[b][1] - labels[a][1]];
+            let dist = d[0].hypot(d[1]);
+            if dist >= apart {
+                continue;
+            }
+            let dir = if dist > 1e-3 {
+                [d[0] / dist, d[1] / dist]
+            } else {
+                [0.0, 1.0]
+            };
+            let push = 0.5 * (apart - dist);
+            labels[a] = [labels[a][0] - dir[0] * push, labels[a][1] - dir[1] * push];
+            labels[b] = [labels[b][0] + dir[0] * push, labels[b][1] + dir[1] * push];
+        }
+    }
     // Draw the axis pointing most away from the viewer first.
     let mut order: Vec<usize> = vec![0, 1, 2];
     let eye = view.towards_eye();
@@ -580,12 +607,8 @@ fn push_triad(frame: &mut Frame, view: &ScreenFromWorld, sizes: Sizes) {
             width: 2.0 * sizes.line,
             color: style::AXES[i],
         });
-        let label_at = [
-            origin[0] + (sx * len * 1.3) as f32,
-            origin[1] + (sy * len * 1.3) as f32,
-        ];
         frame.prims.push(Prim::Text {
-            at: label_at,
+            at: labels[i],
             text: (*name).to_owned(),
             size: sizes.text,
             color: style::AXES[i],

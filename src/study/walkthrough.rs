@@ -71,13 +71,51 @@ fn camera(yaw_deg: f64, pitch_deg: f64) -> Camera {
     }
 }
 
-/// A camera that sees `n` from the side a little above, so a plane with normal `n` is seen
-/// at an angle rather than edge-on or face-on.
-fn camera_for(n: &PlaneNormal) -> Camera {
+/// A camera that shows the plane with normal `n` and a direction `along` in it (its shear
+/// direction) near full length: the eye looks mostly along n × along (perpendicular to both),
+/// turned a little towards n and along so the plane is seen at an angle rather than edge-on,
+/// from above where it can. Every vector in the span of n and `along` (the traction too) is
+/// then seen at least 0.87 of its length in orthographic projection.
+fn camera_seeing(n: &nalgebra::Vector3<f64>, along: &nalgebra::Vector3<f64>) -> Camera {
+    let n = n.normalize();
+    // The in-plane direction: `along` less its part on n, or any direction of the plane.
+    let in_plane = {
+        let a = along - n * along.dot(&n);
+        // Round-off shear (below 1e-9 of the traction) has no direction worth showing.
+        if a.norm() > 1e-9 * along.norm() && a.norm() > 0.0 {
+            a.normalize()
+        } else {
+            let helper = if n.z.abs() < 0.9 {
+                nalgebra::Vector3::z()
+            } else {
+                nalgebra::Vector3::x()
+            };
+            (helper - n * helper.dot(&n)).normalize()
+        }
+    };
+    let side = n.cross(&in_plane);
+    let eye = |s: f64| (side * s + n * 0.45 + in_plane * 0.3).normalize();
+    let (up, down) = (eye(1.0), eye(-1.0));
+    let e = if up.z >= down.z { up } else { down };
+    // At least 15° above the horizon: from the horizon the x and y axes of the triad would
+    // lie on one line.
+    camera(
+        e.y.atan2(e.x).to_degrees(),
+        e.z.clamp(-1.0, 1.0).asin().to_degrees().max(15.0),
+    )
+}
+
+/// The shear direction of the traction on the plane with normal `n` (any in-plane direction
+/// when there is no shear).
+fn shear_direction(t: &crate::mechanics::StressTensor, n: &PlaneNormal) -> nalgebra::Vector3<f64> {
+    let ps = PlaneStress::new(t, *n, SignConvention::TensionPositive);
     let v = n.vector();
-    // Look from 50° around the vertical axis from the normal's horizontal direction.
-    let yaw = v.y.atan2(v.x).to_degrees() + 50.0;
-    camera(yaw, 25.0)
+    ps.traction_pa - v * ps.normal_stress_pa
+}
+
+/// [`camera_seeing`] for the plane `n` and its traction's shear direction.
+fn camera_for(t: &crate::mechanics::StressTensor, n: &PlaneNormal) -> Camera {
+    camera_seeing(&n.vector(), &shear_direction(t, n))
 }
 
 /// A vector written with three decimals.
@@ -144,7 +182,7 @@ pub fn steps(d: &Derived) -> Vec<Step> {
             shown(ps.normal_stress_pa),
             value(ps.shear_stress_pa),
         ),
-        camera: camera_for(&d.plane),
+        camera: camera_for(t, &d.plane),
         layers: Layers {
             cut_plane: true,
             ..base
@@ -169,7 +207,8 @@ pub fn steps(d: &Derived) -> Vec<Step> {
             value(s3),
             d.convention.key(),
         ),
-        camera: camera_for(&p1),
+        // σ1 along the normal and σ3 in the plane: both seen near full length.
+        camera: camera_seeing(&n1, &a.principal.directions[2]),
         layers: Layers {
             cut_plane: true,
             principal_axes: true,
@@ -191,7 +230,7 @@ pub fn steps(d: &Derived) -> Vec<Step> {
             vector_text(&m),
             value(0.5 * (s1 + s3)),
         ),
-        camera: camera_for(&pm),
+        camera: camera_for(t, &pm),
         layers: Layers {
             cut_plane: true,
             principal_axes: true,
@@ -239,7 +278,7 @@ pub fn steps(d: &Derived) -> Vec<Step> {
         kind: StepKind::Worst,
         title: format!("The worst plane for {key}"),
         text,
-        camera: camera_for(&plane),
+        camera: camera_for(t, &plane),
         layers: Layers {
             cut_plane: true,
             worst_planes: true,

@@ -15,7 +15,7 @@ use super::notes_panel;
 const HELP_BUTTON: f32 = 22.0;
 
 /// How the 3D view is driven (the "?" in its corner; Help → Keys and mouse lists it too).
-pub const VIEW_HELP: &str = "3D view: drag to orbit, right-drag to pan, scroll to zoom, double-click to reset. Drag the white handle at the tip of n to turn the cut plane. Keys 1–7: view presets.";
+pub const VIEW_HELP: &str = "3D view: drag to orbit, right-drag to pan, scroll to zoom, double-click to reset. Drag the white handle at the tip of n to turn the cut plane. Keys 1–8: view presets.";
 
 /// Radius of the sphere new notes in the 3D view are pinned on, world units (inside the
 /// cube's corners, outside its face centres).
@@ -90,6 +90,7 @@ pub fn view_ui(
     ui.horizontal_wrapped(|ui| {
         for (i, preset) in ViewPreset::ALL.into_iter().enumerate() {
             let text = match preset {
+                ViewPreset::ThreeQuarter => "¾".to_owned(),
                 ViewPreset::Isometric => "iso".to_owned(),
                 other => other.key().replace('-', "−"),
             };
