@@ -27,6 +27,14 @@ pub fn sig(value: f64, significant: usize) -> String {
     if text == "-0" { "0".to_owned() } else { text }
 }
 
+/// [`sig`] with a true minus sign (U+2212), for numbers a person reads in the window, the
+/// figures and the walk-through; copies and files meant for other programs keep [`sig`]'s
+/// hyphen-minus, which spreadsheets read. Fields that take typed numbers read both.
+#[must_use]
+pub fn readable(value: f64, significant: usize) -> String {
+    sig(value, significant).replace('-', "−")
+}
+
 /// `value` rounded to 15 significant digits: what a converted number can be trusted to, so
 /// that 30 ksi typed and converted to pascals and back reads 30, not 30.000000000000004.
 /// Used on every number the JSON output carries.

@@ -62,7 +62,9 @@ fn unit_inside(t: &str) -> Option<NumberError> {
 
 /// Parses one finite decimal number; surrounding white space is ignored.
 pub fn number(text: &str) -> Result<f64, NumberError> {
-    let t = text.trim();
+    // The true minus sign the window shows reads as the hyphen-minus it stands for.
+    let minus = text.trim().replace('−', "-");
+    let t = minus.as_str();
     if t.is_empty() {
         return Err(NumberError::Empty);
     }

@@ -284,6 +284,17 @@ fn csv_cell(text: &str) -> String {
     }
 }
 
+/// A cell for a spreadsheet: a number shown with a true minus sign gets the hyphen-minus
+/// spreadsheets read as negative; other text is left as it is.
+fn for_spreadsheet(cell: &str) -> std::borrow::Cow<'_, str> {
+    let hyphen = cell.replace('−', "-");
+    if hyphen != cell && hyphen.trim().parse::<f64>().is_ok() {
+        std::borrow::Cow::Owned(hyphen)
+    } else {
+        std::borrow::Cow::Borrowed(cell)
+    }
+}
+
 impl TextTable {
     /// The table in `format`.
     #[must_use]
@@ -293,7 +304,8 @@ impl TextTable {
             CopyFormat::Tsv => {
                 let _ = writeln!(s, "{}", self.title);
                 for row in std::iter::once(&self.header).chain(&self.rows) {
-                    let _ = writeln!(s, "{}", row.join("\t"));
+                    let cells: Vec<_> = row.iter().map(|c| for_spreadsheet(c)).collect();
+                    let _ = writeln!(s, "{}", cells.join("\t"));
                 }
             }
             CopyFormat::Markdown => {
@@ -323,7 +335,7 @@ impl TextTable {
                         s,
                         "{}",
                         row.iter()
-                            .map(|c| csv_cell(c))
+                            .map(|c| csv_cell(&for_spreadsheet(c)))
                             .collect::<Vec<_>>()
                             .join(",")
                     );

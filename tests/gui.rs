@@ -140,6 +140,15 @@ fn bad_text_shows_an_error_and_keeps_the_state() {
     }
 }
 
+/// A cell shows a true minus sign and reads both it and the hyphen-minus.
+#[test]
+fn a_cell_reads_a_true_minus_sign() {
+    let mut h = harness();
+    type_into(&mut h, "σyy", "−42.5");
+    assert_eq!(h.state().stress_panel.first_error(), None);
+    assert!((mpa(h.state(), Component::Yy) + 42.5).abs() < 1e-12);
+}
+
 /// A cell holds one number, so a decimal comma reads as the decimal point it is.
 #[test]
 fn a_decimal_comma_in_a_cell_reads_as_a_decimal_point() {
@@ -247,7 +256,8 @@ fn compression_positive_shows_negated_cells() {
     let mut h = harness();
     h.get_by_label("compression +").click();
     h.run();
-    assert_eq!(input(&h, "σxx").value().as_deref(), Some("-120"));
+    // A true minus sign, as every number a person reads in the window.
+    assert_eq!(input(&h, "σxx").value().as_deref(), Some("−120"));
     // Typing in the compression-positive convention stores the physical (tension-positive) value.
     type_into(&mut h, "σxx", "30");
     assert!((mpa(h.state(), Component::Xx) - -30.0).abs() < 1e-12);

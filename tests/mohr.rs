@@ -298,8 +298,10 @@ fn tick_labels(figure: &MohrFigure) -> Vec<String> {
         .filter_map(|p| match p {
             planewise::draw::Prim::Text {
                 at, text, anchor, ..
-            } if *anchor == planewise::draw::Anchor::Center && text.parse::<f64>().is_ok() => {
-                Some((at[0], text.clone()))
+            } if *anchor == planewise::draw::Anchor::Center
+                && planewise::parse::number(text).is_ok() =>
+            {
+                Some((at[0], text.replace('−', "-")))
             }
             _ => None,
         })
@@ -379,7 +381,8 @@ fn the_mohr_figure_writes_the_cut_plane_values_and_whether_the_envelope_is_cross
         );
         assert_eq!(svg.contains("no circle reaches it"), !crosses, "{stress}");
         // The cut plane (the x face) carries σn = σxx and no shear.
-        let sxx = stress.trim_start_matches("xx=");
+        // Figures write a true minus sign.
+        let sxx = stress.trim_start_matches("xx=").replace('-', "−");
         assert!(
             svg.contains(&format!("● cut plane: σn = {sxx} MPa, τ = 0 MPa")),
             "{stress}"

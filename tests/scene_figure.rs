@@ -458,11 +458,11 @@ fn looking_down_z_the_element_is_the_plane_element_with_its_principal_copy() {
     let texts: Vec<&str> = scene.labels.iter().map(|l| l.text.as_str()).collect();
     for expected in [
         "σxx = 120 MPa",
-        "σyy = -35 MPa",
+        "σyy = −35 MPa",
         "τxy = 48 MPa",
         "τyx = 48 MPa",
         "σI = 133.7 MPa",
-        "σII = -48.66 MPa",
+        "σII = −48.66 MPa",
         "θp = 15.9° from x",
     ] {
         assert!(texts.contains(&expected), "{expected} not in {texts:?}");

@@ -37,7 +37,8 @@ fn principal_from_analyze() -> Vec<String> {
         .as_array()
         .unwrap()
         .iter()
-        .map(|x| format!("{} MPa", sig(x.as_f64().unwrap(), 4)))
+        // Written for a person: a true minus sign.
+        .map(|x| format!("{} MPa", sig(x.as_f64().unwrap(), 4).replace('-', "−")))
         .collect()
 }
 
@@ -224,5 +225,25 @@ fn each_step_sees_its_vectors_near_full_length() {
                 );
             }
         }
+    }
+}
+
+/// The worst-plane step says each quantity once (with the shear measure, τ is the value; the
+/// step does not repeat it), and names the measure as the trade writes it.
+#[test]
+fn the_worst_plane_step_says_each_quantity_once() {
+    for name in ["dead", "ULS 1"] {
+        let d = demo_case(name);
+        let step = steps(&d)
+            .into_iter()
+            .find(|s| s.kind == StepKind::Worst)
+            .unwrap();
+        assert_eq!(
+            d.search.measure,
+            planewise::mechanics::search::Measure::Shear
+        );
+        assert_eq!(step.text.matches("τ =").count(), 1, "{}", step.text);
+        assert_eq!(step.text.matches("σn =").count(), 1, "{}", step.text);
+        assert!(step.title.contains("shear stress τ"), "{}", step.title);
     }
 }

@@ -8,7 +8,7 @@ use nalgebra::Vector3;
 use super::chart::{self, viridis};
 use super::place::{Label, Pinned, draw_notes, place_all};
 use super::{Anchor, Frame, Prim, Sizes, marker};
-use crate::format::{distinct_digits, sig};
+use crate::format::{distinct_digits, readable};
 use crate::mechanics::search::{Cone, Measure, cone_normals};
 use crate::mechanics::stereonet::{OrientationMap, project_pole};
 use crate::mechanics::{PlaneNormal, SignConvention, StressUnit};
@@ -71,11 +71,11 @@ impl MapMeasure {
         if self.measure.is_stress() {
             format!(
                 "{} {}",
-                sig(self.unit.from_pa(value), digits),
+                readable(self.unit.from_pa(value), digits),
                 self.unit.symbol()
             )
         } else {
-            sig(value, digits)
+            readable(value, digits)
         }
     }
 }

@@ -5,7 +5,7 @@
 use super::chart;
 use super::place::{Label, Pinned, draw_notes, place_all};
 use super::{Anchor, Frame, Prim, Sizes, marker};
-use crate::format::{dip_text, sig};
+use crate::format::{dip_text, readable};
 use crate::mechanics::criteria::MohrCoulomb;
 use crate::mechanics::mohr::{Circle, MohrCircles};
 use crate::mechanics::search::{SearchResult, WorstCondition, WorstPlane};
@@ -77,7 +77,7 @@ pub fn worst_label(result: &SearchResult) -> String {
         (WorstCondition::EveryPlane, _) => format!("{key}: every plane alike"),
         (WorstCondition::Cone, Some(cone)) => format!(
             "{key}: a cone of planes at {}° to its axis",
-            sig(cone.half_angle_deg, 4)
+            readable(cone.half_angle_deg, 4)
         ),
         _ => key.to_owned(),
     }
@@ -250,7 +250,7 @@ fn arc(frame: &mut Frame, layout: &MohrLayout, circle: &Circle, width: f32, colo
 fn tick_labels(ticks_pa: &[f64], unit: StressUnit) -> Vec<String> {
     let shown: Vec<f64> = ticks_pa.iter().map(|&v| unit.from_pa(v)).collect();
     let digits = crate::format::distinct_digits(&shown, 4);
-    shown.iter().map(|&v| sig(v, digits)).collect()
+    shown.iter().map(|&v| readable(v, digits)).collect()
 }
 
 /// The figure at `width` × `height` pixels, with text and lines of `sizes` (on screen the
@@ -465,7 +465,7 @@ fn legend(figure: &MohrFigure, width: f32, sizes: Sizes) -> Vec<(String, Rgba)> 
     let unit = figure.unit;
     let sym = unit.symbol();
     let convention = figure.circles.convention;
-    let value = |pa: f64| sig(unit.from_pa(pa), 4);
+    let value = |pa: f64| readable(unit.from_pa(pa), 4);
     let [s1, s2, s3] = figure.circles.principal_pa;
     let mut lines = vec![
         format!(
@@ -495,7 +495,7 @@ fn legend(figure: &MohrFigure, width: f32, sizes: Sizes) -> Vec<(String, Rgba)> 
         lines.push(format!(
             "— Mohr–Coulomb envelope τ = c + (σn − p) tan φ, compression positive: c = {} {sym}, φ = {}°, p = {} {sym}; {}",
             value(env.material.cohesion_pa),
-            sig(env.material.friction_angle_deg, 4),
+            readable(env.material.friction_angle_deg, 4),
             value(env.pore_pressure_pa),
             if crosses(figure, &env) {
                 "the largest circle crosses it: some planes exceed it"

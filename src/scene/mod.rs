@@ -7,7 +7,7 @@ pub mod style;
 use nalgebra::{Point3, Vector3};
 use serde::{Deserialize, Serialize};
 
-use crate::format::sig;
+use crate::format::readable;
 use crate::mechanics::{
     Analysis, PlaneNormal, PlaneStress, SignConvention, StressTensor, StressUnit,
 };
@@ -493,7 +493,7 @@ impl Context<'_> {
     fn value(&self, pa: f64) -> String {
         format!(
             "{} {}",
-            sig(self.input.unit.from_pa(pa), 4),
+            readable(self.input.unit.from_pa(pa), 4),
             self.input.unit.symbol()
         )
     }
@@ -791,7 +791,7 @@ impl Scene {
             self.labels.push(Label {
                 at: centre + ea * (half + 0.15),
                 text: match angle {
-                    Some(deg) => format!("θp = {}° from {}", sig(deg, 3), axis[a]),
+                    Some(deg) => format!("θp = {}° from {}", readable(deg, 3), axis[a]),
                     None => "every in-plane direction is principal".to_owned(),
                 },
                 color: style::INK,

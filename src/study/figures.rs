@@ -249,10 +249,10 @@ pub fn title_block_lines(
     input: &FigureInput,
     date: &str,
 ) -> Vec<String> {
-    use crate::format::sig;
+    use crate::format::readable;
     use crate::mechanics::Component;
     let unit = input.unit;
-    let shown = |pa: f64| sig(unit.from_pa(pa), 5);
+    let shown = |pa: f64| readable(unit.from_pa(pa), 5);
     let mut lines = Vec::new();
     if let Some(t) = title.filter(|t| !t.trim().is_empty()) {
         lines.push(t.trim().to_owned());
@@ -281,7 +281,7 @@ pub fn title_block_lines(
         lines.push(format!(
             "Mohr–Coulomb: c = {} {unit}, φ = {}°, pore pressure p = {} {unit}",
             shown(env.material.cohesion_pa),
-            sig(env.material.friction_angle_deg, 4),
+            readable(env.material.friction_angle_deg, 4),
             shown(env.pore_pressure_pa)
         ));
     } else if let Some(s) = input.search.filter(|_| uses_friction) {
@@ -289,7 +289,7 @@ pub fn title_block_lines(
             format!(
                 ", c = {} {unit}, φ = {}°",
                 shown(m.cohesion_pa),
-                sig(m.friction_angle_deg, 4)
+                readable(m.friction_angle_deg, 4)
             )
         });
         lines.push(format!(

@@ -6,8 +6,9 @@
 
 use super::derived::Derived;
 use crate::draw::camera::Camera;
-use crate::format::{dip_text, sig};
+use crate::format::{dip_text, readable};
 use crate::mechanics::criteria::Outcome;
+use crate::mechanics::search::Measure;
 use crate::mechanics::{Component, PlaneNormal, PlaneStress, SignConvention};
 use crate::scene::Layers;
 
@@ -128,7 +129,7 @@ fn vector_text(v: &nalgebra::Vector3<f64>) -> String {
 pub fn steps(d: &Derived) -> Vec<Step> {
     let unit = d.unit;
     let sign = d.convention.sign();
-    let value = |pa: f64| format!("{} {unit}", sig(unit.from_pa(pa), 4));
+    let value = |pa: f64| format!("{} {unit}", readable(unit.from_pa(pa), 4));
     let shown = |pa: f64| value(sign * pa);
     let base = Layers {
         cube: true,
@@ -241,7 +242,7 @@ pub fn steps(d: &Derived) -> Vec<Step> {
     });
 
     // 5. The worst plane for the measure.
-    let key = d.search.measure.key();
+    let key = d.search.measure.label();
     let (plane, text) = match &d.worst {
         Ok(r) if !r.planes.is_empty() => {
             let w = &r.planes[0];
@@ -251,19 +252,25 @@ pub fn steps(d: &Derived) -> Vec<Step> {
                     if d.search.measure.is_stress() {
                         value(v)
                     } else {
-                        sig(v, 4)
+                        readable(v, 4)
                     }
                 },
             );
-            (
-                w.normal,
-                format!(
-                    "For the measure {key} the worst plane is {}, with {key} = {v}; there σn = {} and τ = {}.",
-                    dip_text(w.dip_deg, w.dip_direction_deg),
-                    value(w.normal_stress_pa),
-                    value(w.shear_stress_pa),
+            // Each quantity once: the measure's value, then whichever of σn and τ it is not.
+            let at = dip_text(w.dip_deg, w.dip_direction_deg);
+            let (sn, tau) = (value(w.normal_stress_pa), value(w.shear_stress_pa));
+            let text = match d.search.measure {
+                Measure::Shear => format!(
+                    "The plane of largest shear stress is {at}, with τ = {v}; there σn = {sn}."
                 ),
-            )
+                Measure::NormalMax | Measure::NormalMin => format!(
+                    "For the measure {key} the worst plane is {at}, with σn = {v}; there τ = {tau}."
+                ),
+                _ => format!(
+                    "For the measure {key} the worst plane is {at}, with {key} = {v}; there σn = {sn} and τ = {tau}."
+                ),
+            };
+            (w.normal, text)
         }
         Ok(_) => (
             d.plane,
@@ -293,10 +300,10 @@ pub fn steps(d: &Derived) -> Vec<Step> {
         Some(v) if v.outcome() != Outcome::NotChecked => {
             let u = v
                 .utilization
-                .map_or_else(|| "undefined".to_owned(), |u| sig(u, 3));
+                .map_or_else(|| "undefined".to_owned(), |u| readable(u, 3));
             let fos = v
                 .factor_of_safety
-                .map_or_else(|| "none".to_owned(), |f| sig(f, 3));
+                .map_or_else(|| "none".to_owned(), |f| readable(f, 3));
             let outcome = match v.outcome() {
                 Outcome::Passes => "it passes",
                 Outcome::Fails => "it fails",

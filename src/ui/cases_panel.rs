@@ -214,9 +214,11 @@ fn terms_ui(
         .show(ui, |ui| {
             for (i, term) in edited.iter_mut().enumerate() {
                 let response = ui.add(
+                    // Written as the formula under the terms writes it (1.5, not 1.50).
                     egui::DragValue::new(&mut term.factor)
                         .speed(0.05)
-                        .max_decimals(4)
+                        .custom_formatter(|v, _| crate::format::readable(v, 6))
+                        .custom_parser(|t| crate::parse::number(t).ok())
                         .prefix("× "),
                 );
                 let response = response.on_hover_text(format!(

@@ -68,15 +68,15 @@ impl EnvelopePanel {
                 |(m, _)| {
                     format!(
                         "c = {} {unit}, φ = {}°",
-                        crate::format::sig(d.unit.from_pa(m.cohesion_pa), 5),
-                        crate::format::sig(m.friction_angle_deg, 5),
+                        crate::format::readable(d.unit.from_pa(m.cohesion_pa), 5),
+                        crate::format::readable(m.friction_angle_deg, 5),
                         unit = d.unit
                     )
                 },
             );
             ui.small(format!(
                 "Pore pressure and the planes' strength from the worst-plane settings: p = {} {unit}, {strength}",
-                crate::format::sig(d.unit.from_pa(project.measure.pore_pressure_pa), 5),
+                crate::format::readable(d.unit.from_pa(project.measure.pore_pressure_pa), 5),
                 unit = d.unit
             ));
         }
@@ -100,9 +100,13 @@ impl EnvelopePanel {
         };
         let value_text = |v: f64| {
             if measure.is_stress() {
-                format!("{} {}", crate::format::sig(d.unit.from_pa(v), 6), d.unit)
+                format!(
+                    "{} {}",
+                    crate::format::readable(d.unit.from_pa(v), 6),
+                    d.unit
+                )
             } else if matches!(measure, EnvelopeMeasure::Utilization(_)) {
-                format!("U = {}", crate::format::sig(v, 4))
+                format!("U = {}", crate::format::readable(v, 4))
             } else {
                 shown.value_text(v, 4)
             }
@@ -139,10 +143,11 @@ impl EnvelopePanel {
                 .enumerate()
                 .map(|(i, r)| {
                     let (value, unit) = match r.value {
-                        Some(v) if measure.is_stress() => {
-                            (crate::format::sig(d.unit.from_pa(v), 6), d.unit.to_string())
-                        }
-                        Some(v) => (crate::format::sig(v, 6), String::new()),
+                        Some(v) if measure.is_stress() => (
+                            crate::format::readable(d.unit.from_pa(v), 6),
+                            d.unit.to_string(),
+                        ),
+                        Some(v) => (crate::format::readable(v, 6), String::new()),
                         None => (
                             crate::results::standing_word(r.standing()).to_owned(),
                             String::new(),

@@ -2,7 +2,7 @@
 //! checked at once as faults — effective normal stress, shear, slip and dilation tendency,
 //! Coulomb utilization, the pore-pressure rise to slip and the rake — sortable by any column.
 
-use crate::format::sig;
+use crate::format::readable;
 use crate::mechanics::criteria::FaultCheck;
 use crate::parse;
 use crate::session::{Coalesce, Command};
@@ -70,7 +70,7 @@ impl FaultsPanel {
                 } else {
                     f.dip_direction_deg
                 };
-                [f.name.clone(), sig(f.dip_deg, 6), sig(azimuth, 6)]
+                [f.name.clone(), readable(f.dip_deg, 6), readable(azimuth, 6)]
             })
             .collect();
         self.error = None;
@@ -151,7 +151,7 @@ impl FaultsPanel {
                 );
             ui.weak(format!(
                 "compression positive, σn′ = σn − p with p = {} {} and the plane's c and φ from the worst-plane section",
-                sig(d.unit.from_pa(d.measure.pore_pressure_pa), 5),
+                readable(d.unit.from_pa(d.measure.pore_pressure_pa), 5),
                 d.unit
             ));
         });
@@ -184,8 +184,8 @@ impl FaultsPanel {
                 if desc && col != 7 { cmp.reverse() } else { cmp }
             });
         }
-        let stress = |pa: f64| format!("{} {}", sig(d.unit.from_pa(pa), 5), d.unit);
-        let ratio = |v: Option<f64>| v.map_or_else(|| "undefined".to_owned(), |x| sig(x, 4));
+        let stress = |pa: f64| format!("{} {}", readable(d.unit.from_pa(pa), 5), d.unit);
+        let ratio = |v: Option<f64>| v.map_or_else(|| "undefined".to_owned(), |x| readable(x, 4));
         let mut changed = false;
         let mut remove = None;
         let mut show = None;
@@ -258,7 +258,7 @@ impl FaultsPanel {
                                 }
                                 ui.monospace(c.rake_deg.map_or_else(
                                     || "undefined".to_owned(),
-                                    |r| format!("{}°", sig(r, 4)),
+                                    |r| format!("{}°", readable(r, 4)),
                                 ));
                             }
                             None => {

@@ -2,7 +2,7 @@
 //! axes, a strain rosette or plane stress, typed in a form; the grid below shows the tensor it
 //! gives, read-only. The kind can be changed (one undoable step).
 
-use crate::format::sig;
+use crate::format::readable;
 use crate::mechanics::inputs::in_plane_principal;
 use crate::mechanics::{Component, StressTensor};
 use crate::parse;
@@ -30,7 +30,7 @@ impl InputPanel {
                 .is_some_and(|s| s.kind() == input.kind());
         self.shown = Some(input.clone());
         if !own {
-            self.fields = input.numbers().iter().map(|v| sig(*v, 10)).collect();
+            self.fields = input.numbers().iter().map(|v| readable(*v, 10)).collect();
             self.error = None;
         }
     }
@@ -168,7 +168,7 @@ fn field_tip(kind: InputKind, label: &str) -> String {
 /// What the form gives besides the tensor: rosette strains and principal angles.
 fn derived_lines(ui: &mut egui::Ui, input: &CaseInput, d: &Derived) {
     if let Some(r) = input.rosette_result() {
-        let micro = |e: f64| format!("{} µε", sig(e * 1e6, 5));
+        let micro = |e: f64| format!("{} µε", readable(e * 1e6, 5));
         ui.small(format!(
             "εx {}, εy {}, γxy {}; ε1 {}, ε2 {}",
             micro(r.strains[0]),
@@ -178,7 +178,7 @@ fn derived_lines(ui: &mut egui::Ui, input: &CaseInput, d: &Derived) {
             micro(r.principal[1])
         ));
         ui.small(match r.angle_deg {
-            Some(a) => format!("ε1 at {}° from x (counter-clockwise)", sig(a, 4)),
+            Some(a) => format!("ε1 at {}° from x (counter-clockwise)", readable(a, 4)),
             None => "ε1 direction undefined: every direction strains alike".to_owned(),
         });
     }
@@ -188,7 +188,7 @@ fn derived_lines(ui: &mut egui::Ui, input: &CaseInput, d: &Derived) {
         let shown = |pa: f64| {
             format!(
                 "{} {}",
-                sig(d.unit.from_pa(d.convention.sign() * pa), 5),
+                readable(d.unit.from_pa(d.convention.sign() * pa), 5),
                 d.unit
             )
         };
@@ -198,7 +198,10 @@ fn derived_lines(ui: &mut egui::Ui, input: &CaseInput, d: &Derived) {
             shown(s2),
             angle.map_or_else(
                 || "direction undefined (equal in every direction)".to_owned(),
-                |a| format!("the larger (tension positive) at {}° from x", sig(a, 4))
+                |a| format!(
+                    "the larger (tension positive) at {}° from x",
+                    readable(a, 4)
+                )
             )
         ));
     }

@@ -4,7 +4,7 @@
 
 use crate::draw::egui_backend;
 use crate::draw::map::{MapMeasure, disc_geometry, to_px};
-use crate::format::{dip_text, sig};
+use crate::format::{dip_text, readable};
 use crate::mechanics::PlaneNormal;
 use crate::mechanics::search::{Measure, WorstCondition};
 use crate::mechanics::stereonet::{pole_at, project_pole};
@@ -74,7 +74,7 @@ pub fn material_ui(
                 )
                 .on_hover_text(format!(
                     "Coulomb friction angle φ of the planes, degrees (μ = tan φ = {})",
-                    crate::format::sig(phi.to_radians().tan(), 4)
+                    crate::format::readable(phi.to_radians().tan(), 4)
                 ));
             });
             choice.cohesion_pa = Some(unit.to_pa(c));
@@ -134,7 +134,7 @@ pub fn worst_plane_ui(ui: &mut egui::Ui, d: &Derived, out: &mut Vec<Command>) {
                 }
                 (WorstCondition::Cone, Some(cone)) => format!(
                     "a cone of planes attains it: normals at {}° to the axis; {} shown",
-                    sig(cone.half_angle_deg, 4),
+                    readable(cone.half_angle_deg, 4),
                     result.planes.len()
                 ),
                 (WorstCondition::EffectiveTension, _) => {
@@ -147,7 +147,10 @@ pub fn worst_plane_ui(ui: &mut egui::Ui, d: &Derived, out: &mut Vec<Command>) {
                     let rake =
                         crate::mechanics::PlaneStress::new(&d.tensor, p.normal, d.convention)
                             .rake_deg()
-                            .map_or_else(|| "undefined".to_owned(), |r| format!("{}°", sig(r, 4)));
+                            .map_or_else(
+                                || "undefined".to_owned(),
+                                |r| format!("{}°", readable(r, 4)),
+                            );
                     let tip = format!(
                         "{}, σn {}, τ {}, rake {rake}",
                         dip_text(p.dip_deg, p.dip_direction_deg),

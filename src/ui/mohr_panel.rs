@@ -5,7 +5,7 @@
 
 use crate::draw::mohr::{MohrFigure, MohrLayout, MohrPoint, mohr_frame};
 use crate::draw::{Sizes, egui_backend};
-use crate::format::sig;
+use crate::format::readable;
 use crate::mechanics::search::Measure;
 use crate::session::{Coalesce, Command, Settings};
 use crate::study::annotations::{Annotation, FigureKind, Pin};
@@ -78,7 +78,7 @@ pub fn mohr_ui(
     );
     let local = |pos: egui::Pos2| [pos.x - rect.min.x, pos.y - rect.min.y];
     let unit = d.unit;
-    let stress = |pa: f64| format!("{} {unit}", sig(unit.from_pa(pa), 5));
+    let stress = |pa: f64| format!("{} {unit}", readable(unit.from_pa(pa), 5));
 
     let hover = response.hover_pos().map(local);
     let text = match hover {

@@ -3,7 +3,7 @@
 
 use nalgebra::Vector3;
 
-use crate::format::sig;
+use crate::format::readable;
 use crate::mechanics::{Analysis, PlaneNormal, SignConvention};
 use crate::parse;
 use crate::session::{Coalesce, Command};
@@ -38,12 +38,12 @@ impl PlanePanel {
         let focused = |id: egui::Id| !force && ui.memory(|m| m.has_focus(id));
         let v = plane.vector();
         if !(ids[..3].iter().any(|id| focused(*id)) || (!force && self.vector_error.is_some())) {
-            self.vector = [sig(v.x, 6), sig(v.y, 6), sig(v.z, 6)];
+            self.vector = [readable(v.x, 6), readable(v.y, 6), readable(v.z, 6)];
         }
         let (dip, dd) = plane.dip_deg();
         if !(focused(ids[3]) || focused(ids[4]) || (!force && self.dip_error.is_some())) {
-            self.dip = sig(dip, 6);
-            self.dip_direction = sig(dd, 6);
+            self.dip = readable(dip, 6);
+            self.dip_direction = readable(dd, 6);
         }
     }
 

@@ -1,6 +1,6 @@
 //! The stress-state panel: the 3×3 grid, unit, sign convention, presets and paste.
 
-use crate::format::sig;
+use crate::format::readable;
 use crate::mechanics::{Component, SignConvention, StressTensor, StressUnit};
 use crate::parse;
 use crate::session::{Coalesce, Command};
@@ -113,7 +113,7 @@ impl StressPanel {
                     continue;
                 };
                 let value = sign * d.unit.from_pa(d.tensor.component_pa(comp));
-                self.cells[r][c] = sig(value, 8);
+                self.cells[r][c] = readable(value, 8);
                 self.errors[r][c] = None;
             }
         }
@@ -215,7 +215,7 @@ impl StressPanel {
                     ui.visuals().error_fg_color,
                     format!(
                         "⚠ {name}: {e}; analysed with the last valid value, {name} = {} {}",
-                        sig(used, 8).replace('-', "−"),
+                        readable(used, 8),
                         d.unit
                     ),
                 );

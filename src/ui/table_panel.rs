@@ -488,8 +488,8 @@ impl TablePanel {
         };
         let sign = if compression_positive { -1.0 } else { 1.0 };
         let value_text = |v: Option<f64>, standing| match v {
-            Some(v) if measure.is_stress() => crate::format::sig(unit.from_pa(v), 5),
-            Some(v) => crate::format::sig(v, 4),
+            Some(v) if measure.is_stress() => crate::format::readable(unit.from_pa(v), 5),
+            Some(v) => crate::format::readable(v, 4),
             None => crate::results::standing_word(standing).to_owned(),
         };
         ui.small(r.counts.text("rows read"))
@@ -623,7 +623,10 @@ impl TablePanel {
                                         cell(ui, t.clone());
                                     }
                                     for c in comps {
-                                        cell(ui, crate::format::sig(sign * unit.from_pa(c), 5));
+                                        cell(
+                                            ui,
+                                            crate::format::readable(sign * unit.from_pa(c), 5),
+                                        );
                                     }
                                 })
                                 .response
@@ -739,9 +742,9 @@ fn histogram(ui: &mut egui::Ui, r: &Ranked, measure: EnvelopeMeasure, unit: Stre
     }
     let shown = |v: f64| {
         if measure.is_stress() {
-            format!("{} {unit}", crate::format::sig(unit.from_pa(v), 4))
+            format!("{} {unit}", crate::format::readable(unit.from_pa(v), 4))
         } else {
-            crate::format::sig(v, 4)
+            crate::format::readable(v, 4)
         }
     };
     let font = egui::FontId::proportional(11.0);

@@ -4,7 +4,7 @@
 
 use std::fmt::Write as _;
 
-use crate::format::sig;
+use crate::format::readable;
 use crate::mechanics::criteria::{Condition, DruckerPragerFit, Outcome, Verdict};
 use crate::parse;
 use crate::session::Command;
@@ -24,7 +24,10 @@ pub fn verdict_ui(ui: &mut egui::Ui, d: &Derived, out: &mut Vec<Command>) {
     ui.heading(title).on_hover_text(
         "Proportional loading: the factor of safety is the factor on every stress component that reaches the criterion's surface; utilization = 1 / factor",
     );
-    let stress = |v: Option<f64>| v.map(|x| sig(d.unit.from_pa(x), 6)).unwrap_or_default();
+    let stress = |v: Option<f64>| {
+        v.map(|x| readable(d.unit.from_pa(x), 6))
+            .unwrap_or_default()
+    };
     let table = crate::results::TextTable {
         title: format!("Planewise verdict, {}, proportional loading", d.unit),
         header: [
@@ -57,15 +60,17 @@ pub fn verdict_ui(ui: &mut egui::Ui, d: &Derived, out: &mut Vec<Command>) {
                     stress(v.governing_stress_pa),
                     stress(v.strength_pa),
                     d.unit.to_string(),
-                    v.utilization.map(|u| sig(u, 6)).unwrap_or_default(),
-                    v.factor_of_safety.map(|f| sig(f, 6)).unwrap_or_default(),
+                    v.utilization.map(|u| readable(u, 6)).unwrap_or_default(),
+                    v.factor_of_safety
+                        .map(|f| readable(f, 6))
+                        .unwrap_or_default(),
                     v.reduction
                         .and_then(|r| r.factor)
-                        .map(|f| sig(f, 6))
+                        .map(|f| readable(f, 6))
                         .unwrap_or_default(),
                     v.reduction
                         .and_then(|r| r.mobilized_friction_deg)
-                        .map(|f| sig(f, 6))
+                        .map(|f| readable(f, 6))
                         .unwrap_or_default(),
                     if v.condition == Condition::NotChecked {
                         String::new()
@@ -97,14 +102,14 @@ fn verdict_row(ui: &mut egui::Ui, v: &Verdict, d: &Derived) {
     };
     let numbers = match (v.condition, v.utilization, v.factor_of_safety) {
         (Condition::Defined, Some(u), Some(f)) => {
-            format!("U {} · factor of safety {}", sig(u, 3), sig(f, 3))
+            format!("U {} · factor of safety {}", readable(u, 3), readable(f, 3))
         }
-        (Condition::Defined, Some(u), None) => format!("U {} · no stress to scale", sig(u, 3)),
+        (Condition::Defined, Some(u), None) => format!("U {} · no stress to scale", readable(u, 3)),
         (Condition::NeverReaches, ..) => "never reaches the surface when scaled".to_owned(),
         (Condition::FailsAtAnyScale, ..) => "outside at any scale (zero strength)".to_owned(),
         _ => format!("needs the {}", v.criterion.needs()),
     };
-    let stress = |pa: f64| format!("{} {}", sig(d.unit.from_pa(pa), 5), d.unit);
+    let stress = |pa: f64| format!("{} {}", readable(d.unit.from_pa(pa), 5), d.unit);
     let mut tip = format!("{}\n{}", v.criterion.label(), v.criterion.formula());
     if let (Some(g), Some(s)) = (v.governing_stress_pa, v.strength_pa) {
         let _ = write!(tip, "\ndemand {} vs strength {}", stress(g), stress(s));
@@ -126,8 +131,8 @@ fn verdict_row(ui: &mut egui::Ui, v: &Verdict, d: &Derived) {
         .map(|r| match (r.factor, r.mobilized_friction_deg) {
             (Some(f), Some(phi)) => format!(
                 "strength reduction F {} · mobilized φ {}°",
-                sig(f, 3),
-                sig(phi, 3)
+                readable(f, 3),
+                readable(phi, 3)
             ),
             _ => format!(
                 "strength reduction: {}",
@@ -207,14 +212,16 @@ impl MaterialPanel {
             return;
         }
         let s = &m.strengths;
-        let stress = |v: Option<f64>| v.map(|x| sig(unit.from_pa(x), 8)).unwrap_or_default();
+        let stress = |v: Option<f64>| v.map(|x| readable(unit.from_pa(x), 8)).unwrap_or_default();
         self.name.clone_from(&m.name);
         self.fields = [
             stress(s.yield_strength_pa),
             stress(s.tensile_strength_pa),
             stress(s.compressive_strength_pa),
             stress(s.cohesion_pa),
-            s.friction_angle_deg.map(|v| sig(v, 8)).unwrap_or_default(),
+            s.friction_angle_deg
+                .map(|v| readable(v, 8))
+                .unwrap_or_default(),
         ];
         self.error = None;
     }
