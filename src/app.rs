@@ -95,6 +95,15 @@ struct ScreenshotJob {
     result: Arc<Mutex<Option<Result<(), String>>>>,
 }
 
+/// Which Help windows are open.
+#[derive(Clone, Copy, Debug, Default, PartialEq, Eq)]
+pub struct HelpWindows {
+    /// About Planewise.
+    pub about: bool,
+    /// Keys and mouse.
+    pub keys: bool,
+}
+
 /// The application.
 pub struct PlanewiseApp {
     /// The open project (what undo acts on).
@@ -132,7 +141,7 @@ pub struct PlanewiseApp {
     /// The in-window path entry for projects when no dialog opens.
     pub file_prompt: ui::file_prompt::FilePrompt,
     /// Whether the About window is open.
-    pub about_open: bool,
+    pub help: HelpWindows,
     /// The last status message.
     pub status: Option<Status>,
     /// The unsaved-changes question, while it is asked.
@@ -188,7 +197,7 @@ impl PlanewiseApp {
             envelope_panel: ui::envelope_panel::EnvelopePanel::default(),
             export_panel: ui::export_panel::ExportPanel::default(),
             file_prompt: ui::file_prompt::FilePrompt::default(),
-            about_open: false,
+            help: HelpWindows::default(),
             status: None,
             leaving: None,
             after_save: None,
@@ -763,7 +772,8 @@ impl PlanewiseApp {
             Command::OpenExport => self.export_panel.open = true,
             Command::ExportWithDialog => self.start_dialog(ctx, DialogPurpose::Figure),
             Command::ExportTo(path) => self.export_to(&path),
-            Command::ShowAbout => self.about_open = true,
+            Command::ShowAbout => self.help.about = true,
+            Command::ShowKeys => self.help.keys = true,
             Command::ImportTable => self.start_dialog(ctx, DialogPurpose::Table),
         }
         self.follow_up(ctx);
@@ -854,7 +864,7 @@ impl PlanewiseApp {
 
     /// Keyboard shortcuts that work anywhere in the window.
     fn shortcuts(ctx: &egui::Context) -> Vec<Command> {
-        use egui::{Key, Modifiers};
+        use egui::Modifiers;
         use ui::shortcuts::{COPY_RESULTS, EXPORT, NEW, OPEN, REDO, REDO_ALT, SAVE, SAVE_AS, UNDO};
         let mut out = Vec::new();
         ctx.input_mut(|i| {
@@ -886,17 +896,7 @@ impl PlanewiseApp {
         });
         // View presets on plain digit keys, only when no text field has the keyboard.
         if !ctx.egui_wants_keyboard_input() {
-            let keys = [
-                Key::Num1,
-                Key::Num2,
-                Key::Num3,
-                Key::Num4,
-                Key::Num5,
-                Key::Num6,
-                Key::Num7,
-                Key::Num8,
-            ];
-            for (key, preset) in keys.into_iter().zip(ViewPreset::ALL) {
+            for (key, preset) in ui::shortcuts::VIEW_PRESETS.into_iter().zip(ViewPreset::ALL) {
                 if ctx.input_mut(|i| i.consume_key(Modifiers::NONE, key)) {
                     out.push(Command::SetView(preset));
                 }
@@ -1028,8 +1028,12 @@ impl PlanewiseApp {
         if ctx.options(|o| o.theme_preference) != theme {
             ctx.set_theme(theme);
         }
-        let (f9, f10) =
-            ctx.input(|i| (i.key_pressed(egui::Key::F9), i.key_pressed(egui::Key::F10)));
+        let (f9, f10) = ctx.input(|i| {
+            (
+                i.key_pressed(ui::shortcuts::LEFT_PANEL),
+                i.key_pressed(ui::shortcuts::RIGHT_PANEL),
+            )
+        });
         if f9 {
             self.settings.show_inputs = !self.settings.show_inputs;
         }
@@ -1147,7 +1151,8 @@ impl PlanewiseApp {
         self.export_panel
             .ui(&ctx, &mut self.settings, dialog_open, &mut commands);
         self.file_prompt.ui(&ctx, &mut commands);
-        ui::about_ui(&ctx, &mut self.about_open);
+        ui::about_ui(&ctx, &mut self.help.about);
+        ui::keys_ui(&ctx, &mut self.help.keys);
         self.questions_ui(&ctx, &mut commands);
         for command in commands {
             self.apply(&ctx, command);

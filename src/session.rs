@@ -192,6 +192,8 @@ pub enum Command {
     ExportTo(PathBuf),
     /// Show the About window.
     ShowAbout,
+    /// Open Help → Keys and mouse.
+    ShowKeys,
 }
 
 /// A message in the status bar.

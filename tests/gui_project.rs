@@ -453,7 +453,7 @@ fn the_shown_state_is_analysed_once_per_change_not_per_frame() {
 fn the_measure_and_material_are_undoable_project_edits() {
     let mut h = demo();
     let before = h.state().project.measure;
-    h.get_by_label("measure").click();
+    h.get_by_label("worst-plane measure").click();
     h.run();
     h.get_by_label("Mohr–Coulomb utilization of planes").click();
     h.run();
@@ -1006,5 +1006,62 @@ fn the_view_help_covers_no_control() {
         shown[0].top() > tab.bottom(),
         "the help {:?} covers the tabs {tab:?}",
         shown[0]
+    );
+}
+
+/// The first hour: Help lists every key and mouse gesture from the bindings; a new load case
+/// says how to fill it; the empty Table tab has Browse and says which header names it reads;
+/// the map's measure sits with the map.
+#[test]
+fn a_newcomer_is_told_where_to_go() {
+    let mut h = demo();
+    h.get_by_label("Help").click();
+    h.run();
+    h.get_by_label("Keys and mouse").click();
+    h.run();
+    let keys = planewise::ui::shortcuts::list(&h.ctx);
+    assert!(keys.len() >= 18, "{keys:?}");
+    for (key, what) in &keys {
+        assert!(h.query_by_label(key).is_some(), "{key} not listed");
+        assert!(h.query_by_label(what).is_some(), "{what} not listed");
+    }
+    assert!(h.query_by_label("3D view: Three-quarter").is_some());
+    assert!(h.query_by_label("Turn the cut plane").is_some());
+    h.state_mut().help.keys = false;
+    h.run();
+
+    // A new load case is all zeros: the stress panel says what to do.
+    h.get_by_label("+ load case").click();
+    h.run();
+    assert!(
+        h.query_by_label_contains("This load case is all zeros")
+            .is_some()
+    );
+    type_into(&mut h, "σxx", "5");
+    assert!(
+        h.query_by_label_contains("This load case is all zeros")
+            .is_none()
+    );
+    leave_text_field(&mut h);
+
+    // The empty Table tab.
+    h.state_mut().settings.central = planewise::session::Central::Table;
+    h.run();
+    assert!(h.query_by_label("Browse…").is_some());
+    assert!(
+        h.query_by_label_contains("found by their header names")
+            .is_some()
+    );
+
+    // The map's measure, with the map.
+    h.state_mut().settings.central = planewise::session::Central::Map;
+    h.run();
+    h.get_by_label("map measure").click();
+    h.run();
+    h.get_all_by_label("slip tendency").last().unwrap().click();
+    h.run();
+    assert_eq!(
+        h.state().project.measure.measure,
+        planewise::mechanics::search::Measure::SlipTendency
     );
 }

@@ -88,18 +88,28 @@ pub fn material_ui(
     }
 }
 
+/// A picker of the worst-plane measure, named `label` (for the left panel and the map tab).
+fn measure_picker(ui: &mut egui::Ui, label: &str, measure: &mut Measure) {
+    egui::ComboBox::from_id_salt(("planewise-measure", label))
+        .selected_text(measure.label())
+        .show_ui(ui, |ui| {
+            for m in Measure::ALL {
+                ui.selectable_value(measure, m, m.label());
+            }
+        })
+        .response
+        .widget_info(|| egui::WidgetInfo::labeled(egui::Role::ComboBox, true, label));
+}
+
 /// The worst-plane controls (in the cut-plane column).
 pub fn worst_plane_ui(ui: &mut egui::Ui, d: &Derived, out: &mut Vec<Command>) {
     ui.heading("Worst plane");
     let mut edited = d.measure;
     let choice = &mut edited;
-    egui::ComboBox::from_label("measure")
-        .selected_text(choice.measure.label())
-        .show_ui(ui, |ui| {
-            for m in Measure::ALL {
-                ui.selectable_value(&mut choice.measure, m, m.label());
-            }
-        });
+    ui.horizontal(|ui| {
+        ui.label("measure");
+        measure_picker(ui, "worst-plane measure", &mut choice.measure);
+    });
     let unit = d.unit;
     let needs_pore = matches!(choice.measure, Measure::SlipTendency | Measure::MohrCoulomb);
     let needs_material = choice.measure == Measure::MohrCoulomb;
@@ -227,6 +237,21 @@ fn map_measure(d: &Derived) -> MapMeasure {
 /// The orientation map tab.
 pub fn map_ui(ui: &mut egui::Ui, d: &Derived, notes: &[Annotation], out: &mut Vec<Command>) {
     notes_panel::notes_bar(ui, &d.name, FigureKind::Map, notes, out);
+    // The measure with the map it colours (its parameters stay in the Worst plane section).
+    ui.horizontal(|ui| {
+        ui.label("Coloured by");
+        let mut choice = d.measure;
+        measure_picker(ui, "map measure", &mut choice.measure);
+        if choice != d.measure {
+            out.push(Command::Edit {
+                edit: Edit::SetMeasure(choice),
+                coalesce: None,
+            });
+        }
+        if matches!(choice.measure, Measure::SlipTendency | Measure::MohrCoulomb) {
+            ui.small("pore pressure and the planes' c, φ: Worst plane section, left");
+        }
+    });
     let search = d.search;
     let size = ui.available_size().max(egui::vec2(200.0, 160.0));
     let (rect, response) = ui.allocate_exact_size(size, egui::Sense::click_and_drag());

@@ -48,6 +48,96 @@ pub mod shortcuts {
     /// Copy the results as text.
     pub const COPY_RESULTS: KeyboardShortcut =
         KeyboardShortcut::new(Modifiers::COMMAND.plus(Modifiers::SHIFT), Key::C);
+    /// Show or hide the left panel (inputs).
+    pub const LEFT_PANEL: Key = Key::F9;
+    /// Show or hide the right panel (verdict and results).
+    pub const RIGHT_PANEL: Key = Key::F10;
+    /// Present the walk-through (the picture and its words only).
+    pub const PRESENT: Key = Key::F11;
+    /// Next walk-through step.
+    pub const STEP_NEXT: [Key; 2] = [Key::ArrowRight, Key::Space];
+    /// Previous walk-through step.
+    pub const STEP_BACK: Key = Key::ArrowLeft;
+    /// Leave presenting.
+    pub const STEP_LEAVE: Key = Key::Escape;
+    /// The 3D view's presets, in `ViewPreset::ALL` order (plain digits, when no field has the
+    /// keyboard).
+    pub const VIEW_PRESETS: [Key; 8] = [
+        Key::Num1,
+        Key::Num2,
+        Key::Num3,
+        Key::Num4,
+        Key::Num5,
+        Key::Num6,
+        Key::Num7,
+        Key::Num8,
+    ];
+
+    /// Every key and what it does, written from the bindings above (Help → Keys and mouse).
+    #[must_use]
+    pub fn list(ctx: &egui::Context) -> Vec<(String, String)> {
+        let short = |s: &KeyboardShortcut| ctx.format_shortcut(s);
+        let mut out: Vec<(String, String)> = [
+            (short(&NEW), "New project"),
+            (short(&OPEN), "Open a project"),
+            (short(&SAVE), "Save the project"),
+            (short(&SAVE_AS), "Save the project under a new name"),
+            (short(&UNDO), "Undo"),
+            (format!("{} or {}", short(&REDO), short(&REDO_ALT)), "Redo"),
+            (short(&EXPORT), "Export the shown figure"),
+            (short(&COPY_RESULTS), "Copy the results as text"),
+            (LEFT_PANEL.name().to_owned(), "Show or hide the left panel"),
+            (
+                RIGHT_PANEL.name().to_owned(),
+                "Show or hide the right panel",
+            ),
+        ]
+        .into_iter()
+        .map(|(k, what)| (k, what.to_owned()))
+        .collect();
+        for (key, preset) in VIEW_PRESETS
+            .iter()
+            .zip(crate::draw::camera::ViewPreset::ALL)
+        {
+            out.push((
+                key.name().to_owned(),
+                format!("3D view: {}", preset.label()),
+            ));
+        }
+        out.push((
+            STEP_NEXT.map(Key::name).join(" or "),
+            "Walk-through: next step".to_owned(),
+        ));
+        out.push((
+            STEP_BACK.name().to_owned(),
+            "Walk-through: previous step".to_owned(),
+        ));
+        out.push((
+            PRESENT.name().to_owned(),
+            "Walk-through: present the picture and its words only".to_owned(),
+        ));
+        out.push((
+            STEP_LEAVE.name().to_owned(),
+            "Walk-through: leave presenting".to_owned(),
+        ));
+        out
+    }
+
+    /// What the mouse does, where.
+    pub const MOUSE: [(&str, &str); 6] = [
+        ("Drag in the 3D view", "Orbit"),
+        ("Right-drag in the 3D view", "Pan"),
+        ("Scroll in the 3D view", "Zoom"),
+        ("Double-click in the 3D view", "Reset the view"),
+        (
+            "Drag the white handle at the tip of n",
+            "Turn the cut plane",
+        ),
+        (
+            "Click or drag in the map or the Mohr circles",
+            "Put the cut plane there",
+        ),
+    ];
 }
 
 /// A horizontal bar of `size`, filled to `fraction` of its width (none for `None`) in `color`,
@@ -270,6 +360,9 @@ pub fn menus_ui(
                     );
             });
             ui.menu_button("Help", |ui| {
+                if ui.button("Keys and mouse").clicked() {
+                    out.push(Command::ShowKeys);
+                }
                 if ui.button("About Planewise").clicked() {
                     out.push(Command::ShowAbout);
                 }
@@ -306,6 +399,31 @@ pub fn status_bar_ui(ui: &mut egui::Ui, d: &Derived, status: Option<&Status>) {
             }
         });
     });
+}
+
+/// Help → Keys and mouse: every binding, written from [`shortcuts`].
+pub fn keys_ui(ctx: &egui::Context, open: &mut bool) {
+    egui::Window::new("Keys and mouse")
+        .open(open)
+        .collapsible(false)
+        .show(ctx, |ui| {
+            egui::Grid::new("planewise-keys")
+                .num_columns(2)
+                .striped(true)
+                .show(ui, |ui| {
+                    for (key, what) in shortcuts::list(ctx) {
+                        ui.strong(key);
+                        ui.label(what);
+                        ui.end_row();
+                    }
+                    for (gesture, what) in shortcuts::MOUSE {
+                        ui.strong(gesture);
+                        ui.label(what);
+                        ui.end_row();
+                    }
+                });
+            ui.small("Digit keys and the walk-through's keys act when no text field has the keyboard (press Esc to leave a field).");
+        });
 }
 
 /// The About window.

@@ -203,6 +203,12 @@ impl StressPanel {
             }
             return;
         }
+        if d.tensor.components_pa() == [0.0; 6] {
+            ui.colored_label(
+                ui.visuals().warn_fg_color,
+                "This load case is all zeros, so the cube carries nothing yet: type its components in the grid, paste six numbers below, or start from a preset.",
+            );
+        }
         // Each cell that does not read, with the value analysed in its place.
         for r in 0..3 {
             for c in 0..3 {

@@ -348,7 +348,17 @@ impl TablePanel {
                 let path = self.path.trim().to_owned();
                 self.load_preview(&path);
             }
+            if ui
+                .button("Browse…")
+                .on_hover_text("Choose the table file (File → Import table…)")
+                .clicked()
+            {
+                out.push(Command::ImportTable);
+            }
         });
+        if self.preview.is_none() && self.ranked.is_none() {
+            ui.label("A finite-element result table: one stress state per row, a header row first. The components are found by their header names — xx, yy, zz, xy, yz, zx, with or without an s, sigma or stress in front (sxx, SigmaXX), or s11 … s13 — and any other names can be mapped after Preview. Every other column (element, node, point) is carried along to identify the rows. The unit is yours to say.");
+        }
         if let Some(preview) = &self.preview {
             match preview {
                 Err(e) => {

@@ -49,6 +49,8 @@ pub fn layers_ui(ui: &mut egui::Ui, layers: &mut Layers) {
 }
 
 fn faces_ui(ui: &mut egui::Ui, faces: &mut FaceChoice) {
+    ui.label("Which cube faces carry their traction arrows.");
+    ui.small("Facing the viewer: the three faces you see, following the view as it turns. Untick to choose faces one by one (the hidden ones are drawn behind).");
     let mut facing = matches!(faces, FaceChoice::FacingViewer);
     if ui
         .checkbox(&mut facing, "Faces facing the viewer")
@@ -108,7 +110,9 @@ pub fn view_ui(
         ui.selectable_value(&mut cam.projection, Projection::Perspective, "persp");
         ui.separator();
         ui.menu_button("Layers", |ui| layers_ui(ui, &mut settings.layers));
-        ui.menu_button("Faces", |ui| faces_ui(ui, &mut settings.faces));
+        ui.menu_button("Faces", |ui| faces_ui(ui, &mut settings.faces))
+            .response
+            .on_hover_text("Which cube faces carry traction arrows");
         if ui
             .button("Export…")
             .on_hover_text("Export figure (Ctrl+E)")

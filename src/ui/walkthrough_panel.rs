@@ -74,10 +74,12 @@ impl WalkthroughPanel {
         if !ui.ctx().egui_wants_keyboard_input() {
             let (next, back, leave, present) = ui.input(|i| {
                 (
-                    i.key_pressed(egui::Key::ArrowRight) || i.key_pressed(egui::Key::Space),
-                    i.key_pressed(egui::Key::ArrowLeft),
-                    i.key_pressed(egui::Key::Escape),
-                    i.key_pressed(egui::Key::F11),
+                    super::shortcuts::STEP_NEXT
+                        .iter()
+                        .any(|k| i.key_pressed(*k)),
+                    i.key_pressed(super::shortcuts::STEP_BACK),
+                    i.key_pressed(super::shortcuts::STEP_LEAVE),
+                    i.key_pressed(super::shortcuts::PRESENT),
                 )
             });
             if next {
