@@ -474,7 +474,7 @@ fn the_material_editor_changes_the_verdict_in_one_undo_step() {
     // The demo's invented steel: von Mises and Tresca checked, the rest not.
     h.get_by_label_contains("needs the tensile and/or compressive strength");
     let before = h.state().project.material.clone();
-    type_into(&mut h, "yield strength f_y", "100");
+    type_into(&mut h, "f_y yield", "100");
     let fy = h.state().project.material.strengths.yield_strength_pa;
     assert_eq!(fy, Some(100e6));
     // ULS 1's von Mises (189 MPa) now exceeds the yield strength: fails.
@@ -484,7 +484,7 @@ fn the_material_editor_changes_the_verdict_in_one_undo_step() {
     h.run();
     assert_eq!(h.state().project.material, before);
     // Text that is not a number keeps the last valid material and says why.
-    type_into(&mut h, "tensile strength f_t", "strong");
+    type_into(&mut h, "f_t tensile", "strong");
     assert_eq!(h.state().project.material, before);
     h.get_by_label_contains("the last valid material is kept");
 }
@@ -665,6 +665,9 @@ fn the_walkthrough_steps_with_the_keys_and_shows_each_steps_plane_and_view() {
         h.key_press(key);
         h.run();
         assert_eq!(h.state().walkthrough_panel.step, expected, "after {key:?}");
+        // The "?" in the picture's corner says where one is.
+        h.get_by_label("walk-through help").hover();
+        h.run_steps(30);
         assert!(
             h.query_by_label_contains(&format!("Walk-through step {} of 6", expected + 1))
                 .is_some()
@@ -1064,4 +1067,23 @@ fn a_newcomer_is_told_where_to_go() {
         h.state().project.measure.measure,
         planewise::mechanics::search::Measure::SlipTendency
     );
+}
+
+/// In a small window the walk-through's legend folds into a Key button (as the 3D view's
+/// does) instead of being drawn over the cube; the Key shows it again.
+#[test]
+fn a_small_window_folds_the_walkthrough_legend() {
+    let mut app = PlanewiseApp::demo(Box::new(NoDialogs));
+    app.settings.central = planewise::session::Central::Walkthrough;
+    let mut h = Harness::builder()
+        .with_size(egui::vec2(1024.0, 640.0))
+        .build_ui_state(|ui, app: &mut PlanewiseApp| app.show(ui), app);
+    h.run();
+    assert!(
+        h.query_by_label("Key").is_some(),
+        "no Key button at 1024x640"
+    );
+    h.get_by_label("Key").click();
+    h.run();
+    assert!(h.query_by_label("Hide key").is_some());
 }

@@ -373,16 +373,48 @@ pub fn walkthrough_step(
     height: u32,
     sizes: crate::draw::Sizes,
 ) -> Frame {
+    walkthrough_step_keyed(d, step, width, height, sizes, true).0
+}
+
+/// [`walkthrough_step`] for the window: the legend is left out where it would cover the
+/// drawing, unless `key_open`; also says whether it would (then the window offers a Key).
+#[must_use]
+pub fn walkthrough_step_keyed(
+    d: &Derived,
+    step: &super::walkthrough::Step,
+    width: u32,
+    height: u32,
+    sizes: crate::draw::Sizes,
+    key_open: bool,
+) -> (Frame, bool) {
     let mut input = FigureInput::from_derived(d, false);
     input.plane = Some(step.plane);
     if !step.worst_planes {
         input.worst = None;
     }
-    let layers = crate::scene::Layers {
+    let mut layers = crate::scene::Layers {
         worst_planes: step.worst_planes,
         ..step.layers
     };
-    view_3d(
+    let folds = layers.legend && {
+        let scene = crate::scene::Scene::build(
+            &SceneInput {
+                tensor: &input.tensor,
+                plane: step.plane,
+                unit: input.unit,
+                convention: input.convention,
+                layers,
+                faces: FaceChoice::FacingViewer,
+                worst_planes: &[],
+            },
+            &step.camera.towards_eye(),
+        );
+        !crate::draw::legend_fits(&scene, width as f32, height as f32, sizes)
+    };
+    if folds && !key_open {
+        layers.legend = false;
+    }
+    let frame = view_3d(
         &input,
         layers,
         FaceChoice::FacingViewer,
@@ -390,5 +422,6 @@ pub fn walkthrough_step(
         width,
         height,
         sizes,
-    )
+    );
+    (frame, folds)
 }

@@ -401,6 +401,44 @@ pub fn status_bar_ui(ui: &mut egui::Ui, d: &Derived, status: Option<&Status>) {
     });
 }
 
+/// Side of the "?" help button in a picture's corner, points.
+pub const HELP_BUTTON: f32 = 22.0;
+
+/// The corner controls of a picture in `rect`: a "?" whose tooltip is `help` (named
+/// `help_name`), and, when the legend `folds`, a Key button beside it that shows or hides the
+/// legend (its state under `key_id`).
+pub fn corner_controls(
+    ui: &mut egui::Ui,
+    rect: egui::Rect,
+    help: &str,
+    help_name: &str,
+    folds: bool,
+    key_id: egui::Id,
+) {
+    let at = egui::Rect::from_min_size(
+        rect.right_bottom() - egui::vec2(HELP_BUTTON + 6.0, HELP_BUTTON + 6.0),
+        egui::vec2(HELP_BUTTON, HELP_BUTTON),
+    );
+    ui.put(at, egui::Button::new("?").small())
+        .on_hover_text(help)
+        .widget_info(|| egui::WidgetInfo::labeled(egui::Role::Button, true, help_name));
+    if folds {
+        let key_open = ui.data(|d| d.get_temp::<bool>(key_id).unwrap_or(false));
+        let at = egui::Rect::from_min_size(
+            rect.right_bottom() - egui::vec2(64.0 + HELP_BUTTON + 6.0, 30.0),
+            egui::vec2(56.0, 22.0),
+        );
+        let text = if key_open { "Hide key" } else { "Key" };
+        if ui
+            .put(at, egui::Button::new(text))
+            .on_hover_text("The legend (unit, convention, arrow scale, colours): folded because it would cover the picture at this size")
+            .clicked()
+        {
+            ui.data_mut(|d| d.insert_temp(key_id, !key_open));
+        }
+    }
+}
+
 /// Help → Keys and mouse: every binding, written from [`shortcuts`].
 pub fn keys_ui(ctx: &egui::Context, open: &mut bool) {
     egui::Window::new("Keys and mouse")

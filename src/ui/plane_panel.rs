@@ -66,7 +66,7 @@ impl PlanePanel {
                 let edit = egui::TextEdit::singleline(&mut self.vector[i])
                     .id(ids[i])
                     .hint_text(*name)
-                    .desired_width(70.0);
+                    .desired_width(80.0);
                 changed |= ui
                     .add(edit)
                     .on_hover_text(format!("{name}: component of the plane's normal"))
@@ -118,7 +118,8 @@ impl PlanePanel {
             set(plane, Some(Coalesce::PlaneAngles), out);
         }
 
-        ui.label("Dip / dip direction (x = east, y = north, z = up)");
+        ui.label("Dip / dip direction");
+        ui.small("x = east, y = north, z = up");
         let mut dip_changed = false;
         ui.horizontal(|ui| {
             let edit = egui::TextEdit::singleline(&mut self.dip)

@@ -280,6 +280,8 @@ impl StressPanel {
         d: &Derived,
         out: &mut Vec<Command>,
     ) {
+        // Three cells and the row names fit the panel: narrower cells in a narrow panel.
+        let width = ((ui.available_width() - 24.0) / 3.0 - 8.0).clamp(44.0, 78.0);
         egui::Grid::new("stress-grid")
             .spacing([6.0, 4.0])
             .show(ui, |ui| {
@@ -291,7 +293,7 @@ impl StressPanel {
                 for r in 0..3 {
                     ui.label(AXES[r]);
                     for c in 0..3 {
-                        self.cell_ui(ui, ids[r][c], r, c, d, out);
+                        self.cell_ui(ui, width, ids[r][c], r, c, d, out);
                     }
                     ui.end_row();
                 }
@@ -318,9 +320,14 @@ impl StressPanel {
         }
     }
 
+    #[expect(
+        clippy::too_many_arguments,
+        reason = "one cell's context, passed through"
+    )]
     fn cell_ui(
         &mut self,
         ui: &mut egui::Ui,
+        width: f32,
         id: egui::Id,
         r: usize,
         c: usize,
@@ -332,8 +339,8 @@ impl StressPanel {
         let mut edit = egui::TextEdit::singleline(&mut self.cells[r][c])
             .id(id)
             .hint_text(name.clone())
-            .desired_width(78.0)
-            .min_size(egui::vec2(78.0, 0.0));
+            .desired_width(width)
+            .min_size(egui::vec2(width, 0.0));
         if error.is_some() {
             edit = edit.background_color(ui.visuals().error_fg_color.gamma_multiply(0.25));
         }

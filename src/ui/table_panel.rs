@@ -397,11 +397,13 @@ impl TablePanel {
                 })
                 .response
                 .widget_info(|| egui::WidgetInfo::labeled(egui::Role::ComboBox, true, "rank by"));
-            ui.label("keep");
-            ui.add(egui::DragValue::new(&mut self.keep).range(1..=5_000_000))
-                .on_hover_text(
-                    "How many of the worst rows to keep (the file is read whole either way)",
-                );
+            ui.horizontal(|ui| {
+                ui.label("keep");
+                ui.add(egui::DragValue::new(&mut self.keep).range(1..=5_000_000))
+                    .on_hover_text(
+                        "How many of the worst rows to keep (the file is read whole either way)",
+                    );
+            });
             ui.checkbox(&mut self.skip_bad_rows, "skip bad rows");
         });
         ui.horizontal(|ui| {
@@ -453,23 +455,26 @@ impl TablePanel {
         ));
         ui.horizontal_wrapped(|ui| {
             for k in 0..6 {
-                ui.label(COMPONENTS[k]);
-                egui::ComboBox::from_id_salt(("planewise-table-map", k))
-                    .selected_text(self.mapping[k].clone())
-                    .width(80.0)
-                    .show_ui(ui, |ui| {
-                        for n in &header.names {
-                            ui.selectable_value(&mut self.mapping[k], n.clone(), n);
-                        }
-                    })
-                    .response
-                    .widget_info(|| {
-                        egui::WidgetInfo::labeled(
-                            egui::Role::ComboBox,
-                            true,
-                            format!("column for {}", COMPONENTS[k]),
-                        )
-                    });
+                // A name and its picker wrap together, never apart.
+                ui.horizontal(|ui| {
+                    ui.label(COMPONENTS[k]);
+                    egui::ComboBox::from_id_salt(("planewise-table-map", k))
+                        .selected_text(self.mapping[k].clone())
+                        .width(80.0)
+                        .show_ui(ui, |ui| {
+                            for n in &header.names {
+                                ui.selectable_value(&mut self.mapping[k], n.clone(), n);
+                            }
+                        })
+                        .response
+                        .widget_info(|| {
+                            egui::WidgetInfo::labeled(
+                                egui::Role::ComboBox,
+                                true,
+                                format!("column for {}", COMPONENTS[k]),
+                            )
+                        });
+                });
             }
         });
         egui::Grid::new("planewise-table-preview")

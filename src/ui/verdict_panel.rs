@@ -147,10 +147,12 @@ fn verdict_row(ui: &mut egui::Ui, v: &Verdict, d: &Derived) {
             crate::mechanics::criteria::definitions::MOBILIZED
         );
     }
-    ui.horizontal(|ui| {
+    // Wrapped, not cut: "Rankine (max principal stress)" is long for a narrow panel.
+    ui.horizontal_wrapped(|ui| {
         ui.colored_label(color, format!("{mark} {word}"))
             .on_hover_text(&tip);
-        ui.label(v.criterion.label()).on_hover_text(&tip);
+        ui.add(egui::Label::new(v.criterion.label()).wrap())
+            .on_hover_text(&tip);
     });
     ui.horizontal(|ui| {
         if v.outcome() != Outcome::NotChecked {
@@ -189,14 +191,25 @@ pub struct MaterialPanel {
 }
 
 /// Field names, in the order of [`MaterialPanel::fields`].
+/// Short labels (the symbol first, so the field fits beside it in a narrow panel) and what
+/// each strength is and serves, for the tooltip.
 const FIELDS: [(&str, &str); 5] = [
-    ("yield strength f_y", "von Mises and Tresca"),
-    ("tensile strength f_t", "Rankine (a positive number)"),
-    ("compressive strength f_c", "Rankine (a positive number)"),
-    ("cohesion c", "Mohr–Coulomb and Drucker–Prager, with φ"),
+    ("f_y yield", "yield strength; von Mises and Tresca"),
     (
-        "friction angle φ",
-        "degrees; Mohr–Coulomb and Drucker–Prager, with c",
+        "f_t tensile",
+        "tensile strength; Rankine, a positive number",
+    ),
+    (
+        "f_c compressive",
+        "compressive strength; Rankine, a positive number",
+    ),
+    (
+        "c cohesion",
+        "cohesion; Mohr–Coulomb and Drucker–Prager, with φ",
+    ),
+    (
+        "φ friction angle",
+        "friction angle in degrees; Mohr–Coulomb and Drucker–Prager, with c",
     ),
 ];
 
@@ -236,20 +249,22 @@ impl MaterialPanel {
     ) {
         self.refresh(material, d.unit);
         let mut changed = false;
+        // The name on a row of its own, as wide as the panel: names are long.
+        ui.horizontal(|ui| {
+            ui.label("name");
+            changed |= ui
+                .add(
+                    egui::TextEdit::singleline(&mut self.name)
+                        .id_salt("material-name")
+                        .desired_width((ui.available_width() - 4.0).max(80.0)),
+                )
+                .on_hover_text("Material name (shown in the verdict)")
+                .changed();
+        });
         egui::Grid::new("material-fields")
             .num_columns(2)
             .spacing([6.0, 4.0])
             .show(ui, |ui| {
-                ui.label("name");
-                changed |= ui
-                    .add(
-                        egui::TextEdit::singleline(&mut self.name)
-                            .id_salt("material-name")
-                            .desired_width(120.0),
-                    )
-                    .on_hover_text("Material name (shown in the verdict)")
-                    .changed();
-                ui.end_row();
                 for (i, (name, tip)) in FIELDS.iter().enumerate() {
                     let suffix = if i == 4 {
                         "°".to_owned()
@@ -263,7 +278,7 @@ impl MaterialPanel {
                             // automatic ids would move and drop the keyboard focus.
                             egui::TextEdit::singleline(&mut self.fields[i])
                                 .id_salt(("material-field", i))
-                                .desired_width(90.0)
+                                .desired_width(80.0)
                                 .hint_text("not given"),
                         )
                         .on_hover_text(format!("{name}: {tip}; leave empty if not known"))

@@ -11,9 +11,6 @@ use crate::study::{Derived, Edit};
 
 use super::notes_panel;
 
-/// Side of the help button in the picture's corner, points.
-const HELP_BUTTON: f32 = 22.0;
-
 /// How the 3D view is driven (the "?" in its corner; Help → Keys and mouse lists it too).
 pub const VIEW_HELP: &str = "3D view: drag to orbit, right-drag to pan, scroll to zoom, double-click to reset. Drag the white handle at the tip of n to turn the cut plane. Keys 1–8: view presets.";
 
@@ -272,25 +269,5 @@ pub fn view_ui(
     ui.painter_at(rect).extend(shapes);
     // The help sits on a "?" in the picture's lower right corner (free of the legend, the
     // axes and the labels), never over the tabs and tools above the picture.
-    let help_at = egui::Rect::from_min_size(
-        rect.right_bottom() - egui::vec2(HELP_BUTTON + 6.0, HELP_BUTTON + 6.0),
-        egui::vec2(HELP_BUTTON, HELP_BUTTON),
-    );
-    ui.put(help_at, egui::Button::new("?").small())
-        .on_hover_text(VIEW_HELP)
-        .widget_info(|| egui::WidgetInfo::labeled(egui::Role::Button, true, "3D view help"));
-    if folds {
-        let at = egui::Rect::from_min_size(
-            rect.right_bottom() - egui::vec2(64.0 + HELP_BUTTON + 6.0, 30.0),
-            egui::vec2(56.0, 22.0),
-        );
-        let text = if key_open { "Hide key" } else { "Key" };
-        if ui
-            .put(at, egui::Button::new(text))
-            .on_hover_text("The legend (unit, convention, arrow scale, colours): folded because it would cover the picture at this size")
-            .clicked()
-        {
-            ui.data_mut(|d| d.insert_temp(key_id, !key_open));
-        }
-    }
+    super::corner_controls(ui, rect, VIEW_HELP, "3D view help", folds, key_id);
 }

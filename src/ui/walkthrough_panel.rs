@@ -159,24 +159,33 @@ impl WalkthroughPanel {
             camera,
             ..step.clone()
         };
-        let frame = crate::study::figures::walkthrough_step(
+        // A legend that would cover the drawing folds into a Key button, as in the 3D view.
+        let key_id = response.id.with("legend-open");
+        let key_open = ui.data(|m| m.get_temp::<bool>(key_id).unwrap_or(false));
+        let (frame, folds) = crate::study::figures::walkthrough_step_keyed(
             d,
             &shown,
             rect.width() as u32,
             rect.height() as u32,
             sizes,
+            key_open,
         );
         ui.painter_at(rect)
             .extend(egui_backend::shapes(&frame, rect, ui.ctx()));
-        let response = response.on_hover_text(format!(
-            "Walk-through step {} of {}: {}. Click, → or Space: next; ←: back; Esc: leave; F11: present.",
-            self.step + 1,
-            all.len(),
-            step.title
-        ));
+        response.widget_info(|| {
+            egui::WidgetInfo::labeled(egui::Role::Image, true, "walk-through picture")
+        });
         if response.clicked() {
             self.go(self.step + 1, all.len(), now);
         }
+        // The keys on a "?" in the corner, not over the step's words.
+        let help = format!(
+            "Walk-through step {} of {}: {}. Click the picture, → or Space: next; ←: back; Esc: leave; F11: present.",
+            self.step + 1,
+            all.len(),
+            step.title
+        );
+        super::corner_controls(ui, rect, &help, "walk-through help", folds, key_id);
     }
 
     fn set_presenting(&mut self, ctx: &egui::Context, on: bool) {
