@@ -1087,3 +1087,21 @@ fn a_small_window_folds_the_walkthrough_legend() {
     h.run();
     assert!(h.query_by_label("Hide key").is_some());
 }
+
+/// Presenting (F11) enlarges every panel's text by the window's zoom, not only the picture's,
+/// and Esc gives the zoom back.
+#[test]
+fn presenting_enlarges_everything_and_leaving_restores_it() {
+    let mut h = demo();
+    h.state_mut().settings.central = planewise::session::Central::Walkthrough;
+    h.run();
+    let before = h.ctx.zoom_factor();
+    h.key_press(egui::Key::F11);
+    h.run();
+    assert!(h.state().walkthrough_panel.presenting);
+    assert!((h.ctx.zoom_factor() - 1.5 * before).abs() < 1e-6);
+    h.key_press(egui::Key::Escape);
+    h.run();
+    assert!(!h.state().walkthrough_panel.presenting);
+    assert!((h.ctx.zoom_factor() - before).abs() < 1e-6);
+}

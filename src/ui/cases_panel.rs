@@ -267,7 +267,7 @@ fn terms_ui(
         });
         coalesce = None;
     }
-    ui.small(format!("{name} = {}", terms_text(&edited)));
+    ui.label(format!("{name} = {}", terms_text(&edited)));
     if edited != terms {
         edit(
             out,

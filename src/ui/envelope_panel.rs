@@ -242,6 +242,7 @@ impl EnvelopePanel {
                             row.value.map(|v| v.abs() / largest.max(f64::MIN_POSITIVE)),
                             color,
                             None,
+                            None,
                         );
                         if planes {
                             let first = row

@@ -141,15 +141,34 @@ pub mod shortcuts {
 }
 
 /// A horizontal bar of `size`, filled to `fraction` of its width (none for `None`) in `color`,
-/// with an optional tick at `tick` of its width. Returns the bar's rectangle.
+/// with an optional tick at `tick` of its width, labelled `tick_label` under it in body text.
+/// Returns the bar's rectangle.
 pub fn bar(
     ui: &mut egui::Ui,
     size: egui::Vec2,
     fraction: Option<f64>,
     color: egui::Color32,
     tick: Option<f32>,
+    tick_label: Option<&str>,
 ) -> egui::Rect {
-    let (rect, _) = ui.allocate_exact_size(size, egui::Sense::hover());
+    let font = egui::TextStyle::Body.resolve(ui.style());
+    let below = if tick_label.is_some() {
+        ui.text_style_height(&egui::TextStyle::Body) + 2.0
+    } else {
+        0.0
+    };
+    let (whole, _) =
+        ui.allocate_exact_size(egui::vec2(size.x, size.y + below), egui::Sense::hover());
+    let rect = egui::Rect::from_min_size(whole.min, size);
+    if let (Some(t), Some(label)) = (tick, tick_label) {
+        ui.painter().text(
+            egui::pos2(rect.left() + rect.width() * t, rect.bottom() + 2.0),
+            egui::Align2::CENTER_TOP,
+            label,
+            font,
+            ui.visuals().text_color(),
+        );
+    }
     let painter = ui.painter_at(rect.expand(2.0));
     painter.rect_stroke(
         rect,

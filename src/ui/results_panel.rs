@@ -18,7 +18,7 @@ pub fn results_ui(ui: &mut egui::Ui, d: &Derived, out: &mut Vec<Command>) {
         }
         super::copy_as_ui(ui, out, Command::CopyResults);
     });
-    ui.small(format!("{}, {}", d.unit, d.convention.key()));
+    ui.label(format!("{}, {}", d.unit, d.convention.key()));
     let all = crate::results::shown_rows(d);
     let mut group = "";
     let mut grid_rows: Vec<&crate::results::ResultRow> = Vec::new();

@@ -227,7 +227,7 @@ impl StressPanel {
                 );
             }
         }
-        ui.small(format!(
+        ui.label(format!(
             "σij in {} ({}); off-diagonal cells edit their mirror too.",
             d.unit,
             d.convention.key()

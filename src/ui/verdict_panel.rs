@@ -163,18 +163,19 @@ fn verdict_row(ui: &mut egui::Ui, v: &Verdict, d: &Derived) {
                 v.utilization.map(|u| u / 1.5),
                 color,
                 Some(1.0 / 1.5),
+                Some("U = 1"),
             );
         }
-        ui.small(numbers).on_hover_text(&tip);
+        ui.label(numbers).on_hover_text(&tip);
     });
     if let Some(text) = reduction {
-        ui.small(text).on_hover_text(&tip);
+        ui.label(text).on_hover_text(&tip);
     }
     if matches!(
         v.basis,
         crate::mechanics::criteria::StressBasis::Effective { .. }
     ) {
-        ui.small(format!("on {}", v.basis.text(d.unit)))
+        ui.label(format!("on {}", v.basis.text(d.unit)))
             .on_hover_text(&tip);
     }
 }

@@ -25,6 +25,8 @@ pub struct WalkthroughPanel {
     shown: Option<Camera>,
     /// Presentation mode: full screen, side panels hidden, larger text.
     pub presenting: bool,
+    /// The window's zoom before presenting, given back after.
+    zoom_before: Option<f32>,
 }
 
 /// `a` turned towards `b` by the fraction `t` (yaw the short way round).
@@ -100,7 +102,6 @@ impl WalkthroughPanel {
             }
         }
         let step = &all[self.step.min(all.len() - 1)];
-        let big = if self.presenting { 1.5 } else { 1.0 };
         ui.horizontal_wrapped(|ui| {
             if ui
                 .add_enabled(self.step > 0, egui::Button::new("Back"))
@@ -141,9 +142,9 @@ impl WalkthroughPanel {
         ui.label(
             egui::RichText::new(format!("{}. {}", self.step + 1, step.title))
                 .heading()
-                .size(18.0 * big),
+                .size(18.0),
         );
-        ui.label(egui::RichText::new(&step.text).size(14.0 * big));
+        ui.label(egui::RichText::new(&step.text).size(14.0));
         let (camera, moving) = self.camera(step, now);
         self.shown = Some(camera);
         if moving {
@@ -152,8 +153,8 @@ impl WalkthroughPanel {
         let size = ui.available_size().max(egui::vec2(64.0, 64.0));
         let (rect, response) = ui.allocate_exact_size(size, egui::Sense::click());
         let sizes = Sizes {
-            line: big,
-            text: 13.0 * big,
+            line: 1.0,
+            text: 13.0,
         };
         let shown = Step {
             camera,
@@ -188,11 +189,22 @@ impl WalkthroughPanel {
         super::corner_controls(ui, rect, &help, "walk-through help", folds, key_id);
     }
 
+    /// Presenting enlarges everything on screen — the picture, its words and every control —
+    /// by the window's zoom (1.5 ×), and gives the zoom back after.
     fn set_presenting(&mut self, ctx: &egui::Context, on: bool) {
+        if on && !self.presenting {
+            self.zoom_before = Some(ctx.zoom_factor());
+            ctx.set_zoom_factor(PRESENT_ZOOM * ctx.zoom_factor());
+        } else if !on && self.presenting {
+            ctx.set_zoom_factor(self.zoom_before.take().unwrap_or(1.0));
+        }
         self.presenting = on;
         ctx.send_viewport_cmd(egui::ViewportCommand::Fullscreen(on));
     }
 }
+
+/// How much larger everything is while presenting.
+const PRESENT_ZOOM: f32 = 1.5;
 
 /// A step's name in the step list.
 fn short(step: &Step) -> &'static str {
