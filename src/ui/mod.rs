@@ -487,7 +487,19 @@ pub fn keys_ui(ctx: &egui::Context, open: &mut bool) {
 pub fn about_ui(ctx: &egui::Context, open: &mut bool) {
     egui::Window::new("About Planewise").open(open).collapsible(false).show(ctx, |ui| {
         ui.heading(format!("Planewise {}", env!("CARGO_PKG_VERSION")));
-        ui.label("The stress state at a point: principal stresses and directions, tractions on any plane, invariants and equivalent stresses, and a CPU-rendered 3D view.");
+        ui.label("The stress state at a point, for engineers who check and explain it. What it does today:");
+        for line in [
+            "principal stresses and directions, invariants, equivalent stresses, the traction and its normal and shear parts on any plane;",
+            "a 3D view of the cube, the cut plane, the traction ellipsoid, the principal axes, the stress element and the traction field;",
+            "the worst planes for a measure, the orientation map and the Mohr circles;",
+            "verdicts against von Mises, Tresca, Rankine, Mohr–Coulomb and Drucker–Prager (on effective stress with pore pressure), and slip checks of named faults;",
+            "projects of load cases and factored combinations, with an envelope; inputs as tensors, in-situ stresses, principal axes, strain rosettes or plane stress;",
+            "finite-element tables ranked by any measure;",
+            "a walk-through of a load case, annotated figures, and a calculation report to print;",
+            "the same from the command line: analyze, figure, worst-plane, map, mohr, envelope, project, rosette, report, explain, batch.",
+        ] {
+            ui.label(format!("• {line}"));
+        }
         ui.add_space(6.0);
         ui.strong("Caution");
         ui.label(crate::SAFETY_NOTE);
