@@ -29,9 +29,9 @@ scripts/gui-smoke.sh screenshots/window-table.png table --table target/screensho
 demo=(--project assets/demo-bracket-project.json --case "ULS 1")
 bin=target/release/planewise
 $bin figure "${demo[@]}" --layers cube,plane,labels,legend,triad \
-    --view iso --size 1100x750 --out screenshots/cut-plane-traction.png
+    --view three-quarter --size 1100x750 --out screenshots/cut-plane-traction.png
 $bin figure "${demo[@]}" --layers ellipsoid,axes,labels,legend,triad \
-    --view iso --perspective --size 1100x750 --out screenshots/ellipsoid-principal-axes.png
+    --view three-quarter --perspective --size 1100x750 --out screenshots/ellipsoid-principal-axes.png
 $bin map "${demo[@]}" --measure shear --size 1100x750 \
     --out screenshots/orientation-map-shear.png
 # The annotated figure: the project's caption and pinned note on ULS 1, and the title block.
@@ -39,16 +39,16 @@ $bin mohr "${demo[@]}" --measure mohr-coulomb --cohesion 10 \
     --friction-angle 30 --size 1100x750 --title-block --title "Example bracket check" \
     --out screenshots/mohr-circles.png
 $bin figure "${demo[@]}" --measure shear \
-    --layers cube,plane,axes,labels,legend,triad --view iso --size 1100x750 \
+    --layers cube,plane,axes,labels,legend,triad --view three-quarter --size 1100x750 \
     --out screenshots/worst-planes-3d.png
 # The stress element (iso and looking down z: the plane element and its turned copy), and the
 # traction over all directions with the lit ellipsoid.
 $bin figure "${demo[@]}" --layers cube,element,labels,legend,triad \
-    --view iso --size 1100x750 --out screenshots/stress-element.png
+    --view three-quarter --size 1100x750 --out screenshots/stress-element.png
 $bin figure "${demo[@]}" --layers cube,element,labels,legend,triad \
     --view z --size 1100x750 --out screenshots/plane-element.png
 $bin figure "${demo[@]}" --layers cube,field,ellipsoid,axes,legend,triad \
-    --view iso --size 1100x750 --out screenshots/traction-field.png
+    --view three-quarter --size 1100x750 --out screenshots/traction-field.png
 # A page of the calculation report as a real browser prints it.
 scripts/report-browser.sh target/report-browser
 pdftoppm -png -r 80 -f 3 -l 3 -singlefile target/report-browser/report.pdf screenshots/report-page

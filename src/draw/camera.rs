@@ -16,7 +16,7 @@ pub enum Projection {
 /// Named view directions.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize, Deserialize)]
 pub enum ViewPreset {
-    /// Eye off every symmetry axis, a little above (yaw 30°, pitch 20°): near and far corners
+    /// Eye off every symmetry axis, a little above (yaw −35°, pitch 20°): near and far corners
     /// of the cube stand apart, so it reads one way round. The start view.
     ThreeQuarter,
     /// Eye along (1, 1, 1).
@@ -89,7 +89,7 @@ impl ViewPreset {
     pub fn yaw_pitch_deg(self) -> (f64, f64) {
         let iso_pitch = (1.0 / 2.0_f64.sqrt()).atan().to_degrees();
         match self {
-            Self::ThreeQuarter => (30.0, 20.0),
+            Self::ThreeQuarter => (-35.0, 20.0),
             Self::Isometric => (45.0, iso_pitch),
             Self::PosX => (0.0, 0.0),
             Self::NegX => (180.0, 0.0),

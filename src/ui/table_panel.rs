@@ -397,13 +397,14 @@ impl TablePanel {
                 })
                 .response
                 .widget_info(|| egui::WidgetInfo::labeled(egui::Role::ComboBox, true, "rank by"));
-            ui.horizontal(|ui| {
-                ui.label("keep");
-                ui.add(egui::DragValue::new(&mut self.keep).range(1..=5_000_000))
-                    .on_hover_text(
-                        "How many of the worst rows to keep (the file is read whole either way)",
-                    );
-            });
+        });
+        // A row of its own: a label and its field never part at a wrap.
+        ui.horizontal(|ui| {
+            ui.label("keep");
+            ui.add(egui::DragValue::new(&mut self.keep).range(1..=5_000_000))
+                .on_hover_text(
+                    "How many of the worst rows to keep (the file is read whole either way)",
+                );
             ui.checkbox(&mut self.skip_bad_rows, "skip bad rows");
         });
         ui.horizontal(|ui| {
@@ -453,10 +454,11 @@ impl TablePanel {
             header.delimiter.name(),
             header.names.len()
         ));
-        ui.horizontal_wrapped(|ui| {
-            for k in 0..6 {
-                // A name and its picker wrap together, never apart.
-                ui.horizontal(|ui| {
+        // Two rows of three (normal, then shear components): a name never parts from its
+        // picker.
+        for row in [0..3, 3..6] {
+            ui.horizontal(|ui| {
+                for k in row {
                     ui.label(COMPONENTS[k]);
                     egui::ComboBox::from_id_salt(("planewise-table-map", k))
                         .selected_text(self.mapping[k].clone())
@@ -474,9 +476,9 @@ impl TablePanel {
                                 format!("column for {}", COMPONENTS[k]),
                             )
                         });
-                });
-            }
-        });
+                }
+            });
+        }
         egui::Grid::new("planewise-table-preview")
             .striped(true)
             .show(ui, |ui| {
