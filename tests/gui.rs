@@ -304,7 +304,7 @@ fn clicking_the_orientation_map_sets_the_plane() {
     let mut h = harness();
     h.get_by_label("Orientation map").click();
     h.run();
-    let rect = h.get_by_label_contains("hover a pole").rect();
+    let rect = h.get_by_label("orientation map picture").rect();
     let (centre, r) = planewise::draw::map::disc_geometry(
         rect.width(),
         rect.height(),
@@ -412,9 +412,7 @@ fn clicking_the_mohr_diagram_moves_the_plane_to_that_point() {
     let mut h = harness();
     h.get_by_label("Mohr circles").click();
     h.run();
-    let rect = h
-        .get_by_label_contains("hover a point to name its plane")
-        .rect();
+    let rect = h.get_by_label("Mohr circles picture").rect();
     let layout = mohr_layout(&h, rect);
     // Aim at the point of the horizontal plane.
     let t = h.state().tensor();
@@ -429,9 +427,7 @@ fn clicking_the_mohr_diagram_moves_the_plane_to_that_point() {
     let (sn2, tau2) = circles.point(&t, h.state().project.plane);
     h.event(egui::Event::PointerGone);
     h.run();
-    let rect_now = h
-        .get_by_label_contains("hover a point to name its plane")
-        .rect();
+    let rect_now = h.get_by_label("Mohr circles picture").rect();
     let layout_now = mohr_layout(&h, rect_now);
     let drawn = rect_now.min + egui::Vec2::from(layout_now.to_px(sn2, tau2));
     assert!(
@@ -600,9 +596,7 @@ fn a_note_pinned_on_the_mohr_diagram_moves_by_dragging_and_undo_takes_each_step_
     h.run();
     h.get_by_label("Pin a note").click();
     h.run();
-    let rect = h
-        .get_by_label_contains("hover a point to name its plane")
-        .rect();
+    let rect = h.get_by_label("Mohr circles picture").rect();
     let plane_before = h.state().project.plane;
     let pos = rect.center();
     click_at(&mut h, pos);

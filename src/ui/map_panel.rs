@@ -253,7 +253,8 @@ pub fn map_ui(ui: &mut egui::Ui, d: &Derived, notes: &[Annotation], out: &mut Ve
         }
     });
     let search = d.search;
-    let size = ui.available_size().max(egui::vec2(200.0, 160.0));
+    let size = (ui.available_size() - egui::vec2(0.0, super::readout_height(ui)))
+        .max(egui::vec2(200.0, 160.0));
     let (rect, response) = ui.allocate_exact_size(size, egui::Sense::click_and_drag());
     let frame = map_figure(
         d,
@@ -274,7 +275,7 @@ pub fn map_ui(ui: &mut egui::Ui, d: &Derived, notes: &[Annotation], out: &mut Ve
         pole_at(x, y).and_then(|pole| PlaneNormal::from_vector(pole).ok())
     };
     let hover = response.hover_pos().and_then(to_map);
-    let response = response.on_hover_text(match hover {
+    let readout = match hover {
         Some(n) => {
             let (dip, dd) = n.dip_deg();
             let value = crate::mechanics::search::Objective::new(&d.tensor, &search)
@@ -290,7 +291,9 @@ pub fn map_ui(ui: &mut egui::Ui, d: &Derived, notes: &[Annotation], out: &mut Ve
             "Orientation map: hover a pole for its plane and value; click to set the cut plane."
                 .to_owned()
         }
-    });
+    };
+    // The pointer's plane, under the picture: never over the tools above it.
+    let response = super::readout(ui, response, "orientation map picture", &readout);
     let shown = notes_panel::on_screen(&d.name, FigureKind::Map, notes, |pin| match pin {
         Pin::Pole { normal } => PlaneNormal::from_vector(nalgebra::Vector3::from(*normal))
             .ok()

@@ -414,7 +414,8 @@ pub fn status_bar_ui(ui: &mut egui::Ui, d: &Derived, status: Option<&Status>) {
                 };
                 ui.colored_label(color, &status.text);
             } else {
-                ui.weak(crate::SAFETY_NOTE);
+                // Wrapped onto a second line where the window is narrow, never cut.
+                ui.add(egui::Label::new(egui::RichText::new(crate::SAFETY_NOTE).weak()).wrap());
             }
         });
     });
@@ -456,6 +457,26 @@ pub fn corner_controls(
             ui.data_mut(|d| d.insert_temp(key_id, !key_open));
         }
     }
+}
+
+/// Height to leave under a picture for its [`readout`]: two lines of body text.
+#[must_use]
+pub fn readout_height(ui: &egui::Ui) -> f32 {
+    2.0 * ui.text_style_height(&egui::TextStyle::Body) + ui.spacing().item_spacing.y
+}
+
+/// A picture's live readout (what the pointer is on), written on the lines under the picture
+/// (room left by [`readout_height`]) instead of in a tooltip over the tools above it or over the
+/// picture's own labels. The picture is named `name` for assistive technology.
+pub fn readout(
+    ui: &mut egui::Ui,
+    response: egui::Response,
+    name: &str,
+    text: &str,
+) -> egui::Response {
+    ui.add(egui::Label::new(text).wrap());
+    response.widget_info(|| egui::WidgetInfo::labeled(egui::Role::Image, true, name));
+    response
 }
 
 /// Help → Keys and mouse: every binding, written from [`shortcuts`].

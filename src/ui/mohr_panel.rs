@@ -60,7 +60,8 @@ pub fn mohr_ui(
     });
     notes_panel::notes_bar(ui, &d.name, FigureKind::Mohr, notes, out);
     let figure = figure(d, settings);
-    let size = ui.available_size().max(egui::vec2(240.0, 180.0));
+    let size = (ui.available_size() - egui::vec2(0.0, super::readout_height(ui)))
+        .max(egui::vec2(240.0, 180.0));
     let (rect, response) = ui.allocate_exact_size(size, egui::Sense::click_and_drag());
     let frame = mohr_frame(
         &figure,
@@ -109,7 +110,8 @@ pub fn mohr_ui(
         }
         None => "Mohr circles: hover a point to name its plane; click or drag in the shaded region to move the cut plane.".to_owned(),
     };
-    let response = response.on_hover_text(text);
+    // Under the picture, not a tooltip over the tools above it.
+    let response = super::readout(ui, response, "Mohr circles picture", &text);
 
     // Notes: pinned at (σn, τ) tension positive, drawn in the shown convention.
     let sign = d.convention.sign();
