@@ -279,7 +279,7 @@ impl MaterialPanel {
                             // automatic ids would move and drop the keyboard focus.
                             egui::TextEdit::singleline(&mut self.fields[i])
                                 .id_salt(("material-field", i))
-                                .desired_width(80.0)
+                                .desired_width(ui.available_width().clamp(48.0, 80.0))
                                 .hint_text("not given"),
                         )
                         .on_hover_text(format!("{name}: {tip}; leave empty if not known"))
