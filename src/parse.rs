@@ -62,9 +62,16 @@ fn unit_inside(t: &str) -> Option<NumberError> {
 
 /// Parses one finite decimal number; surrounding white space is ignored.
 pub fn number(text: &str) -> Result<f64, NumberError> {
-    // The true minus sign the window shows reads as the hyphen-minus it stands for.
-    let minus = text.trim().replace('−', "-");
-    let t = minus.as_str();
+    // The true minus sign the window shows reads as the hyphen-minus it stands for (copied
+    // only when there is one).
+    let t = text.trim();
+    let minus;
+    let t = if t.contains('−') {
+        minus = t.replace('−', "-");
+        minus.as_str()
+    } else {
+        t
+    };
     if t.is_empty() {
         return Err(NumberError::Empty);
     }

@@ -123,6 +123,23 @@ pub struct Row {
     /// How the value reads: a number, or why not (fails at any scale, no frictional capacity,
     /// never reaches the surface, undefined).
     pub standing: Condition,
+    /// For worst-plane measures: the first worst plane's dip and dip direction, degrees, as
+    /// the ranking found it (so no output searches again).
+    pub plane: Option<[f64; 2]>,
+}
+
+impl Row {
+    /// Takes the measure's value, standing and first worst plane from `evaluated`.
+    fn take(&mut self, evaluated: &crate::study::envelope::MeasureValue) {
+        self.value = evaluated.value;
+        self.standing = evaluated.standing();
+        self.plane = evaluated.planes.first().map(|w| {
+            [
+                crate::format::angle(w.dip_deg, false),
+                crate::format::angle(w.dip_direction_deg, true),
+            ]
+        });
+    }
 }
 
 /// Where a kept row is in the file, with its rank key: all that a full ranking holds per row
@@ -281,8 +298,7 @@ impl Ranked {
             if measure.key(&evaluated) != p.key {
                 return Err(changed());
             }
-            row.value = evaluated.value;
-            row.standing = evaluated.standing();
+            row.take(&evaluated);
             Ok(row)
         });
         held.chain(read_again)
@@ -645,6 +661,7 @@ fn read_row(
         tensor,
         value: None,
         standing: Condition::Undefined,
+        plane: None,
     })
 }
 
@@ -699,8 +716,7 @@ fn parse_part(
             Ok(mut row) => {
                 let evaluated = measure.evaluate(&row.tensor).map_err(|e| e.to_string())?;
                 let key = measure.key(&evaluated);
-                row.value = evaluated.value;
-                row.standing = evaluated.standing();
+                row.take(&evaluated);
                 part.rows += 1;
                 part.counts.add(row.standing);
                 if let Some(t) = &threshold {

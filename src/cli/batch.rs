@@ -111,14 +111,14 @@ pub struct Rows<'a> {
 }
 
 impl Rows<'_> {
-    /// The rows in order, each with its [`RowJson`].
+    /// The rows in order, each with its numbers as written ([`RowJson`] without the carried
+    /// columns, which only the JSON adds).
     fn each(&self) -> impl Iterator<Item = Result<(table::Row, RowJson), TableError>> + '_ {
         self.ranked
             .ordered(self.source, self.file, self.options, self.measure)
             .map(|r| {
                 r.map(|r| {
-                    let json =
-                        row_json(&r, &self.ranked.header, self.rank, self.unit, self.measure);
+                    let json = row_json(&r, self.rank, self.unit, self.measure.convention);
                     (r, json)
                 })
             })
@@ -128,9 +128,17 @@ impl Rows<'_> {
 impl Serialize for Rows<'_> {
     fn serialize<S: serde::Serializer>(&self, serializer: S) -> Result<S::Ok, S::Error> {
         use serde::ser::{Error as _, SerializeSeq as _};
+        let header = &self.ranked.header;
         let mut seq = serializer.serialize_seq(Some(self.ranked.kept()))?;
         for row in self.each() {
-            seq.serialize_element(&row.map_err(S::Error::custom)?.1)?;
+            let (r, mut json) = row.map_err(S::Error::custom)?;
+            json.carried = header
+                .carried
+                .iter()
+                .zip(r.carried)
+                .map(|(&i, text)| (header.names[i].clone(), serde_json::Value::String(text)))
+                .collect();
+            seq.serialize_element(&json)?;
         }
         seq.end()
     }
@@ -489,61 +497,30 @@ fn to_json<'a>(
     }
 }
 
-/// One ranked row as written.
+/// One ranked row's numbers as written (the carried columns are left empty: the JSON adds
+/// them, the CSV writes the row's own).
 fn row_json(
     r: &table::Row,
-    header: &table::Header,
     rank: EnvelopeMeasure,
     unit: StressUnit,
-    measure: &table::Measure<'_>,
+    convention: SignConvention,
 ) -> RowJson {
-    let convention = measure.convention;
     let sign = convention.sign();
     // Round-off below 1e-9 of the row's magnitude prints as 0.
-    let shown =
-        |pa: f64, scale: f64| clean(sign * unit.from_pa(crate::format::clean_relative(pa, scale)));
-    let principal =
-        crate::mechanics::principal::principal_values_in(&r.tensor, convention).map(|v| {
-            clean(unit.from_pa(crate::format::clean_relative(
-                v,
-                r.tensor.max_abs_component_pa(),
-            )))
-        });
-    let plane = matches!(rank, EnvelopeMeasure::Plane(_))
-        .then(|| {
-            measure.evaluate(&r.tensor).ok().and_then(|v| {
-                v.planes.first().map(|w| {
-                    [
-                        crate::format::angle(w.dip_deg, false),
-                        crate::format::angle(w.dip_direction_deg, true),
-                    ]
-                })
-            })
-        })
-        .flatten();
+    let scale = r.tensor.max_abs_component_pa();
+    let shown = |pa: f64| clean(sign * unit.from_pa(crate::format::clean_relative(pa, scale)));
+    let principal = crate::mechanics::principal::principal_values_in(&r.tensor, convention)
+        .map(|v| clean(unit.from_pa(crate::format::clean_relative(v, scale))));
     RowJson {
         line: r.line,
-        carried: header
-            .carried
-            .iter()
-            .zip(&r.carried)
-            .map(|(&i, text)| {
-                (
-                    header.names[i].clone(),
-                    serde_json::Value::String(text.clone()),
-                )
-            })
-            .collect(),
-        components: r
-            .tensor
-            .components_pa()
-            .map(|v| shown(v, r.tensor.max_abs_component_pa())),
+        carried: serde_json::Map::new(),
+        components: r.tensor.components_pa().map(shown),
         principal,
         value: r
             .value
             .map(|v| clean(if rank.is_stress() { unit.from_pa(v) } else { v })),
         condition: r.standing,
-        plane,
+        plane: r.plane,
     }
 }
 
