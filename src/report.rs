@@ -5,7 +5,7 @@
 use std::fmt::Write as _;
 
 use crate::draw::svg::escape;
-use crate::format::sig;
+use crate::format::readable;
 use crate::mechanics::criteria::{Condition, Outcome, Verdict};
 use crate::mechanics::search::worst_plane;
 use crate::mechanics::{Component, StressUnit};
@@ -272,7 +272,7 @@ fn material(s: &mut String, project: &Project, unit: StressUnit, notes: &mut Foo
     let stress = |v: Option<f64>| {
         v.map_or_else(
             || "not given".to_owned(),
-            |x| format!("{} {unit}", sig(unit.from_pa(x), 6)),
+            |x| format!("{} {unit}", readable(unit.from_pa(x), 6)),
         )
     };
     let _ = write!(
@@ -283,7 +283,7 @@ fn material(s: &mut String, project: &Project, unit: StressUnit, notes: &mut Foo
         stress(st.tensile_strength_pa),
         stress(st.compressive_strength_pa),
         stress(st.cohesion_pa),
-        st.friction_angle_deg.map_or_else(|| "not given".to_owned(), |v| format!("{}°", sig(v, 6))),
+        st.friction_angle_deg.map_or_else(|| "not given".to_owned(), |v| format!("{}°", readable(v, 6))),
         escape(st.dp_fit.label()),
         notes.mark("Drucker–Prager fits to Mohr–Coulomb: Chen & Han, Plasticity for Structural Engineers, 1988, §5.4"),
     );
@@ -293,15 +293,15 @@ fn material(s: &mut String, project: &Project, unit: StressUnit, notes: &mut Foo
     } else {
         format!(
             "p = {} {unit} (compression positive): fault checks and worst planes use σn′ = σn − p; Rankine, Mohr–Coulomb and Drucker–Prager use σ′ = σ + p·I (tension positive); von Mises and Tresca are unaffected",
-            sig(unit.from_pa(mc.pore_pressure_pa), 6)
+            readable(unit.from_pa(mc.pore_pressure_pa), 6)
         )
     };
     let planes = match project.plane_strength() {
         Some((m, from)) => format!(
             "cohesion {} {unit}, friction angle {}° (μ = tan φ = {}): {}, used for the Coulomb checks of the cut plane, the named faults and the mohr-coulomb worst plane",
-            sig(unit.from_pa(m.cohesion_pa), 6),
-            sig(m.friction_angle_deg, 6),
-            sig(m.friction_angle_deg.to_radians().tan(), 6),
+            readable(unit.from_pa(m.cohesion_pa), 6),
+            readable(m.friction_angle_deg, 6),
+            readable(m.friction_angle_deg.to_radians().tan(), 6),
             from.text()
         ),
         None => format!(
@@ -346,8 +346,10 @@ fn envelopes(
         );
         for (i, r) in env.rows.iter().enumerate() {
             let value = match r.value {
-                Some(v) if measure.is_stress() => format!("{} {unit}", sig(unit.from_pa(v), 6)),
-                Some(v) => sig(v, 6),
+                Some(v) if measure.is_stress() => {
+                    format!("{} {unit}", readable(unit.from_pa(v), 6))
+                }
+                Some(v) => readable(v, 6),
                 None => crate::study::envelope::standing_text(r.standing()).to_owned(),
             };
             let governs = if env.governing.as_deref() == Some(r.name.as_str()) {
@@ -410,7 +412,7 @@ fn verdict_table(s: &mut String, verdicts: &[Verdict], unit: StressUnit, notes: 
     let stress = |v: Option<f64>| {
         v.map_or_else(
             || "—".to_owned(),
-            |x| format!("{} {unit}", sig(unit.from_pa(x), 6)),
+            |x| format!("{} {unit}", readable(unit.from_pa(x), 6)),
         )
     };
     for v in verdicts {
@@ -420,13 +422,13 @@ fn verdict_table(s: &mut String, verdicts: &[Verdict], unit: StressUnit, notes: 
             Outcome::NotChecked => ("not-checked", "not checked"),
         };
         let u = match (v.utilization, v.condition) {
-            (Some(u), _) => sig(u, 6),
+            (Some(u), _) => readable(u, 6),
             (None, Condition::NotChecked) => "—".to_owned(),
             (None, c) => crate::study::envelope::standing_text(c).to_owned(),
         };
         let (reduction, mobilized) = match v.reduction {
             Some(r) => match (r.factor, r.mobilized_friction_deg) {
-                (Some(f), Some(phi)) => (sig(f, 6), format!("{}°", sig(phi, 6))),
+                (Some(f), Some(phi)) => (readable(f, 6), format!("{}°", readable(phi, 6))),
                 _ => (
                     crate::study::envelope::reduction_text(r.condition).to_owned(),
                     "—".to_owned(),
@@ -448,7 +450,7 @@ fn verdict_table(s: &mut String, verdicts: &[Verdict], unit: StressUnit, notes: 
             stress(v.governing_stress_pa),
             stress(v.strength_pa),
             v.factor_of_safety
-                .map_or_else(|| "—".to_owned(), |f| sig(f, 6)),
+                .map_or_else(|| "—".to_owned(), |f| readable(f, 6)),
             escape(&reduction),
             escape(&mobilized),
             escape(&v.note)
@@ -521,7 +523,7 @@ fn case_section(
                 s,
                 "<tr><th>{}</th><td class=\"num\">{}</td><td>{}</td></tr>",
                 escape(label),
-                sig(v, 10),
+                readable(v, 10),
                 escape(&u)
             );
         }
@@ -537,7 +539,7 @@ fn case_section(
     }
     // The tensor.
     let sign = d.convention.sign();
-    let comp = |c: Component| sig(sign * unit.from_pa(d.tensor.component_pa(c)), 6);
+    let comp = |c: Component| readable(sign * unit.from_pa(d.tensor.component_pa(c)), 6);
     let _ = write!(
         s,
         "<h3>Stress tensor ({unit}, {})</h3>\n<table>\n<tr><th></th><th>x</th><th>y</th><th>z</th></tr>\n<tr><th>x</th><td class=\"num\">{}</td><td class=\"num\">{}</td><td class=\"num\">{}</td></tr>\n<tr><th>y</th><td class=\"num\">{}</td><td class=\"num\">{}</td><td class=\"num\">{}</td></tr>\n<tr><th>z</th><td class=\"num\">{}</td><td class=\"num\">{}</td><td class=\"num\">{}</td></tr>\n</table>\n",
@@ -569,8 +571,8 @@ fn case_section(
                 crate::study::MeasureChoice::PLANE_STRENGTH_NEEDED
             );
         }
-        let st = |v: f64| format!("{} {unit}", sig(unit.from_pa(v), 6));
-        let r = |v: Option<f64>| v.map_or_else(|| "undefined".to_owned(), |x| sig(x, 6));
+        let st = |v: f64| format!("{} {unit}", readable(unit.from_pa(v), 6));
+        let r = |v: Option<f64>| v.map_or_else(|| "undefined".to_owned(), |x| readable(x, 6));
         for (f, c) in &d.faults {
             let cells = c.as_ref().map_or_else(
                 || "<td colspan=\"7\">—</td>".to_owned(),
@@ -590,7 +592,7 @@ fn case_section(
                         st(c.shear_stress_pa),
                         r(c.slip_tendency.utilization),
                         r(c.dilation_tendency.utilization),
-                        c.rake_deg.map_or_else(|| "undefined".to_owned(), |x| format!("{}°", sig(x, 5))),
+                        c.rake_deg.map_or_else(|| "undefined".to_owned(), |x| format!("{}°", readable(x, 5))),
                     )
                 },
             );
@@ -598,8 +600,8 @@ fn case_section(
                 s,
                 "<tr><td>{}</td><td class=\"num\">{}° / {}°</td>{cells}</tr>",
                 escape(&f.name),
-                sig(f.dip_deg, 5),
-                sig(f.dip_direction_deg, 5)
+                readable(f.dip_deg, 5),
+                readable(f.dip_direction_deg, 5)
             );
         }
         s.push_str("</table>\n");
@@ -610,9 +612,9 @@ fn case_section(
             || "undefined (see the condition)".to_owned(),
             |v| {
                 if w.measure.is_stress() {
-                    format!("{} {unit}", sig(unit.from_pa(v), 6))
+                    format!("{} {unit}", readable(unit.from_pa(v), 6))
                 } else {
-                    sig(v, 6)
+                    readable(v, 6)
                 }
             },
         );
@@ -628,7 +630,13 @@ fn case_section(
         let planes: Vec<String> = w
             .planes
             .iter()
-            .map(|p| format!("{}° / {}°", sig(p.dip_deg, 5), sig(p.dip_direction_deg, 5)))
+            .map(|p| {
+                format!(
+                    "{}° / {}°",
+                    readable(p.dip_deg, 5),
+                    readable(p.dip_direction_deg, 5)
+                )
+            })
             .collect();
         let _ = writeln!(
             s,

@@ -3,7 +3,7 @@
 
 use std::fmt::Write as _;
 
-use crate::format::sig;
+use crate::format::readable;
 use crate::mechanics::{
     Analysis, PlaneNormal, PlaneStress, SignConvention, StressTensor, StressUnit,
 };
@@ -31,27 +31,31 @@ pub enum Value {
 }
 
 impl Value {
-    /// The number(s) and the unit, apart (the unit is empty for directions and ratios).
+    /// The number(s), with a true minus sign, and the unit, apart (the unit is empty for
+    /// directions and ratios).
     #[must_use]
     pub fn parts(&self, unit: StressUnit) -> (String, String) {
         let u = unit.pascals();
         let sym = unit.symbol();
         let undefined = || ("undefined".to_owned(), String::new());
         match *self {
-            Self::Stress(pa) if pa.is_finite() => (sig(pa / u, 6), sym.to_owned()),
+            Self::Stress(pa) if pa.is_finite() => (readable(pa / u, 6), sym.to_owned()),
             Self::StressPower(v, k) if v.is_finite() => {
                 let power = match k {
                     2 => "²",
                     3 => "³",
                     _ => "",
                 };
-                (sig(v / u.powi(k), 6), format!("{sym}{power}"))
+                (readable(v / u.powi(k), 6), format!("{sym}{power}"))
             }
             Self::StressVector(v) => (vector(&(nalgebra::Vector3::from(v) / u)), sym.to_owned()),
             Self::Direction(v) => (vector(&nalgebra::Vector3::from(v)), String::new()),
-            Self::Angle(Some(deg)) if deg.is_finite() => (sig(deg, 6), "°".to_owned()),
-            Self::DipPair(dip, dd) => (format!("{} / {}", sig(dip, 4), sig(dd, 4)), "°".to_owned()),
-            Self::Ratio(Some(r)) if r.is_finite() => (sig(r, 5), String::new()),
+            Self::Angle(Some(deg)) if deg.is_finite() => (readable(deg, 6), "°".to_owned()),
+            Self::DipPair(dip, dd) => (
+                format!("{} / {}", readable(dip, 4), readable(dd, 4)),
+                "°".to_owned(),
+            ),
+            Self::Ratio(Some(r)) if r.is_finite() => (readable(r, 5), String::new()),
             Self::Undefined(why) => (format!("undefined ({why})"), String::new()),
             _ => undefined(),
         }
@@ -84,7 +88,12 @@ pub struct ResultRow {
 }
 
 fn vector(v: &nalgebra::Vector3<f64>) -> String {
-    format!("({}, {}, {})", sig(v.x, 5), sig(v.y, 5), sig(v.z, 5))
+    format!(
+        "({}, {}, {})",
+        readable(v.x, 5),
+        readable(v.y, 5),
+        readable(v.z, 5)
+    )
 }
 
 /// All rows for `tensor` and the cut plane `plane`, with stresses in `convention`.

@@ -10,7 +10,7 @@
 
 mod common;
 
-use planewise::format::sig;
+use planewise::format::readable;
 use planewise::report::{ReportFigure, ReportOptions, html};
 use planewise::study::{CaseInput, Combination, LoadCase, Project, Term, TypedTensor};
 use scraper::{Html, Selector};
@@ -65,12 +65,12 @@ fn the_report_holds_the_numbers_analyze_gives() {
         );
         let j: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
         // Every principal value, von Mises and the von Mises utilization, as the report prints
-        // them (six significant digits).
+        // them (six significant digits, a true minus sign).
         for v in j["principal"]["values"].as_array().unwrap() {
-            let shown = sig(v.as_f64().unwrap(), 6);
+            let shown = readable(v.as_f64().unwrap(), 6);
             assert!(text.contains(&shown), "{name}: σ {shown} missing");
         }
-        let vm = sig(j["von_mises"].as_f64().unwrap(), 6);
+        let vm = readable(j["von_mises"].as_f64().unwrap(), 6);
         assert!(text.contains(&vm), "{name}: von Mises {vm} missing");
         let u = j["criteria"]
             .as_array()
@@ -80,13 +80,21 @@ fn the_report_holds_the_numbers_analyze_gives() {
             .unwrap()["utilization"]
             .as_f64()
             .unwrap();
-        assert!(text.contains(&sig(u, 6)), "{name}: utilization {u} missing");
+        assert!(
+            text.contains(&readable(u, 6)),
+            "{name}: utilization {u} missing"
+        );
         // Typed input values of load cases.
         if let Some(case) = project.case(name) {
             for v in case.input.numbers() {
-                assert!(text.contains(&sig(v, 10)), "{name}: input {v} missing");
+                assert!(text.contains(&readable(v, 10)), "{name}: input {v} missing");
             }
         }
+    }
+    // Numbers in the tables are written with a true minus sign (U+2212), never a hyphen.
+    for cell in doc.select(&Selector::parse("td.num").unwrap()) {
+        let t: String = cell.text().collect();
+        assert!(!t.contains('-'), "hyphen-minus in the number cell {t:?}");
     }
     // Figures are inline SVG, three per case and combination.
     let svgs = doc.select(&Selector::parse("figure svg").unwrap()).count();
