@@ -1105,3 +1105,27 @@ fn presenting_enlarges_everything_and_leaving_restores_it() {
     assert!(!h.state().walkthrough_panel.presenting);
     assert!((h.ctx.zoom_factor() - before).abs() < 1e-6);
 }
+
+/// At 1024 × 640 the verdict's numbers and notes wrap inside the results panel instead of
+/// running past the window's edge (the panel scrolls sideways only for what cannot wrap).
+#[test]
+fn a_small_window_wraps_the_verdict_inside_its_panel() {
+    let app = PlanewiseApp::demo(Box::new(NoDialogs));
+    let mut h = Harness::builder()
+        .with_size(egui::vec2(1024.0, 640.0))
+        .build_ui_state(|ui, app: &mut PlanewiseApp| app.show(ui), app);
+    h.run();
+    let mut seen = 0;
+    for text in ["factor of safety", "needs the"] {
+        for node in h.query_all_by_label_contains(text) {
+            seen += 1;
+            let r = node.rect();
+            assert!(
+                r.max.x <= 1024.0 - 4.0,
+                "a line with {text:?} ends at x = {} in a 1024 px window",
+                r.max.x
+            );
+        }
+    }
+    assert!(seen >= 3, "only {seen} verdict lines found");
+}

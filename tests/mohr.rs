@@ -390,3 +390,31 @@ fn the_mohr_figure_writes_the_cut_plane_values_and_whether_the_envelope_is_cross
     }
     let _ = std::fs::remove_dir_all(&dir);
 }
+
+#[test]
+fn tick_labels_stay_apart_in_a_narrow_picture() {
+    // The demo-like state of the window at 1024 × 640 drew "−100−80−60−40" as one word. At
+    // every width from a thumbnail up, neighbouring σn tick labels (the numbers centred under
+    // the plot) keep a gap.
+    let figure = figure_for(&mpa([153.9, 17.0, -61.8, 0.0, 0.0, 0.0]), None);
+    for width in [300, 360, 420, 480, 560, 700, 900, 1200] {
+        let frame = mohr_frame(&figure, width, width * 2 / 3, Sizes::default());
+        let mut boxes: Vec<_> = planewise::draw::place::text_boxes(&frame)
+            .into_iter()
+            .filter(|(text, _)| planewise::parse::number(text).is_ok())
+            .collect();
+        // The σn ticks are the lowest row of numbers (the τ ticks stand in a column).
+        let row = boxes.iter().map(|(_, r)| r.min[1]).fold(f32::MIN, f32::max);
+        boxes.retain(|(_, r)| (r.min[1] - row).abs() < 1.0);
+        boxes.sort_by(|a, b| a.1.min[0].total_cmp(&b.1.min[0]));
+        assert!(boxes.len() >= 2, "{width}: {boxes:?}");
+        for pair in boxes.windows(2) {
+            assert!(
+                pair[1].1.min[0] - pair[0].1.max[0] >= 4.0,
+                "{width} px: {:?} and {:?} touch",
+                pair[0].0,
+                pair[1].0
+            );
+        }
+    }
+}

@@ -253,6 +253,28 @@ fn tick_labels(ticks_pa: &[f64], unit: StressUnit) -> Vec<String> {
     shown.iter().map(|&v| readable(v, digits)).collect()
 }
 
+/// The σn ticks and their labels: about seven, fewer when a narrow picture would set the
+/// labels (of `size` pixels) closer than one text height apart.
+fn fitting_ticks(layout: &MohrLayout, size: f32, unit: StressUnit) -> (Vec<f64>, Vec<String>) {
+    let mut target = 7.0;
+    loop {
+        let ticks = chart::stress_ticks(layout.normal_min_pa, layout.normal_max_pa, target, unit);
+        let labels = tick_labels(&ticks, unit);
+        let spacing = match ticks.as_slice() {
+            [a, b, ..] => layout.to_px(*b, 0.0)[0] - layout.to_px(*a, 0.0)[0],
+            _ => f32::INFINITY,
+        };
+        let widest = labels
+            .iter()
+            .map(|l| super::place::text_width(l, size))
+            .fold(0.0, f32::max);
+        if widest + size <= spacing || target <= 2.0 {
+            return (ticks, labels);
+        }
+        target -= 1.0;
+    }
+}
+
 /// The figure at `width` × `height` pixels, with text and lines of `sizes` (on screen the
 /// default sizes; in exports [`Sizes::for_export`]).
 #[must_use]
@@ -290,8 +312,8 @@ pub fn mohr_frame(figure: &MohrFigure, width: u32, height: u32, sizes: Sizes) ->
     }
 
     // Grid and tick labels.
-    let x_ticks = chart::stress_ticks(layout.normal_min_pa, layout.normal_max_pa, 7.0, unit);
-    for (&x, label) in x_ticks.iter().zip(tick_labels(&x_ticks, unit)) {
+    let (x_ticks, x_labels) = fitting_ticks(&layout, 0.9 * sizes.text, unit);
+    for (&x, label) in x_ticks.iter().zip(x_labels) {
         let [px, _] = layout.to_px(x, 0.0);
         frame.prims.push(Prim::Line {
             a: [px, top],

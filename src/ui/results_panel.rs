@@ -5,7 +5,7 @@ use crate::study::Derived;
 
 /// Draws the results.
 pub fn results_ui(ui: &mut egui::Ui, d: &Derived, out: &mut Vec<Command>) {
-    ui.horizontal(|ui| {
+    ui.horizontal_wrapped(|ui| {
         ui.heading("Results");
         if ui
             .button("Copy")
@@ -34,9 +34,14 @@ pub fn results_ui(ui: &mut egui::Ui, d: &Derived, out: &mut Vec<Command>) {
             .striped(true)
             .show(ui, |ui| {
                 for row in items.drain(..) {
-                    ui.label(&row.name).on_hover_text(row.formula);
-                    ui.monospace(row.value.text(unit))
+                    // The value wraps, so a narrow panel shows every value whole.
+                    ui.add(egui::Label::new(&row.name).extend())
                         .on_hover_text(row.formula);
+                    ui.add(
+                        egui::Label::new(egui::RichText::new(row.value.text(unit)).monospace())
+                            .wrap(),
+                    )
+                    .on_hover_text(row.formula);
                     ui.end_row();
                 }
             });

@@ -154,7 +154,8 @@ fn verdict_row(ui: &mut egui::Ui, v: &Verdict, d: &Derived) {
         ui.add(egui::Label::new(v.criterion.label()).wrap())
             .on_hover_text(&tip);
     });
-    ui.horizontal(|ui| {
+    // Wrapped too: the numbers go under the bar when the panel is narrow.
+    ui.horizontal_wrapped(|ui| {
         if v.outcome() != Outcome::NotChecked {
             // Full width at U = 1.5, a tick at U = 1.
             super::bar(
@@ -166,10 +167,10 @@ fn verdict_row(ui: &mut egui::Ui, v: &Verdict, d: &Derived) {
                 Some("U = 1"),
             );
         }
-        ui.label(numbers).on_hover_text(&tip);
+        ui.add(egui::Label::new(numbers).wrap()).on_hover_text(&tip);
     });
     if let Some(text) = reduction {
-        ui.label(text).on_hover_text(&tip);
+        ui.add(egui::Label::new(text).wrap()).on_hover_text(&tip);
     }
     if matches!(
         v.basis,
@@ -280,7 +281,7 @@ impl MaterialPanel {
                             egui::TextEdit::singleline(&mut self.fields[i])
                                 .id_salt(("material-field", i))
                                 .desired_width(ui.available_width().clamp(48.0, 80.0))
-                                .hint_text("not given"),
+                                .hint_text("none"),
                         )
                         .on_hover_text(format!("{name}: {tip}; leave empty if not known"))
                         .changed();
@@ -288,7 +289,7 @@ impl MaterialPanel {
                 }
             });
         let mut fit = material.strengths.dp_fit;
-        ui.horizontal(|ui| {
+        ui.horizontal_wrapped(|ui| {
             ui.label("Drucker–Prager fit");
             let response = egui::ComboBox::from_id_salt("dp-fit")
                 .selected_text(fit.key())
