@@ -11,7 +11,7 @@ use planewise::mechanics::criteria::Strengths;
 use planewise::mechanics::search::{Measure as PlaneMeasure, SearchSettings};
 use planewise::mechanics::{SignConvention, StressUnit};
 use planewise::study::EnvelopeMeasure;
-use planewise::table::{Measure, TableOptions, rank};
+use planewise::study::table::{Measure, TableOptions, rank};
 
 fn table(rows: usize) -> Vec<u8> {
     let mut state: u64 = 0x9e37_79b9_7f4a_7c15;

@@ -4,22 +4,13 @@
 //! Conventions: stresses are stored in pascals as f64, tension positive, in right-handed x, y, z
 //! axes; see [`mechanics::units`] for display units and the compression-positive convention.
 
-pub mod app;
-pub mod autosave;
-pub mod cli;
-pub mod dialogs;
-pub mod draw;
-pub mod export;
-pub mod format;
 pub mod mechanics;
-pub mod parse;
-pub mod report;
-pub mod results;
-pub mod scene;
-pub mod session;
+pub mod text;
 pub mod study;
-pub mod table;
-pub mod ui;
+pub mod picture;
+pub mod output;
+pub mod window;
+pub mod cli;
 
 /// The caution every output that can feed a decision carries (README, About, reports, figures).
 pub const SAFETY_NOTE: &str = "Planewise is an aid for engineers, not a substitute for engineering \

@@ -39,7 +39,7 @@ fn main() -> ExitCode {
         }
     };
     let Some(command) = cli.command else {
-        return match planewise::app::run(
+        return match planewise::window::app::run(
             cli.screenshot.as_deref(),
             cli.tab,
             cli.project.as_deref(),

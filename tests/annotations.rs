@@ -11,11 +11,11 @@
 mod common;
 
 use common::planewise_ok;
-use planewise::draw::mohr::MohrLayout;
-use planewise::draw::{Prim, Sizes};
+use planewise::picture::draw::mohr::MohrLayout;
+use planewise::picture::draw::{Prim, Sizes};
 use planewise::mechanics::{SignConvention, StressUnit};
 use planewise::study::annotations::{Annotation, FigureKind, Pin};
-use planewise::study::figures::{self, FigureInput};
+use planewise::picture::figures::{self, FigureInput};
 use planewise::study::{CaseInput, Derived, Edit, LoadCase, Project, TypedTensor};
 
 fn project() -> Project {
@@ -72,7 +72,7 @@ fn temp(name: &str) -> std::path::PathBuf {
     dir.join(name)
 }
 
-fn texts(frame: &planewise::draw::Frame) -> Vec<(String, [f32; 2])> {
+fn texts(frame: &planewise::picture::draw::Frame) -> Vec<(String, [f32; 2])> {
     frame
         .prims
         .iter()
@@ -169,9 +169,9 @@ fn a_mohr_note_sits_at_its_stress_point_in_either_sign_convention() {
         assert!(texts(&map).iter().any(|(t, _)| t == "joint set J2"));
         let view = figures::view_3d(
             &input,
-            planewise::scene::Layers::default(),
-            planewise::scene::FaceChoice::default(),
-            &planewise::draw::camera::Camera::default(),
+            planewise::picture::scene::Layers::default(),
+            planewise::picture::scene::FaceChoice::default(),
+            &planewise::picture::draw::camera::Camera::default(),
             w,
             h,
             Sizes::default(),
@@ -202,11 +202,11 @@ fn the_command_line_and_the_report_write_notes_and_captions_escaped() {
     assert!(text.contains("Lifting lug, invented &lt;script&gt;"));
     assert!(!text.contains("<script"));
 
-    let report = planewise::report::html(
+    let report = planewise::output::report::html(
         &project(),
-        &planewise::report::ReportOptions {
+        &planewise::output::report::ReportOptions {
             cases: Vec::new(),
-            figures: vec![planewise::report::ReportFigure::Mohr],
+            figures: vec![planewise::output::report::ReportFigure::Mohr],
             date: "2026-12-03".into(),
             source: None,
         },
@@ -240,9 +240,9 @@ fn the_report_names_a_table_rows_file_and_line() {
         false,
     )
     .unwrap();
-    let report = planewise::report::html(
+    let report = planewise::output::report::html(
         &p,
-        &planewise::report::ReportOptions {
+        &planewise::output::report::ReportOptions {
             cases: vec!["row 7 of mesh.csv".into()],
             figures: Vec::new(),
             date: "2026-12-03".into(),

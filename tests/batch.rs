@@ -20,7 +20,7 @@ use planewise::mechanics::criteria::Strengths;
 use planewise::mechanics::search::{Measure as PlaneMeasure, SearchSettings};
 use planewise::mechanics::{SignConvention, StressUnit};
 use planewise::study::EnvelopeMeasure;
-use planewise::table::{Measure, TableOptions, rank};
+use planewise::study::table::{Measure, TableOptions, rank};
 use proptest::prelude::*;
 
 fn temp(name: &str) -> PathBuf {
@@ -257,7 +257,7 @@ fn with_von_mises<T>(convention: SignConvention, f: impl FnOnce(&Measure<'_>) ->
     })
 }
 
-fn rank_text(text: &[u8], options: &TableOptions) -> Result<planewise::table::Ranked, String> {
+fn rank_text(text: &[u8], options: &TableOptions) -> Result<planewise::study::table::Ranked, String> {
     with_von_mises(options.convention, |measure| {
         rank(text, "t.csv", options, measure, |_| true).map_err(|e| e.to_string())
     })

@@ -12,7 +12,7 @@ use common::NoDialogs;
 use egui::accesskit::Role;
 use egui_kittest::Harness;
 use egui_kittest::kittest::{Queryable as _, by};
-use planewise::app::{PlanewiseApp, Settings};
+use planewise::window::app::{PlanewiseApp, Settings};
 use planewise::mechanics::{
     Analysis, Component, PlaneNormal, SignConvention, StressTensor, StressUnit,
 };
@@ -106,7 +106,7 @@ fn typing_a_cell_changes_the_results_and_its_mirror() {
         "von Mises did not follow the edit"
     );
     // The results panel shows the new von Mises value.
-    let shown = format!("{} MPa", planewise::format::sig(after / 1e6, 6));
+    let shown = format!("{} MPa", planewise::text::format::sig(after / 1e6, 6));
     assert!(
         h.query_by_label(&shown).is_some(),
         "results panel does not show {shown}"
@@ -131,7 +131,7 @@ fn bad_text_shows_an_error_and_keeps_the_state() {
         let before_zz = mpa(h.state(), Component::Zz);
         let said = format!(
             "analysed with the last valid value, σzz = {} MPa",
-            planewise::format::sig(before_zz, 8).replace('-', "−")
+            planewise::text::format::sig(before_zz, 8).replace('-', "−")
         );
         assert!(
             h.query_by_label_contains(&said).is_some(),
@@ -271,10 +271,10 @@ fn export_to_a_path_writes_the_same_figure_as_the_command_line() {
     let path = dir.join("window.svg");
     let ctx = h.ctx.clone();
     h.state_mut()
-        .apply(&ctx, planewise::app::Command::ExportTo(path.clone()));
+        .apply(&ctx, planewise::window::app::Command::ExportTo(path.clone()));
     let written = std::fs::read_to_string(&path).unwrap();
-    let expected = planewise::draw::svg::to_svg(
-        &planewise::export::with_caution(&h.state().export_frame()),
+    let expected = planewise::picture::draw::svg::to_svg(
+        &planewise::output::export::with_caution(&h.state().export_frame()),
         "",
     );
     // The caution is printed on the figure itself (on one or two lines), not only in its
@@ -305,10 +305,10 @@ fn clicking_the_orientation_map_sets_the_plane() {
     h.get_by_label("Orientation map").click();
     h.run();
     let rect = h.get_by_label("orientation map picture").rect();
-    let (centre, r) = planewise::draw::map::disc_geometry(
+    let (centre, r) = planewise::picture::draw::map::disc_geometry(
         rect.width(),
         rect.height(),
-        planewise::draw::Sizes::default(),
+        planewise::picture::draw::Sizes::default(),
     );
     // Half way from the centre to the east rim.
     let pos = rect.min + egui::vec2(centre[0] + 0.5 * r, centre[1]);
@@ -394,14 +394,14 @@ fn click_at(h: &mut Harness<'static, PlanewiseApp>, pos: egui::Pos2) {
 fn mohr_layout(
     h: &Harness<'static, PlanewiseApp>,
     rect: egui::Rect,
-) -> planewise::draw::mohr::MohrLayout {
+) -> planewise::picture::draw::mohr::MohrLayout {
     let figure =
-        planewise::ui::mohr_panel::figure(&Derived::new(&h.state().project), &h.state().settings);
-    planewise::draw::mohr::MohrLayout::new(
+        planewise::window::ui::mohr_panel::figure(&Derived::new(&h.state().project), &h.state().settings);
+    planewise::picture::draw::mohr::MohrLayout::new(
         &figure,
         rect.width().floor(),
         rect.height().floor(),
-        planewise::draw::Sizes::default(),
+        planewise::picture::draw::Sizes::default(),
     )
 }
 
@@ -440,19 +440,19 @@ fn clicking_the_mohr_diagram_moves_the_plane_to_that_point() {
 
 #[test]
 fn dragging_the_normal_handle_turns_the_plane_in_one_undo_step() {
-    use planewise::scene::{NORMAL_LENGTH, Scene};
+    use planewise::picture::scene::{NORMAL_LENGTH, Scene};
     let mut h = harness();
     let rect = h.get_by_label("3D view picture").rect();
     let app = h.state();
     let camera = app.settings.camera;
     let d = Derived::new(&app.project);
     let scene = Scene::build(&app.scene_input(&d, &[]), &camera.towards_eye());
-    let view = planewise::draw::view_for(
+    let view = planewise::picture::draw::view_for(
         &scene,
         &camera,
         rect.width(),
         rect.height(),
-        planewise::draw::Sizes::default(),
+        planewise::picture::draw::Sizes::default(),
     );
     let tip = view.project(&nalgebra::Point3::from(
         app.project.plane.vector() * NORMAL_LENGTH,
@@ -544,7 +544,7 @@ fn editing_the_demo_renames_it_and_undo_brings_the_name_back() {
     h.get_by_label("dead").click();
     h.run();
     type_into(&mut h, "σxx", "80");
-    assert_eq!(h.state().project.name, planewise::app::UNTITLED);
+    assert_eq!(h.state().project.name, planewise::window::app::UNTITLED);
     h.key_press_modifiers(egui::Modifiers::COMMAND, egui::Key::Z);
     h.run();
     assert_eq!(h.state().project.name, demo_name);
@@ -575,14 +575,14 @@ fn menu_shortcut_text_comes_from_the_bindings() {
     let mut h = harness();
     h.get_by_label("Edit").click();
     h.run();
-    let undo = h.ctx.format_shortcut(&planewise::ui::shortcuts::UNDO);
+    let undo = h.ctx.format_shortcut(&planewise::window::ui::shortcuts::UNDO);
     assert!(!undo.is_empty());
     assert!(h.query_all_by_label_contains(&undo).count() >= 1, "{undo}");
     // The binding the menu names is the one the window obeys.
     type_into(&mut h, "σxx", "80");
     h.key_press_modifiers(
-        planewise::ui::shortcuts::UNDO.modifiers,
-        planewise::ui::shortcuts::UNDO.logical_key,
+        planewise::window::ui::shortcuts::UNDO.modifiers,
+        planewise::window::ui::shortcuts::UNDO.logical_key,
     );
     h.run();
     assert_eq!(h.state().tensor(), fixture_tensor());
@@ -622,7 +622,7 @@ fn a_note_pinned_on_the_mohr_diagram_moves_by_dragging_and_undo_takes_each_step_
     );
 
     // Drag the note's text (it starts 1.5 text sizes right of and 2 above the pin).
-    let text = planewise::draw::Sizes::default().text;
+    let text = planewise::picture::draw::Sizes::default().text;
     let grab = pinned + egui::vec2(default_offset()[0] * text + 8.0, default_offset()[1] * text);
     press_move_release(&mut h, grab, grab + egui::vec2(60.0, 40.0));
     let moved = h.state().project.annotations[0].offset;

@@ -16,7 +16,7 @@ use std::path::PathBuf;
 use egui::accesskit::Role;
 use egui_kittest::Harness;
 use egui_kittest::kittest::{Queryable as _, by};
-use planewise::app::{PlanewiseApp, Settings};
+use planewise::window::app::{PlanewiseApp, Settings};
 use planewise::mechanics::{Analysis, Component, SignConvention};
 use planewise::study::Project;
 
@@ -259,7 +259,7 @@ fn leaving_with_unsaved_changes_asks_first() {
     h.get_by_label("Don't save").click();
     h.run();
     let p = &h.state().project;
-    assert_eq!(p.name, planewise::app::UNTITLED);
+    assert_eq!(p.name, planewise::window::app::UNTITLED);
     assert_eq!(p.cases.len(), 1);
     assert!(!h.state().dirty());
     assert!(!h.state().history.can_undo());
@@ -278,12 +278,12 @@ fn the_autosaved_working_copy_is_offered_back_after_a_crash() {
     leave_text_field(&mut h);
     // Nothing is written before the interval has passed…
     h.state_mut().autosave(1.0);
-    assert!(planewise::autosave::read(&dir).unwrap().is_none());
+    assert!(planewise::window::autosave::read(&dir).unwrap().is_none());
     // …and the working copy after it.
     h.state_mut()
-        .autosave(planewise::autosave::INTERVAL_S + 1.0);
+        .autosave(planewise::window::autosave::INTERVAL_S + 1.0);
     let edited = h.state().project.clone();
-    let copy = planewise::autosave::read(&dir).unwrap().unwrap();
+    let copy = planewise::window::autosave::read(&dir).unwrap().unwrap();
     assert_eq!(copy.project, edited);
     drop(h); // the "crash": no clean exit, so the copy stays
 
@@ -294,14 +294,14 @@ fn the_autosaved_working_copy_is_offered_back_after_a_crash() {
         Box::new(NoDialogs),
     );
     app.set_autosave_dir(Some(dir.clone()));
-    app.recovery = planewise::autosave::read(&dir).unwrap();
+    app.recovery = planewise::window::autosave::read(&dir).unwrap();
     // Closing the window while the question is open keeps the working copy.
     assert!(
         app.close_requested(),
         "nothing unsaved: the window may close"
     );
     assert!(
-        planewise::autosave::read(&dir).unwrap().is_some(),
+        planewise::window::autosave::read(&dir).unwrap().is_some(),
         "the working copy was deleted"
     );
     let mut h = harness_on(app);
@@ -338,7 +338,7 @@ fn the_window_refuses_a_bad_project_file_in_one_line_before_opening() {
 
 #[test]
 fn window_export_and_the_command_line_give_identical_svg_for_a_project() {
-    use planewise::app::Central;
+    use planewise::window::app::Central;
     let project_path = temp("same-figures.json");
     let mut project = Project::demo();
     // A measure with a material, so that the map, the worst planes and the Mohr envelope all
@@ -639,8 +639,8 @@ fn results_verdicts_and_envelope_copy_as_markdown_and_csv() {
 #[test]
 fn the_walkthrough_steps_with_the_keys_and_shows_each_steps_plane_and_view() {
     use planewise::study::Derived;
-    use planewise::study::figures;
-    use planewise::study::walkthrough::{StepKind, steps};
+    use planewise::picture::figures;
+    use planewise::output::walkthrough::{StepKind, steps};
     let mut h = demo();
     let plane_before = h.state().project.plane;
     h.get_by_label("Walk-through").click();
@@ -650,7 +650,7 @@ fn the_walkthrough_steps_with_the_keys_and_shows_each_steps_plane_and_view() {
     assert_eq!(h.state().walkthrough_panel.step, 0);
     let figure_of = |h: &Harness<'static, PlanewiseApp>, i: usize| {
         let [w, hh] = h.state().settings.export_size;
-        let sizes = planewise::draw::Sizes::for_export(w as f32, hh as f32);
+        let sizes = planewise::picture::draw::Sizes::for_export(w as f32, hh as f32);
         let lines = vec![format!("{}. {}", i + 1, all[i].title), all[i].text.clone()];
         figures::titled(&lines, sizes.text, [w, hh], |hh| {
             figures::walkthrough_step(&d, &all[i], w, hh, sizes)
@@ -682,7 +682,7 @@ fn the_walkthrough_steps_with_the_keys_and_shows_each_steps_plane_and_view() {
     h.run();
     assert_eq!(
         h.state().settings.central,
-        planewise::session::Central::View3d
+        planewise::window::session::Central::View3d
     );
 }
 
@@ -721,7 +721,7 @@ fn an_imported_table_ranks_and_a_clicked_row_becomes_the_shown_case() {
     h.run_steps(8);
     assert_eq!(
         h.state().settings.central,
-        planewise::session::Central::Table
+        planewise::window::session::Central::Table
     );
     type_into(&mut h, "Table file path", path.to_str().unwrap());
     h.get_by_label("Preview").click();
@@ -846,7 +846,7 @@ fn table_ranked(
     measure: planewise::study::EnvelopeMeasure,
 ) -> Harness<'static, PlanewiseApp> {
     let mut h = demo();
-    h.state_mut().settings.central = planewise::session::Central::Table;
+    h.state_mut().settings.central = planewise::window::session::Central::Table;
     h.state_mut().table_panel.measure = measure;
     h.run();
     type_into(&mut h, "Table file path", path.to_str().unwrap());
@@ -923,7 +923,7 @@ fn an_unreadable_working_copy_is_kept_aside_and_said() {
 #[test]
 fn the_envelope_tab_counts_conditions() {
     let mut h = demo();
-    h.state_mut().settings.central = planewise::session::Central::Envelope;
+    h.state_mut().settings.central = planewise::window::session::Central::Envelope;
     h.run();
     // The invented demo: three cases and two combinations, all with a von Mises value.
     assert!(h.query_by_label("5 rows: 5 with a value").is_some());
@@ -940,7 +940,7 @@ fn a_table_given_at_start_waits_for_its_unit() {
     h.run_steps(4);
     assert_eq!(
         h.state().settings.central,
-        planewise::session::Central::Table
+        planewise::window::session::Central::Table
     );
     assert!(!h.state().table_panel.reading());
     assert!(h.state().table_panel.ranked.is_none());
@@ -1022,7 +1022,7 @@ fn a_newcomer_is_told_where_to_go() {
     h.run();
     h.get_by_label("Keys and mouse").click();
     h.run();
-    let keys = planewise::ui::shortcuts::list(&h.ctx);
+    let keys = planewise::window::ui::shortcuts::list(&h.ctx);
     assert!(keys.len() >= 18, "{keys:?}");
     for (key, what) in &keys {
         assert!(h.query_by_label(key).is_some(), "{key} not listed");
@@ -1048,7 +1048,7 @@ fn a_newcomer_is_told_where_to_go() {
     leave_text_field(&mut h);
 
     // The empty Table tab.
-    h.state_mut().settings.central = planewise::session::Central::Table;
+    h.state_mut().settings.central = planewise::window::session::Central::Table;
     h.run();
     assert!(h.query_by_label("Browse…").is_some());
     assert!(
@@ -1057,7 +1057,7 @@ fn a_newcomer_is_told_where_to_go() {
     );
 
     // The map's measure, with the map.
-    h.state_mut().settings.central = planewise::session::Central::Map;
+    h.state_mut().settings.central = planewise::window::session::Central::Map;
     h.run();
     h.get_by_label("map measure").click();
     h.run();
@@ -1074,7 +1074,7 @@ fn a_newcomer_is_told_where_to_go() {
 #[test]
 fn a_small_window_folds_the_walkthrough_legend() {
     let mut app = PlanewiseApp::demo(Box::new(NoDialogs));
-    app.settings.central = planewise::session::Central::Walkthrough;
+    app.settings.central = planewise::window::session::Central::Walkthrough;
     let mut h = Harness::builder()
         .with_size(egui::vec2(1024.0, 640.0))
         .build_ui_state(|ui, app: &mut PlanewiseApp| app.show(ui), app);
@@ -1093,7 +1093,7 @@ fn a_small_window_folds_the_walkthrough_legend() {
 #[test]
 fn presenting_enlarges_everything_and_leaving_restores_it() {
     let mut h = demo();
-    h.state_mut().settings.central = planewise::session::Central::Walkthrough;
+    h.state_mut().settings.central = planewise::window::session::Central::Walkthrough;
     h.run();
     let before = h.ctx.zoom_factor();
     h.key_press(egui::Key::F11);

@@ -12,7 +12,7 @@ mod common;
 use std::collections::HashMap;
 use std::path::PathBuf;
 
-use planewise::app::PlanewiseApp;
+use planewise::window::app::PlanewiseApp;
 
 fn temp(name: &str) -> PathBuf {
     let dir = std::env::temp_dir().join(format!("planewise-hostile-{}", std::process::id()));
@@ -126,11 +126,11 @@ fn hostile_numbers_are_refused_with_the_key_named_by_every_front_end() {
 
 #[test]
 fn drawing_notes_is_total_for_any_number() {
-    use planewise::draw::place::{Pinned, draw_notes};
-    let mut frame = planewise::draw::Frame {
+    use planewise::picture::draw::place::{Pinned, draw_notes};
+    let mut frame = planewise::picture::draw::Frame {
         width: 400.0,
         height: 300.0,
-        background: planewise::scene::style::BACKGROUND,
+        background: planewise::picture::scene::style::BACKGROUND,
         prims: Vec::new(),
     };
     for v in [
@@ -153,7 +153,7 @@ fn drawing_notes_is_total_for_any_number() {
                 offset: [v, v],
             },
         ];
-        draw_notes(&mut frame, &notes, planewise::draw::Sizes::default());
+        draw_notes(&mut frame, &notes, planewise::picture::draw::Sizes::default());
     }
 }
 
@@ -176,9 +176,9 @@ impl eframe::Storage for Memory {
 
 fn storage_with_last(file: &std::path::Path) -> Memory {
     let mut memory = Memory::default();
-    let saved = planewise::app::Saved {
+    let saved = planewise::window::app::Saved {
         file: Some(file.to_owned()),
-        ..planewise::app::Saved::default()
+        ..planewise::window::app::Saved::default()
     };
     eframe::set_value(&mut memory, "planewise-state", &saved);
     memory
@@ -379,7 +379,7 @@ proptest::proptest! {
     #[test]
     fn any_text_gives_svg_that_parses(text in proptest::prelude::any::<String>()) {
         use planewise::study::annotations::{Annotation, FigureKind, Pin};
-        use planewise::study::figures::{self, FigureInput};
+        use planewise::picture::figures::{self, FigureInput};
         let mut p = planewise::study::Project::demo();
         p.name.clone_from(&text);
         let case = p.active_name().unwrap().to_owned();
@@ -392,28 +392,28 @@ proptest::proptest! {
         p.annotations.push(Annotation::note(&case, Pin::Space { at: [0.5, 0.5, 0.5] }, &text));
         let d = planewise::study::Derived::new(&p);
         let input = FigureInput::from_derived(&d, false);
-        let sizes = planewise::draw::Sizes::for_export(800.0, 600.0);
+        let sizes = planewise::picture::draw::Sizes::for_export(800.0, 600.0);
         let frames = [
             figures::mohr(&input, 800, 600, sizes),
             figures::view_3d(
                 &input,
-                planewise::scene::Layers::default(),
-                planewise::scene::FaceChoice::FacingViewer,
-                &planewise::draw::camera::Camera::default(),
+                planewise::picture::scene::Layers::default(),
+                planewise::picture::scene::FaceChoice::FacingViewer,
+                &planewise::picture::draw::camera::Camera::default(),
                 800,
                 600,
                 sizes,
             ),
         ];
         for frame in &frames {
-            let svg = planewise::draw::svg::to_svg(frame, &text);
+            let svg = planewise::picture::draw::svg::to_svg(frame, &text);
             if let Err(e) = roxmltree::Document::parse(&svg) {
                 proptest::prop_assert!(false, "{e}: {text:?}");
             }
         }
-        let html = planewise::report::html(&p, &planewise::report::ReportOptions {
+        let html = planewise::output::report::html(&p, &planewise::output::report::ReportOptions {
             figures: Vec::new(),
-            ..planewise::report::ReportOptions::default()
+            ..planewise::output::report::ReportOptions::default()
         }).unwrap();
         proptest::prop_assert!(
             !html.chars().any(|c| (c.is_control() && !matches!(c, '\n' | '\t' | '\r'))
@@ -425,7 +425,7 @@ proptest::proptest! {
 
 #[test]
 fn the_atomic_writer_keeps_permissions_follows_links_and_refuses_the_rest() {
-    use planewise::export::write_atomic;
+    use planewise::output::export::write_atomic;
     use std::os::unix::fs::{FileTypeExt as _, PermissionsExt as _};
     let mode = |p: &std::path::Path| std::fs::metadata(p).unwrap().permissions().mode() & 0o777;
     // Permissions carry over.

@@ -9,8 +9,8 @@
 mod common;
 
 use nalgebra::{Matrix3, Rotation3, Vector3};
-use planewise::draw::Sizes;
-use planewise::draw::mohr::{Envelope, MohrFigure, MohrLayout, MohrPoint, mohr_frame};
+use planewise::picture::draw::Sizes;
+use planewise::picture::draw::mohr::{Envelope, MohrFigure, MohrLayout, MohrPoint, mohr_frame};
 use planewise::mechanics::criteria::MohrCoulomb;
 use planewise::mechanics::mohr::MohrCircles;
 use planewise::mechanics::{PlaneNormal, SignConvention, StressTensor, StressUnit};
@@ -136,8 +136,8 @@ fn the_layout_keeps_circles_round_and_everything_in_the_plot() {
 #[test]
 fn the_envelope_is_drawn_only_when_a_material_is_set() {
     let t = turned();
-    let colour = planewise::draw::mohr::ENVELOPE.hex();
-    let without = planewise::draw::svg::to_svg(
+    let colour = planewise::picture::draw::mohr::ENVELOPE.hex();
+    let without = planewise::picture::draw::svg::to_svg(
         &mohr_frame(&figure_for(&t, None), 900, 600, Sizes::default()),
         "",
     );
@@ -146,7 +146,7 @@ fn the_envelope_is_drawn_only_when_a_material_is_set() {
         material: MohrCoulomb::new(10e6, 35.0).unwrap(),
         pore_pressure_pa: 0.0,
     };
-    let with = planewise::draw::svg::to_svg(
+    let with = planewise::picture::draw::svg::to_svg(
         &mohr_frame(&figure_for(&t, Some(env)), 900, 600, Sizes::default()),
         "",
     );
@@ -229,7 +229,7 @@ fn cli_writes_svg_and_png() {
             .contains("worst planes (mohr-coulomb: effective tension"),
         "{words:?}"
     );
-    assert!(text.contains(&planewise::draw::mohr::ENVELOPE.hex()));
+    assert!(text.contains(&planewise::picture::draw::mohr::ENVELOPE.hex()));
     let png = dir.join("mohr.png");
     let out = common::planewise(&[
         "mohr",
@@ -296,10 +296,10 @@ fn tick_labels(figure: &MohrFigure) -> Vec<String> {
         .prims
         .iter()
         .filter_map(|p| match p {
-            planewise::draw::Prim::Text {
+            planewise::picture::draw::Prim::Text {
                 at, text, anchor, ..
-            } if *anchor == planewise::draw::Anchor::Center
-                && planewise::parse::number(text).is_ok() =>
+            } if *anchor == planewise::picture::draw::Anchor::Center
+                && planewise::text::parse::number(text).is_ok() =>
             {
                 Some((at[0], text.replace('−', "-")))
             }
@@ -399,9 +399,9 @@ fn tick_labels_stay_apart_in_a_narrow_picture() {
     let figure = figure_for(&mpa([153.9, 17.0, -61.8, 0.0, 0.0, 0.0]), None);
     for width in [300, 360, 420, 480, 560, 700, 900, 1200] {
         let frame = mohr_frame(&figure, width, width * 2 / 3, Sizes::default());
-        let mut boxes: Vec<_> = planewise::draw::place::text_boxes(&frame)
+        let mut boxes: Vec<_> = planewise::picture::draw::place::text_boxes(&frame)
             .into_iter()
-            .filter(|(text, _)| planewise::parse::number(text).is_ok())
+            .filter(|(text, _)| planewise::text::parse::number(text).is_ok())
             .collect();
         // The σn ticks are the lowest row of numbers (the τ ticks stand in a column).
         let row = boxes.iter().map(|(_, r)| r.min[1]).fold(f32::MIN, f32::max);

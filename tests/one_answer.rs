@@ -496,7 +496,7 @@ fn the_envelope_ranks_by_the_same_rule() {
 #[test]
 fn the_table_reader_ranks_by_the_same_rule() {
     use planewise::study::EnvelopeMeasure;
-    use planewise::table::{Measure as TableMeasure, TableOptions, rank};
+    use planewise::study::table::{Measure as TableMeasure, TableOptions, rank};
     let settings = SearchSettings::plain(Measure::SlipTendency, SignConvention::TensionPositive);
     let strengths = Strengths::default();
     let measure = TableMeasure {

@@ -8,12 +8,12 @@
     reason = "a test helper that fails should panic loudly"
 )]
 
-use planewise::draw::camera::{Camera, ViewPreset};
-use planewise::draw::place::{overlapping_texts, text_width};
-use planewise::draw::{Frame, Prim, Sizes};
-use planewise::scene::{FaceChoice, Layers};
+use planewise::picture::draw::camera::{Camera, ViewPreset};
+use planewise::picture::draw::place::{overlapping_texts, text_width};
+use planewise::picture::draw::{Frame, Prim, Sizes};
+use planewise::picture::scene::{FaceChoice, Layers};
 use planewise::study::derived::Derived;
-use planewise::study::figures::{self, FigureInput};
+use planewise::picture::figures::{self, FigureInput};
 use planewise::study::model::Project;
 use skrifa::MetadataProvider;
 use skrifa::instance::{LocationRef, Size};
@@ -22,7 +22,7 @@ use skrifa::instance::{LocationRef, Size};
 /// file's own horizontal metrics (no kerning: the exports' SVG text is not kerned by resvg's
 /// default either, and kerning only narrows).
 fn dejavu_width(text: &str, size: f32) -> f32 {
-    let font = skrifa::FontRef::new(planewise::draw::png::FONT).unwrap();
+    let font = skrifa::FontRef::new(planewise::picture::draw::png::FONT).unwrap();
     let metrics = font.glyph_metrics(Size::new(size), LocationRef::default());
     let charmap = font.charmap();
     text.chars()
@@ -71,7 +71,7 @@ fn demo_states() -> Vec<(String, Derived)> {
 fn demo_frames(width: u32, height: u32, sizes: Sizes, export: bool) -> Vec<(String, Frame)> {
     let finish = |build: &dyn Fn(u32) -> Frame| {
         if export {
-            planewise::export::with_caution(&figures::titled(
+            planewise::output::export::with_caution(&figures::titled(
                 &[],
                 sizes.text,
                 [width, height],

@@ -10,8 +10,8 @@
 
 mod common;
 
-use planewise::format::readable;
-use planewise::report::{ReportFigure, ReportOptions, html};
+use planewise::text::format::readable;
+use planewise::output::report::{ReportFigure, ReportOptions, html};
 use planewise::study::{CaseInput, Combination, LoadCase, Project, Term, TypedTensor};
 use scraper::{Html, Selector};
 

@@ -6,13 +6,13 @@
 )]
 
 use nalgebra::{Point3, Vector3};
-use planewise::draw::camera::{Camera, ViewPreset};
-use planewise::draw::{Prim, Sizes, figure, png, render, svg};
+use planewise::picture::draw::camera::{Camera, ViewPreset};
+use planewise::picture::draw::{Prim, Sizes, figure, png, render, svg};
 use planewise::mechanics::{
     Analysis, PlaneNormal, PlaneStress, SignConvention, StressTensor, StressUnit,
 };
-use planewise::scene::style::{self, Rgba};
-use planewise::scene::{Arrow, FaceChoice, Layers, Scene, SceneInput, Segment, cut_polygon};
+use planewise::picture::scene::style::{self, Rgba};
+use planewise::picture::scene::{Arrow, FaceChoice, Layers, Scene, SceneInput, Segment, cut_polygon};
 use proptest::prelude::*;
 
 fn demo_tensor() -> StressTensor {
@@ -183,7 +183,7 @@ fn nearer_of_two_overlapping_primitives_is_drawn_last() {
     // The same holds for an arrow on either side of the cut plane: seen from +x with the plane
     // x = 0, an arrow at x = −0.3 is drawn before the plane, one at x = +0.3 after it.
     let mut scene = Scene::default();
-    scene.polygons.push(planewise::scene::Polygon {
+    scene.polygons.push(planewise::picture::scene::Polygon {
         points: cut_polygon(&Vector3::x()),
         fill: style::CUT_PLANE,
         outline: Some(style::PLANE_NORMAL),
@@ -300,7 +300,7 @@ fn the_normal_handle_sits_at_the_tip_of_the_normal() {
     let scene = Scene::build(&input(&t, only(|l| l.cut_plane = true)), &Vector3::z());
     let n = PlaneNormal::from_vector(Vector3::new(1.0, 0.5, 0.3)).unwrap();
     assert_eq!(scene.handles.len(), 1);
-    let tip = Point3::from(n.vector() * planewise::scene::NORMAL_LENGTH);
+    let tip = Point3::from(n.vector() * planewise::picture::scene::NORMAL_LENGTH);
     assert!((scene.handles[0].at - tip).norm() < 1e-12);
     // The normal arrow ends there too.
     assert!(scene.arrows.iter().any(|a| (a.to - tip).norm() < 1e-12));
@@ -389,7 +389,7 @@ fn the_normal_handle_is_drawn_over_the_labels() {
 /// components; tension arrows start on the face and point out, compression arrows end on it.
 #[test]
 fn element_arrows_are_the_signed_components_on_each_face() {
-    use planewise::scene::Face;
+    use planewise::picture::scene::Face;
     let t = demo_tensor();
     let components = [
         [120.0, 48.0, 22.0],

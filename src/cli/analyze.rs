@@ -7,7 +7,7 @@ use nalgebra::Vector3;
 use serde::Serialize;
 
 use super::{ArgError, CliError, PlaneArgs, StressArgs, StressInput};
-use crate::format::{clean, sig, with_unit};
+use crate::text::format::{clean, sig, with_unit};
 use crate::mechanics::criteria::{self, Condition, DruckerPragerFit, Outcome, Strengths};
 use crate::mechanics::{Component, PlaneStress, StressUnit};
 use crate::study::Derived;
@@ -335,7 +335,7 @@ pub struct PlaneJson {
 
 /// A unit vector's components, round-off below 1e-9 printed as 0.
 fn arr(v: &Vector3<f64>) -> [f64; 3] {
-    [v.x, v.y, v.z].map(|c| crate::format::clean_relative(c, 1.0))
+    [v.x, v.y, v.z].map(|c| crate::text::format::clean_relative(c, 1.0))
 }
 
 /// The note on nearly repeated principal values `[σ1, σ2, σ3]` (Pa), if any.
@@ -396,7 +396,7 @@ fn named_pair(arg: &'static str, text: &str) -> Result<(String, f64, f64), ArgEr
     let (name, pair) = text.rsplit_once('=').ok_or_else(bad)?;
     let (a, b) = pair.split_once('/').ok_or_else(bad)?;
     let number =
-        |t: &str| crate::parse::number(t).map_err(|e| ArgError::new(arg, format!("{name}: {e}")));
+        |t: &str| crate::text::parse::number(t).map_err(|e| ArgError::new(arg, format!("{name}: {e}")));
     let name = name.trim();
     if name.is_empty() {
         return Err(bad());
@@ -470,9 +470,9 @@ pub fn to_json(d: &Derived, shown: &Shown) -> AnalyzeJson {
         .max(a.principal.values_pa[2].abs())
         .max(tensor.max_abs_component_pa());
     // Round-off below 1e-9 of the state's magnitude prints as 0 (no −7.85e-17, no −0).
-    let st = |pa: f64| crate::format::clean_relative(pa, scale) / u;
+    let st = |pa: f64| crate::text::format::clean_relative(pa, scale) / u;
     let st = |pa: f64| clean(st(pa));
-    let power = |v: f64, k: i32| clean(crate::format::clean_relative(v, scale.powi(k)) / u.powi(k));
+    let power = |v: f64, k: i32| clean(crate::text::format::clean_relative(v, scale.powi(k)) / u.powi(k));
     let c = tensor.components_pa().map(|v| st(sign * v));
     let inv = &a.invariants;
     // `d.verdicts` is governing first; the JSON lists criteria in their fixed order.

@@ -9,7 +9,7 @@ use serde::Serialize;
 
 use super::worst_plane::MaterialArgs;
 use super::{ArgError, CliError};
-use crate::format::{clean, sig};
+use crate::text::format::{clean, sig};
 use crate::mechanics::criteria::Criterion;
 use crate::mechanics::search::WorstCondition;
 use crate::study::{self, EnvelopeMeasure};
@@ -185,8 +185,8 @@ pub fn run(args: &EnvelopeArgs) -> Result<String, CliError> {
                         .iter()
                         .map(|p| {
                             [
-                                crate::format::angle(p.dip_deg, false),
-                                crate::format::angle(p.dip_direction_deg, true),
+                                crate::text::format::angle(p.dip_deg, false),
+                                crate::text::format::angle(p.dip_direction_deg, true),
                             ]
                         })
                         .collect()

@@ -7,10 +7,10 @@ use std::path::PathBuf;
 use clap::Args;
 
 use super::{ArgError, CliError, PlaneArgs, StressArgs, values};
-use crate::draw::svg::escape;
-use crate::export::ImageFormat;
-use crate::study::figures;
-use crate::study::walkthrough::steps;
+use crate::picture::draw::svg::escape;
+use crate::output::export::ImageFormat;
+use crate::picture::figures;
+use crate::output::walkthrough::steps;
 use crate::study::{Derived, Project};
 
 /// Arguments of `planewise explain`.
@@ -85,7 +85,7 @@ pub fn run(args: &ExplainArgs) -> Result<String, CliError> {
     for name in &names {
         let path = args.out.join(name);
         if let Some(input) = &args.stress.project {
-            crate::export::not_an_input(&path, &[input.as_path()])
+            crate::output::export::not_an_input(&path, &[input.as_path()])
                 .map_err(|e| ArgError::new("--out", e))?;
         }
         if !args.replace && path.exists() {
@@ -103,7 +103,7 @@ pub fn run(args: &ExplainArgs) -> Result<String, CliError> {
     std::fs::create_dir_all(&args.out)
         .map_err(|e| anyhow::anyhow!("could not make {}: {e}", args.out.display()))?;
     let (w, h) = args.size;
-    let sizes = crate::draw::Sizes::for_export(w as f32, h as f32);
+    let sizes = crate::picture::draw::Sizes::for_export(w as f32, h as f32);
     let title = format!("{} — {}", project.name, d.name);
     let mut html = String::new();
     let _ = write!(
@@ -122,7 +122,7 @@ pub fn run(args: &ExplainArgs) -> Result<String, CliError> {
         });
         let name = format!("{:02}-{}.{ext}", i + 1, step.kind.slug());
         let path = args.out.join(&name);
-        crate::export::write_figure(&path, &frame, &title).map_err(anyhow::Error::from)?;
+        crate::output::export::write_figure(&path, &frame, &title).map_err(anyhow::Error::from)?;
         let _ = write!(
             html,
             "<section>\n<h2>{}</h2>\n<img src=\"{}\" alt=\"{}\">\n<p>{}</p>\n</section>\n",
@@ -135,7 +135,7 @@ pub fn run(args: &ExplainArgs) -> Result<String, CliError> {
     }
     html.push_str("</body></html>\n");
     let index = args.out.join("index.html");
-    crate::export::write_atomic(&index, html.as_bytes()).map_err(anyhow::Error::from)?;
+    crate::output::export::write_atomic(&index, html.as_bytes()).map_err(anyhow::Error::from)?;
     written.push(index);
     let mut said = String::new();
     for p in &written {

@@ -7,9 +7,9 @@ use clap::Args;
 
 use super::worst_plane::MeasureArgs;
 use super::{ArgError, CliError, PlaneArgs, ProjectView, StressArgs, values};
-use crate::export::{self, ImageFormat};
+use crate::output::export::{self, ImageFormat};
 use crate::mechanics::search::worst_plane;
-use crate::study::figures::{self, FigureInput};
+use crate::picture::figures::{self, FigureInput};
 
 /// Arguments of `planewise map`.
 #[derive(Debug, Clone, Args)]
@@ -49,7 +49,7 @@ pub fn run(args: &MapArgs) -> Result<String, CliError> {
     let resolution = usize::from(args.resolution);
     ImageFormat::from_path(&args.out).map_err(|e| ArgError::new("--out", e))?;
     if let Some(project) = &args.stress.project {
-        crate::export::not_an_input(&args.out, &[project.as_path()])
+        crate::output::export::not_an_input(&args.out, &[project.as_path()])
             .map_err(|e| ArgError::new("--out", e))?;
     }
     let worst = worst_plane(&input.tensor, &settings).map_err(|e| ArgError::new("--measure", e))?;
@@ -58,7 +58,7 @@ pub fn run(args: &MapArgs) -> Result<String, CliError> {
         .as_deref()
         .map(|text| {
             let [a, b] =
-                crate::parse::numbers::<2>(text).map_err(|e| ArgError::new("--range", e))?;
+                crate::text::parse::numbers::<2>(text).map_err(|e| ArgError::new("--range", e))?;
             if a >= b {
                 return Err(ArgError::new("--range", "MIN must be below MAX"));
             }

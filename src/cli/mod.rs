@@ -21,7 +21,7 @@ use std::path::Path;
 use clap::{Args, Parser, Subcommand};
 
 use crate::mechanics::{PlaneNormal, SignConvention, StressTensor, StressUnit};
-use crate::parse;
+use crate::text::parse;
 
 const CONVENTIONS: &str = "\
 Conventions: stresses are tension-positive unless --compression-positive is given, in which case \
@@ -55,7 +55,7 @@ pub struct Cli {
     pub screenshot: Option<std::path::PathBuf>,
     /// The picture the window opens on.
     #[arg(long, value_name = "TAB")]
-    pub tab: Option<crate::session::Central>,
+    pub tab: Option<crate::window::session::Central>,
     /// Open the window on this project file.
     #[arg(long, value_name = "FILE")]
     pub project: Option<std::path::PathBuf>,
@@ -344,7 +344,7 @@ impl ProjectView {
     /// The figure title (project, case and the caution).
     #[must_use]
     pub fn title(view: Option<&Self>) -> String {
-        crate::study::figures::title(view.map(|v| (v.name.as_str(), v.case.as_str())))
+        crate::picture::figures::title(view.map(|v| (v.name.as_str(), v.case.as_str())))
     }
 }
 
@@ -377,20 +377,20 @@ impl StressArgs {
 pub fn titled(
     title: &values::TitleArgs,
     view: Option<&ProjectView>,
-    figure: &crate::study::figures::FigureInput,
+    figure: &crate::picture::figures::FigureInput,
     kind: crate::study::annotations::FigureKind,
     text_px: f32,
     size: [u32; 2],
-    build: impl Fn(u32) -> crate::draw::Frame,
-) -> crate::draw::Frame {
-    use crate::study::figures;
+    build: impl Fn(u32) -> crate::picture::draw::Frame,
+) -> crate::picture::draw::Frame {
+    use crate::picture::figures;
     let mut lines = figure.captions(kind);
     if title.wanted() {
         lines.extend(figures::title_block_lines(
             title.title.as_deref(),
             view.map(|v| (v.name.as_str(), v.case.as_str())),
             figure,
-            &crate::report::today(),
+            &crate::output::report::today(),
         ));
     }
     figures::titled(&lines, text_px, size, build)

@@ -7,10 +7,10 @@ use clap::Args;
 
 use super::worst_plane::{MaterialArgs, search_settings_in};
 use super::{ArgError, CliError, PlaneArgs, ProjectView, StressArgs, values};
-use crate::draw::mohr::Envelope;
-use crate::export::{self, ImageFormat};
+use crate::picture::draw::mohr::Envelope;
+use crate::output::export::{self, ImageFormat};
 use crate::mechanics::search::{Measure, worst_plane};
-use crate::study::figures::{self, FigureInput};
+use crate::picture::figures::{self, FigureInput};
 
 /// Arguments of `planewise mohr`.
 #[derive(Debug, Clone, Args)]
@@ -68,7 +68,7 @@ pub fn run(args: &MohrArgs) -> Result<String, CliError> {
     let (w, h) = args.size;
     ImageFormat::from_path(&args.out).map_err(|e| ArgError::new("--out", e))?;
     if let Some(project) = &args.stress.project {
-        crate::export::not_an_input(&args.out, &[project.as_path()])
+        crate::output::export::not_an_input(&args.out, &[project.as_path()])
             .map_err(|e| ArgError::new("--out", e))?;
     }
     let (search, worst) = match measure {

@@ -8,9 +8,9 @@ use std::path::{Path, PathBuf};
 use clap::{Args, Subcommand};
 
 use super::{ArgError, CliError, values};
-use crate::format::sig;
+use crate::text::format::sig;
 use crate::mechanics::{SignConvention, StressUnit};
-use crate::parse;
+use crate::text::parse;
 use crate::study::{self, CaseInput, Combination, LoadCase, Project, Term, TypedTensor};
 
 /// Arguments of `planewise project`.

@@ -5,7 +5,7 @@ use std::path::PathBuf;
 use clap::Args;
 
 use super::{ArgError, CliError};
-use crate::report::{ReportFigure, ReportOptions, html};
+use crate::output::report::{ReportFigure, ReportOptions, html};
 
 /// Arguments of `planewise report`.
 #[derive(Debug, Clone, Args)]
@@ -37,9 +37,9 @@ pub fn run(args: &ReportArgs) -> Result<String, CliError> {
     if !ext.eq_ignore_ascii_case("html") && !ext.eq_ignore_ascii_case("htm") {
         return Err(ArgError::new("--out", "the report is HTML: name the file .html").into());
     }
-    crate::export::not_an_input(&args.out, &[args.project.as_path()])
+    crate::output::export::not_an_input(&args.out, &[args.project.as_path()])
         .map_err(|e| ArgError::new("--out", e))?;
-    let source = crate::report::SourceFile::read(&args.project)
+    let source = crate::output::report::SourceFile::read(&args.project)
         .map_err(|e| ArgError::new("--project", format!("{}: {e}", args.project.display())))?;
     let options = ReportOptions {
         cases: args.cases.iter().map(|c| c.trim().to_owned()).collect(),
@@ -48,6 +48,6 @@ pub fn run(args: &ReportArgs) -> Result<String, CliError> {
         ..ReportOptions::default()
     };
     let text = html(&project, &options).map_err(|e| ArgError::new("--cases", e))?;
-    crate::export::write_atomic(&args.out, text.as_bytes()).map_err(anyhow::Error::from)?;
+    crate::output::export::write_atomic(&args.out, text.as_bytes()).map_err(anyhow::Error::from)?;
     Ok(format!("wrote {}\n", args.out.display()))
 }

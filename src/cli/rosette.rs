@@ -8,10 +8,10 @@ use serde::Serialize;
 
 use super::analyze::{AnalyzeJson, state_json, to_text};
 use super::{ArgError, CliError, StressInput, values};
-use crate::format::{clean, sig};
+use crate::text::format::{clean, sig};
 use crate::mechanics::inputs::Rosette;
 use crate::mechanics::{SignConvention, StressUnit};
-use crate::parse;
+use crate::text::parse;
 
 /// The unit of the readings.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, clap::ValueEnum)]

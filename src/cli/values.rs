@@ -6,11 +6,11 @@
 use clap::ValueEnum;
 use clap::builder::PossibleValue;
 
-use crate::draw::camera::ViewPreset;
+use crate::picture::draw::camera::ViewPreset;
 use crate::mechanics::StressUnit;
 use crate::mechanics::criteria::DruckerPragerFit;
 use crate::mechanics::search::Measure;
-use crate::scene::Layers;
+use crate::picture::scene::Layers;
 use crate::study::EnvelopeMeasure;
 
 impl ValueEnum for Measure {
@@ -172,12 +172,12 @@ pub struct PrintArgs {
 impl PrintArgs {
     /// Sizes for a `width` × `height` figure.
     #[must_use]
-    pub fn sizes(&self, width: u32, height: u32) -> crate::draw::Sizes {
-        crate::draw::Sizes::for_print(
+    pub fn sizes(&self, width: u32, height: u32) -> crate::picture::draw::Sizes {
+        crate::picture::draw::Sizes::for_print(
             width as f32,
             height as f32,
-            self.print_width.unwrap_or(crate::draw::PRINT_WIDTH_MM),
-            self.font_size.unwrap_or(crate::draw::PRINT_FONT_PT),
+            self.print_width.unwrap_or(crate::picture::draw::PRINT_WIDTH_MM),
+            self.font_size.unwrap_or(crate::picture::draw::PRINT_FONT_PT),
         )
     }
 }

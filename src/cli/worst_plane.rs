@@ -7,7 +7,7 @@ use clap::Args;
 use serde::Serialize;
 
 use super::{ArgError, CliError, ProjectView, StressArgs, StressInput};
-use crate::format::{clean, sig};
+use crate::text::format::{clean, sig};
 use crate::mechanics::criteria::{CriterionError, MohrCoulomb};
 use crate::mechanics::search::{Measure, SearchSettings, WorstCondition, worst_plane};
 use crate::mechanics::{PlaneStress, StressUnit};
@@ -337,20 +337,20 @@ pub fn run(args: &WorstPlaneArgs) -> Result<String, CliError> {
                 // Planes found numerically carry what the search resolves, no more.
                 let resolve = |v: f64| {
                     if matches!(measure, Measure::SlipTendency | Measure::MohrCoulomb) {
-                        crate::format::resolved(v)
+                        crate::text::format::resolved(v)
                     } else {
                         v
                     }
                 };
                 PlaneJson {
-                    normal: [n.x, n.y, n.z].map(|c| resolve(crate::format::clean_relative(c, 1.0))),
-                    dip_deg: crate::format::angle(p.dip_deg, false),
-                    dip_direction_deg: crate::format::angle(p.dip_direction_deg, true),
+                    normal: [n.x, n.y, n.z].map(|c| resolve(crate::text::format::clean_relative(c, 1.0))),
+                    dip_deg: crate::text::format::angle(p.dip_deg, false),
+                    dip_direction_deg: crate::text::format::angle(p.dip_direction_deg, true),
                     normal_stress: resolve(clean(
-                        crate::format::clean_relative(p.normal_stress_pa, scale) / u,
+                        crate::text::format::clean_relative(p.normal_stress_pa, scale) / u,
                     )),
                     shear_stress: resolve(clean(
-                        crate::format::clean_relative(p.shear_stress_pa, scale) / u,
+                        crate::text::format::clean_relative(p.shear_stress_pa, scale) / u,
                     )),
                     rake_deg: rake_deg.map(clean),
                 }

@@ -444,7 +444,7 @@ impl StressBasis {
             Self::Total => "total stress (no pore pressure given)".to_owned(),
             Self::Effective { pore_pressure_pa } => format!(
                 "effective stress σ′ = σ + p·I (tension positive), p = {} {unit}",
-                crate::format::sig(unit.from_pa(pore_pressure_pa), 6)
+                crate::text::format::sig(unit.from_pa(pore_pressure_pa), 6)
             ),
             Self::Unaffected => {
                 "unaffected by the pore pressure (depends only on the deviatoric stress)".to_owned()

@@ -6,11 +6,10 @@ pub mod annotations;
 pub mod derived;
 pub mod edit;
 pub mod envelope;
-pub mod figures;
 pub mod file;
 pub mod history;
 pub mod model;
-pub mod walkthrough;
+pub mod table;
 
 pub use derived::{Derived, DerivedCache};
 pub use edit::Edit;

@@ -1215,7 +1215,7 @@ pub fn terms_text(terms: &[Term]) -> String {
     use std::fmt::Write as _;
     let mut text = String::new();
     for (i, t) in terms.iter().enumerate() {
-        let factor = crate::format::sig(t.factor.abs(), 6);
+        let factor = crate::text::format::sig(t.factor.abs(), 6);
         let sign = match (i, t.factor < 0.0) {
             (0, true) => "−",
             (0, false) => "",

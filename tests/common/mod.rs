@@ -50,21 +50,21 @@ pub fn assert_bad_input(subcommand: &str, cases: &[(&[&str], &str)]) {
 /// zenity does.
 pub struct NoDialogs;
 
-impl planewise::app::Dialogs for NoDialogs {
-    fn save_figure(&self, _suggested_name: &str) -> planewise::app::DialogOutcome {
+impl planewise::window::app::Dialogs for NoDialogs {
+    fn save_figure(&self, _suggested_name: &str) -> planewise::window::app::DialogOutcome {
         unavailable()
     }
-    fn open_project(&self) -> planewise::app::DialogOutcome {
+    fn open_project(&self) -> planewise::window::app::DialogOutcome {
         unavailable()
     }
-    fn save_project(&self, _suggested_name: &str) -> planewise::app::DialogOutcome {
+    fn save_project(&self, _suggested_name: &str) -> planewise::window::app::DialogOutcome {
         unavailable()
     }
-    fn save_report(&self, _suggested_name: &str) -> planewise::app::DialogOutcome {
+    fn save_report(&self, _suggested_name: &str) -> planewise::window::app::DialogOutcome {
         unavailable()
     }
 }
 
-fn unavailable() -> planewise::app::DialogOutcome {
-    planewise::app::DialogOutcome::Unavailable("test machine: no desktop portal".to_owned())
+fn unavailable() -> planewise::window::app::DialogOutcome {
+    planewise::window::app::DialogOutcome::Unavailable("test machine: no desktop portal".to_owned())
 }
