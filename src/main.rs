@@ -44,6 +44,7 @@ fn main() -> ExitCode {
             cli.tab,
             cli.project.as_deref(),
             cli.table.as_deref().map(|t| (t, cli.table_unit)),
+            &planewise::cli::subcommand_names(),
         ) {
             Ok(()) => ExitCode::SUCCESS,
             Err(e) => {

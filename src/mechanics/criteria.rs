@@ -435,23 +435,9 @@ pub enum StressBasis {
     /// (von Mises, Tresca), which a pressure p·I does not change.
     Unaffected,
 }
+// Its words (`StressBasis::text`) are written in `crate::text::format`, the room that formats
+// numbers for people.
 
-impl StressBasis {
-    /// What it means, in words (the pore pressure in `unit`, for outputs).
-    #[must_use]
-    pub fn text(self, unit: super::StressUnit) -> String {
-        match self {
-            Self::Total => "total stress (no pore pressure given)".to_owned(),
-            Self::Effective { pore_pressure_pa } => format!(
-                "effective stress σ′ = σ + p·I (tension positive), p = {} {unit}",
-                crate::text::format::sig(unit.from_pa(pore_pressure_pa), 6)
-            ),
-            Self::Unaffected => {
-                "unaffected by the pore pressure (depends only on the deviatoric stress)".to_owned()
-            }
-        }
-    }
-}
 
 /// The strength-reduction reading of a pressure-sensitive criterion: the factor F by which the
 /// cohesion and tan φ are both divided until the state lies on the criterion's surface (the

@@ -148,6 +148,24 @@ pub fn series(items: &[String]) -> String {
     }
 }
 
+impl crate::mechanics::criteria::StressBasis {
+    /// What it means, in words (the pore pressure in `unit`, for outputs).
+    #[must_use]
+    pub fn text(self, unit: crate::mechanics::StressUnit) -> String {
+        match self {
+            Self::Total => "total stress (no pore pressure given)".to_owned(),
+            Self::Effective { pore_pressure_pa } => format!(
+                "effective stress σ′ = σ + p·I (tension positive), p = {} {unit}",
+                sig(unit.from_pa(pore_pressure_pa), 6)
+            ),
+            Self::Unaffected => {
+                "unaffected by the pore pressure (depends only on the deviatoric stress)".to_owned()
+            }
+        }
+    }
+}
+
+
 #[cfg(test)]
 mod tests {
     use super::sig;

@@ -1222,16 +1222,18 @@ impl eframe::App for PlanewiseApp {
 }
 
 /// Opens the window. With `screenshot`, writes a PNG of the first complete frame there and exits.
+/// `subcommands` are the command line's subcommands, named when the window cannot open (they
+/// need no display).
 pub fn run(
     screenshot: Option<&Path>,
     tab: Option<Central>,
     project: Option<&Path>,
     table: Option<(&Path, Option<crate::mechanics::StressUnit>)>,
+    subcommands: &[String],
 ) -> anyhow::Result<()> {
-    let names = crate::cli::subcommand_names();
     let headless = format!(
         "the subcommands {} need none (see planewise --help)",
-        crate::text::format::series(&names)
+        crate::text::format::series(subcommands)
     );
     // A project named on the command line must load before the window opens: a bad file is
     // said on one line, as for every other bad input.

@@ -73,19 +73,19 @@ pub fn stress_ticks(lo_pa: f64, hi_pa: f64, target_count: f64, unit: StressUnit)
 /// Writes `lines`, each in its colour, as the key in the figure's top-left corner, one under
 /// the other (the Mohr diagram and the orientation map).
 pub fn key(
-    frame: &mut super::Frame,
+    frame: &mut super::frame::Frame,
     lines: impl IntoIterator<Item = (String, Rgba)>,
-    sizes: super::Sizes,
+    sizes: super::frame::Sizes,
 ) {
     let x0 = 12.0 * sizes.line;
     let mut y = 16.0 * sizes.line;
     for (text, color) in lines {
-        frame.prims.push(super::Prim::Text {
+        frame.prims.push(super::frame::Prim::Text {
             at: [x0, y],
             text,
             size: sizes.text,
             color,
-            anchor: super::Anchor::LeftCenter,
+            anchor: super::frame::Anchor::LeftCenter,
             halo: false,
         });
         y += sizes.text * 1.45;

@@ -4,7 +4,7 @@
 use egui::epaint::{Mesh, Shape, Stroke};
 use egui::{Align2, Color32, FontId, Pos2, Rect};
 
-use super::{Anchor, Frame, Prim};
+use super::frame::{Anchor, Frame, Prim};
 use crate::picture::scene::style::Rgba;
 
 /// The egui colour for an [`Rgba`].

@@ -7,7 +7,7 @@ use nalgebra::Vector3;
 
 use super::chart::{self, viridis};
 use super::place::{Label, Pinned, draw_notes, place_all};
-use super::{Anchor, Frame, Prim, Sizes, marker};
+use super::frame::{Anchor, Frame, Prim, Sizes, marker};
 use crate::text::format::{distinct_digits, readable};
 use crate::mechanics::search::{Cone, Measure, cone_normals};
 use crate::mechanics::stereonet::{OrientationMap, project_pole};

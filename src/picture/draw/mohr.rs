@@ -4,7 +4,7 @@
 
 use super::chart;
 use super::place::{Label, Pinned, draw_notes, place_all};
-use super::{Anchor, Frame, Prim, Sizes, marker};
+use super::frame::{Anchor, Frame, Prim, Sizes, marker};
 use crate::text::format::{dip_text, readable};
 use crate::mechanics::criteria::MohrCoulomb;
 use crate::mechanics::mohr::{Circle, MohrCircles};

@@ -4,7 +4,8 @@
 //! label had to move away from it. The 3D view, the Mohr diagram, the orientation map and the
 //! user's notes all place their labels through [`Placer`], so window and exports agree.
 
-use super::{Anchor, Frame, Pos, Prim};
+use super::frame::{Anchor, Frame, Pos, Prim};
+pub use crate::picture::scene::Pinned;
 use crate::picture::scene::style::Rgba;
 
 /// An axis-aligned rectangle in pixels.
@@ -271,7 +272,7 @@ pub struct Placer {
     /// The number of the current query (stamps equal to it were counted already).
     query: u32,
     bounds: Rect,
-    /// The picture's line-width multiplier ([`super::Sizes::line`]).
+    /// The picture's line-width multiplier ([`super::frame::Sizes::line`]).
     scale: f32,
 }
 
@@ -475,28 +476,6 @@ pub fn place_all(frame: &mut Frame, labels: &[Label], line_width: f32) {
     frame.prims.append(&mut placed);
 }
 
-/// A user's note: words pinned to a point `P` of a figure (pixels once placed in a picture).
-#[derive(Clone, Debug, PartialEq)]
-pub struct Pinned<P> {
-    /// The point it is pinned to.
-    pub pin: P,
-    /// The words (one line).
-    pub text: String,
-    /// Where the words sit from the pin, in multiples of the text size (x right, y down).
-    pub offset: [f32; 2],
-}
-
-impl<P> Pinned<P> {
-    /// The same note pinned at `f` of its pin (a figure's coordinates to pixels).
-    pub fn pinned_at<Q>(&self, f: impl Fn(&P) -> Q) -> Pinned<Q> {
-        Pinned {
-            pin: f(&self.pin),
-            text: self.text.clone(),
-            offset: self.offset,
-        }
-    }
-}
-
 /// Notes' colour: a dark violet no data mark uses.
 pub const NOTE: Rgba = Rgba::rgb(88, 40, 130);
 
@@ -551,7 +530,7 @@ impl Pinned<Pos> {
 
 /// Draws `notes` into `frame`: a ring at each pin, a leader to the text when the text sits
 /// away from it, and the text with a halo.
-pub fn draw_notes(frame: &mut Frame, notes: &[Pinned<Pos>], sizes: super::Sizes) {
+pub fn draw_notes(frame: &mut Frame, notes: &[Pinned<Pos>], sizes: super::frame::Sizes) {
     for note in notes {
         // A pin off any finite pixel (a value far outside the picture's scale) is not drawn.
         if !(note.pin.iter().chain(&note.offset).all(|v| v.is_finite())) {
@@ -569,7 +548,7 @@ pub fn draw_notes(frame: &mut Frame, notes: &[Pinned<Pos>], sizes: super::Sizes)
             });
         }
         frame.prims.push(Prim::Polygon {
-            points: super::regular_polygon(note.pin, 3.5 * sizes.line, 12),
+            points: super::frame::regular_polygon(note.pin, 3.5 * sizes.line, 12),
             fill: crate::picture::scene::style::BACKGROUND,
             outline: Some((NOTE, 1.6 * sizes.line)),
         });

@@ -3,7 +3,7 @@
 
 use std::fmt::Write as _;
 
-use super::{Anchor, Frame, Prim};
+use super::frame::{Anchor, Frame, Prim};
 use crate::picture::scene::style::Rgba;
 
 /// The font family named in exported SVG text.
@@ -99,7 +99,7 @@ pub fn to_svg(frame: &Frame, title: &str) -> String {
                 pixels,
                 rgba,
             } => {
-                if let Ok(png) = super::png::encode_rgba(pixels[0], pixels[1], rgba) {
+                if let Ok(png) = super::pixels::encode_rgba(pixels[0], pixels[1], rgba) {
                     let _ = writeln!(
                         s,
                         r#"<image x="{:.2}" y="{:.2}" width="{:.2}" height="{:.2}" preserveAspectRatio="none" image-rendering="optimizeSpeed" href="data:image/png;base64,{}"/>"#,

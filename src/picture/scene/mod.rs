@@ -301,7 +301,7 @@ pub struct Scene {
     /// copy beside it, the middle of the two).
     pub focus: Point3<f64>,
     /// The user's notes pinned to world points (set by the caller after building).
-    pub notes: Vec<crate::picture::draw::place::Pinned<Point3<f64>>>,
+    pub notes: Vec<Pinned<Point3<f64>>>,
 }
 
 impl Scene {
@@ -1035,4 +1035,26 @@ fn legend_entries(layers: Layers, worst_planes: bool) -> Vec<LegendEntry> {
         ));
     }
     out
+}
+
+/// A user's note: words pinned to a point `P` of a figure (pixels once placed in a picture).
+#[derive(Clone, Debug, PartialEq)]
+pub struct Pinned<P> {
+    /// The point it is pinned to.
+    pub pin: P,
+    /// The words (one line).
+    pub text: String,
+    /// Where the words sit from the pin, in multiples of the text size (x right, y down).
+    pub offset: [f32; 2],
+}
+
+impl<P> Pinned<P> {
+    /// The same note pinned at `f` of its pin (a figure's coordinates to pixels).
+    pub fn pinned_at<Q>(&self, f: impl Fn(&P) -> Q) -> Pinned<Q> {
+        Pinned {
+            pin: f(&self.pin),
+            text: self.text.clone(),
+            offset: self.offset,
+        }
+    }
 }
