@@ -4,9 +4,9 @@
 use std::hint::black_box;
 
 use criterion::{Criterion, criterion_group, criterion_main};
+use planewise::mechanics::{PlaneNormal, SignConvention, StressTensor, StressUnit};
 use planewise::picture::draw::camera::Camera;
 use planewise::picture::draw::{Sizes, egui_backend, figure, png, render};
-use planewise::mechanics::{PlaneNormal, SignConvention, StressTensor, StressUnit};
 use planewise::picture::scene::{FaceChoice, Layers, Scene, SceneInput};
 
 fn demo_input(t: &StressTensor) -> SceneInput<'_> {

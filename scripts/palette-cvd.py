@@ -30,8 +30,7 @@ def palette(path):
     return {m[1]: tuple(int(v) for v in m.groups()[1:]) for m in PATTERN.finditer(path.read_text())}
 
 
-scene = palette(ROOT / "src/scene/style.rs")
-chart = palette(ROOT / "src/draw/chart.rs")
+scene = palette(ROOT / "src/picture/scene/style.rs")
 # Pairs a reader must tell apart in one picture (3D view; 2D figures).
 PAIRS = [
     (scene, "TENSION", "COMPRESSION"),
@@ -44,7 +43,7 @@ PAIRS = [
     (scene, "PLANE_NORMAL", "NORMAL_PART"),
     (scene, "WORST_PLANE", "TENSION"),
     (scene, "WORST_PLANE", "COMPRESSION"),
-    (chart, "CUT_PLANE", "WORST_PLANE"),
+    (scene, "PLANE_NORMAL", "WORST_PLANE"),
 ]
 # Below these ΔE' two line colours are hard to tell apart at a glance (our thresholds). The
 # red-green deficiencies are the common ones (several per cent of men) and get the strict one;

@@ -11,11 +11,11 @@
 mod common;
 
 use common::planewise_ok;
+use planewise::mechanics::{SignConvention, StressUnit};
 use planewise::picture::draw::mohr::MohrLayout;
 use planewise::picture::draw::{Prim, Sizes};
-use planewise::mechanics::{SignConvention, StressUnit};
-use planewise::study::annotations::{Annotation, FigureKind, Pin};
 use planewise::picture::figures::{self, FigureInput};
+use planewise::study::annotations::{Annotation, FigureKind, Pin};
 use planewise::study::{CaseInput, Derived, Edit, LoadCase, Project, TypedTensor};
 
 fn project() -> Project {

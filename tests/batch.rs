@@ -257,7 +257,10 @@ fn with_von_mises<T>(convention: SignConvention, f: impl FnOnce(&Measure<'_>) ->
     })
 }
 
-fn rank_text(text: &[u8], options: &TableOptions) -> Result<planewise::study::table::Ranked, String> {
+fn rank_text(
+    text: &[u8],
+    options: &TableOptions,
+) -> Result<planewise::study::table::Ranked, String> {
     with_von_mises(options.convention, |measure| {
         rank(text, "t.csv", options, measure, |_| true).map_err(|e| e.to_string())
     })

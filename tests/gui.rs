@@ -12,11 +12,11 @@ use common::NoDialogs;
 use egui::accesskit::Role;
 use egui_kittest::Harness;
 use egui_kittest::kittest::{Queryable as _, by};
-use planewise::window::app::{PlanewiseApp, Settings};
 use planewise::mechanics::{
     Analysis, Component, PlaneNormal, SignConvention, StressTensor, StressUnit,
 };
 use planewise::study::{CaseInput, Derived, LoadCase, Project, TypedTensor};
+use planewise::window::app::{PlanewiseApp, Settings};
 
 /// A one-case project for these tests. Its numbers are a fixture, not check values: every
 /// check compares the window with the mechanics core or with itself.
@@ -270,11 +270,13 @@ fn export_to_a_path_writes_the_same_figure_as_the_command_line() {
     std::fs::create_dir_all(&dir).unwrap();
     let path = dir.join("window.svg");
     let ctx = h.ctx.clone();
-    h.state_mut()
-        .apply(&ctx, planewise::window::app::Command::ExportTo(path.clone()));
+    h.state_mut().apply(
+        &ctx,
+        planewise::window::app::Command::ExportTo(path.clone()),
+    );
     let written = std::fs::read_to_string(&path).unwrap();
     let expected = planewise::picture::draw::svg::to_svg(
-        &planewise::output::export::with_caution(&h.state().export_frame()),
+        &planewise::picture::caution::with_caution(&h.state().export_frame()),
         "",
     );
     // The caution is printed on the figure itself (on one or two lines), not only in its
@@ -395,8 +397,10 @@ fn mohr_layout(
     h: &Harness<'static, PlanewiseApp>,
     rect: egui::Rect,
 ) -> planewise::picture::draw::mohr::MohrLayout {
-    let figure =
-        planewise::window::ui::mohr_panel::figure(&Derived::new(&h.state().project), &h.state().settings);
+    let figure = planewise::window::ui::mohr_panel::figure(
+        &Derived::new(&h.state().project),
+        &h.state().settings,
+    );
     planewise::picture::draw::mohr::MohrLayout::new(
         &figure,
         rect.width().floor(),
@@ -575,7 +579,9 @@ fn menu_shortcut_text_comes_from_the_bindings() {
     let mut h = harness();
     h.get_by_label("Edit").click();
     h.run();
-    let undo = h.ctx.format_shortcut(&planewise::window::ui::shortcuts::UNDO);
+    let undo = h
+        .ctx
+        .format_shortcut(&planewise::window::ui::shortcuts::UNDO);
     assert!(!undo.is_empty());
     assert!(h.query_all_by_label_contains(&undo).count() >= 1, "{undo}");
     // The binding the menu names is the one the window obeys.

@@ -16,9 +16,9 @@ use std::path::PathBuf;
 use egui::accesskit::Role;
 use egui_kittest::Harness;
 use egui_kittest::kittest::{Queryable as _, by};
-use planewise::window::app::{PlanewiseApp, Settings};
 use planewise::mechanics::{Analysis, Component, SignConvention};
 use planewise::study::Project;
+use planewise::window::app::{PlanewiseApp, Settings};
 
 fn harness_on(app: PlanewiseApp) -> Harness<'static, PlanewiseApp> {
     let mut h = Harness::builder()
@@ -638,9 +638,9 @@ fn results_verdicts_and_envelope_copy_as_markdown_and_csv() {
 /// that step), and the project's own cut plane is left alone.
 #[test]
 fn the_walkthrough_steps_with_the_keys_and_shows_each_steps_plane_and_view() {
-    use planewise::study::Derived;
-    use planewise::picture::figures;
     use planewise::output::walkthrough::{StepKind, steps};
+    use planewise::picture::figures;
+    use planewise::study::Derived;
     let mut h = demo();
     let plane_before = h.state().project.plane;
     h.get_by_label("Walk-through").click();
@@ -653,7 +653,7 @@ fn the_walkthrough_steps_with_the_keys_and_shows_each_steps_plane_and_view() {
         let sizes = planewise::picture::draw::Sizes::for_export(w as f32, hh as f32);
         let lines = vec![format!("{}. {}", i + 1, all[i].title), all[i].text.clone()];
         figures::titled(&lines, sizes.text, [w, hh], |hh| {
-            figures::walkthrough_step(&d, &all[i], w, hh, sizes)
+            planewise::output::walkthrough::step_figure(&d, &all[i], w, hh, sizes)
         })
     };
     for (key, expected) in [

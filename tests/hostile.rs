@@ -153,7 +153,11 @@ fn drawing_notes_is_total_for_any_number() {
                 offset: [v, v],
             },
         ];
-        draw_notes(&mut frame, &notes, planewise::picture::draw::Sizes::default());
+        draw_notes(
+            &mut frame,
+            &notes,
+            planewise::picture::draw::Sizes::default(),
+        );
     }
 }
 
@@ -425,7 +429,7 @@ proptest::proptest! {
 
 #[test]
 fn the_atomic_writer_keeps_permissions_follows_links_and_refuses_the_rest() {
-    use planewise::output::export::write_atomic;
+    use planewise::study::atomic::write_atomic;
     use std::os::unix::fs::{FileTypeExt as _, PermissionsExt as _};
     let mode = |p: &std::path::Path| std::fs::metadata(p).unwrap().permissions().mode() & 0o777;
     // Permissions carry over.

@@ -9,11 +9,11 @@
 mod common;
 
 use nalgebra::{Matrix3, Rotation3, Vector3};
-use planewise::picture::draw::Sizes;
-use planewise::picture::draw::mohr::{Envelope, MohrFigure, MohrLayout, MohrPoint, mohr_frame};
 use planewise::mechanics::criteria::MohrCoulomb;
 use planewise::mechanics::mohr::MohrCircles;
 use planewise::mechanics::{PlaneNormal, SignConvention, StressTensor, StressUnit};
+use planewise::picture::draw::Sizes;
+use planewise::picture::draw::mohr::{Envelope, MohrFigure, MohrLayout, MohrPoint, mohr_frame};
 use proptest::prelude::*;
 
 fn mpa(c: [f64; 6]) -> StressTensor {

@@ -11,9 +11,9 @@
 use planewise::picture::draw::camera::{Camera, ViewPreset};
 use planewise::picture::draw::place::{overlapping_texts, text_width};
 use planewise::picture::draw::{Frame, Prim, Sizes};
+use planewise::picture::figures::{self, FigureInput};
 use planewise::picture::scene::{FaceChoice, Layers};
 use planewise::study::derived::Derived;
-use planewise::picture::figures::{self, FigureInput};
 use planewise::study::model::Project;
 use skrifa::MetadataProvider;
 use skrifa::instance::{LocationRef, Size};
@@ -71,7 +71,7 @@ fn demo_states() -> Vec<(String, Derived)> {
 fn demo_frames(width: u32, height: u32, sizes: Sizes, export: bool) -> Vec<(String, Frame)> {
     let finish = |build: &dyn Fn(u32) -> Frame| {
         if export {
-            planewise::output::export::with_caution(&figures::titled(
+            planewise::picture::caution::with_caution(&figures::titled(
                 &[],
                 sizes.text,
                 [width, height],

@@ -10,9 +10,9 @@
 
 mod common;
 
-use planewise::text::format::readable;
 use planewise::output::report::{ReportFigure, ReportOptions, html};
 use planewise::study::{CaseInput, Combination, LoadCase, Project, Term, TypedTensor};
+use planewise::text::format::readable;
 use scraper::{Html, Selector};
 
 fn text_of(doc: &Html) -> String {

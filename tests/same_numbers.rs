@@ -14,8 +14,8 @@ mod common;
 use common::NoDialogs;
 use egui_kittest::Harness;
 use egui_kittest::kittest::Queryable as _;
-use planewise::window::app::{PlanewiseApp, Settings};
 use planewise::text::format::sig;
+use planewise::window::app::{PlanewiseApp, Settings};
 use scraper::{Html, Selector};
 
 fn temp(name: &str) -> std::path::PathBuf {

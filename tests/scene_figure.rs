@@ -6,13 +6,15 @@
 )]
 
 use nalgebra::{Point3, Vector3};
-use planewise::picture::draw::camera::{Camera, ViewPreset};
-use planewise::picture::draw::{Prim, Sizes, figure, png, render, svg};
 use planewise::mechanics::{
     Analysis, PlaneNormal, PlaneStress, SignConvention, StressTensor, StressUnit,
 };
+use planewise::picture::draw::camera::{Camera, ViewPreset};
+use planewise::picture::draw::{Prim, Sizes, figure, png, render, svg};
 use planewise::picture::scene::style::{self, Rgba};
-use planewise::picture::scene::{Arrow, FaceChoice, Layers, Scene, SceneInput, Segment, cut_polygon};
+use planewise::picture::scene::{
+    Arrow, FaceChoice, Layers, Scene, SceneInput, Segment, cut_polygon,
+};
 use proptest::prelude::*;
 
 fn demo_tensor() -> StressTensor {

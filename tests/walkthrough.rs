@@ -10,11 +10,11 @@
 mod common;
 
 use common::{planewise, planewise_ok};
+use planewise::output::walkthrough::{StepKind, steps};
 use planewise::picture::draw::Sizes;
 use planewise::picture::draw::place::overlapping_texts;
-use planewise::text::format::sig;
-use planewise::output::walkthrough::{StepKind, steps};
 use planewise::study::{Derived, Project};
+use planewise::text::format::sig;
 
 fn demo_case(name: &str) -> Derived {
     let mut p = Project::demo();
@@ -94,12 +94,11 @@ fn no_texts_overlap_in_the_walkthrough_figures() {
             let (w, h) = (1280, 900);
             let sizes = Sizes::for_export(w as f32, h as f32);
             let lines = vec![step.title.clone(), step.text.clone()];
-            let frame = planewise::output::export::with_caution(&planewise::picture::figures::titled(
-                &lines,
-                sizes.text,
-                [w, h],
-                |h| planewise::picture::figures::walkthrough_step(&d, &step, w, h, sizes),
-            ));
+            let frame = planewise::picture::caution::with_caution(
+                &planewise::picture::figures::titled(&lines, sizes.text, [w, h], |h| {
+                    planewise::output::walkthrough::step_figure(&d, &step, w, h, sizes)
+                }),
+            );
             for (a, b) in overlapping_texts(&frame) {
                 bad.push(format!("{name}, {:?}: {a:?} overlaps {b:?}", step.kind));
             }

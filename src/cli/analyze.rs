@@ -7,10 +7,10 @@ use nalgebra::Vector3;
 use serde::Serialize;
 
 use super::{ArgError, CliError, PlaneArgs, StressArgs, StressInput};
-use crate::text::format::{clean, sig, with_unit};
 use crate::mechanics::criteria::{self, Condition, DruckerPragerFit, Outcome, Strengths};
 use crate::mechanics::{Component, PlaneStress, StressUnit};
 use crate::study::Derived;
+use crate::text::format::{clean, sig, with_unit};
 
 /// "passes", "fails" or "not-checked".
 #[must_use]
@@ -395,8 +395,9 @@ fn named_pair(arg: &'static str, text: &str) -> Result<(String, f64, f64), ArgEr
     let bad = || ArgError::new(arg, format!("'{text}' is not NAME=NUMBER/NUMBER"));
     let (name, pair) = text.rsplit_once('=').ok_or_else(bad)?;
     let (a, b) = pair.split_once('/').ok_or_else(bad)?;
-    let number =
-        |t: &str| crate::text::parse::number(t).map_err(|e| ArgError::new(arg, format!("{name}: {e}")));
+    let number = |t: &str| {
+        crate::text::parse::number(t).map_err(|e| ArgError::new(arg, format!("{name}: {e}")))
+    };
     let name = name.trim();
     if name.is_empty() {
         return Err(bad());
@@ -472,7 +473,8 @@ pub fn to_json(d: &Derived, shown: &Shown) -> AnalyzeJson {
     // Round-off below 1e-9 of the state's magnitude prints as 0 (no −7.85e-17, no −0).
     let st = |pa: f64| crate::text::format::clean_relative(pa, scale) / u;
     let st = |pa: f64| clean(st(pa));
-    let power = |v: f64, k: i32| clean(crate::text::format::clean_relative(v, scale.powi(k)) / u.powi(k));
+    let power =
+        |v: f64, k: i32| clean(crate::text::format::clean_relative(v, scale.powi(k)) / u.powi(k));
     let c = tensor.components_pa().map(|v| st(sign * v));
     let inv = &a.invariants;
     // `d.verdicts` is governing first; the JSON lists criteria in their fixed order.

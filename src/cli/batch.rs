@@ -11,12 +11,12 @@ use serde::Serialize;
 
 use super::analyze::StrengthArgs;
 use super::{ArgError, CliError, values};
-use crate::text::format::clean;
 use crate::mechanics::criteria::MohrCoulomb;
 use crate::mechanics::search::{Measure as PlaneMeasure, SearchSettings};
 use crate::mechanics::{SignConvention, StressUnit};
 use crate::study::EnvelopeMeasure;
 use crate::study::table::{self, COMPONENTS, Ranked, TableError, TableOptions};
+use crate::text::format::clean;
 
 /// Arguments of `planewise batch`.
 #[derive(Debug, Clone, Args)]
@@ -248,7 +248,7 @@ pub fn run(args: &BatchArgs) -> Result<String, CliError> {
     if let Some(out) = &args.out
         && args.file != "-"
     {
-        crate::output::export::not_an_input(out, &[std::path::Path::new(&args.file)])
+        crate::study::atomic::not_an_input(out, &[std::path::Path::new(&args.file)])
             .map_err(|e| ArgError::new("--out", e))?;
     }
     let above = args
@@ -420,7 +420,7 @@ pub fn run(args: &BatchArgs) -> Result<String, CliError> {
         }
     };
     if let Some(path) = &args.out {
-        crate::output::export::write_atomic_with(path, write).map_err(anyhow::Error::from)?;
+        crate::study::atomic::write_atomic_with(path, write).map_err(anyhow::Error::from)?;
         Ok(format!(
             "wrote {} ({} rows)\n",
             path.display(),
@@ -508,7 +508,8 @@ fn row_json(
     let sign = convention.sign();
     // Round-off below 1e-9 of the row's magnitude prints as 0.
     let scale = r.tensor.max_abs_component_pa();
-    let shown = |pa: f64| clean(sign * unit.from_pa(crate::text::format::clean_relative(pa, scale)));
+    let shown =
+        |pa: f64| clean(sign * unit.from_pa(crate::text::format::clean_relative(pa, scale)));
     let principal = crate::mechanics::principal::principal_values_in(&r.tensor, convention)
         .map(|v| clean(unit.from_pa(crate::text::format::clean_relative(v, scale))));
     RowJson {

@@ -9,10 +9,10 @@ use serde::Serialize;
 
 use super::worst_plane::MaterialArgs;
 use super::{ArgError, CliError};
-use crate::text::format::{clean, sig};
 use crate::mechanics::criteria::Criterion;
 use crate::mechanics::search::WorstCondition;
 use crate::study::{self, EnvelopeMeasure};
+use crate::text::format::{clean, sig};
 
 /// Arguments of `planewise envelope`.
 #[derive(Debug, Clone, Args)]

@@ -7,10 +7,10 @@ use std::path::PathBuf;
 use clap::Args;
 
 use super::{ArgError, CliError, PlaneArgs, StressArgs, values};
-use crate::picture::draw::svg::escape;
 use crate::output::export::ImageFormat;
-use crate::picture::figures;
 use crate::output::walkthrough::steps;
+use crate::picture::draw::svg::escape;
+use crate::picture::figures;
 use crate::study::{Derived, Project};
 
 /// Arguments of `planewise explain`.
@@ -85,7 +85,7 @@ pub fn run(args: &ExplainArgs) -> Result<String, CliError> {
     for name in &names {
         let path = args.out.join(name);
         if let Some(input) = &args.stress.project {
-            crate::output::export::not_an_input(&path, &[input.as_path()])
+            crate::study::atomic::not_an_input(&path, &[input.as_path()])
                 .map_err(|e| ArgError::new("--out", e))?;
         }
         if !args.replace && path.exists() {
@@ -118,7 +118,7 @@ pub fn run(args: &ExplainArgs) -> Result<String, CliError> {
         let heading = format!("{}. {}", i + 1, step.title);
         let lines = vec![heading.clone(), step.text.clone()];
         let frame = figures::titled(&lines, sizes.text, [w, h], |h| {
-            figures::walkthrough_step(&d, step, w, h, sizes)
+            crate::output::walkthrough::step_figure(&d, step, w, h, sizes)
         });
         let name = format!("{:02}-{}.{ext}", i + 1, step.kind.slug());
         let path = args.out.join(&name);
@@ -135,7 +135,7 @@ pub fn run(args: &ExplainArgs) -> Result<String, CliError> {
     }
     html.push_str("</body></html>\n");
     let index = args.out.join("index.html");
-    crate::output::export::write_atomic(&index, html.as_bytes()).map_err(anyhow::Error::from)?;
+    crate::study::atomic::write_atomic(&index, html.as_bytes()).map_err(anyhow::Error::from)?;
     written.push(index);
     let mut said = String::new();
     for p in &written {

@@ -6,11 +6,11 @@ use clap::Args;
 
 use super::worst_plane::{MaterialArgs, no_material, search_settings_in};
 use super::{ArgError, CliError, PlaneArgs, ProjectView, StressArgs, values};
-use crate::picture::draw::camera::{Camera, Projection, ViewPreset};
-use crate::output::export::{self, ImageFormat};
 use crate::mechanics::search::{Measure, worst_plane};
-use crate::picture::scene::{FaceChoice, Layers};
+use crate::output::export::{self, ImageFormat};
+use crate::picture::draw::camera::{Camera, Projection, ViewPreset};
 use crate::picture::figures::{self, FigureInput};
+use crate::picture::scene::{FaceChoice, Layers};
 
 /// Arguments of `planewise figure`.
 #[derive(Debug, Clone, Args)]
@@ -60,7 +60,7 @@ pub fn run(args: &FigureArgs) -> Result<String, CliError> {
     let preset = args.view;
     ImageFormat::from_path(&args.out).map_err(|e| ArgError::new("--out", e))?;
     if let Some(project) = &args.stress.project {
-        crate::output::export::not_an_input(&args.out, &[project.as_path()])
+        crate::study::atomic::not_an_input(&args.out, &[project.as_path()])
             .map_err(|e| ArgError::new("--out", e))?;
     }
     let mut layers = match &args.layers {

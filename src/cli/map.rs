@@ -7,8 +7,8 @@ use clap::Args;
 
 use super::worst_plane::MeasureArgs;
 use super::{ArgError, CliError, PlaneArgs, ProjectView, StressArgs, values};
-use crate::output::export::{self, ImageFormat};
 use crate::mechanics::search::worst_plane;
+use crate::output::export::{self, ImageFormat};
 use crate::picture::figures::{self, FigureInput};
 
 /// Arguments of `planewise map`.
@@ -49,7 +49,7 @@ pub fn run(args: &MapArgs) -> Result<String, CliError> {
     let resolution = usize::from(args.resolution);
     ImageFormat::from_path(&args.out).map_err(|e| ArgError::new("--out", e))?;
     if let Some(project) = &args.stress.project {
-        crate::output::export::not_an_input(&args.out, &[project.as_path()])
+        crate::study::atomic::not_an_input(&args.out, &[project.as_path()])
             .map_err(|e| ArgError::new("--out", e))?;
     }
     let worst = worst_plane(&input.tensor, &settings).map_err(|e| ArgError::new("--measure", e))?;

@@ -7,9 +7,9 @@ use clap::Args;
 
 use super::worst_plane::{MaterialArgs, search_settings_in};
 use super::{ArgError, CliError, PlaneArgs, ProjectView, StressArgs, values};
-use crate::picture::draw::mohr::Envelope;
-use crate::output::export::{self, ImageFormat};
 use crate::mechanics::search::{Measure, worst_plane};
+use crate::output::export::{self, ImageFormat};
+use crate::picture::draw::mohr::Envelope;
 use crate::picture::figures::{self, FigureInput};
 
 /// Arguments of `planewise mohr`.
@@ -68,7 +68,7 @@ pub fn run(args: &MohrArgs) -> Result<String, CliError> {
     let (w, h) = args.size;
     ImageFormat::from_path(&args.out).map_err(|e| ArgError::new("--out", e))?;
     if let Some(project) = &args.stress.project {
-        crate::output::export::not_an_input(&args.out, &[project.as_path()])
+        crate::study::atomic::not_an_input(&args.out, &[project.as_path()])
             .map_err(|e| ArgError::new("--out", e))?;
     }
     let (search, worst) = match measure {

@@ -8,10 +8,10 @@ use std::path::{Path, PathBuf};
 use clap::{Args, Subcommand};
 
 use super::{ArgError, CliError, values};
-use crate::text::format::sig;
 use crate::mechanics::{SignConvention, StressUnit};
-use crate::text::parse;
 use crate::study::{self, CaseInput, Combination, LoadCase, Project, Term, TypedTensor};
+use crate::text::format::sig;
+use crate::text::parse;
 
 /// Arguments of `planewise project`.
 #[derive(Debug, Clone, Args)]

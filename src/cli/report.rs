@@ -37,7 +37,7 @@ pub fn run(args: &ReportArgs) -> Result<String, CliError> {
     if !ext.eq_ignore_ascii_case("html") && !ext.eq_ignore_ascii_case("htm") {
         return Err(ArgError::new("--out", "the report is HTML: name the file .html").into());
     }
-    crate::output::export::not_an_input(&args.out, &[args.project.as_path()])
+    crate::study::atomic::not_an_input(&args.out, &[args.project.as_path()])
         .map_err(|e| ArgError::new("--out", e))?;
     let source = crate::output::report::SourceFile::read(&args.project)
         .map_err(|e| ArgError::new("--project", format!("{}: {e}", args.project.display())))?;
@@ -48,6 +48,6 @@ pub fn run(args: &ReportArgs) -> Result<String, CliError> {
         ..ReportOptions::default()
     };
     let text = html(&project, &options).map_err(|e| ArgError::new("--cases", e))?;
-    crate::output::export::write_atomic(&args.out, text.as_bytes()).map_err(anyhow::Error::from)?;
+    crate::study::atomic::write_atomic(&args.out, text.as_bytes()).map_err(anyhow::Error::from)?;
     Ok(format!("wrote {}\n", args.out.display()))
 }

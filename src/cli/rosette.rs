@@ -8,9 +8,9 @@ use serde::Serialize;
 
 use super::analyze::{AnalyzeJson, state_json, to_text};
 use super::{ArgError, CliError, StressInput, values};
-use crate::text::format::{clean, sig};
 use crate::mechanics::inputs::Rosette;
 use crate::mechanics::{SignConvention, StressUnit};
+use crate::text::format::{clean, sig};
 use crate::text::parse;
 
 /// The unit of the readings.

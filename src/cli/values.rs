@@ -6,10 +6,10 @@
 use clap::ValueEnum;
 use clap::builder::PossibleValue;
 
-use crate::picture::draw::camera::ViewPreset;
 use crate::mechanics::StressUnit;
 use crate::mechanics::criteria::DruckerPragerFit;
 use crate::mechanics::search::Measure;
+use crate::picture::draw::camera::ViewPreset;
 use crate::picture::scene::Layers;
 use crate::study::EnvelopeMeasure;
 
@@ -176,8 +176,10 @@ impl PrintArgs {
         crate::picture::draw::Sizes::for_print(
             width as f32,
             height as f32,
-            self.print_width.unwrap_or(crate::picture::draw::PRINT_WIDTH_MM),
-            self.font_size.unwrap_or(crate::picture::draw::PRINT_FONT_PT),
+            self.print_width
+                .unwrap_or(crate::picture::draw::PRINT_WIDTH_MM),
+            self.font_size
+                .unwrap_or(crate::picture::draw::PRINT_FONT_PT),
         )
     }
 }

@@ -7,10 +7,10 @@ use clap::Args;
 use serde::Serialize;
 
 use super::{ArgError, CliError, ProjectView, StressArgs, StressInput};
-use crate::text::format::{clean, sig};
 use crate::mechanics::criteria::{CriterionError, MohrCoulomb};
 use crate::mechanics::search::{Measure, SearchSettings, WorstCondition, worst_plane};
 use crate::mechanics::{PlaneStress, StressUnit};
+use crate::text::format::{clean, sig};
 
 /// Pore pressure and Mohr–Coulomb material, shared by `worst-plane`, `map` and `mohr`.
 #[derive(Debug, Clone, Args)]
@@ -343,7 +343,8 @@ pub fn run(args: &WorstPlaneArgs) -> Result<String, CliError> {
                     }
                 };
                 PlaneJson {
-                    normal: [n.x, n.y, n.z].map(|c| resolve(crate::text::format::clean_relative(c, 1.0))),
+                    normal: [n.x, n.y, n.z]
+                        .map(|c| resolve(crate::text::format::clean_relative(c, 1.0))),
                     dip_deg: crate::text::format::angle(p.dip_deg, false),
                     dip_direction_deg: crate::text::format::angle(p.dip_direction_deg, true),
                     normal_stress: resolve(clean(

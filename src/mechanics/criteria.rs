@@ -438,7 +438,6 @@ pub enum StressBasis {
 // Its words (`StressBasis::text`) are written in `crate::text::format`, the room that formats
 // numbers for people.
 
-
 /// The strength-reduction reading of a pressure-sensitive criterion: the factor F by which the
 /// cohesion and tan φ are both divided until the state lies on the criterion's surface (the
 /// shear-strength reduction of geotechnical practice, e.g. Griffiths & Lane, Géotechnique

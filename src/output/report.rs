@@ -4,15 +4,15 @@
 
 use std::fmt::Write as _;
 
-use crate::picture::draw::svg::escape;
-use crate::text::format::readable;
 use crate::mechanics::criteria::{Condition, Outcome, Verdict};
 use crate::mechanics::search::worst_plane;
 use crate::mechanics::{Component, StressUnit};
 use crate::output::results::ResultRow;
-use crate::study::annotations::FigureKind;
+use crate::picture::draw::svg::escape;
 use crate::picture::figures::{self, FigureInput};
+use crate::study::annotations::FigureKind;
 use crate::study::{Derived, EnvelopeMeasure, FieldKind, Project, StudyError, envelope};
+use crate::text::format::readable;
 
 /// The figures a report can carry for each case.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, clap::ValueEnum)]
@@ -673,7 +673,7 @@ fn case_section(
             ReportFigure::Mohr => figures::mohr(&input, w, h, sizes),
         });
         let svg = inline_svg(&crate::picture::draw::svg::to_svg(
-            &crate::output::export::with_caution(&frame),
+            &crate::picture::caution::with_caution(&frame),
             &format!("{} — {name}", project.name),
         ));
         let kind = match figure {

@@ -3,10 +3,10 @@
 
 use std::fmt::Write as _;
 
-use crate::text::format::readable;
 use crate::mechanics::{
     Analysis, PlaneNormal, PlaneStress, SignConvention, StressTensor, StressUnit,
 };
+use crate::text::format::readable;
 
 /// A result's value as computed: stresses in pascals, angles in degrees, directions as unit
 /// vectors. Formatted only at the edges (panel, clipboard, reports) in the unit asked for.

@@ -4,13 +4,13 @@
 //! says which view, layers and plane to show and one or two sentences made from the numbers.
 //! The window's Walk-through tab and `planewise explain` both read these steps. No egui here.
 
-use crate::study::derived::Derived;
-use crate::picture::draw::camera::Camera;
-use crate::text::format::{dip_text, readable};
 use crate::mechanics::criteria::Outcome;
 use crate::mechanics::search::Measure;
 use crate::mechanics::{Component, PlaneNormal, PlaneStress, SignConvention};
+use crate::picture::draw::camera::Camera;
 use crate::picture::scene::Layers;
+use crate::study::derived::Derived;
+use crate::text::format::{dip_text, readable};
 
 /// What a step is about.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
@@ -336,4 +336,67 @@ pub fn steps(d: &Derived) -> Vec<Step> {
         worst_planes: false,
     });
     out
+}
+
+/// The 3D figure of a walk-through step: the step's camera, layers and plane, the worst planes
+/// when the step marks them.
+#[must_use]
+pub fn step_figure(
+    d: &Derived,
+    step: &Step,
+    width: u32,
+    height: u32,
+    sizes: crate::picture::draw::Sizes,
+) -> crate::picture::draw::Frame {
+    step_figure_keyed(d, step, width, height, sizes, true).0
+}
+
+/// [`step_figure`] for the window: the legend is left out where it would cover the
+/// drawing, unless `key_open`; also says whether it would (then the window offers a Key).
+#[must_use]
+pub fn step_figure_keyed(
+    d: &Derived,
+    step: &Step,
+    width: u32,
+    height: u32,
+    sizes: crate::picture::draw::Sizes,
+    key_open: bool,
+) -> (crate::picture::draw::Frame, bool) {
+    let mut input = crate::picture::figures::FigureInput::from_derived(d, false);
+    input.plane = Some(step.plane);
+    if !step.worst_planes {
+        input.worst = None;
+    }
+    let mut layers = crate::picture::scene::Layers {
+        worst_planes: step.worst_planes,
+        ..step.layers
+    };
+    let folds = layers.legend && {
+        let scene = crate::picture::scene::Scene::build(
+            &crate::picture::scene::SceneInput {
+                tensor: &input.tensor,
+                plane: step.plane,
+                unit: input.unit,
+                convention: input.convention,
+                layers,
+                faces: crate::picture::scene::FaceChoice::FacingViewer,
+                worst_planes: &[],
+            },
+            &step.camera.towards_eye(),
+        );
+        !crate::picture::draw::legend_fits(&scene, width as f32, height as f32, sizes)
+    };
+    if folds && !key_open {
+        layers.legend = false;
+    }
+    let frame = crate::picture::figures::view_3d(
+        &input,
+        layers,
+        crate::picture::scene::FaceChoice::FacingViewer,
+        &step.camera,
+        width,
+        height,
+        sizes,
+    );
+    (frame, folds)
 }

@@ -3,18 +3,21 @@
 //! `figure`, `map` and `mohr` subcommands all draw through these, so the same project and
 //! options give the same picture and the same titles everywhere.
 
-use crate::study::annotations::{Annotation, FigureKind, Pin};
-use crate::study::derived::Derived;
-use crate::picture::draw::Frame;
-use crate::picture::draw::camera::Camera;
-use crate::picture::draw::map::{MapMarks, MapMeasure, map_frame};
-use crate::picture::draw::mohr::{Envelope, MohrFigure, MohrPoint, mohr_frame, worst_label, worst_points};
-use crate::picture::draw::place::Pinned;
 use crate::mechanics::mohr::MohrCircles;
 use crate::mechanics::search::{Measure, SearchResult, SearchSettings};
 use crate::mechanics::stereonet::orientation_map;
 use crate::mechanics::{Analysis, PlaneNormal, SignConvention, StressTensor, StressUnit};
+use crate::picture::draw::Frame;
+use crate::picture::draw::camera::Camera;
+use crate::picture::draw::map::{MapMarks, MapMeasure, map_frame};
+use crate::picture::draw::mohr::{
+    Envelope, MohrFigure, MohrPoint, mohr_frame, worst_label, worst_points,
+};
+use crate::picture::draw::place::Pinned;
+use crate::picture::scene::style;
 use crate::picture::scene::{FaceChoice, Layers, SceneInput};
+use crate::study::annotations::{Annotation, FigureKind, Pin};
+use crate::study::derived::Derived;
 
 /// What every figure shows.
 #[derive(Clone, Debug, PartialEq)]
@@ -235,7 +238,12 @@ pub fn mohr_figure(input: &FigureInput) -> MohrFigure {
 
 /// The Mohr circles as a frame.
 #[must_use]
-pub fn mohr(input: &FigureInput, width: u32, height: u32, sizes: crate::picture::draw::Sizes) -> Frame {
+pub fn mohr(
+    input: &FigureInput,
+    width: u32,
+    height: u32,
+    sizes: crate::picture::draw::Sizes,
+) -> Frame {
     mohr_frame(&mohr_figure(input), width, height, sizes)
 }
 
@@ -249,8 +257,8 @@ pub fn title_block_lines(
     input: &FigureInput,
     date: &str,
 ) -> Vec<String> {
-    use crate::text::format::readable;
     use crate::mechanics::Component;
+    use crate::text::format::readable;
     let unit = input.unit;
     let shown = |pa: f64| readable(unit.from_pa(pa), 5);
     let mut lines = Vec::new();
@@ -327,14 +335,14 @@ pub fn with_title_block(frame: &Frame, lines: &[String], size: f32, full_height:
         a: [0.5 * size, top + 0.3 * size],
         b: [frame.width - 0.5 * size, top + 0.3 * size],
         width: 0.08 * size,
-        color: crate::picture::draw::chart::INK,
+        color: style::INK,
     });
     for (i, line) in lines.iter().enumerate() {
         out.prims.push(Prim::Text {
             at: [0.5 * size, top + (1.0 + 1.35 * i as f32) * size],
             text: line.clone(),
             size: if i == 0 { size * 1.1 } else { size },
-            color: crate::picture::draw::chart::INK,
+            color: style::INK,
             anchor: Anchor::LeftCenter,
             halo: false,
         });
@@ -344,7 +352,7 @@ pub fn with_title_block(frame: &Frame, lines: &[String], size: f32, full_height:
 
 /// The figure `build` draws at a given height, with a title block of `lines` below it when
 /// there are any and a free strip at the foot for the caution
-/// ([`crate::output::export::with_caution`]); the whole keeps `width` × `height` pixels.
+/// ([`crate::picture::caution::with_caution`]); the whole keeps `width` × `height` pixels.
 pub fn titled(
     lines: &[String],
     text_px: f32,
@@ -352,7 +360,7 @@ pub fn titled(
     build: impl Fn(u32) -> Frame,
 ) -> Frame {
     let (w, h) = (width as f32, height as f32);
-    let caution = crate::output::export::caution_height(w, h);
+    let caution = crate::picture::caution::caution_height(w, h);
     let size = 0.85 * text_px;
     let lines: Vec<String> = lines
         .iter()
@@ -361,67 +369,4 @@ pub fn titled(
     let block = (title_block_height(lines.len(), size) + caution).ceil() as u32;
     let picture = build(height.saturating_sub(block).max(16));
     with_title_block(&picture, &lines, size, h)
-}
-
-/// The 3D figure of a walk-through step: the step's camera, layers and plane, the worst planes
-/// when the step marks them.
-#[must_use]
-pub fn walkthrough_step(
-    d: &Derived,
-    step: &crate::output::walkthrough::Step,
-    width: u32,
-    height: u32,
-    sizes: crate::picture::draw::Sizes,
-) -> Frame {
-    walkthrough_step_keyed(d, step, width, height, sizes, true).0
-}
-
-/// [`walkthrough_step`] for the window: the legend is left out where it would cover the
-/// drawing, unless `key_open`; also says whether it would (then the window offers a Key).
-#[must_use]
-pub fn walkthrough_step_keyed(
-    d: &Derived,
-    step: &crate::output::walkthrough::Step,
-    width: u32,
-    height: u32,
-    sizes: crate::picture::draw::Sizes,
-    key_open: bool,
-) -> (Frame, bool) {
-    let mut input = FigureInput::from_derived(d, false);
-    input.plane = Some(step.plane);
-    if !step.worst_planes {
-        input.worst = None;
-    }
-    let mut layers = crate::picture::scene::Layers {
-        worst_planes: step.worst_planes,
-        ..step.layers
-    };
-    let folds = layers.legend && {
-        let scene = crate::picture::scene::Scene::build(
-            &SceneInput {
-                tensor: &input.tensor,
-                plane: step.plane,
-                unit: input.unit,
-                convention: input.convention,
-                layers,
-                faces: FaceChoice::FacingViewer,
-                worst_planes: &[],
-            },
-            &step.camera.towards_eye(),
-        );
-        !crate::picture::draw::legend_fits(&scene, width as f32, height as f32, sizes)
-    };
-    if folds && !key_open {
-        layers.legend = false;
-    }
-    let frame = view_3d(
-        &input,
-        layers,
-        FaceChoice::FacingViewer,
-        &step.camera,
-        width,
-        height,
-        sizes,
-    );
-    (frame, folds)
 }

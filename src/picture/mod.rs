@@ -3,6 +3,7 @@
 //! study (3D view, orientation map, Mohr diagram, charts, the caution strip). Above the study,
 //! below the outputs and the window.
 
+pub mod caution;
 pub mod draw;
 pub mod figures;
 pub mod scene;

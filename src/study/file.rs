@@ -222,11 +222,8 @@ pub fn save(path: &Path, project: &Project) -> Result<(), FileError> {
     }
     let mut text = serde_json::to_string_pretty(&value).map_err(malformed)?;
     text.push('\n');
-    crate::output::export::write_atomic(path, text.as_bytes()).map_err(|e| match e {
-        crate::output::export::ExportError::Io { path, cause } => FileError::Io { path, cause },
-        other => FileError::Malformed {
-            path: path.to_owned(),
-            message: other.to_string(),
-        },
+    crate::study::atomic::write_atomic(path, text.as_bytes()).map_err(|e| FileError::Io {
+        path: e.path,
+        cause: e.cause,
     })
 }

@@ -3,6 +3,7 @@
 //! file. The window and the command line are both front ends of it. No egui here.
 
 pub mod annotations;
+pub mod atomic;
 pub mod derived;
 pub mod edit;
 pub mod envelope;

@@ -165,7 +165,6 @@ impl crate::mechanics::criteria::StressBasis {
     }
 }
 
-
 #[cfg(test)]
 mod tests {
     use super::sig;

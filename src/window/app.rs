@@ -8,8 +8,8 @@ use std::sync::{Arc, Mutex};
 
 use serde::{Deserialize, Serialize};
 
-use crate::picture::draw::camera::{Camera, ViewPreset};
 use crate::mechanics::StressTensor;
+use crate::picture::draw::camera::{Camera, ViewPreset};
 use crate::picture::scene::SceneInput;
 use crate::study::{self, Derived, DerivedCache, Edit, Project};
 use crate::window::ui;
@@ -374,8 +374,8 @@ impl PlanewiseApp {
     /// and the command line.
     #[must_use]
     pub fn export_frame(&self) -> crate::picture::draw::Frame {
-        use crate::study::annotations::FigureKind;
         use crate::picture::figures::{self, FigureInput};
+        use crate::study::annotations::FigureKind;
         let [w, h] = self.settings.export_size;
         let d = Derived::new(&self.project);
         let settings = &self.settings;
@@ -423,7 +423,7 @@ impl PlanewiseApp {
             }
             Central::Map => figures::map(&input, &d.search, 256, w, h, sizes),
             Central::Mohr => figures::mohr(&input, w, h, sizes),
-            Central::Walkthrough => figures::walkthrough_step(&d, step, w, h, sizes),
+            Central::Walkthrough => crate::output::walkthrough::step_figure(&d, step, w, h, sizes),
         })
     }
 
@@ -563,12 +563,18 @@ impl PlanewiseApp {
             }
             (project_purpose, DialogOutcome::Unavailable(why)) => {
                 let (prompt, suggested) = if project_purpose == DialogPurpose::OpenProject {
-                    (PromptPurpose::Open, crate::window::dialogs::fallback_path(""))
+                    (
+                        PromptPurpose::Open,
+                        crate::window::dialogs::fallback_path(""),
+                    )
                 } else if project_purpose == DialogPurpose::Report {
                     let name = self
                         .suggested_project_name()
                         .replace(".json", "-report.html");
-                    (PromptPurpose::Report, crate::window::dialogs::fallback_path(&name))
+                    (
+                        PromptPurpose::Report,
+                        crate::window::dialogs::fallback_path(&name),
+                    )
                 } else {
                     let name = self.suggested_project_name();
                     let path = self
@@ -646,7 +652,7 @@ impl PlanewiseApp {
         let written = crate::output::report::html(&self.project, &options)
             .map_err(|e| e.to_string())
             .and_then(|text| {
-                crate::output::export::write_atomic(path, text.as_bytes()).map_err(|e| e.to_string())
+                crate::study::atomic::write_atomic(path, text.as_bytes()).map_err(|e| e.to_string())
             });
         match written {
             Ok(()) => {
@@ -750,12 +756,14 @@ impl PlanewiseApp {
                 let d = Derived::new(&self.project);
                 let mut rows = crate::output::results::shown_rows(&d);
                 rows.extend(crate::output::results::verdict_rows(&d.verdicts));
-                ctx.copy_text(crate::output::results::table(&rows, d.unit, d.convention).write(format));
+                ctx.copy_text(
+                    crate::output::results::table(&rows, d.unit, d.convention).write(format),
+                );
                 self.set_status("Results copied (value and unit in separate columns)", false);
             }
-            Command::CopyFigure => match crate::picture::draw::png::to_pixmap(&crate::output::export::with_caution(
-                &self.export_frame(),
-            )) {
+            Command::CopyFigure => match crate::picture::draw::png::to_pixmap(
+                &crate::picture::caution::with_caution(&self.export_frame()),
+            ) {
                 Ok(pixmap) => {
                     let image = egui::ColorImage::from_rgba_premultiplied(
                         [pixmap.width() as usize, pixmap.height() as usize],
@@ -891,7 +899,9 @@ impl PlanewiseApp {
                 out.push(Command::OpenExport);
             }
             if i.consume_shortcut(&COPY_RESULTS) {
-                out.push(Command::CopyResults(crate::output::results::CopyFormat::Tsv));
+                out.push(Command::CopyResults(
+                    crate::output::results::CopyFormat::Tsv,
+                ));
             }
         });
         // View presets on plain digit keys, only when no text field has the keyboard.
@@ -1186,11 +1196,13 @@ impl PlanewiseApp {
             let repaint = ctx.clone();
             ctx.request_screenshot(move |image| {
                 let [w, h] = image.size;
-                let outcome = crate::picture::draw::png::encode_rgba(w as u32, h as u32, image.as_raw())
-                    .map_err(|e| e.to_string())
-                    .and_then(|bytes| {
-                        crate::output::export::write_atomic(&path, &bytes).map_err(|e| e.to_string())
-                    });
+                let outcome =
+                    crate::picture::draw::png::encode_rgba(w as u32, h as u32, image.as_raw())
+                        .map_err(|e| e.to_string())
+                        .and_then(|bytes| {
+                            crate::study::atomic::write_atomic(&path, &bytes)
+                                .map_err(|e| e.to_string())
+                        });
                 if let Ok(mut slot) = result.lock() {
                     *slot = Some(outcome);
                 }

@@ -31,12 +31,11 @@ pub fn write(dir: &Path, project: &Project, source: Option<&Path>) -> Result<(),
         cause,
     })?;
     let text = source.map(|p| p.display().to_string()).unwrap_or_default();
-    crate::output::export::write_atomic(&dir.join(SOURCE), text.as_bytes()).map_err(|e| match e {
-        crate::output::export::ExportError::Io { path, cause } => FileError::Io { path, cause },
-        other => FileError::Malformed {
-            path: dir.join(SOURCE),
-            message: other.to_string(),
-        },
+    crate::study::atomic::write_atomic(&dir.join(SOURCE), text.as_bytes()).map_err(|e| {
+        FileError::Io {
+            path: e.path,
+            cause: e.cause,
+        }
     })?;
     study::save(&dir.join(COPY), project)
 }

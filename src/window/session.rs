@@ -181,7 +181,10 @@ pub enum Command {
     /// Put the results on the clipboard as tab-separated text.
     CopyResults(crate::output::results::CopyFormat),
     /// Put this table on the clipboard.
-    CopyTable(crate::output::results::TextTable, crate::output::results::CopyFormat),
+    CopyTable(
+        crate::output::results::TextTable,
+        crate::output::results::CopyFormat,
+    ),
     /// Put the figure on the clipboard as an image.
     CopyFigure,
     /// Open the export window.

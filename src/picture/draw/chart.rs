@@ -1,20 +1,9 @@
-//! The 2D figures' own palette, colour map and tick helpers (the orientation map and the Mohr
-//! circles), kept apart from the 3D scene's style so either can change without the other.
+//! The 2D figures' colour map and tick helpers (the orientation map and the Mohr circles). Their
+//! colours are the one palette of [`crate::picture::scene::style`], so a plane reads the same
+//! in every figure.
 
 use crate::mechanics::StressUnit;
 use crate::picture::scene::style::Rgba;
-
-/// Paper behind a chart.
-pub const BACKGROUND: Rgba = Rgba::rgb(250, 250, 247);
-/// Axes, ticks, text and outlines.
-pub const INK: Rgba = Rgba::rgb(34, 38, 46);
-/// The cut plane's mark (the same green as the cut plane in the 3D view, so the two read as one
-/// plane).
-pub const CUT_PLANE: Rgba = Rgba::rgb(21, 161, 98);
-/// The worst planes' marks (the same magenta as in the 3D view).
-pub const WORST_PLANE: Rgba = Rgba::rgb(132, 30, 98);
-/// Halo behind marks drawn over the colour map.
-pub const HALO: Rgba = Rgba::rgb(255, 255, 255);
 
 /// The viridis colour map (van der Walt & Smith, matplotlib, 2015; CC0), as nine stops
 /// interpolated linearly: perceptually close to uniform and readable in grey and by most

@@ -1,17 +1,18 @@
 //! The orientation map as a figure: the equal-area disc coloured by the measure, a labelled
 //! colour bar, north and east, the principal axes, the current plane and the worst planes.
 
+use crate::picture::scene::style;
 use std::sync::Arc;
 
 use nalgebra::Vector3;
 
 use super::chart::{self, viridis};
-use super::place::{Label, Pinned, draw_notes, place_all};
 use super::frame::{Anchor, Frame, Prim, Sizes, marker};
-use crate::text::format::{distinct_digits, readable};
+use super::place::{Label, Pinned, draw_notes, place_all};
 use crate::mechanics::search::{Cone, Measure, cone_normals};
 use crate::mechanics::stereonet::{OrientationMap, project_pole};
 use crate::mechanics::{PlaneNormal, SignConvention, StressUnit};
+use crate::text::format::{distinct_digits, readable};
 
 /// What is marked on the map besides the colours.
 #[derive(Clone, Debug, PartialEq)]
@@ -111,7 +112,7 @@ pub fn map_frame(
     let mut frame = Frame {
         width: w,
         height: h,
-        background: chart::BACKGROUND,
+        background: style::BACKGROUND,
         prims: Vec::new(),
     };
     let (centre, r) = disc_geometry(w, h, sizes);
@@ -147,7 +148,7 @@ pub fn map_frame(
             a: pair[0],
             b: pair[1],
             width: 1.4 * sizes.line,
-            color: chart::INK,
+            color: style::INK,
         });
     }
     let text = |frame: &mut Frame, at: [f32; 2], t: String, anchor: Anchor| {
@@ -155,7 +156,7 @@ pub fn map_frame(
             at,
             text: t,
             size: sizes.text,
-            color: chart::INK,
+            color: style::INK,
             anchor,
             halo: true,
         });
@@ -183,7 +184,7 @@ pub fn map_frame(
             a: [centre[0] + a[0], centre[1] + a[1]],
             b: [centre[0] + b[0], centre[1] + b[1]],
             width: 1.4 * sizes.line,
-            color: chart::INK,
+            color: style::INK,
         });
     }
     // The cone of worst planes, as the small circle of its poles (broken where it crosses the
@@ -201,7 +202,7 @@ pub fn map_frame(
                     a: *a,
                     b: *b,
                     width: 2.4 * sizes.line,
-                    color: chart::WORST_PLANE,
+                    color: style::WORST_PLANE,
                 });
             }
         }
@@ -214,13 +215,13 @@ pub fn map_frame(
             let at = to_px(centre, r, project_pole(&n));
             frame
                 .prims
-                .push(marker(at, 5.0 * sizes.line, 4, chart::HALO));
+                .push(marker(at, 5.0 * sizes.line, 4, style::HALO));
             labels.push(Label {
                 point: at,
                 gap: 7.0 * sizes.line,
                 text: format!("σ{}", i + 1),
                 size: sizes.text,
-                color: chart::INK,
+                color: style::INK,
                 prefer: [1.0, -1.0],
             });
         }
@@ -229,13 +230,13 @@ pub fn map_frame(
         let at = to_px(centre, r, project_pole(&n));
         frame
             .prims
-            .push(marker(at, 6.0 * sizes.line, 12, chart::CUT_PLANE));
+            .push(marker(at, 6.0 * sizes.line, 12, style::PLANE_NORMAL));
         labels.push(Label {
             point: at,
             gap: 8.0 * sizes.line,
             text: "cut plane".into(),
             size: sizes.text,
-            color: chart::INK,
+            color: style::INK,
             prefer: [1.0, 1.0],
         });
     }
@@ -243,7 +244,7 @@ pub fn map_frame(
         let at = to_px(centre, r, project_pole(n));
         frame
             .prims
-            .push(marker(at, 7.0 * sizes.line, 3, chart::WORST_PLANE));
+            .push(marker(at, 7.0 * sizes.line, 3, style::WORST_PLANE));
     }
     // Colour bar.
     let bar_x = centre[0] + r + 0.10 * w.min(h);
@@ -295,7 +296,7 @@ pub fn map_frame(
             a: [bar_x + bar_w, y],
             b: [bar_x + bar_w + tick, y],
             width: 1.2 * sizes.line,
-            color: chart::INK,
+            color: style::INK,
         });
         let v = if map.range.is_some() {
             what.value_text(v, digits)
@@ -357,7 +358,7 @@ pub fn map_frame(
     ];
     chart::key(
         &mut frame,
-        lines.into_iter().map(|l| (l, chart::INK)),
+        lines.into_iter().map(|l| (l, style::INK)),
         sizes,
     );
     let notes: Vec<Pinned<[f32; 2]>> = marks

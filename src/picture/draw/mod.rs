@@ -25,7 +25,9 @@ use nalgebra::{Point3, Vector3};
 use crate::picture::scene::style::{self, Rgba};
 use crate::picture::scene::{Scene, Segment};
 use camera::{Camera, ScreenFromWorld};
-pub use frame::{Anchor, Frame, PRINT_FONT_PT, PRINT_WIDTH_MM, Pos, Prim, Sizes, marker, regular_polygon};
+pub use frame::{
+    Anchor, Frame, PRINT_FONT_PT, PRINT_WIDTH_MM, Pos, Prim, Sizes, marker, regular_polygon,
+};
 
 /// Longest world length of one sorted piece of a line or shaft.
 const PIECE: f64 = 0.06;

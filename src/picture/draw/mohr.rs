@@ -3,14 +3,14 @@
 //! axes with units and the sign convention. The same frame goes to the screen, SVG and PNG.
 
 use super::chart;
-use super::place::{Label, Pinned, draw_notes, place_all};
 use super::frame::{Anchor, Frame, Prim, Sizes, marker};
-use crate::text::format::{dip_text, readable};
+use super::place::{Label, Pinned, draw_notes, place_all};
 use crate::mechanics::criteria::MohrCoulomb;
 use crate::mechanics::mohr::{Circle, MohrCircles};
 use crate::mechanics::search::{SearchResult, WorstCondition, WorstPlane};
 use crate::mechanics::{PlaneNormal, SignConvention, StressTensor, StressUnit};
-use crate::picture::scene::style::Rgba;
+use crate::picture::scene::style::{self, Rgba};
+use crate::text::format::{dip_text, readable};
 
 /// A Mohr–Coulomb envelope with its pore pressure (compression-positive effective stress, as
 /// in the worst-plane measure).
@@ -286,7 +286,7 @@ pub fn mohr_frame(figure: &MohrFigure, width: u32, height: u32, sizes: Sizes) ->
     let mut frame = Frame {
         width: w,
         height: h,
-        background: chart::BACKGROUND,
+        background: style::BACKGROUND,
         prims: Vec::new(),
     };
     let [left, top, right, bottom] = layout.plot;
@@ -308,7 +308,7 @@ pub fn mohr_frame(figure: &MohrFigure, width: u32, height: u32, sizes: Sizes) ->
         .prims
         .extend(half_disc(&layout, &outer, REGION.with_alpha(150)));
     for c in &inner {
-        frame.prims.extend(half_disc(&layout, c, chart::BACKGROUND));
+        frame.prims.extend(half_disc(&layout, c, style::BACKGROUND));
     }
 
     // Grid and tick labels.
@@ -325,7 +325,7 @@ pub fn mohr_frame(figure: &MohrFigure, width: u32, height: u32, sizes: Sizes) ->
             at: [px, bottom + 12.0 * sizes.line],
             text: label,
             size: 0.9 * sizes.text,
-            color: chart::INK,
+            color: style::INK,
             anchor: Anchor::Center,
             halo: false,
         });
@@ -347,7 +347,7 @@ pub fn mohr_frame(figure: &MohrFigure, width: u32, height: u32, sizes: Sizes) ->
                 at: [left - 6.0 * sizes.line, py],
                 text: label,
                 size: 0.9 * sizes.text,
-                color: chart::INK,
+                color: style::INK,
                 anchor: Anchor::RightCenter,
                 halo: false,
             });
@@ -358,7 +358,7 @@ pub fn mohr_frame(figure: &MohrFigure, width: u32, height: u32, sizes: Sizes) ->
         a: [left, bottom],
         b: [right, bottom],
         width: 1.4 * sizes.line,
-        color: chart::INK,
+        color: style::INK,
     });
     let zero_x = if (layout.normal_min_pa..=layout.normal_max_pa).contains(&0.0) {
         layout.to_px(0.0, 0.0)[0]
@@ -369,7 +369,7 @@ pub fn mohr_frame(figure: &MohrFigure, width: u32, height: u32, sizes: Sizes) ->
         a: [zero_x, top],
         b: [zero_x, bottom],
         width: 1.4 * sizes.line,
-        color: chart::INK,
+        color: style::INK,
     });
     let sym = unit.symbol();
     text(
@@ -377,23 +377,23 @@ pub fn mohr_frame(figure: &MohrFigure, width: u32, height: u32, sizes: Sizes) ->
         [right, bottom + 30.0 * sizes.line],
         format!("σn ({sym}), {} →", convention.key()),
         Anchor::RightCenter,
-        chart::INK,
+        style::INK,
     );
     text(
         &mut frame,
         [zero_x + 6.0 * sizes.line, top + 8.0 * sizes.line],
         format!("↑ τ ({sym})"),
         Anchor::LeftCenter,
-        chart::INK,
+        style::INK,
     );
 
     // Point labels, placed last around everything else.
     let mut labels: Vec<Label> = Vec::new();
 
     // Circles.
-    arc(&mut frame, &layout, &outer, 2.2 * sizes.line, chart::INK);
+    arc(&mut frame, &layout, &outer, 2.2 * sizes.line, style::INK);
     for c in &inner {
-        arc(&mut frame, &layout, c, 1.6 * sizes.line, chart::INK);
+        arc(&mut frame, &layout, c, 1.6 * sizes.line, style::INK);
     }
     for (i, s) in figure.circles.principal_pa.iter().enumerate() {
         let at = layout.to_px(*s, 0.0);
@@ -401,14 +401,14 @@ pub fn mohr_frame(figure: &MohrFigure, width: u32, height: u32, sizes: Sizes) ->
             a: [at[0], at[1] - 5.0 * sizes.line],
             b: [at[0], at[1] + 5.0 * sizes.line],
             width: 2.0 * sizes.line,
-            color: chart::INK,
+            color: style::INK,
         });
         labels.push(Label {
             point: [at[0], at[1] - 5.0 * sizes.line],
             gap: 4.0 * sizes.line,
             text: format!("σ{}", i + 1),
             size: sizes.text,
-            color: chart::INK,
+            color: style::INK,
             prefer: [0.0, -1.0],
         });
     }
@@ -453,19 +453,19 @@ pub fn mohr_frame(figure: &MohrFigure, width: u32, height: u32, sizes: Sizes) ->
         drawn.push(at);
         frame
             .prims
-            .push(marker(at, 8.0 * sizes.line, 3, chart::WORST_PLANE));
+            .push(marker(at, 8.0 * sizes.line, 3, style::WORST_PLANE));
     }
     if let Some(p) = &figure.plane {
         let at = layout.to_px(p.normal_stress_pa, p.shear_stress_pa);
         frame
             .prims
-            .push(marker(at, 6.5 * sizes.line, 16, chart::CUT_PLANE));
+            .push(marker(at, 6.5 * sizes.line, 16, style::PLANE_NORMAL));
         labels.push(Label {
             point: at,
             gap: 8.0 * sizes.line,
             text: "cut plane".to_owned(),
             size: sizes.text,
-            color: chart::CUT_PLANE,
+            color: style::PLANE_NORMAL,
             prefer: [1.0, -1.0],
         });
     }
@@ -531,7 +531,7 @@ fn legend(figure: &MohrFigure, width: f32, sizes: Sizes) -> Vec<(String, Rgba)> 
         .iter()
         .enumerate()
         .flat_map(|(i, line)| {
-            let color = if i == 3 { ENVELOPE } else { chart::INK };
+            let color = if i == 3 { ENVELOPE } else { style::INK };
             super::place::wrap(line, room, sizes.text)
                 .into_iter()
                 .map(move |l| (l, color))

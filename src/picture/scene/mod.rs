@@ -7,10 +7,10 @@ pub mod style;
 use nalgebra::{Point3, Vector3};
 use serde::{Deserialize, Serialize};
 
-use crate::text::format::readable;
 use crate::mechanics::{
     Analysis, PlaneNormal, PlaneStress, SignConvention, StressTensor, StressUnit,
 };
+use crate::text::format::readable;
 use style::Rgba;
 
 /// Which parts of the picture are drawn.
@@ -980,7 +980,9 @@ impl Scene {
         let sym = cx.input.unit.symbol();
         // Round in the display unit (500 psi, not a converted round number of pascals).
         let unit = cx.input.unit;
-        let bar_pa = unit.to_pa(crate::text::format::round_step(unit.from_pa(cx.max_abs_pa * 0.5)));
+        let bar_pa = unit.to_pa(crate::text::format::round_step(
+            unit.from_pa(cx.max_abs_pa * 0.5),
+        ));
         self.legend = Some(Legend {
             lines: vec![
                 format!("Stress unit: {sym}"),

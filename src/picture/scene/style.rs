@@ -75,6 +75,9 @@ pub const PLANE_NORMAL: Rgba = Rgba::rgb(21, 161, 98);
 /// Worst planes (3D outlines, map and Mohr markers).
 pub const WORST_PLANE: Rgba = Rgba::rgb(132, 30, 98);
 /// The traction ellipsoid.
+/// Halo behind marks drawn over the orientation map's colours.
+pub const HALO: Rgba = Rgba::rgb(255, 255, 255);
+/// The traction ellipsoid.
 pub const ELLIPSOID: Rgba = Rgba::rgb(170, 140, 210).with_alpha(70);
 /// Axis triad colours for x, y, z.
 pub const AXES: [Rgba; 3] = [

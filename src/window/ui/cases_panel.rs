@@ -2,9 +2,9 @@
 //! with tools to add, duplicate, rename, move and delete them, a case's description, and the
 //! terms of a combination (case × factor). Every change is a study edit, so undo reaches it.
 
-use crate::window::session::{Coalesce, Command};
 use crate::study::model::terms_text;
 use crate::study::{Derived, Edit, InputKind, Project, Term};
+use crate::window::session::{Coalesce, Command};
 
 /// Text being typed in the panel.
 #[derive(Debug, Default)]

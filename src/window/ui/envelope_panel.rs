@@ -2,9 +2,9 @@
 //! governing one marked and a bar per row to compare at a glance. Clicking a row shows it.
 
 use crate::picture::draw::map::MapMeasure;
+use crate::study::{Derived, Edit, Envelope, EnvelopeMeasure, Project, envelope};
 use crate::text::format::dip_text;
 use crate::window::session::{Command, Settings};
-use crate::study::{Derived, Edit, Envelope, EnvelopeMeasure, Project, envelope};
 
 /// The last envelope computed and what it was computed from.
 #[derive(Debug, Default)]

@@ -2,11 +2,11 @@
 //! checked at once as faults — effective normal stress, shear, slip and dilation tendency,
 //! Coulomb utilization, the pore-pressure rise to slip and the rake — sortable by any column.
 
-use crate::text::format::readable;
 use crate::mechanics::criteria::FaultCheck;
+use crate::study::{Derived, Edit, FaultPlane};
+use crate::text::format::readable;
 use crate::text::parse;
 use crate::window::session::{Coalesce, Command};
-use crate::study::{Derived, Edit, FaultPlane};
 
 /// Columns that sort.
 const COLUMNS: [&str; 8] = [

@@ -2,12 +2,12 @@
 //! axes, a strain rosette or plane stress, typed in a form; the grid below shows the tensor it
 //! gives, read-only. The kind can be changed (one undoable step).
 
-use crate::text::format::readable;
 use crate::mechanics::inputs::in_plane_principal;
 use crate::mechanics::{Component, StressTensor};
+use crate::study::{CaseInput, Derived, Edit, FieldKind, InputKind, PlaneStressInput, TypedTensor};
+use crate::text::format::readable;
 use crate::text::parse;
 use crate::window::session::{Coalesce, Command};
-use crate::study::{CaseInput, Derived, Edit, FieldKind, InputKind, PlaneStressInput, TypedTensor};
 
 /// The form's text.
 #[derive(Debug, Default)]

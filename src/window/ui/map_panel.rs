@@ -2,15 +2,15 @@
 //! net coloured by the chosen measure; hover names the plane and its value; a click sets the cut
 //! plane.
 
-use crate::picture::draw::egui_backend;
-use crate::picture::draw::map::{MapMeasure, disc_geometry, to_px};
-use crate::text::format::{dip_text, readable};
 use crate::mechanics::PlaneNormal;
 use crate::mechanics::search::{Measure, WorstCondition};
 use crate::mechanics::stereonet::{pole_at, project_pole};
-use crate::window::session::{Coalesce, Command};
+use crate::picture::draw::egui_backend;
+use crate::picture::draw::map::{MapMeasure, disc_geometry, to_px};
 use crate::study::annotations::{Annotation, FigureKind, Pin};
 use crate::study::{Derived, Edit, MeasureChoice};
+use crate::text::format::{dip_text, readable};
+use crate::window::session::{Coalesce, Command};
 
 use super::notes_panel;
 
@@ -268,7 +268,11 @@ pub fn map_ui(ui: &mut egui::Ui, d: &Derived, notes: &[Annotation], out: &mut Ve
     ui.painter_at(rect)
         .extend(egui_backend::shapes(&frame, rect, ui.ctx()));
 
-    let (centre, r) = disc_geometry(rect.width(), rect.height(), crate::picture::draw::Sizes::default());
+    let (centre, r) = disc_geometry(
+        rect.width(),
+        rect.height(),
+        crate::picture::draw::Sizes::default(),
+    );
     let to_map = |pos: egui::Pos2| {
         let x = f64::from((pos.x - rect.min.x - centre[0]) / r);
         let y = f64::from(-(pos.y - rect.min.y - centre[1]) / r);

@@ -19,8 +19,8 @@ pub mod view_panel;
 pub mod walkthrough_panel;
 
 use crate::picture::draw::camera::{Projection, ViewPreset};
-use crate::window::session::{Command, Settings, Status};
 use crate::study::Derived;
+use crate::window::session::{Command, Settings, Status};
 
 /// The window's keyboard shortcuts, declared once: the app listens for these and the menus
 /// print them with `ctx.format_shortcut`, so the text is right on every platform (⌘ on macOS).

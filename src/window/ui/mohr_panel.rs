@@ -3,14 +3,14 @@
 //! plane; clicking or dragging inside the shaded region moves the cut plane to a plane with
 //! that (σn, τ).
 
+use crate::mechanics::search::Measure;
 use crate::picture::draw::mohr::{MohrFigure, MohrLayout, MohrPoint, mohr_frame};
 use crate::picture::draw::{Sizes, egui_backend};
-use crate::text::format::readable;
-use crate::mechanics::search::Measure;
-use crate::window::session::{Coalesce, Command, Settings};
-use crate::study::annotations::{Annotation, FigureKind, Pin};
 use crate::picture::figures::FigureInput;
+use crate::study::annotations::{Annotation, FigureKind, Pin};
 use crate::study::{Derived, Edit};
+use crate::text::format::readable;
+use crate::window::session::{Coalesce, Command, Settings};
 
 use super::notes_panel;
 

@@ -5,9 +5,9 @@
 
 use crate::picture::draw::Pos;
 use crate::picture::draw::place::Pinned;
-use crate::window::session::{Coalesce, Command};
 use crate::study::Edit;
 use crate::study::annotations::{Annotation, FigureKind, Pin};
+use crate::window::session::{Coalesce, Command};
 
 /// Whether the next click on `kind`'s figure pins a note.
 fn pinning_id(kind: FigureKind) -> egui::Id {

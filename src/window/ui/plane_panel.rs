@@ -3,11 +3,11 @@
 
 use nalgebra::Vector3;
 
-use crate::text::format::readable;
 use crate::mechanics::{Analysis, PlaneNormal, SignConvention};
+use crate::study::{Derived, Edit};
+use crate::text::format::readable;
 use crate::text::parse;
 use crate::window::session::{Coalesce, Command};
-use crate::study::{Derived, Edit};
 
 /// Plane entry state.
 #[derive(Debug, Default)]

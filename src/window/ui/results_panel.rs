@@ -1,7 +1,7 @@
 //! The results panel: every number with its unit; hovering shows the formula.
 
-use crate::window::session::Command;
 use crate::study::Derived;
+use crate::window::session::Command;
 
 /// Draws the results.
 pub fn results_ui(ui: &mut egui::Ui, d: &Derived, out: &mut Vec<Command>) {
@@ -14,7 +14,9 @@ pub fn results_ui(ui: &mut egui::Ui, d: &Derived, out: &mut Vec<Command>) {
             )
             .clicked()
         {
-            out.push(Command::CopyResults(crate::output::results::CopyFormat::Tsv));
+            out.push(Command::CopyResults(
+                crate::output::results::CopyFormat::Tsv,
+            ));
         }
         super::copy_as_ui(ui, out, Command::CopyResults);
     });
@@ -23,29 +25,30 @@ pub fn results_ui(ui: &mut egui::Ui, d: &Derived, out: &mut Vec<Command>) {
     let mut group = "";
     let mut grid_rows: Vec<&crate::output::results::ResultRow> = Vec::new();
     let unit = d.unit;
-    let flush = |ui: &mut egui::Ui, title: &str, items: &mut Vec<&crate::output::results::ResultRow>| {
-        if items.is_empty() {
-            return;
-        }
-        ui.add_space(4.0);
-        ui.strong(title);
-        egui::Grid::new(("results", title))
-            .num_columns(2)
-            .striped(true)
-            .show(ui, |ui| {
-                for row in items.drain(..) {
-                    // The value wraps, so a narrow panel shows every value whole.
-                    ui.add(egui::Label::new(&row.name).extend())
+    let flush =
+        |ui: &mut egui::Ui, title: &str, items: &mut Vec<&crate::output::results::ResultRow>| {
+            if items.is_empty() {
+                return;
+            }
+            ui.add_space(4.0);
+            ui.strong(title);
+            egui::Grid::new(("results", title))
+                .num_columns(2)
+                .striped(true)
+                .show(ui, |ui| {
+                    for row in items.drain(..) {
+                        // The value wraps, so a narrow panel shows every value whole.
+                        ui.add(egui::Label::new(&row.name).extend())
+                            .on_hover_text(row.formula);
+                        ui.add(
+                            egui::Label::new(egui::RichText::new(row.value.text(unit)).monospace())
+                                .wrap(),
+                        )
                         .on_hover_text(row.formula);
-                    ui.add(
-                        egui::Label::new(egui::RichText::new(row.value.text(unit)).monospace())
-                            .wrap(),
-                    )
-                    .on_hover_text(row.formula);
-                    ui.end_row();
-                }
-            });
-    };
+                        ui.end_row();
+                    }
+                });
+        };
     for row in &all {
         if row.group != group {
             flush(ui, group, &mut grid_rows);

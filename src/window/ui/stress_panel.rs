@@ -1,10 +1,10 @@
 //! The stress-state panel: the 3×3 grid, unit, sign convention, presets and paste.
 
-use crate::text::format::readable;
 use crate::mechanics::{Component, SignConvention, StressTensor, StressUnit};
+use crate::study::{Derived, Edit};
+use crate::text::format::readable;
 use crate::text::parse;
 use crate::window::session::{Coalesce, Command};
-use crate::study::{Derived, Edit};
 
 /// Grid editing state: the text in each cell and what is wrong with it.
 #[derive(Debug, Default)]

@@ -11,11 +11,11 @@ use std::sync::mpsc::Receiver;
 
 use crate::mechanics::search::{Measure as PlaneMeasure, SearchSettings};
 use crate::mechanics::{SignConvention, StressUnit};
-use crate::window::session::{Command, Settings};
+use crate::study::table::{COMPONENTS, Header, Ranked, TableError, TableOptions};
 use crate::study::{
     CaseInput, Derived, Edit, EnvelopeMeasure, LoadCase, Project, TableRowInput, TypedTensor,
 };
-use crate::study::table::{COMPONENTS, Header, Ranked, TableError, TableOptions};
+use crate::window::session::{Command, Settings};
 
 /// Rows the window keeps (the worst ones) unless told otherwise.
 pub const DEFAULT_KEEP: usize = 100_000;
@@ -642,7 +642,10 @@ impl TablePanel {
                                     for c in comps {
                                         cell(
                                             ui,
-                                            crate::text::format::readable(sign * unit.from_pa(c), 5),
+                                            crate::text::format::readable(
+                                                sign * unit.from_pa(c),
+                                                5,
+                                            ),
                                         );
                                     }
                                 })
@@ -759,7 +762,10 @@ fn histogram(ui: &mut egui::Ui, r: &Ranked, measure: EnvelopeMeasure, unit: Stre
     }
     let shown = |v: f64| {
         if measure.is_stress() {
-            format!("{} {unit}", crate::text::format::readable(unit.from_pa(v), 4))
+            format!(
+                "{} {unit}",
+                crate::text::format::readable(unit.from_pa(v), 4)
+            )
         } else {
             crate::text::format::readable(v, 4)
         }

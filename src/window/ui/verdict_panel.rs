@@ -4,11 +4,11 @@
 
 use std::fmt::Write as _;
 
-use crate::text::format::readable;
 use crate::mechanics::criteria::{Condition, DruckerPragerFit, Outcome, Verdict};
+use crate::study::{Derived, Edit, Material};
+use crate::text::format::readable;
 use crate::text::parse;
 use crate::window::session::Command;
-use crate::study::{Derived, Edit, Material};
 
 /// Colours of the outcomes.
 const PASS: egui::Color32 = egui::Color32::from_rgb(60, 150, 80);

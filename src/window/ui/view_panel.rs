@@ -1,13 +1,13 @@
 //! The 3D view: a toolbar (view presets, projection, layers) and the CPU-rendered picture,
 //! which the user turns by dragging.
 
+use crate::mechanics::PlaneNormal;
 use crate::picture::draw::camera::{Camera, Projection, ViewPreset};
 use crate::picture::draw::{Sizes, egui_backend, render};
-use crate::mechanics::PlaneNormal;
 use crate::picture::scene::{FaceChoice, Layers, NORMAL_LENGTH, Scene, SceneInput};
-use crate::window::session::{Coalesce, Command, Settings};
 use crate::study::annotations::{Annotation, FigureKind, Pin};
 use crate::study::{Derived, Edit};
+use crate::window::session::{Coalesce, Command, Settings};
 
 use super::notes_panel;
 
@@ -141,14 +141,20 @@ pub fn view_ui(
     let key_open = ui.data(|d| d.get_temp::<bool>(key_id).unwrap_or(false));
     let fold = |mut scene: Scene| {
         if !key_open
-            && !crate::picture::draw::legend_fits(&scene, rect.width(), rect.height(), Sizes::default())
+            && !crate::picture::draw::legend_fits(
+                &scene,
+                rect.width(),
+                rect.height(),
+                Sizes::default(),
+            )
         {
             scene.legend = None;
         }
         scene
     };
     let built = Scene::build(&input(settings), &settings.camera.towards_eye());
-    let folds = !crate::picture::draw::legend_fits(&built, rect.width(), rect.height(), Sizes::default());
+    let folds =
+        !crate::picture::draw::legend_fits(&built, rect.width(), rect.height(), Sizes::default());
     let scene = fold(built);
     let view = crate::picture::draw::view_for(
         &scene,

@@ -5,11 +5,11 @@
 //! presentation mode (full screen, side panels hidden, larger text). The project is not
 //! changed: the steps' planes are only drawn.
 
+use crate::output::walkthrough::{Step, steps};
 use crate::picture::draw::camera::Camera;
 use crate::picture::draw::{Sizes, egui_backend};
-use crate::window::session::{Central, Settings};
 use crate::study::Derived;
-use crate::output::walkthrough::{Step, steps};
+use crate::window::session::{Central, Settings};
 
 /// Seconds the camera takes from one step's view to the next.
 const CAMERA_SECONDS: f64 = 0.6;
@@ -163,7 +163,7 @@ impl WalkthroughPanel {
         // A legend that would cover the drawing folds into a Key button, as in the 3D view.
         let key_id = response.id.with("legend-open");
         let key_open = ui.data(|m| m.get_temp::<bool>(key_id).unwrap_or(false));
-        let (frame, folds) = crate::picture::figures::walkthrough_step_keyed(
+        let (frame, folds) = crate::output::walkthrough::step_figure_keyed(
             d,
             &shown,
             rect.width() as u32,
