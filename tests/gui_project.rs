@@ -1022,7 +1022,7 @@ fn a_newcomer_is_told_where_to_go() {
     h.run();
     h.get_by_label("Keys and mouse").click();
     h.run();
-    let keys = planewise::window::ui::shortcuts::list(&h.ctx);
+    let keys = planewise::window::keys::list(&h.ctx);
     assert!(keys.len() >= 18, "{keys:?}");
     for (key, what) in &keys {
         assert!(h.query_by_label(key).is_some(), "{key} not listed");
@@ -1128,4 +1128,33 @@ fn a_small_window_wraps_the_verdict_inside_its_panel() {
         }
     }
     assert!(seen >= 3, "only {seen} verdict lines found");
+}
+
+/// The keys come from one table: F9 and F10 hide and show the side panels through it, and a
+/// digit turns the 3D view to its preset only while no text field has the keyboard.
+#[test]
+fn the_bindings_table_drives_the_panel_and_view_keys() {
+    use planewise::picture::draw::camera::ViewPreset;
+    use planewise::window::keys::{Act, Chord, binding};
+    let mut h = demo();
+    let key = |act| match binding(act).chords[0] {
+        Chord::Key(k) => k,
+        Chord::Shortcut(s) => s.logical_key,
+    };
+    h.key_press(key(Act::LeftPanel));
+    h.run();
+    assert!(!h.state().settings.show_inputs);
+    h.key_press(key(Act::LeftPanel));
+    h.key_press(key(Act::RightPanel));
+    h.run();
+    assert!(h.state().settings.show_inputs && !h.state().settings.show_results);
+    let iso = ViewPreset::ALL[1];
+    h.key_press(key(Act::View(iso)));
+    h.run();
+    let (yaw, pitch) = iso.yaw_pitch_deg();
+    let camera = h.state().settings.camera;
+    assert!(
+        (camera.yaw_deg - yaw).abs() < 1e-9 && (camera.pitch_deg - pitch).abs() < 1e-9,
+        "{camera:?}"
+    );
 }

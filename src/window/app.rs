@@ -9,7 +9,7 @@ use std::sync::{Arc, Mutex};
 use serde::{Deserialize, Serialize};
 
 use crate::mechanics::StressTensor;
-use crate::picture::draw::camera::{Camera, ViewPreset};
+use crate::picture::draw::camera::Camera;
 use crate::picture::scene::SceneInput;
 use crate::study::{self, Derived, DerivedCache, Edit, Project};
 use crate::window::ui;
@@ -782,6 +782,8 @@ impl PlanewiseApp {
             Command::ExportTo(path) => self.export_to(&path),
             Command::ShowAbout => self.help.about = true,
             Command::ShowKeys => self.help.keys = true,
+            Command::ToggleInputs => self.settings.show_inputs = !self.settings.show_inputs,
+            Command::ToggleResults => self.settings.show_results = !self.settings.show_results,
             Command::ImportTable => self.start_dialog(ctx, DialogPurpose::Table),
         }
         self.follow_up(ctx);
@@ -870,49 +872,14 @@ impl PlanewiseApp {
         }
     }
 
-    /// Keyboard shortcuts that work anywhere in the window.
+    /// The commands of the window-wide keys pressed this frame ([`crate::window::keys`]).
     fn shortcuts(ctx: &egui::Context) -> Vec<Command> {
-        use egui::Modifiers;
-        use ui::shortcuts::{COPY_RESULTS, EXPORT, NEW, OPEN, REDO, REDO_ALT, SAVE, SAVE_AS, UNDO};
-        let mut out = Vec::new();
-        ctx.input_mut(|i| {
-            // Longer chords first: Ctrl+Shift+Z must not be taken as Ctrl+Z.
-            if i.consume_shortcut(&REDO) || i.consume_shortcut(&REDO_ALT) {
-                out.push(Command::Redo);
-            }
-            if i.consume_shortcut(&UNDO) {
-                out.push(Command::Undo);
-            }
-            if i.consume_shortcut(&SAVE_AS) {
-                out.push(Command::SaveAs);
-            }
-            if i.consume_shortcut(&SAVE) {
-                out.push(Command::Save);
-            }
-            if i.consume_shortcut(&NEW) {
-                out.push(Command::NewProject);
-            }
-            if i.consume_shortcut(&OPEN) {
-                out.push(Command::OpenProject);
-            }
-            if i.consume_shortcut(&EXPORT) {
-                out.push(Command::OpenExport);
-            }
-            if i.consume_shortcut(&COPY_RESULTS) {
-                out.push(Command::CopyResults(
-                    crate::output::results::CopyFormat::Tsv,
-                ));
-            }
-        });
-        // View presets on plain digit keys, only when no text field has the keyboard.
-        if !ctx.egui_wants_keyboard_input() {
-            for (key, preset) in ui::shortcuts::VIEW_PRESETS.into_iter().zip(ViewPreset::ALL) {
-                if ctx.input_mut(|i| i.consume_key(Modifiers::NONE, key)) {
-                    out.push(Command::SetView(preset));
-                }
-            }
-        }
-        out
+        use crate::window::keys::{Scope, pressed};
+        pressed(ctx, Scope::Window)
+            .into_iter()
+            .chain(pressed(ctx, Scope::NoTextField))
+            .filter_map(crate::window::keys::Act::command)
+            .collect()
     }
 
     fn install_fonts(&mut self, ctx: &egui::Context) {
@@ -1037,18 +1004,6 @@ impl PlanewiseApp {
         };
         if ctx.options(|o| o.theme_preference) != theme {
             ctx.set_theme(theme);
-        }
-        let (f9, f10) = ctx.input(|i| {
-            (
-                i.key_pressed(ui::shortcuts::LEFT_PANEL),
-                i.key_pressed(ui::shortcuts::RIGHT_PANEL),
-            )
-        });
-        if f9 {
-            self.settings.show_inputs = !self.settings.show_inputs;
-        }
-        if f10 {
-            self.settings.show_results = !self.settings.show_results;
         }
         // Presenting the walk-through: the picture and its words only.
         let presenting =

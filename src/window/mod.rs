@@ -5,5 +5,6 @@
 pub mod app;
 pub mod autosave;
 pub mod dialogs;
+pub mod keys;
 pub mod session;
 pub mod ui;

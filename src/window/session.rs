@@ -197,6 +197,10 @@ pub enum Command {
     ShowAbout,
     /// Open Help → Keys and mouse.
     ShowKeys,
+    /// Show or hide the left panel (inputs).
+    ToggleInputs,
+    /// Show or hide the right panel (verdict and results).
+    ToggleResults,
 }
 
 /// A message in the status bar.

@@ -20,124 +20,14 @@ pub mod walkthrough_panel;
 
 use crate::picture::draw::camera::{Projection, ViewPreset};
 use crate::study::Derived;
+use crate::window::keys::{Act, keys_text};
 use crate::window::session::{Command, Settings, Status};
 
-/// The window's keyboard shortcuts, declared once: the app listens for these and the menus
-/// print them with `ctx.format_shortcut`, so the text is right on every platform (⌘ on macOS).
-pub mod shortcuts {
-    use egui::{Key, KeyboardShortcut, Modifiers};
-
-    /// Undo.
-    pub const UNDO: KeyboardShortcut = KeyboardShortcut::new(Modifiers::COMMAND, Key::Z);
-    /// Redo.
-    pub const REDO: KeyboardShortcut =
-        KeyboardShortcut::new(Modifiers::COMMAND.plus(Modifiers::SHIFT), Key::Z);
-    /// Redo, the other common binding.
-    pub const REDO_ALT: KeyboardShortcut = KeyboardShortcut::new(Modifiers::COMMAND, Key::Y);
-    /// Open the export window.
-    pub const EXPORT: KeyboardShortcut = KeyboardShortcut::new(Modifiers::COMMAND, Key::E);
-    /// New project.
-    pub const NEW: KeyboardShortcut = KeyboardShortcut::new(Modifiers::COMMAND, Key::N);
-    /// Open a project.
-    pub const OPEN: KeyboardShortcut = KeyboardShortcut::new(Modifiers::COMMAND, Key::O);
-    /// Save the project.
-    pub const SAVE: KeyboardShortcut = KeyboardShortcut::new(Modifiers::COMMAND, Key::S);
-    /// Save the project under a new name.
-    pub const SAVE_AS: KeyboardShortcut =
-        KeyboardShortcut::new(Modifiers::COMMAND.plus(Modifiers::SHIFT), Key::S);
-    /// Copy the results as text.
-    pub const COPY_RESULTS: KeyboardShortcut =
-        KeyboardShortcut::new(Modifiers::COMMAND.plus(Modifiers::SHIFT), Key::C);
-    /// Show or hide the left panel (inputs).
-    pub const LEFT_PANEL: Key = Key::F9;
-    /// Show or hide the right panel (verdict and results).
-    pub const RIGHT_PANEL: Key = Key::F10;
-    /// Present the walk-through (the picture and its words only).
-    pub const PRESENT: Key = Key::F11;
-    /// Next walk-through step.
-    pub const STEP_NEXT: [Key; 2] = [Key::ArrowRight, Key::Space];
-    /// Previous walk-through step.
-    pub const STEP_BACK: Key = Key::ArrowLeft;
-    /// Leave presenting.
-    pub const STEP_LEAVE: Key = Key::Escape;
-    /// The 3D view's presets, in `ViewPreset::ALL` order (plain digits, when no field has the
-    /// keyboard).
-    pub const VIEW_PRESETS: [Key; 8] = [
-        Key::Num1,
-        Key::Num2,
-        Key::Num3,
-        Key::Num4,
-        Key::Num5,
-        Key::Num6,
-        Key::Num7,
-        Key::Num8,
-    ];
-
-    /// Every key and what it does, written from the bindings above (Help → Keys and mouse).
-    #[must_use]
-    pub fn list(ctx: &egui::Context) -> Vec<(String, String)> {
-        let short = |s: &KeyboardShortcut| ctx.format_shortcut(s);
-        let mut out: Vec<(String, String)> = [
-            (short(&NEW), "New project"),
-            (short(&OPEN), "Open a project"),
-            (short(&SAVE), "Save the project"),
-            (short(&SAVE_AS), "Save the project under a new name"),
-            (short(&UNDO), "Undo"),
-            (format!("{} or {}", short(&REDO), short(&REDO_ALT)), "Redo"),
-            (short(&EXPORT), "Export the shown figure"),
-            (short(&COPY_RESULTS), "Copy the results as text"),
-            (LEFT_PANEL.name().to_owned(), "Show or hide the left panel"),
-            (
-                RIGHT_PANEL.name().to_owned(),
-                "Show or hide the right panel",
-            ),
-        ]
-        .into_iter()
-        .map(|(k, what)| (k, what.to_owned()))
-        .collect();
-        for (key, preset) in VIEW_PRESETS
-            .iter()
-            .zip(crate::picture::draw::camera::ViewPreset::ALL)
-        {
-            out.push((
-                key.name().to_owned(),
-                format!("3D view: {}", preset.label()),
-            ));
-        }
-        out.push((
-            STEP_NEXT.map(Key::name).join(" or "),
-            "Walk-through: next step".to_owned(),
-        ));
-        out.push((
-            STEP_BACK.name().to_owned(),
-            "Walk-through: previous step".to_owned(),
-        ));
-        out.push((
-            PRESENT.name().to_owned(),
-            "Walk-through: present the picture and its words only".to_owned(),
-        ));
-        out.push((
-            STEP_LEAVE.name().to_owned(),
-            "Walk-through: leave presenting".to_owned(),
-        ));
-        out
-    }
-
-    /// What the mouse does, where.
-    pub const MOUSE: [(&str, &str); 6] = [
-        ("Drag in the 3D view", "Orbit"),
-        ("Right-drag in the 3D view", "Pan"),
-        ("Scroll in the 3D view", "Zoom"),
-        ("Double-click in the 3D view", "Reset the view"),
-        (
-            "Drag the white handle at the tip of n",
-            "Turn the cut plane",
-        ),
-        (
-            "Click or drag in the map or the Mohr circles",
-            "Put the cut plane there",
-        ),
-    ];
+/// A menu entry with its keys from the bindings table (written for the platform: ⌘ on macOS);
+/// whether it was clicked.
+fn item(ui: &mut egui::Ui, text: &str, act: Act) -> bool {
+    ui.add(egui::Button::new(text).shortcut_text(keys_text(ui.ctx(), act)))
+        .clicked()
 }
 
 /// A horizontal bar of `size`, filled to `fraction` of its width (none for `None`) in `color`,
@@ -251,14 +141,10 @@ pub fn menus_ui(
     egui::Panel::top("menus").show(ui, |ui| {
         egui::MenuBar::new().ui(ui, |ui| {
             ui.menu_button("File", |ui| {
-                let item = |ui: &mut egui::Ui, text: &str, key: &egui::KeyboardShortcut| {
-                    ui.add(egui::Button::new(text).shortcut_text(ui.ctx().format_shortcut(key)))
-                        .clicked()
-                };
-                if item(ui, "New project", &shortcuts::NEW) {
+                if item(ui, "New project", Act::NewProject) {
                     out.push(Command::NewProject);
                 }
-                if item(ui, "Open project…", &shortcuts::OPEN) {
+                if item(ui, "Open project…", Act::OpenProject) {
                     out.push(Command::OpenProject);
                 }
                 ui.add_enabled_ui(!settings.recent.is_empty(), |ui| {
@@ -288,10 +174,10 @@ pub fn menus_ui(
                     out.push(Command::OpenDemo);
                 }
                 ui.separator();
-                if item(ui, "Save", &shortcuts::SAVE) {
+                if item(ui, "Save", Act::Save) {
                     out.push(Command::Save);
                 }
-                if item(ui, "Save as…", &shortcuts::SAVE_AS) {
+                if item(ui, "Save as…", Act::SaveAs) {
                     out.push(Command::SaveAs);
                 }
                 ui.separator();
@@ -309,25 +195,13 @@ pub fn menus_ui(
                 {
                     out.push(Command::ExportReport);
                 }
-                if ui
-                    .add(
-                        egui::Button::new("Export figure…")
-                            .shortcut_text(ui.ctx().format_shortcut(&shortcuts::EXPORT)),
-                    )
-                    .clicked()
-                {
+                if item(ui, "Export figure…", Act::ExportFigure) {
                     out.push(Command::OpenExport);
                 }
                 if ui.button("Copy figure").clicked() {
                     out.push(Command::CopyFigure);
                 }
-                if ui
-                    .add(
-                        egui::Button::new("Copy results")
-                            .shortcut_text(ui.ctx().format_shortcut(&shortcuts::COPY_RESULTS)),
-                    )
-                    .clicked()
-                {
+                if item(ui, "Copy results", Act::CopyResults) {
                     out.push(Command::CopyResults(crate::output::results::CopyFormat::Tsv));
                 }
                 ui.separator();
@@ -336,24 +210,19 @@ pub fn menus_ui(
                 }
             });
             ui.menu_button("Edit", |ui| {
-                let undo = egui::Button::new("Undo")
-                    .shortcut_text(ui.ctx().format_shortcut(&shortcuts::UNDO));
+                let undo = egui::Button::new("Undo").shortcut_text(keys_text(ui.ctx(), Act::Undo));
                 if ui.add_enabled(can_undo, undo).clicked() {
                     out.push(Command::Undo);
                 }
-                let redo = egui::Button::new("Redo").shortcut_text(format!(
-                    "{} / {}",
-                    ui.ctx().format_shortcut(&shortcuts::REDO),
-                    ui.ctx().format_shortcut(&shortcuts::REDO_ALT)
-                ));
+                let redo = egui::Button::new("Redo").shortcut_text(keys_text(ui.ctx(), Act::Redo));
                 if ui.add_enabled(can_redo, redo).clicked() {
                     out.push(Command::Redo);
                 }
             });
             ui.menu_button("View", |ui| {
-                for (i, preset) in ViewPreset::ALL.into_iter().enumerate() {
-                    let button =
-                        egui::Button::new(preset.label()).shortcut_text(format!("{}", i + 1));
+                for preset in ViewPreset::ALL {
+                    let button = egui::Button::new(preset.label())
+                        .shortcut_text(keys_text(ui.ctx(), Act::View(preset)));
                     if ui.add(button).clicked() {
                         out.push(Command::SetView(preset));
                     }
@@ -370,9 +239,15 @@ pub fn menus_ui(
                 view_panel::layers_ui(ui, &mut settings.layers);
                 ui.separator();
                 ui.checkbox(&mut settings.show_inputs, "Inputs panel (left)")
-                    .on_hover_text("Load cases, stress, cut plane and measure (F9)");
+                    .on_hover_text(format!(
+                        "Load cases, stress, cut plane and measure ({})",
+                        keys_text(ui.ctx(), Act::LeftPanel)
+                    ));
                 ui.checkbox(&mut settings.show_results, "Results panel (right)")
-                    .on_hover_text("Verdict, material and results (F10)");
+                    .on_hover_text(format!(
+                        "Verdict, material and results ({})",
+                        keys_text(ui.ctx(), Act::RightPanel)
+                    ));
                 ui.checkbox(&mut settings.dark, "Dark panels")
                     .on_hover_text(
                         "Light is the default, for projectors and printouts; figures stay on white either way",
@@ -479,7 +354,7 @@ pub fn readout(
     response
 }
 
-/// Help → Keys and mouse: every binding, written from [`shortcuts`].
+/// Help → Keys and mouse: every binding, written from [`crate::window::keys`].
 pub fn keys_ui(ctx: &egui::Context, open: &mut bool) {
     egui::Window::new("Keys and mouse")
         .open(open)
@@ -489,12 +364,12 @@ pub fn keys_ui(ctx: &egui::Context, open: &mut bool) {
                 .num_columns(2)
                 .striped(true)
                 .show(ui, |ui| {
-                    for (key, what) in shortcuts::list(ctx) {
+                    for (key, what) in crate::window::keys::list(ctx) {
                         ui.strong(key);
                         ui.label(what);
                         ui.end_row();
                     }
-                    for (gesture, what) in shortcuts::MOUSE {
+                    for (gesture, what) in crate::window::keys::MOUSE {
                         ui.strong(gesture);
                         ui.label(what);
                         ui.end_row();

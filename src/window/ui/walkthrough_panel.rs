@@ -73,32 +73,15 @@ impl WalkthroughPanel {
     pub fn ui(&mut self, ui: &mut egui::Ui, d: &Derived, settings: &mut Settings) {
         let all = steps(d);
         let now = ui.input(|i| i.time);
-        if !ui.ctx().egui_wants_keyboard_input() {
-            let (next, back, leave, present) = ui.input(|i| {
-                (
-                    super::shortcuts::STEP_NEXT
-                        .iter()
-                        .any(|k| i.key_pressed(*k)),
-                    i.key_pressed(super::shortcuts::STEP_BACK),
-                    i.key_pressed(super::shortcuts::STEP_LEAVE),
-                    i.key_pressed(super::shortcuts::PRESENT),
-                )
-            });
-            if next {
-                self.go(self.step + 1, all.len(), now);
-            }
-            if back {
-                self.go(self.step.saturating_sub(1), all.len(), now);
-            }
-            if present {
-                self.set_presenting(ui.ctx(), !self.presenting);
-            }
-            if leave {
-                if self.presenting {
-                    self.set_presenting(ui.ctx(), false);
-                } else {
-                    settings.central = Central::View3d;
-                }
+        for act in crate::window::keys::pressed(ui.ctx(), crate::window::keys::Scope::Walkthrough) {
+            use crate::window::keys::Act;
+            match act {
+                Act::StepNext => self.go(self.step + 1, all.len(), now),
+                Act::StepBack => self.go(self.step.saturating_sub(1), all.len(), now),
+                Act::Present => self.set_presenting(ui.ctx(), !self.presenting),
+                Act::Leave if self.presenting => self.set_presenting(ui.ctx(), false),
+                Act::Leave => settings.central = Central::View3d,
+                _ => {}
             }
         }
         let step = &all[self.step.min(all.len() - 1)];
