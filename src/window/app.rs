@@ -51,25 +51,12 @@ impl Default for Saved {
 }
 
 pub use crate::window::dialogs::{DialogOutcome, Dialogs, NativeDialogs};
-pub use crate::window::session::{Central, Coalesce, Command, Settings, Status, UNTITLED};
+pub use crate::window::session::{
+    Answer, Central, Coalesce, Command, Leaving, Settings, Status, UNTITLED,
+};
 
 /// Undo and redo of the project.
 pub type History = study::History<Project, Coalesce>;
-
-/// What waits for the answer to "save the changes first?".
-#[derive(Clone, Debug, PartialEq)]
-pub enum Leaving {
-    /// Start a new project.
-    New,
-    /// Ask for a project file to open.
-    Open,
-    /// Open this file.
-    OpenPath(PathBuf),
-    /// Open the demo project.
-    Demo,
-    /// Close the window.
-    Quit,
-}
 
 /// What needs the egui context after the unsaved-changes question was answered.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
@@ -782,6 +769,7 @@ impl PlanewiseApp {
             Command::ExportTo(path) => self.export_to(&path),
             Command::ShowAbout => self.help.about = true,
             Command::ShowKeys => self.help.keys = true,
+            Command::Answer(answer) => self.answer(ctx, answer),
             Command::ToggleInputs => self.settings.show_inputs = !self.settings.show_inputs,
             Command::ToggleResults => self.settings.show_results = !self.settings.show_results,
             Command::ImportTable => self.start_dialog(ctx, DialogPurpose::Table),
@@ -899,71 +887,50 @@ impl PlanewiseApp {
         ctx.set_fonts(fonts);
     }
 
-    /// The unsaved-changes question and the recovery offer.
-    fn questions_ui(&mut self, ctx: &egui::Context, commands: &mut Vec<Command>) {
-        if let Some(what) = self.leaving.clone() {
-            let verb = match what {
-                Leaving::New => "starting a new project",
-                Leaving::Open | Leaving::OpenPath(_) => "opening another project",
-                Leaving::Demo => "opening the demo project",
-                Leaving::Quit => "closing Planewise",
-            };
-            egui::Modal::new(egui::Id::unique("unsaved-changes")).show(ctx, |ui| {
-                ui.heading("Unsaved changes");
-                ui.label(format!(
-                    "'{}' has changes that are not saved. Save them before {verb}?",
-                    self.project.name
-                ));
-                ui.horizontal(|ui| {
-                    if ui.button("Save").clicked() {
-                        self.leaving = None;
-                        self.after_save = Some(what.clone());
-                        commands.push(Command::Save);
-                    }
-                    if ui.button("Don't save").clicked() {
-                        self.go(what.clone());
-                    }
-                    if ui.button("Cancel").clicked() {
-                        self.leaving = None;
-                    }
+    /// Acts on the answer to the unsaved-changes question or the recovery offer.
+    fn answer(&mut self, ctx: &egui::Context, answer: Answer) {
+        match answer {
+            Answer::SaveFirst => {
+                if let Some(what) = self.leaving.take() {
+                    self.after_save = Some(what);
+                    self.apply(ctx, Command::Save);
+                }
+            }
+            Answer::DontSave => {
+                if let Some(what) = self.leaving.clone() {
+                    self.go(what);
+                }
+            }
+            Answer::Stay => self.leaving = None,
+            Answer::Recover => {
+                let Some(copy) = self.recovery.take() else {
+                    return;
+                };
+                let clean = copy
+                    .source
+                    .as_ref()
+                    .and_then(|p| study::load(p).ok())
+                    .map(|(p, _)| p);
+                self.replace_project(copy.project.clone(), copy.source.clone());
+                // Recovered work is unsaved until the user saves it.
+                self.clean = clean.unwrap_or_else(|| {
+                    Project::new(
+                        "",
+                        crate::mechanics::StressUnit::MPa,
+                        crate::mechanics::SignConvention::TensionPositive,
+                    )
                 });
-            });
-        }
-        if let Some(copy) = self.recovery.clone() {
-            egui::Modal::new(egui::Id::unique("recovery")).show(ctx, |ui| {
-                ui.heading("Recover unsaved work?");
-                ui.label(format!(
-                    "Planewise did not close normally last time. A working copy of '{}'{} was autosaved {}.",
-                    copy.project.name,
-                    copy.source
-                        .as_ref()
-                        .map(|p| format!(" ({})", p.display()))
-                        .unwrap_or_default(),
-                    crate::window::autosave::age_text(copy.written)
-                ));
-                ui.horizontal(|ui| {
-                    if ui.button("Recover").clicked() {
-                        self.recovery = None;
-                        let clean = copy
-                            .source
-                            .as_ref()
-                            .and_then(|p| study::load(p).ok())
-                            .map(|(p, _)| p);
-                        self.replace_project(copy.project.clone(), copy.source.clone());
-                        // Recovered work is unsaved until the user saves it.
-                        self.clean = clean.unwrap_or_else(|| {
-                            Project::new("", crate::mechanics::StressUnit::MPa, crate::mechanics::SignConvention::TensionPositive)
-                        });
-                        self.set_status("Recovered the autosaved working copy; save it to keep it", false);
-                    }
-                    if ui.button("Discard").clicked() {
-                        self.recovery = None;
-                        if let Some(dir) = &self.autosave_dir {
-                            crate::window::autosave::clear(dir);
-                        }
-                    }
-                });
-            });
+                self.set_status(
+                    "Recovered the autosaved working copy; save it to keep it",
+                    false,
+                );
+            }
+            Answer::DiscardRecovery => {
+                self.recovery = None;
+                if let Some(dir) = &self.autosave_dir {
+                    crate::window::autosave::clear(dir);
+                }
+            }
         }
     }
 
@@ -1118,7 +1085,13 @@ impl PlanewiseApp {
         self.file_prompt.ui(&ctx, &mut commands);
         ui::about_ui(&ctx, &mut self.help.about);
         ui::keys_ui(&ctx, &mut self.help.keys);
-        self.questions_ui(&ctx, &mut commands);
+        ui::questions::questions_ui(
+            &ctx,
+            &self.project.name,
+            self.leaving.as_ref(),
+            self.recovery.as_ref(),
+            &mut commands,
+        );
         for command in commands {
             self.apply(&ctx, command);
         }

@@ -197,10 +197,42 @@ pub enum Command {
     ShowAbout,
     /// Open Help → Keys and mouse.
     ShowKeys,
+    /// The user answered a question.
+    Answer(Answer),
     /// Show or hide the left panel (inputs).
     ToggleInputs,
     /// Show or hide the right panel (verdict and results).
     ToggleResults,
+}
+
+/// What waits for the answer to "save the changes first?".
+#[derive(Clone, Debug, PartialEq)]
+pub enum Leaving {
+    /// Start a new project.
+    New,
+    /// Ask for a project file to open.
+    Open,
+    /// Open this file.
+    OpenPath(PathBuf),
+    /// Open the demo project.
+    Demo,
+    /// Close the window.
+    Quit,
+}
+
+/// An answer to one of the window's questions (unsaved changes, recovery).
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum Answer {
+    /// Save the changes, then do what was asked.
+    SaveFirst,
+    /// Do what was asked without saving.
+    DontSave,
+    /// Do nothing; keep the project open.
+    Stay,
+    /// Open the autosaved working copy.
+    Recover,
+    /// Throw the working copy away.
+    DiscardRecovery,
 }
 
 /// A message in the status bar.

@@ -11,6 +11,7 @@ pub mod map_panel;
 pub mod mohr_panel;
 pub mod notes_panel;
 pub mod plane_panel;
+pub mod questions;
 pub mod results_panel;
 pub mod stress_panel;
 pub mod table_panel;
