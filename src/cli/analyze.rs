@@ -3,12 +3,14 @@
 use std::fmt::Write as _;
 
 use clap::Args;
+
+use super::args::StrengthArgs;
 use nalgebra::Vector3;
 use serde::Serialize;
 
 use super::{ArgError, CliError, PlaneArgs, StressArgs, StressInput};
-use crate::mechanics::criteria::{self, Condition, DruckerPragerFit, Outcome, Strengths};
-use crate::mechanics::{Component, PlaneStress, StressUnit};
+use crate::mechanics::criteria::{self, Condition, Outcome};
+use crate::mechanics::{Component, PlaneStress};
 use crate::study::Derived;
 use crate::text::format::{clean, sig, with_unit};
 
@@ -19,93 +21,6 @@ pub fn outcome_key(outcome: Outcome) -> &'static str {
         Outcome::Passes => "passes",
         Outcome::Fails => "fails",
         Outcome::NotChecked => "not-checked",
-    }
-}
-
-/// The material for the criteria and the plane's fault check (stresses in the stress unit).
-#[derive(Debug, Clone, Args)]
-pub struct StrengthArgs {
-    /// Yield strength f_y, for von Mises and Tresca.
-    #[arg(long, value_name = "V", allow_hyphen_values = true)]
-    pub yield_strength: Option<String>,
-    /// Tensile strength f_t (a positive number), for Rankine.
-    #[arg(long, value_name = "V", allow_hyphen_values = true)]
-    pub tensile_strength: Option<String>,
-    /// Compressive strength f_c (a positive number), for Rankine.
-    #[arg(long, value_name = "V", allow_hyphen_values = true)]
-    pub compressive_strength: Option<String>,
-    /// Cohesion c, for Mohr–Coulomb, Drucker–Prager and the plane's fault check.
-    #[arg(long, value_name = "C", allow_hyphen_values = true)]
-    pub cohesion: Option<String>,
-    /// Friction angle φ in degrees, with --cohesion.
-    #[arg(long, value_name = "DEG", allow_hyphen_values = true)]
-    pub friction_angle: Option<String>,
-    /// Friction coefficient μ instead of --friction-angle (φ = atan μ).
-    #[arg(long, value_name = "MU", allow_hyphen_values = true)]
-    pub friction_coefficient: Option<String>,
-    /// How Drucker–Prager is fitted to c and φ.
-    #[arg(long, value_name = "FIT")]
-    pub dp_fit: Option<DruckerPragerFit>,
-    /// Pore pressure p (compression positive) for the plane's fault check.
-    #[arg(long, value_name = "P", allow_hyphen_values = true)]
-    pub pore_pressure: Option<String>,
-}
-
-impl StrengthArgs {
-    /// The strengths (Pa) and pore pressure (Pa, if given); a value nothing uses, or one out of
-    /// range, is bad input naming its argument. `plane`: a plane check or plane measure is asked
-    /// for (the pore pressure applies to it); the pore pressure also applies to the
-    /// pressure-sensitive criteria (Rankine, Mohr–Coulomb, Drucker–Prager) when their strengths
-    /// are given.
-    pub fn read(
-        &self,
-        unit: StressUnit,
-        plane: bool,
-    ) -> Result<(Strengths, Option<f64>), ArgError> {
-        let stress = |name: &'static str, text: &Option<String>| {
-            text.as_deref()
-                .map(|t| super::stress_value(name, t, unit))
-                .transpose()
-        };
-        let friction = super::friction_deg(
-            self.friction_angle.as_deref(),
-            self.friction_coefficient.as_deref(),
-        )?;
-        let strengths = Strengths {
-            yield_strength_pa: stress("--yield-strength", &self.yield_strength)?,
-            tensile_strength_pa: stress("--tensile-strength", &self.tensile_strength)?,
-            compressive_strength_pa: stress("--compressive-strength", &self.compressive_strength)?,
-            cohesion_pa: stress("--cohesion", &self.cohesion)?,
-            friction_angle_deg: friction,
-            dp_fit: self.dp_fit.unwrap_or_default(),
-        };
-        super::worst_plane::pair_material(strengths.cohesion_pa, strengths.friction_angle_deg)?;
-        if self.dp_fit.is_some() && strengths.cohesion_pa.is_none() {
-            return Err(ArgError::new(
-                "--dp-fit",
-                "applies only with --cohesion and --friction-angle",
-            ));
-        }
-        for (value, name) in [
-            (strengths.yield_strength_pa, "--yield-strength"),
-            (strengths.tensile_strength_pa, "--tensile-strength"),
-            (strengths.compressive_strength_pa, "--compressive-strength"),
-        ] {
-            if value.is_some_and(|v| v <= 0.0) {
-                return Err(ArgError::new(name, "must be a positive stress"));
-            }
-        }
-        let pore = stress("--pore-pressure", &self.pore_pressure)?;
-        let pressure_sensitive = strengths.cohesion_pa.is_some()
-            || strengths.tensile_strength_pa.is_some()
-            || strengths.compressive_strength_pa.is_some();
-        if pore.is_some() && !plane && !pressure_sensitive {
-            return Err(ArgError::new(
-                "--pore-pressure",
-                "applies to the fault checks (give --normal, --dip and --dip-direction, or --fault) and to the pressure-sensitive criteria (give --cohesion and --friction-angle, or --tensile-strength / --compressive-strength)",
-            ));
-        }
-        Ok((strengths, pore))
     }
 }
 

@@ -9,7 +9,7 @@ use std::time::Instant;
 use clap::Args;
 use serde::Serialize;
 
-use super::analyze::StrengthArgs;
+use super::args::StrengthArgs;
 use super::{ArgError, CliError, values};
 use crate::mechanics::criteria::MohrCoulomb;
 use crate::mechanics::search::{Measure as PlaneMeasure, SearchSettings};

@@ -7,7 +7,7 @@ use std::path::PathBuf;
 use clap::Args;
 use serde::Serialize;
 
-use super::worst_plane::MaterialArgs;
+use super::args::MaterialArgs;
 use super::{ArgError, CliError};
 use crate::mechanics::criteria::Criterion;
 use crate::mechanics::search::WorstCondition;
@@ -131,9 +131,7 @@ fn with_overrides(
         given.friction_angle.as_deref(),
         given.friction_coefficient.as_deref(),
     )?;
-    if let Some(m) =
-        super::worst_plane::pair_material(stress("--cohesion", &given.cohesion)?, friction)?
-    {
+    if let Some(m) = super::args::pair_material(stress("--cohesion", &given.cohesion)?, friction)? {
         // One strength set typed once: the planes' and the material's.
         project.measure.cohesion_pa = Some(m.cohesion_pa);
         project.measure.friction_angle_deg = Some(m.friction_angle_deg);

@@ -1,13 +1,10 @@
 //! `planewise figure`: the annotated 3D view written as SVG or PNG, with no window or GPU.
 
-use std::path::PathBuf;
-
 use clap::Args;
 
-use super::worst_plane::{MaterialArgs, no_material, search_settings_in};
-use super::{ArgError, CliError, PlaneArgs, ProjectView, StressArgs, values};
+use super::args::{MaterialArgs, no_material, search_settings_in};
+use super::{ArgError, CliError, PlaneArgs, StressArgs, values};
 use crate::mechanics::search::{Measure, worst_plane};
-use crate::output::export::{self, ImageFormat};
 use crate::picture::draw::camera::{Camera, Projection, ViewPreset};
 use crate::picture::figures::{self, FigureInput};
 use crate::picture::scene::{FaceChoice, Layers};
@@ -19,13 +16,8 @@ pub struct FigureArgs {
     pub stress: StressArgs,
     #[command(flatten)]
     pub plane: PlaneArgs,
-    /// Output file; .svg or .png.
-    #[arg(long, value_name = "FILE")]
-    pub out: PathBuf,
     #[command(flatten)]
-    pub print: values::PrintArgs,
-    #[command(flatten)]
-    pub title: values::TitleArgs,
+    pub output: super::args::FigureOutArgs,
     /// Image size in pixels, WIDTHxHEIGHT.
     #[arg(long, value_name = "WxH", default_value = "1600x1200", value_parser = values::size, allow_hyphen_values = true)]
     pub size: (u32, u32),
@@ -58,11 +50,7 @@ pub fn run(args: &FigureArgs) -> Result<String, CliError> {
     let plane = args.plane.read()?.or(view.as_ref().map(|v| v.plane));
     let (w, h) = args.size;
     let preset = args.view;
-    ImageFormat::from_path(&args.out).map_err(|e| ArgError::new("--out", e))?;
-    if let Some(project) = &args.stress.project {
-        crate::study::atomic::not_an_input(&args.out, &[project.as_path()])
-            .map_err(|e| ArgError::new("--out", e))?;
-    }
+    args.output.check(&args.stress)?;
     let mut layers = match &args.layers {
         Some(list) => values::layers(list),
         None => Layers::default(),
@@ -92,15 +80,12 @@ pub fn run(args: &FigureArgs) -> Result<String, CliError> {
         notes: view.as_ref().map(|v| v.notes.clone()).unwrap_or_default(),
         map_range: None,
     };
-    let sizes = args.print.sizes(w, h);
-    let frame = super::titled(
-        &args.title,
+    args.output.write(
         view.as_ref(),
         &figure,
         crate::study::annotations::FigureKind::View3d,
-        sizes.text,
         [w, h],
-        |h| {
+        |h, sizes| {
             figures::view_3d(
                 &figure,
                 layers,
@@ -111,8 +96,5 @@ pub fn run(args: &FigureArgs) -> Result<String, CliError> {
                 sizes,
             )
         },
-    );
-    export::write_figure(&args.out, &frame, &ProjectView::title(view.as_ref()))
-        .map_err(anyhow::Error::from)?;
-    Ok(format!("wrote {}\n", args.out.display()))
+    )
 }

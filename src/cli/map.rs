@@ -1,14 +1,11 @@
 //! `planewise map`: every plane orientation on a lower-hemisphere equal-area projection,
 //! coloured by a measure, as SVG or PNG.
 
-use std::path::PathBuf;
-
 use clap::Args;
 
-use super::worst_plane::MeasureArgs;
-use super::{ArgError, CliError, PlaneArgs, ProjectView, StressArgs, values};
+use super::args::MeasureArgs;
+use super::{ArgError, CliError, PlaneArgs, StressArgs, values};
 use crate::mechanics::search::worst_plane;
-use crate::output::export::{self, ImageFormat};
 use crate::picture::figures::{self, FigureInput};
 
 /// Arguments of `planewise map`.
@@ -20,13 +17,8 @@ pub struct MapArgs {
     pub measure: MeasureArgs,
     #[command(flatten)]
     pub plane: PlaneArgs,
-    /// Output file; .svg or .png.
-    #[arg(long, value_name = "FILE")]
-    pub out: PathBuf,
     #[command(flatten)]
-    pub print: values::PrintArgs,
-    #[command(flatten)]
-    pub title: values::TitleArgs,
+    pub output: super::args::FigureOutArgs,
     /// Image size in pixels, WIDTHxHEIGHT.
     #[arg(long, value_name = "WxH", default_value = "1200x900", value_parser = values::size, allow_hyphen_values = true)]
     pub size: (u32, u32),
@@ -47,11 +39,7 @@ pub fn run(args: &MapArgs) -> Result<String, CliError> {
     let plane = args.plane.read()?.or(view.as_ref().map(|v| v.plane));
     let (w, h) = args.size;
     let resolution = usize::from(args.resolution);
-    ImageFormat::from_path(&args.out).map_err(|e| ArgError::new("--out", e))?;
-    if let Some(project) = &args.stress.project {
-        crate::study::atomic::not_an_input(&args.out, &[project.as_path()])
-            .map_err(|e| ArgError::new("--out", e))?;
-    }
+    args.output.check(&args.stress)?;
     let worst = worst_plane(&input.tensor, &settings).map_err(|e| ArgError::new("--measure", e))?;
     let map_range = args
         .range
@@ -84,17 +72,11 @@ pub fn run(args: &MapArgs) -> Result<String, CliError> {
         map_range,
         notes: view.as_ref().map(|v| v.notes.clone()).unwrap_or_default(),
     };
-    let sizes = args.print.sizes(w, h);
-    let frame = super::titled(
-        &args.title,
+    args.output.write(
         view.as_ref(),
         &figure,
         crate::study::annotations::FigureKind::Map,
-        sizes.text,
         [w, h],
-        |h| figures::map(&figure, &settings, resolution, w, h, sizes),
-    );
-    export::write_figure(&args.out, &frame, &ProjectView::title(view.as_ref()))
-        .map_err(anyhow::Error::from)?;
-    Ok(format!("wrote {}\n", args.out.display()))
+        |h, sizes| figures::map(&figure, &settings, resolution, w, h, sizes),
+    )
 }

@@ -1,14 +1,11 @@
 //! `planewise mohr`: the Mohr circles of a state as SVG or PNG, with the cut plane's point, the
 //! worst planes of a measure and the Mohr–Coulomb envelope.
 
-use std::path::PathBuf;
-
 use clap::Args;
 
-use super::worst_plane::{MaterialArgs, search_settings_in};
-use super::{ArgError, CliError, PlaneArgs, ProjectView, StressArgs, values};
+use super::args::{MaterialArgs, search_settings_in};
+use super::{ArgError, CliError, PlaneArgs, StressArgs, values};
 use crate::mechanics::search::{Measure, worst_plane};
-use crate::output::export::{self, ImageFormat};
 use crate::picture::draw::mohr::Envelope;
 use crate::picture::figures::{self, FigureInput};
 
@@ -25,13 +22,8 @@ pub struct MohrArgs {
     /// Draws the Mohr–Coulomb envelope when --cohesion and --friction-angle are given.
     #[command(flatten)]
     pub material: MaterialArgs,
-    /// Output file; .svg or .png.
-    #[arg(long, value_name = "FILE")]
-    pub out: PathBuf,
     #[command(flatten)]
-    pub print: values::PrintArgs,
-    #[command(flatten)]
-    pub title: values::TitleArgs,
+    pub output: super::args::FigureOutArgs,
     /// Image size in pixels, WIDTHxHEIGHT.
     #[arg(long, value_name = "WxH", default_value = "1200x800", value_parser = values::size, allow_hyphen_values = true)]
     pub size: (u32, u32),
@@ -66,11 +58,7 @@ pub fn run(args: &MohrArgs) -> Result<String, CliError> {
         })
     };
     let (w, h) = args.size;
-    ImageFormat::from_path(&args.out).map_err(|e| ArgError::new("--out", e))?;
-    if let Some(project) = &args.stress.project {
-        crate::study::atomic::not_an_input(&args.out, &[project.as_path()])
-            .map_err(|e| ArgError::new("--out", e))?;
-    }
+    args.output.check(&args.stress)?;
     let (search, worst) = match measure {
         Some(measure) => {
             let settings =
@@ -92,17 +80,11 @@ pub fn run(args: &MohrArgs) -> Result<String, CliError> {
         notes: view.as_ref().map(|v| v.notes.clone()).unwrap_or_default(),
         map_range: None,
     };
-    let sizes = args.print.sizes(w, h);
-    let frame = super::titled(
-        &args.title,
+    args.output.write(
         view.as_ref(),
         &figure,
         crate::study::annotations::FigureKind::Mohr,
-        sizes.text,
         [w, h],
-        |h| figures::mohr(&figure, w, h, sizes),
-    );
-    export::write_figure(&args.out, &frame, &ProjectView::title(view.as_ref()))
-        .map_err(anyhow::Error::from)?;
-    Ok(format!("wrote {}\n", args.out.display()))
+        |h, sizes| figures::mohr(&figure, w, h, sizes),
+    )
 }

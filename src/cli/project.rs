@@ -70,7 +70,7 @@ pub struct SetMaterialArgs {
     #[arg(long)]
     pub name: Option<String>,
     #[command(flatten)]
-    pub strengths: super::analyze::StrengthArgs,
+    pub strengths: super::args::StrengthArgs,
     /// Remove these values: yield-strength, tensile-strength, compressive-strength, cohesion,
     /// friction (comma-separated).
     #[arg(long, value_name = "LIST", value_delimiter = ',')]
@@ -419,7 +419,7 @@ pub fn run(args: &ProjectArgs) -> Result<String, CliError> {
                 a.friction_angle.as_deref(),
                 a.friction_coefficient.as_deref(),
             )?;
-            let m = super::worst_plane::pair_material(cohesion, friction)?
+            let m = super::args::pair_material(cohesion, friction)?
                 .ok_or_else(|| ArgError::new("--cohesion", "is required (or --clear)"))?;
             project.measure.cohesion_pa = Some(m.cohesion_pa);
             project.measure.friction_angle_deg = Some(m.friction_angle_deg);
