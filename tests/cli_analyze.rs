@@ -7,16 +7,9 @@
 
 mod common;
 
-use std::process::{Command, Output};
+use common::planewise;
 
 use serde_json::Value;
-
-fn planewise(args: &[&str]) -> Output {
-    Command::new(env!("CARGO_BIN_EXE_planewise"))
-        .args(args)
-        .output()
-        .expect("the binary runs")
-}
 
 fn json(args: &[&str]) -> Value {
     let out = planewise(args);

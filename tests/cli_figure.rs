@@ -7,14 +7,7 @@
 
 mod common;
 
-use std::process::{Command, Output};
-
-fn planewise(args: &[&str]) -> Output {
-    Command::new(env!("CARGO_BIN_EXE_planewise"))
-        .args(args)
-        .output()
-        .unwrap()
-}
+use common::planewise;
 
 fn temp(name: &str) -> std::path::PathBuf {
     let dir = std::env::temp_dir().join(format!("planewise-cli-figure-{}", std::process::id()));

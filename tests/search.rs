@@ -282,14 +282,7 @@ fn effective_tension_is_reported_not_divided_by() {
 }
 
 mod cli {
-    use std::process::Command;
-
-    fn planewise(args: &[&str]) -> std::process::Output {
-        Command::new(env!("CARGO_BIN_EXE_planewise"))
-            .args(args)
-            .output()
-            .unwrap()
-    }
+    use crate::common::planewise;
 
     #[test]
     fn json_contract() {

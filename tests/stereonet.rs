@@ -5,6 +5,8 @@
     reason = "a test helper that fails should panic loudly"
 )]
 
+mod common;
+
 use planewise::mechanics::search::{Measure, SearchSettings, worst_plane};
 use planewise::mechanics::stereonet::{orientation_map, pole_at, project_pole};
 use planewise::mechanics::{PlaneNormal, SignConvention, StressTensor};
@@ -79,12 +81,7 @@ fn map_command_writes_a_figure_and_rejects_bad_input() {
     let dir = std::env::temp_dir().join(format!("planewise-map-{}", std::process::id()));
     std::fs::create_dir_all(&dir).unwrap();
     let out = dir.join("map.png");
-    let run = |args: &[&str]| {
-        std::process::Command::new(env!("CARGO_BIN_EXE_planewise"))
-            .args(args)
-            .output()
-            .unwrap()
-    };
+    let run = common::planewise;
     let o = run(&[
         "map",
         "--stress",

@@ -289,6 +289,29 @@ pub struct StressInput {
     pub convention: SignConvention,
 }
 
+impl StressInput {
+    /// The figure of this state with the cut plane `plane` and the project's notes; no worst
+    /// planes, envelope or colour range (the figure subcommands add theirs).
+    #[must_use]
+    pub fn figure(
+        &self,
+        plane: Option<PlaneNormal>,
+        view: Option<&ProjectView>,
+    ) -> crate::picture::figures::FigureInput {
+        crate::picture::figures::FigureInput {
+            tensor: self.tensor,
+            unit: self.unit,
+            convention: self.convention,
+            plane,
+            search: None,
+            worst: None,
+            envelope: None,
+            map_range: None,
+            notes: view.map(|v| v.notes.clone()).unwrap_or_default(),
+        }
+    }
+}
+
 /// Parses a stress typed in `unit` (pore pressure, cohesion) and converts it to pascals; the
 /// same limit as the tensor's components applies.
 pub fn stress_value(arg: &'static str, text: &str, unit: StressUnit) -> Result<f64, ArgError> {

@@ -62,15 +62,10 @@ pub fn run(args: &MapArgs) -> Result<String, CliError> {
         })
         .transpose()?;
     let figure = FigureInput {
-        tensor: input.tensor,
-        unit: input.unit,
-        convention: input.convention,
-        plane,
         search: Some(settings),
         worst: Some(worst),
-        envelope: None,
         map_range,
-        notes: view.as_ref().map(|v| v.notes.clone()).unwrap_or_default(),
+        ..input.figure(plane, view.as_ref())
     };
     args.output.write(
         view.as_ref(),

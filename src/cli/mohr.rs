@@ -70,15 +70,10 @@ pub fn run(args: &MohrArgs) -> Result<String, CliError> {
         None => (None, None),
     };
     let figure = FigureInput {
-        tensor: input.tensor,
-        unit: input.unit,
-        convention: input.convention,
-        plane,
         search,
         worst,
         envelope,
-        notes: view.as_ref().map(|v| v.notes.clone()).unwrap_or_default(),
-        map_range: None,
+        ..input.figure(plane, view.as_ref())
     };
     args.output.write(
         view.as_ref(),

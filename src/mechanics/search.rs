@@ -233,6 +233,14 @@ pub struct SearchResult {
     pub planes: Vec<WorstPlane>,
 }
 
+impl SearchResult {
+    /// The normals of the worst planes.
+    #[must_use]
+    pub fn normals(&self) -> Vec<PlaneNormal> {
+        self.planes.iter().map(|p| p.normal).collect()
+    }
+}
+
 /// Principal values and directions in the measure's convention and the constants of its
 /// formula: the measure as a function of a plane's orientation.
 #[derive(Clone, Copy, Debug)]

@@ -92,7 +92,7 @@ impl FigureInput {
     pub fn worst_normals(&self) -> Vec<PlaneNormal> {
         self.worst
             .as_ref()
-            .map(|r| r.planes.iter().map(|p| p.normal).collect())
+            .map(SearchResult::normals)
             .unwrap_or_default()
     }
 }

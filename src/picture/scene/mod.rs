@@ -480,6 +480,38 @@ fn push_arrow(
     }
 }
 
+/// The traction on a plane at `at` and its normal and shear parts, `scale` world units per
+/// pascal; the traction `widths[0]` pixels wide, the parts `widths[1]`.
+fn push_traction(
+    arrows: &mut Vec<Arrow>,
+    at: Point3<f64>,
+    ps: &PlaneStress,
+    scale: f64,
+    widths: [f32; 2],
+) {
+    push_arrow(
+        arrows,
+        at,
+        ps.traction_pa * scale,
+        style::TRACTION,
+        widths[0],
+    );
+    push_arrow(
+        arrows,
+        at,
+        ps.normal_traction_pa() * scale,
+        style::NORMAL_PART,
+        widths[1],
+    );
+    push_arrow(
+        arrows,
+        at,
+        ps.shear_traction_pa() * scale,
+        style::SHEAR_PART,
+        widths[1],
+    );
+}
+
 /// What every layer needs to know while the scene is built.
 struct Context<'a> {
     input: &'a SceneInput<'a>,
@@ -616,27 +648,7 @@ impl Scene {
             let ps = PlaneStress::new(t, normal, SignConvention::TensionPositive);
             let centre = Point3::from(n * 0.5);
             let s = self.arrow_scale_per_pa;
-            push_arrow(
-                &mut self.arrows,
-                centre,
-                ps.traction_pa * s,
-                style::TRACTION,
-                2.6,
-            );
-            push_arrow(
-                &mut self.arrows,
-                centre,
-                ps.normal_traction_pa() * s,
-                style::NORMAL_PART,
-                1.8,
-            );
-            push_arrow(
-                &mut self.arrows,
-                centre,
-                ps.shear_traction_pa() * s,
-                style::SHEAR_PART,
-                1.8,
-            );
+            push_traction(&mut self.arrows, centre, &ps, s, [2.6, 1.8]);
             if cx.input.layers.labels && ps.traction_pa.norm() > 0.0 {
                 self.labels.push(Label {
                     at: centre + ps.traction_pa * s,
@@ -846,27 +858,7 @@ impl Scene {
         });
         let ps = PlaneStress::new(t, cx.input.plane, SignConvention::TensionPositive);
         let s = self.arrow_scale_per_pa;
-        push_arrow(
-            &mut self.arrows,
-            origin,
-            ps.traction_pa * s,
-            style::TRACTION,
-            3.0,
-        );
-        push_arrow(
-            &mut self.arrows,
-            origin,
-            ps.normal_traction_pa() * s,
-            style::NORMAL_PART,
-            2.2,
-        );
-        push_arrow(
-            &mut self.arrows,
-            origin,
-            ps.shear_traction_pa() * s,
-            style::SHEAR_PART,
-            2.2,
-        );
+        push_traction(&mut self.arrows, origin, &ps, s, [3.0, 2.2]);
         if cx.input.layers.labels {
             self.labels.push(Label {
                 at: origin + n * (NORMAL_LENGTH + 0.03),
