@@ -328,10 +328,10 @@ pub fn run(args: &ProjectArgs) -> Result<String, CliError> {
                 "--principal"
             };
             project.add_case(case, a.replace).map_err(|e| match e {
-                study::StudyError::Duplicate(_) => ArgError::new("--name", e),
-                study::StudyError::Invalid(ref m) if m.contains("name") => {
-                    ArgError::new("--name", e)
-                }
+                study::StudyError::Duplicate(_)
+                | study::StudyError::EmptyName
+                | study::StudyError::EmptyProjectName
+                | study::StudyError::NameWithSeparator(_) => ArgError::new("--name", e),
                 other => ArgError::new(input_arg, other),
             })?;
             save(&a.file, &project)?;

@@ -469,7 +469,7 @@ fn case_section(
 ) -> Result<(), StudyError> {
     let d = Derived::of(project, name);
     if let Some(problem) = &d.problem {
-        return Err(StudyError::Invalid(problem.clone()));
+        return Err(StudyError::Unusable(problem.clone()));
     }
     let kind = if d.combination {
         "Combination"

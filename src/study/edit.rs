@@ -93,16 +93,16 @@ fn typed_tensor(p: &mut Project) -> Result<&mut TypedTensor, StudyError> {
     let unit = p.unit()?;
     let sign = p.convention().sign();
     let compression_positive = p.compression_positive;
-    let case = p.cases.iter_mut().find(|c| c.name == name).ok_or_else(|| {
-        StudyError::Invalid(format!(
-            "'{name}' is a combination: edit its load cases or factors, or make a load case from it"
-        ))
-    })?;
+    let case = p
+        .cases
+        .iter_mut()
+        .find(|c| c.name == name)
+        .ok_or_else(|| StudyError::CombinationNotTyped(name.clone()))?;
     if case.input.kind() != InputKind::Tensor {
-        return Err(StudyError::Invalid(format!(
-            "'{name}' is given as {}: edit that input",
-            case.input.kind().label()
-        )));
+        return Err(StudyError::OtherInput {
+            name: name.clone(),
+            kind: case.input.kind().label(),
+        });
     }
     let as_typed = match &case.input {
         CaseInput::Tensor(t)
@@ -122,7 +122,7 @@ fn typed_tensor(p: &mut Project) -> Result<&mut TypedTensor, StudyError> {
     });
     match &mut case.input {
         CaseInput::Tensor(t) => Ok(t),
-        _ => Err(StudyError::Invalid(format!("'{name}': not a tensor input"))),
+        _ => Err(StudyError::NotATensor(name.clone())),
     }
 }
 
@@ -148,14 +148,15 @@ impl Edit {
             }
             Self::SetInput(input) => {
                 let name = active(&p)?;
-                input
-                    .tensor()
-                    .map_err(|e| StudyError::Invalid(format!("'{name}': {e}")))?;
+                input.tensor().map_err(|e| StudyError::EditedInput {
+                    name: name.clone(),
+                    cause: Box::new(e),
+                })?;
                 let case = p
                     .cases
                     .iter_mut()
                     .find(|c| c.name == name)
-                    .ok_or_else(|| StudyError::Invalid(format!("'{name}' is a combination")))?;
+                    .ok_or_else(|| StudyError::NotALoadCase(name.clone()))?;
                 case.input = input.clone();
             }
             Self::AddCaseOfKind(kind) => {
@@ -181,10 +182,7 @@ impl Edit {
                         return Err(StudyError::Unknown(a.case.clone()));
                     }
                     if a.pin.is_some_and(|pin| pin.figure() != a.figure) {
-                        return Err(StudyError::Invalid(format!(
-                            "a note on the {} is pinned to another figure's point",
-                            a.figure.label()
-                        )));
+                        return Err(StudyError::NoteOnOtherFigure(a.figure.label()));
                     }
                 }
                 p.annotations.clone_from(annotations);
@@ -195,7 +193,7 @@ impl Edit {
                 material
                     .strengths
                     .validate()
-                    .map_err(|e| StudyError::Invalid(format!("material: {e}")))?;
+                    .map_err(StudyError::Material)?;
                 p.material = (**material).clone();
             }
             Self::SetUnit(unit) => unit.symbol().clone_into(&mut p.unit),
@@ -204,9 +202,7 @@ impl Edit {
             }
             Self::SetName(name) => {
                 if name.trim().is_empty() {
-                    return Err(StudyError::Invalid(
-                        "a project name must not be empty".to_owned(),
-                    ));
+                    return Err(StudyError::EmptyProjectName);
                 }
                 name.clone_into(&mut p.name);
             }
@@ -290,9 +286,7 @@ impl Edit {
             }
             Self::AddCombination => {
                 if p.cases.is_empty() {
-                    return Err(StudyError::Invalid(
-                        "add a load case before a combination".to_owned(),
-                    ));
+                    return Err(StudyError::NoCaseForCombination);
                 }
                 let name = p.unused_name("combination");
                 let terms = p
@@ -344,7 +338,7 @@ impl Edit {
 fn active(p: &Project) -> Result<String, StudyError> {
     p.active_name()
         .map(str::to_owned)
-        .ok_or_else(|| StudyError::Invalid("the project has no load case".to_owned()))
+        .ok_or(StudyError::NoLoadCase)
 }
 
 /// `name (copy)`, `name (copy 2)`, … whichever is free.
@@ -389,17 +383,15 @@ fn delete(p: &mut Project, name: &str) -> Result<(), StudyError> {
     let shown = p.active_name().map(str::to_owned);
     if let Some(i) = p.cases.iter().position(|c| c.name == name) {
         if p.cases.len() == 1 {
-            return Err(StudyError::Invalid(
-                "a project keeps at least one load case".to_owned(),
-            ));
+            return Err(StudyError::LastLoadCase);
         }
         for combination in &mut p.combinations {
             combination.terms.retain(|t| t.case != name);
             if combination.terms.is_empty() {
-                return Err(StudyError::Invalid(format!(
-                    "'{name}' is the only term of combination '{}': delete or change that combination first",
-                    combination.name
-                )));
+                return Err(StudyError::OnlyTerm {
+                    case: name.to_owned(),
+                    combination: combination.name.clone(),
+                });
             }
         }
         p.cases.remove(i);

@@ -406,8 +406,7 @@ impl Ranking<'_> {
                     convention: self.convention,
                     ..*self.plane_settings
                 };
-                let r = worst_plane(tensor, &settings)
-                    .map_err(|e| StudyError::Invalid(e.to_string()))?;
+                let r = worst_plane(tensor, &settings).map_err(StudyError::Search)?;
                 MeasureValue {
                     value: r.value,
                     condition: Some(r.condition),

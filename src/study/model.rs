@@ -22,15 +22,9 @@ pub struct TypedTensor {
 impl TypedTensor {
     /// The tensor in pascals, tension positive.
     pub fn tensor(&self) -> Result<StressTensor, StudyError> {
-        let unit: StressUnit =
-            self.unit
-                .parse()
-                .map_err(|e: crate::mechanics::units::UnknownUnit| {
-                    StudyError::Invalid(e.to_string())
-                })?;
+        let unit: StressUnit = self.unit.parse().map_err(StudyError::Unit)?;
         let sign = if self.compression_positive { -1.0 } else { 1.0 };
-        StressTensor::from_components(self.components, unit, sign)
-            .map_err(|e| StudyError::Invalid(e.to_string()))
+        StressTensor::from_components(self.components, unit, sign).map_err(StudyError::Tensor)
     }
 }
 
@@ -272,17 +266,14 @@ impl InputKind {
 }
 
 fn parse_unit(unit: &str) -> Result<StressUnit, StudyError> {
-    unit.parse()
-        .map_err(|e: crate::mechanics::units::UnknownUnit| StudyError::Invalid(e.to_string()))
+    unit.parse().map_err(StudyError::Unit)
 }
 
 fn strain_factor(unit: &str) -> Result<f64, StudyError> {
     match unit {
         "microstrain" | "µε" => Ok(1e-6),
         "strain" => Ok(1.0),
-        other => Err(StudyError::Invalid(format!(
-            "unknown strain unit '{other}' (expected microstrain or strain)"
-        ))),
+        other => Err(StudyError::StrainUnit(other.to_owned())),
     }
 }
 
@@ -735,8 +726,12 @@ pub struct FaultPlane {
 impl FaultPlane {
     /// The plane's upward normal.
     pub fn normal(&self) -> Result<PlaneNormal, StudyError> {
-        PlaneNormal::from_dip(self.dip_deg, self.dip_direction_deg)
-            .map_err(|e| StudyError::Invalid(format!("fault '{}': {e}", self.name)))
+        PlaneNormal::from_dip(self.dip_deg, self.dip_direction_deg).map_err(|cause| {
+            StudyError::Fault {
+                name: self.name.clone(),
+                cause,
+            }
+        })
     }
 
     /// Strike by the right-hand rule (dip direction − 90°), degrees in [0, 360).
@@ -827,9 +822,133 @@ pub enum StudyError {
     /// An input (in-situ, principal axes, rosette, plane stress) that gives no tensor.
     #[error(transparent)]
     Input(#[from] crate::mechanics::inputs::InputError),
-    /// Anything else that is wrong with the data.
+    /// A stress unit nobody knows.
+    #[error(transparent)]
+    Unit(#[from] crate::mechanics::units::UnknownUnit),
+    /// A strain unit nobody knows.
+    #[error("unknown strain unit '{0}' (expected microstrain or strain)")]
+    StrainUnit(String),
+    /// Components that make no tensor (not finite, beyond the largest stress).
+    #[error(transparent)]
+    Tensor(#[from] crate::mechanics::tensor::TensorError),
+    /// A load case whose input gives no tensor.
+    #[error("load case '{case}': {cause}")]
+    CaseTensor {
+        /// The load case.
+        case: String,
+        /// Why.
+        cause: Box<StudyError>,
+    },
+    /// A combination without terms.
+    #[error("combination '{0}' has no terms")]
+    EmptyCombination(String),
+    /// A combination's factor that is not a finite number.
+    #[error("combination '{combination}': the factor of '{case}' is not a finite number")]
+    FactorNotFinite {
+        /// The combination.
+        combination: String,
+        /// The term's load case.
+        case: String,
+    },
+    /// A combination whose sum is no tensor (beyond the largest stress).
+    #[error("combination '{combination}': {cause}")]
+    CombinationTensor {
+        /// The combination.
+        combination: String,
+        /// Why.
+        cause: crate::mechanics::tensor::TensorError,
+    },
+    /// A fault whose dip and dip direction give no plane.
+    #[error("fault '{name}': {cause}")]
+    Fault {
+        /// The fault.
+        name: String,
+        /// Why.
+        cause: crate::mechanics::plane::PlaneError,
+    },
+    /// Two faults of one name.
+    #[error("faults: the name '{0}' is used twice")]
+    DuplicateFault(String),
+    /// Strengths that are not usable.
+    #[error("material: {0}")]
+    Material(crate::mechanics::criteria::CriterionError),
+    /// The worst-plane measure's pore pressure is not a finite stress.
+    #[error("measure: pore_pressure_pa must be a finite stress")]
+    PorePressure,
+    /// The worst-plane measure's cohesion or friction angle is not usable.
+    #[error("measure: the planes' {0}")]
+    MeasureMaterial(crate::mechanics::criteria::CriterionError),
+    /// A note that is not usable (the key and what is wrong with it).
+    #[error("annotations[{index}].{what}")]
+    Annotation {
+        /// Its place in the list.
+        index: usize,
+        /// The key and what is wrong.
+        what: String,
+    },
+    /// A note pinned to a point of another figure.
+    #[error("a note on the {0} is pinned to another figure's point")]
+    NoteOnOtherFigure(&'static str),
+    /// An empty name of a case or combination.
+    #[error("a name must not be empty")]
+    EmptyName,
+    /// A name holding '=' or ',' (they separate the terms of a combination on the command line).
+    #[error("name '{0}' must not contain '=' or ','")]
+    NameWithSeparator(String),
+    /// The worst-plane search could not run.
+    #[error(transparent)]
+    Search(#[from] crate::mechanics::search::SearchError),
+    /// An empty project name.
+    #[error("a project name must not be empty")]
+    EmptyProjectName,
+    /// A combination's tensor edited as if it were typed.
+    #[error("'{0}' is a combination: edit its load cases or factors, or make a load case from it")]
+    CombinationNotTyped(String),
+    /// A combination's input changed as if it were a load case.
+    #[error("'{0}' is a combination")]
+    NotALoadCase(String),
+    /// A load case given by another input kind edited as a tensor.
+    #[error("'{name}' is given as {kind}: edit that input")]
+    OtherInput {
+        /// The load case.
+        name: String,
+        /// Its input kind, in words.
+        kind: &'static str,
+    },
+    /// A load case that holds no tensor input.
+    #[error("'{0}': not a tensor input")]
+    NotATensor(String),
+    /// A load case's new input that gives no tensor.
+    #[error("'{name}': {cause}")]
+    EditedInput {
+        /// The load case.
+        name: String,
+        /// Why.
+        cause: Box<StudyError>,
+    },
+    /// A combination added before any load case.
+    #[error("add a load case before a combination")]
+    NoCaseForCombination,
+    /// A project without load cases where one is needed.
+    #[error("the project has no load case")]
+    NoLoadCase,
+    /// Deleting the last load case.
+    #[error("a project keeps at least one load case")]
+    LastLoadCase,
+    /// Deleting the only term of a combination.
+    #[error(
+        "'{case}' is the only term of combination '{combination}': delete or change that combination first"
+    )]
+    OnlyTerm {
+        /// The load case.
+        case: String,
+        /// The combination.
+        combination: String,
+    },
+    /// A state that cannot be shown, with the reason already written (a derived result's
+    /// problem).
     #[error("{0}")]
-    Invalid(String),
+    Unusable(String),
 }
 
 impl Project {
@@ -934,9 +1053,7 @@ impl Project {
 
     /// The display unit.
     pub fn unit(&self) -> Result<StressUnit, StudyError> {
-        self.unit
-            .parse()
-            .map_err(|e: crate::mechanics::units::UnknownUnit| StudyError::Invalid(e.to_string()))
+        self.unit.parse().map_err(StudyError::Unit)
     }
 
     /// The display convention.
@@ -1033,35 +1150,30 @@ impl Project {
         self.material
             .strengths
             .validate()
-            .map_err(|e| StudyError::Invalid(format!("material: {e}")))?;
+            .map_err(StudyError::Material)?;
         let m = &self.measure;
         if !(m.pore_pressure_pa.is_finite()
             && m.pore_pressure_pa.abs() <= crate::mechanics::tensor::MAX_STRESS_PA)
         {
-            return Err(StudyError::Invalid(
-                "measure: pore_pressure_pa must be a finite stress".to_owned(),
-            ));
+            return Err(StudyError::PorePressure);
         }
         if let Some(c) = m.cohesion_pa {
             MohrCoulomb::new(c, m.friction_angle_deg.unwrap_or(0.0))
-                .map_err(|e| StudyError::Invalid(format!("measure: the planes' {e}")))?;
+                .map_err(StudyError::MeasureMaterial)?;
         }
         if let Some(phi) = m.friction_angle_deg {
             MohrCoulomb::new(m.cohesion_pa.unwrap_or(0.0), phi)
-                .map_err(|e| StudyError::Invalid(format!("measure: the planes' {e}")))?;
+                .map_err(StudyError::MeasureMaterial)?;
         }
         for (i, fault) in self.faults.iter().enumerate() {
             fault.normal()?;
             if self.faults[..i].iter().any(|f| f.name == fault.name) {
-                return Err(StudyError::Invalid(format!(
-                    "faults: the name '{}' is used twice",
-                    fault.name
-                )));
+                return Err(StudyError::DuplicateFault(fault.name.clone()));
             }
         }
         for (i, a) in self.annotations.iter().enumerate() {
             a.validate()
-                .map_err(|e| StudyError::Invalid(format!("annotations[{i}].{e}")))?;
+                .map_err(|what| StudyError::Annotation { index: i, what })?;
         }
         let mut names: std::collections::HashSet<&str> = std::collections::HashSet::new();
         for name in self
@@ -1144,10 +1256,7 @@ fn check_combination_with(
     index: &std::collections::HashMap<&str, &LoadCase>,
 ) -> Result<(), StudyError> {
     if combination.terms.is_empty() {
-        return Err(StudyError::Invalid(format!(
-            "combination '{}' has no terms",
-            combination.name
-        )));
+        return Err(StudyError::EmptyCombination(combination.name.clone()));
     }
     for term in &combination.terms {
         if !index.contains_key(term.case.as_str()) {
@@ -1157,10 +1266,10 @@ fn check_combination_with(
             });
         }
         if !term.factor.is_finite() {
-            return Err(StudyError::Invalid(format!(
-                "combination '{}': the factor of '{}' is not a finite number",
-                combination.name, term.case
-            )));
+            return Err(StudyError::FactorNotFinite {
+                combination: combination.name.clone(),
+                case: term.case.clone(),
+            });
         }
     }
     combination_tensor_with(combination, index).map(|_| ())
@@ -1184,14 +1293,17 @@ fn combination_tensor_with(
             *s += term.factor * v;
         }
     }
-    StressTensor::from_pa(sum)
-        .map_err(|e| StudyError::Invalid(format!("combination '{}': {e}", combination.name)))
+    StressTensor::from_pa(sum).map_err(|cause| StudyError::CombinationTensor {
+        combination: combination.name.clone(),
+        cause,
+    })
 }
 
 fn case_tensor(case: &LoadCase) -> Result<StressTensor, StudyError> {
-    case.input
-        .tensor()
-        .map_err(|e| StudyError::Invalid(format!("load case '{}': {e}", case.name)))
+    case.input.tensor().map_err(|e| StudyError::CaseTensor {
+        case: case.name.clone(),
+        cause: Box::new(e),
+    })
 }
 
 /// The demo project's file, built in.
@@ -1199,12 +1311,10 @@ const DEMO_JSON: &str = include_str!("../../assets/demo-bracket-project.json");
 
 pub(crate) fn check_name(name: &str) -> Result<(), StudyError> {
     if name.trim().is_empty() {
-        return Err(StudyError::Invalid("a name must not be empty".to_owned()));
+        return Err(StudyError::EmptyName);
     }
     if name.contains(['=', ',']) {
-        return Err(StudyError::Invalid(format!(
-            "name '{name}' must not contain '=' or ','"
-        )));
+        return Err(StudyError::NameWithSeparator(name.to_owned()));
     }
     Ok(())
 }
