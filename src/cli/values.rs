@@ -43,6 +43,16 @@ impl ValueEnum for ViewPreset {
     }
 }
 
+impl ValueEnum for crate::window::session::Central {
+    fn value_variants<'a>() -> &'a [Self] {
+        &Self::ALL
+    }
+
+    fn to_possible_value(&self) -> Option<PossibleValue> {
+        Some(PossibleValue::new(self.key()).help(self.label()))
+    }
+}
+
 impl ValueEnum for DruckerPragerFit {
     fn value_variants<'a>() -> &'a [Self] {
         &Self::ALL

@@ -63,12 +63,11 @@ impl Settings {
     }
 }
 
-/// The pictures the central area can show (`--tab 3d|map|mohr`).
-#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize, Deserialize, Default, clap::ValueEnum)]
+/// The pictures the central area can show (the command line's `--tab` takes their keys).
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize, Deserialize, Default)]
 pub enum Central {
     /// The 3D view.
     #[default]
-    #[value(name = "3d")]
     View3d,
     /// The orientation map.
     Map,
@@ -79,10 +78,50 @@ pub enum Central {
     /// Named planes checked as faults.
     Faults,
     /// The walk-through of the shown case.
-    #[value(name = "walkthrough")]
     Walkthrough,
     /// An imported finite-element table, ranked.
     Table,
+}
+
+impl Central {
+    /// Every tab, in the order the window shows them.
+    pub const ALL: [Self; 7] = [
+        Self::View3d,
+        Self::Map,
+        Self::Mohr,
+        Self::Envelope,
+        Self::Faults,
+        Self::Walkthrough,
+        Self::Table,
+    ];
+
+    /// The name `--tab` takes.
+    #[must_use]
+    pub fn key(self) -> &'static str {
+        match self {
+            Self::View3d => "3d",
+            Self::Map => "map",
+            Self::Mohr => "mohr",
+            Self::Envelope => "envelope",
+            Self::Faults => "faults",
+            Self::Walkthrough => "walkthrough",
+            Self::Table => "table",
+        }
+    }
+
+    /// What the tab shows, in words.
+    #[must_use]
+    pub fn label(self) -> &'static str {
+        match self {
+            Self::View3d => "The 3D view",
+            Self::Map => "The orientation map",
+            Self::Mohr => "The Mohr circles",
+            Self::Envelope => "The envelope over every case and combination",
+            Self::Faults => "Named planes checked as faults",
+            Self::Walkthrough => "The walk-through of the shown case",
+            Self::Table => "An imported finite-element table, ranked",
+        }
+    }
 }
 
 impl Default for Settings {
