@@ -1,5 +1,5 @@
 //! Text in and out: numbers and lists typed by users ([`parse`]) and numbers written for them
-//! ([`format`]). Above the mechanics (it knows units and components), below everything that
+//! ([`format`](mod@format)). Above the mechanics (it knows units and components), below everything that
 //! shows or reads a number.
 
 pub mod format;
