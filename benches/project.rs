@@ -14,7 +14,7 @@ fn big(n: usize) -> Project {
     );
     for i in 0..n {
         p.cases.push(LoadCase {
-            unknown: planewise::study::model::UnknownKeys::new(),
+            unknown: planewise::study::unknown::UnknownKeys::new(),
             name: format!("c{i}"),
             description: String::new(),
             input: CaseInput::Tensor(TypedTensor {

@@ -26,7 +26,7 @@ fn project() -> Project {
     );
     p.add_case(
         LoadCase {
-            unknown: planewise::study::model::UnknownKeys::new(),
+            unknown: planewise::study::unknown::UnknownKeys::new(),
             name: "lift".to_owned(),
             description: String::new(),
             input: CaseInput::Tensor(TypedTensor {
@@ -103,7 +103,7 @@ fn notes_round_trip_through_the_file_follow_renames_and_leave_with_their_case() 
     let mut two = p.clone();
     two.add_case(
         LoadCase {
-            unknown: planewise::study::model::UnknownKeys::new(),
+            unknown: planewise::study::unknown::UnknownKeys::new(),
             name: "wind".to_owned(),
             description: String::new(),
             input: CaseInput::Tensor(TypedTensor {
@@ -223,7 +223,7 @@ fn the_report_names_a_table_rows_file_and_line() {
     let mut p = project();
     p.add_case(
         LoadCase {
-            unknown: planewise::study::model::UnknownKeys::new(),
+            unknown: planewise::study::unknown::UnknownKeys::new(),
             name: "row 7 of mesh.csv".to_owned(),
             description: String::new(),
             input: CaseInput::TableRow(planewise::study::TableRowInput {

@@ -24,7 +24,7 @@ fn fixture() -> Project {
     let mut p = Project::new("fixture", StressUnit::MPa, SignConvention::TensionPositive);
     p.add_case(
         LoadCase {
-            unknown: planewise::study::model::UnknownKeys::new(),
+            unknown: planewise::study::unknown::UnknownKeys::new(),
             name: "fillet".to_owned(),
             description: String::new(),
             input: CaseInput::Tensor(TypedTensor {

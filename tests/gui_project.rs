@@ -806,7 +806,7 @@ fn a_value_typed_in_ksi_is_saved_as_typed() {
         SignConvention::TensionPositive,
     );
     project.cases.push(LoadCase {
-        unknown: planewise::study::model::UnknownKeys::new(),
+        unknown: planewise::study::unknown::UnknownKeys::new(),
         name: "a".to_owned(),
         description: String::new(),
         input: CaseInput::Tensor(TypedTensor {

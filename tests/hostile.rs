@@ -821,7 +821,7 @@ fn unknown_keys_survive_load_and_save_at_every_level() {
 
 #[test]
 fn unknown_keys_of_a_case_input_stay_with_its_kind_and_its_name() {
-    use planewise::study::model::UnknownInside;
+    use planewise::study::unknown::UnknownInside;
     use serde_json::json;
     let read = json!({"cases": [
         {"name": "a", "input": {"kind": "tensor", "unit": "MPa", "gauge": 1}},

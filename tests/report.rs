@@ -116,7 +116,7 @@ fn text_from_a_project_file_stays_text() {
     p.material.name = hostile.to_owned();
     p.add_case(
         LoadCase {
-            unknown: planewise::study::model::UnknownKeys::new(),
+            unknown: planewise::study::unknown::UnknownKeys::new(),
             name: "case <i>1</i> & \"a\"".to_owned(),
             description: hostile.to_owned(),
             input: CaseInput::Tensor(TypedTensor {
@@ -130,10 +130,10 @@ fn text_from_a_project_file_stays_text() {
     .unwrap();
     p.add_combination(
         Combination {
-            unknown: planewise::study::model::UnknownKeys::new(),
+            unknown: planewise::study::unknown::UnknownKeys::new(),
             name: "combo <svg onload>".to_owned(),
             terms: vec![Term {
-                unknown: planewise::study::model::UnknownKeys::new(),
+                unknown: planewise::study::unknown::UnknownKeys::new(),
                 case: "case <i>1</i> & \"a\"".to_owned(),
                 factor: 1.5,
             }],

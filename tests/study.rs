@@ -21,7 +21,7 @@ use proptest::prelude::*;
 
 fn case(name: &str, c: [f64; 6]) -> LoadCase {
     LoadCase {
-        unknown: planewise::study::model::UnknownKeys::new(),
+        unknown: planewise::study::unknown::UnknownKeys::new(),
         name: name.to_owned(),
         description: String::new(),
         input: CaseInput::Tensor(TypedTensor {
@@ -62,8 +62,8 @@ proptest! {
         let mut p = Project::new("law", StressUnit::MPa, SignConvention::TensionPositive);
         p.add_case(case("a", a), false).unwrap();
         p.add_case(case("b", b), false).unwrap();
-        p.add_combination(Combination { unknown: planewise::study::model::UnknownKeys::new(), name: "c".into(), terms: vec![
-            Term { unknown: planewise::study::model::UnknownKeys::new(), case: "a".into(), factor: fa }, Term { unknown: planewise::study::model::UnknownKeys::new(), case: "b".into(), factor: fb }] }, false).unwrap();
+        p.add_combination(Combination { unknown: planewise::study::unknown::UnknownKeys::new(), name: "c".into(), terms: vec![
+            Term { unknown: planewise::study::unknown::UnknownKeys::new(), case: "a".into(), factor: fa }, Term { unknown: planewise::study::unknown::UnknownKeys::new(), case: "b".into(), factor: fb }] }, false).unwrap();
         let sum: [f64; 6] = std::array::from_fn(|i| (fa * a[i] + fb * b[i]) * 1e6);
         let hand = Analysis::new(&StressTensor::from_pa(sum).unwrap(), SignConvention::TensionPositive);
         let ours = Analysis::new(&p.tensor("c").unwrap(), SignConvention::TensionPositive);
@@ -84,7 +84,7 @@ proptest! {
         for (i, c) in cases.iter().enumerate() {
             p.add_case(case(&format!("c{i}"), *c), false).unwrap();
         }
-        p.add_combination(Combination { unknown: planewise::study::model::UnknownKeys::new(), name: "k".into(), terms: vec![Term { unknown: planewise::study::model::UnknownKeys::new(), case: "c0".into(), factor }] }, false).unwrap();
+        p.add_combination(Combination { unknown: planewise::study::unknown::UnknownKeys::new(), name: "k".into(), terms: vec![Term { unknown: planewise::study::unknown::UnknownKeys::new(), case: "c0".into(), factor }] }, false).unwrap();
         for measure in [EnvelopeMeasure::VonMises, EnvelopeMeasure::Sigma3, EnvelopeMeasure::Plane(Measure::NormalMin)] {
             let env = study::envelope(&p, measure, &no_plane()).unwrap();
             let value = |name: &str| {
@@ -117,16 +117,16 @@ fn bracket() -> Project {
         .unwrap();
     p.add_combination(
         Combination {
-            unknown: planewise::study::model::UnknownKeys::new(),
+            unknown: planewise::study::unknown::UnknownKeys::new(),
             name: "ULS".into(),
             terms: vec![
                 Term {
-                    unknown: planewise::study::model::UnknownKeys::new(),
+                    unknown: planewise::study::unknown::UnknownKeys::new(),
                     case: "dead".into(),
                     factor: 1.35,
                 },
                 Term {
-                    unknown: planewise::study::model::UnknownKeys::new(),
+                    unknown: planewise::study::unknown::UnknownKeys::new(),
                     case: "live".into(),
                     factor: 1.5,
                 },

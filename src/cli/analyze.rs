@@ -329,7 +329,7 @@ pub fn read_faults(
     for text in dip {
         let (name, dip_deg, dip_direction_deg) = named_pair("--fault", text)?;
         out.push(crate::study::FaultPlane {
-            unknown: crate::study::model::UnknownKeys::new(),
+            unknown: crate::study::unknown::UnknownKeys::new(),
             name,
             dip_deg,
             dip_direction_deg,
@@ -338,7 +338,7 @@ pub fn read_faults(
     for text in strike {
         let (name, strike_deg, dip_deg) = named_pair("--fault-strike", text)?;
         out.push(crate::study::FaultPlane {
-            unknown: crate::study::model::UnknownKeys::new(),
+            unknown: crate::study::unknown::UnknownKeys::new(),
             name,
             dip_deg,
             dip_direction_deg: (strike_deg + 90.0).rem_euclid(360.0),
@@ -536,7 +536,7 @@ pub fn to_json(d: &Derived, shown: &Shown) -> AnalyzeJson {
 pub fn ad_hoc_project(input: &StressInput) -> crate::study::Project {
     let mut project = crate::study::Project::new("command line", input.unit, input.convention);
     project.cases.push(crate::study::LoadCase {
-        unknown: crate::study::model::UnknownKeys::new(),
+        unknown: crate::study::unknown::UnknownKeys::new(),
         name: "state".to_owned(),
         description: String::new(),
         input: crate::study::CaseInput::Tensor(crate::study::TypedTensor {

@@ -310,7 +310,7 @@ pub fn run(args: &ProjectArgs) -> Result<String, CliError> {
                 }
             };
             let case = LoadCase {
-                unknown: crate::study::model::UnknownKeys::new(),
+                unknown: crate::study::unknown::UnknownKeys::new(),
                 name: a.name.trim().to_owned(),
                 description: a.description.clone(),
                 input,
@@ -357,7 +357,7 @@ pub fn run(args: &ProjectArgs) -> Result<String, CliError> {
                     ArgError::new("--factors", format!("factor of '{}' {e}", case.trim()))
                 })?;
                 terms.push(Term {
-                    unknown: crate::study::model::UnknownKeys::new(),
+                    unknown: crate::study::unknown::UnknownKeys::new(),
                     case: case.trim().to_owned(),
                     factor,
                 });
@@ -376,7 +376,7 @@ pub fn run(args: &ProjectArgs) -> Result<String, CliError> {
             project
                 .add_combination(
                     Combination {
-                        unknown: crate::study::model::UnknownKeys::new(),
+                        unknown: crate::study::unknown::UnknownKeys::new(),
                         name,
                         terms,
                     },

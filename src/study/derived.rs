@@ -3,7 +3,8 @@
 //! Before this, each panel searched for itself, two or three times a frame.
 
 use super::annotations::Annotation;
-use super::model::{CaseInput, FaultPlane, MeasureChoice, Project};
+use super::inputs::CaseInput;
+use super::model::{FaultPlane, MeasureChoice, Project};
 use crate::mechanics::criteria::{self, FaultCheck, Verdict};
 use crate::mechanics::search::{SearchError, SearchResult, SearchSettings, worst_plane};
 use crate::mechanics::{Analysis, PlaneNormal, SignConvention, StressTensor, StressUnit};

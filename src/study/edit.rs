@@ -2,9 +2,10 @@
 //! each); the command line's `project` subcommands use the same model functions.
 
 use super::annotations::Annotation;
+use super::error::StudyError;
+use super::inputs::{CaseInput, InputKind, TypedTensor};
 use super::model::{
-    CaseInput, Combination, FaultPlane, InputKind, LoadCase, Material, MeasureChoice, Project,
-    StudyError, Term, TypedTensor, check_name,
+    Combination, FaultPlane, LoadCase, Material, MeasureChoice, Project, Term, check_name,
 };
 use crate::mechanics::{Component, PlaneNormal, SignConvention, StressUnit};
 
@@ -163,7 +164,7 @@ impl Edit {
                 let name = p.unused_name("case");
                 let input = kind.blank(p.unit()?, p.compression_positive);
                 p.cases.push(LoadCase {
-                    unknown: crate::study::model::UnknownKeys::new(),
+                    unknown: crate::study::unknown::UnknownKeys::new(),
                     name: name.clone(),
                     description: String::new(),
                     input,
@@ -223,7 +224,7 @@ impl Edit {
                 let name = p.unused_name("case");
                 let unit = p.unit()?;
                 p.cases.push(LoadCase {
-                    unknown: crate::study::model::UnknownKeys::new(),
+                    unknown: crate::study::unknown::UnknownKeys::new(),
                     name: name.clone(),
                     description: String::new(),
                     input: CaseInput::Tensor(TypedTensor {
@@ -256,7 +257,7 @@ impl Edit {
                 let unit = p.unit()?;
                 let sign = p.convention().sign();
                 p.cases.push(LoadCase {
-                    unknown: crate::study::model::UnknownKeys::new(),
+                    unknown: crate::study::unknown::UnknownKeys::new(),
                     name: case_name.clone(),
                     description: format!("The summed tensor of '{name}', made a load case"),
                     input: CaseInput::Tensor(TypedTensor {
@@ -293,14 +294,14 @@ impl Edit {
                     .cases
                     .iter()
                     .map(|c| Term {
-                        unknown: crate::study::model::UnknownKeys::new(),
+                        unknown: crate::study::unknown::UnknownKeys::new(),
                         case: c.name.clone(),
                         factor: 1.0,
                     })
                     .collect();
                 p.add_combination(
                     Combination {
-                        unknown: crate::study::model::UnknownKeys::new(),
+                        unknown: crate::study::unknown::UnknownKeys::new(),
                         name: name.clone(),
                         terms,
                     },
@@ -314,7 +315,7 @@ impl Edit {
                 }
                 p.add_combination(
                     Combination {
-                        unknown: crate::study::model::UnknownKeys::new(),
+                        unknown: crate::study::unknown::UnknownKeys::new(),
                         name: name.clone(),
                         terms: terms.clone(),
                     },

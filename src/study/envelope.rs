@@ -1,7 +1,8 @@
 //! The envelope: one measure over every load case and combination, sorted worst first, with
 //! the governing one named.
 
-use super::model::{Project, StudyError};
+use super::error::StudyError;
+use super::model::Project;
 use crate::mechanics::criteria::{self, Condition, Criterion};
 use crate::mechanics::search::{Measure, SearchSettings, WorstCondition, WorstPlane, worst_plane};
 

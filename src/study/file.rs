@@ -37,7 +37,8 @@ use std::path::{Path, PathBuf};
 
 use serde::{Deserialize, Serialize};
 
-use super::model::{Project, StudyError};
+use super::error::StudyError;
+use super::model::Project;
 
 /// The version this program writes; files with a larger number are refused.
 ///
@@ -167,7 +168,7 @@ pub fn load(path: &Path) -> Result<(Project, Vec<String>), FileError> {
     // Unknown keys inside objects without a map of their own: the file less what is written.
     let known = serde_json::to_value(&on_disk).map_err(|e| malformed(e.to_string()))?;
     on_disk.project.unknown_inside =
-        crate::study::model::UnknownInside::between(&value, &known).map(Box::new);
+        crate::study::unknown::UnknownInside::between(&value, &known).map(Box::new);
     let unknown = on_disk.project.unknown_keys();
     if !unknown.is_empty() {
         warnings.push(format!(

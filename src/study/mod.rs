@@ -7,19 +7,23 @@ pub mod atomic;
 pub mod derived;
 pub mod edit;
 pub mod envelope;
+pub mod error;
 pub mod file;
 pub mod history;
+pub mod inputs;
 pub mod model;
 pub mod table;
+pub mod unknown;
 
 pub use derived::{Derived, DerivedCache};
 pub use edit::Edit;
 pub use history::History;
 
 pub use envelope::{Envelope, EnvelopeMeasure, EnvelopeRow, envelope};
+pub use error::StudyError;
 pub use file::{FORMAT_VERSION, FileError, load, save};
-pub use model::{
-    CaseInput, Combination, FaultPlane, FieldKind, InSituInput, InputKind, LoadCase, Material,
-    MeasureChoice, PlaneStressInput, PrincipalInput, Project, RosetteInput, StudyError,
-    TableRowInput, Term, TypedTensor,
+pub use inputs::{
+    CaseInput, FieldKind, InSituInput, InputKind, PlaneStressInput, PrincipalInput, RosetteInput,
+    TableRowInput, TypedTensor,
 };
+pub use model::{Combination, FaultPlane, LoadCase, Material, MeasureChoice, Project, Term};

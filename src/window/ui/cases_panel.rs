@@ -261,7 +261,7 @@ fn terms_ui(
         && let Some(first) = project.cases.first()
     {
         edited.push(Term {
-            unknown: crate::study::model::UnknownKeys::new(),
+            unknown: crate::study::unknown::UnknownKeys::new(),
             case: first.name.clone(),
             factor: 1.0,
         });

@@ -89,7 +89,7 @@ impl FaultsPanel {
                     azimuth
                 };
                 let f = FaultPlane {
-                    unknown: crate::study::model::UnknownKeys::new(),
+                    unknown: crate::study::unknown::UnknownKeys::new(),
                     name: name.trim().to_owned(),
                     dip_deg: dip,
                     dip_direction_deg,
@@ -134,7 +134,7 @@ impl FaultsPanel {
                     .map(|i| format!("fault {i}"))
                     .find(|n| !faults.iter().any(|f| &f.name == n))
                     .unwrap_or_default();
-                next.push(FaultPlane { unknown: crate::study::model::UnknownKeys::new(),
+                next.push(FaultPlane { unknown: crate::study::unknown::UnknownKeys::new(),
                     name: n,
                     dip_deg: dip,
                     dip_direction_deg: dd,

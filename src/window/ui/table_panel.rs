@@ -687,7 +687,7 @@ impl TablePanel {
             let psign = d.convention.sign();
             out.push(Command::Edit {
                 edit: Edit::AddTableRow(Box::new(LoadCase {
-                    unknown: crate::study::model::UnknownKeys::new(),
+                    unknown: crate::study::unknown::UnknownKeys::new(),
                     name,
                     description: format!(
                         "From {}, line {}{}",
