@@ -4,6 +4,12 @@
 use super::PlanewiseApp;
 use crate::window::session::Central;
 use crate::window::ui;
+use crate::window::ui::map_panel::{MapPanel, WorstPlanePanel};
+use crate::window::ui::mohr_panel::MohrPanel;
+use crate::window::ui::results_panel::ResultsPanel;
+use crate::window::ui::verdict_panel::VerdictPanel;
+use crate::window::ui::view_panel::ViewPanel;
+use crate::window::ui::{Panel, Reads, Writes};
 
 impl PlanewiseApp {
     /// Draws the whole window into `ui` and applies what the user asked for. Used by the real
@@ -34,106 +40,75 @@ impl PlanewiseApp {
         // Each side panel takes at most a quarter of the window, so the picture keeps at least
         // half of it; wider content scrolls inside the panel.
         let side_max = (ui.available_width() * 0.25).max(180.0);
-        if !presenting && self.settings.show_inputs {
+        let reads = Reads {
+            project: &self.project,
+            d: &d,
+        };
+        let mut writes = Writes {
+            commands: &mut commands,
+            settings: &mut self.settings,
+        };
+        if !presenting && writes.settings.show_inputs {
             egui::Panel::left("stress-state")
                 .resizable(true)
                 .default_size(330.0)
                 .size_range(180.0..=side_max)
                 .show(ui, |ui| {
                     egui::ScrollArea::both().show(ui, |ui| {
-                        self.cases_panel.ui(ui, &self.project, &d, &mut commands);
-                        self.input_panel.ui(ui, &d, &mut commands);
+                        self.cases_panel.ui(ui, reads, &mut writes);
+                        self.input_panel.ui(ui, reads, &mut writes);
                         ui.separator();
-                        self.stress_panel.ui(ui, &d, &mut commands);
+                        self.stress_panel.ui(ui, reads, &mut writes);
                         ui.separator();
-                        self.plane_panel.ui(ui, &d, &mut commands);
+                        self.plane_panel.ui(ui, reads, &mut writes);
                         ui.separator();
-                        ui::map_panel::worst_plane_ui(ui, &d, &mut commands);
+                        WorstPlanePanel.ui(ui, reads, &mut writes);
                     });
                 });
         }
-        if !presenting && self.settings.show_results {
+        if !presenting && writes.settings.show_results {
             egui::Panel::right("results")
                 .resizable(true)
                 .default_size(330.0)
                 .size_range(180.0..=side_max)
                 .show(ui, |ui| {
                     egui::ScrollArea::both().show(ui, |ui| {
-                        ui::verdict_panel::verdict_ui(ui, &d, &mut commands);
+                        VerdictPanel.ui(ui, reads, &mut writes);
                         egui::CollapsingHeader::new("Material")
                             .default_open(true)
                             .show(ui, |ui| {
-                                self.material_panel.ui(
-                                    ui,
-                                    &self.project.material,
-                                    &d,
-                                    &mut commands,
-                                );
+                                self.material_panel.ui(ui, reads, &mut writes);
                             });
                         ui.separator();
-                        ui::results_panel::results_ui(ui, &d, &mut commands);
+                        ResultsPanel.ui(ui, reads, &mut writes);
                     });
                 });
         }
         egui::CentralPanel::default().show(ui, |ui| {
+            let central = &mut writes.settings.central;
             ui.horizontal_wrapped(|ui| {
-                ui.selectable_value(&mut self.settings.central, Central::View3d, "3D view");
-                ui.selectable_value(&mut self.settings.central, Central::Map, "Orientation map");
-                ui.selectable_value(&mut self.settings.central, Central::Mohr, "Mohr circles");
-                ui.selectable_value(&mut self.settings.central, Central::Envelope, "Envelope");
-                ui.selectable_value(&mut self.settings.central, Central::Faults, "Faults");
-                ui.selectable_value(
-                    &mut self.settings.central,
-                    Central::Walkthrough,
-                    "Walk-through",
-                )
-                .on_hover_text("The shown case explained step by step (→ / Space, ←, Esc, F11)");
-                ui.selectable_value(&mut self.settings.central, Central::Table, "Table")
+                ui.selectable_value(central, Central::View3d, "3D view");
+                ui.selectable_value(central, Central::Map, "Orientation map");
+                ui.selectable_value(central, Central::Mohr, "Mohr circles");
+                ui.selectable_value(central, Central::Envelope, "Envelope");
+                ui.selectable_value(central, Central::Faults, "Faults");
+                ui.selectable_value(central, Central::Walkthrough, "Walk-through")
+                    .on_hover_text(
+                        "The shown case explained step by step (→ / Space, ←, Esc, F11)",
+                    );
+                ui.selectable_value(central, Central::Table, "Table")
                     .on_hover_text("A finite-element result table, ranked (File → Import table…)");
             });
-            match self.settings.central {
-                Central::View3d => {
-                    ui::view_panel::view_ui(
-                        ui,
-                        &d,
-                        &self.project.annotations,
-                        &mut self.settings,
-                        &mut commands,
-                    );
-                }
-                Central::Map => {
-                    ui::map_panel::map_ui(ui, &d, &self.project.annotations, &mut commands);
-                }
-                Central::Mohr => {
-                    ui::mohr_panel::mohr_ui(
-                        ui,
-                        &d,
-                        &self.project.annotations,
-                        &mut self.settings,
-                        &mut commands,
-                    );
-                }
-                Central::Faults => {
-                    self.faults_panel
-                        .ui(ui, &self.project.faults, &d, &mut commands);
-                }
-                Central::Walkthrough => {
-                    self.walkthrough_panel.ui(ui, &d, &mut self.settings);
-                }
-                Central::Table => {
-                    self.table_panel
-                        .ui(ui, &self.project, &d, &mut self.settings, &mut commands);
-                }
-                Central::Envelope => {
-                    self.envelope_panel.ui(
-                        ui,
-                        &self.project,
-                        &d,
-                        &mut self.settings,
-                        &mut commands,
-                    );
-                }
-            }
+            let panel: &mut dyn Panel = match writes.settings.central {
+                Central::View3d => &mut ViewPanel,
+                Central::Map => &mut MapPanel,
+                Central::Mohr => &mut MohrPanel,
+                Central::Faults => &mut self.faults_panel,
+                Central::Walkthrough => &mut self.walkthrough_panel,
+                Central::Table => &mut self.table_panel,
+                Central::Envelope => &mut self.envelope_panel,
+            };
+            panel.ui(ui, reads, &mut writes);
         });
         let dialog_open = self.pending_dialog.is_some();
         self.export_panel

@@ -21,13 +21,7 @@ fn edit(out: &mut Vec<Command>, edit: Edit, coalesce: Option<Coalesce>) {
 
 impl CasesPanel {
     /// Draws the panel.
-    pub fn ui(
-        &mut self,
-        ui: &mut egui::Ui,
-        project: &Project,
-        d: &Derived,
-        out: &mut Vec<Command>,
-    ) {
+    fn show(&mut self, ui: &mut egui::Ui, project: &Project, d: &Derived, out: &mut Vec<Command>) {
         ui.heading("Load cases");
         for case in &project.cases {
             let shown = case.name == d.name;
@@ -277,5 +271,11 @@ fn terms_ui(
             },
             coalesce,
         );
+    }
+}
+
+impl super::Panel for CasesPanel {
+    fn ui(&mut self, ui: &mut egui::Ui, reads: super::Reads<'_>, writes: &mut super::Writes<'_>) {
+        self.show(ui, reads.project, reads.d, writes.commands);
     }
 }

@@ -38,7 +38,7 @@ impl EnvelopePanel {
     }
 
     /// Draws the tab.
-    pub fn ui(
+    fn show(
         &mut self,
         ui: &mut egui::Ui,
         project: &Project,
@@ -265,3 +265,9 @@ impl EnvelopePanel {
 }
 
 static EMPTY: Result<Envelope, String> = Err(String::new());
+
+impl super::Panel for EnvelopePanel {
+    fn ui(&mut self, ui: &mut egui::Ui, reads: super::Reads<'_>, writes: &mut super::Writes<'_>) {
+        self.show(ui, reads.project, reads.d, writes.settings, writes.commands);
+    }
+}

@@ -114,7 +114,7 @@ impl FaultsPanel {
     }
 
     /// Draws the tab.
-    pub fn ui(
+    fn show(
         &mut self,
         ui: &mut egui::Ui,
         faults: &[FaultPlane],
@@ -314,5 +314,11 @@ impl FaultsPanel {
                 Err(e) => self.error = Some(e),
             }
         }
+    }
+}
+
+impl super::Panel for FaultsPanel {
+    fn ui(&mut self, ui: &mut egui::Ui, reads: super::Reads<'_>, writes: &mut super::Writes<'_>) {
+        self.show(ui, &reads.project.faults, reads.d, writes.commands);
     }
 }

@@ -36,7 +36,7 @@ impl InputPanel {
     }
 
     /// Draws the kind selector and, for kinds other than six components, the form.
-    pub fn ui(&mut self, ui: &mut egui::Ui, d: &Derived, out: &mut Vec<Command>) {
+    fn show(&mut self, ui: &mut egui::Ui, d: &Derived, out: &mut Vec<Command>) {
         let Some(input) = &d.input else {
             return;
         };
@@ -227,5 +227,11 @@ fn converted(kind: InputKind, tensor: &StressTensor, d: &Derived) -> CaseInput {
             txy: shown(Component::Xy),
         }),
         other => other.blank(d.unit, compression_positive),
+    }
+}
+
+impl super::Panel for InputPanel {
+    fn ui(&mut self, ui: &mut egui::Ui, reads: super::Reads<'_>, writes: &mut super::Writes<'_>) {
+        self.show(ui, reads.d, writes.commands);
     }
 }

@@ -101,8 +101,17 @@ fn measure_picker(ui: &mut egui::Ui, label: &str, measure: &mut Measure) {
         .widget_info(|| egui::WidgetInfo::labeled(egui::Role::ComboBox, true, label));
 }
 
+/// The worst-plane section of the left panel: the measure and its parameters.
+pub struct WorstPlanePanel;
+
+impl super::Panel for WorstPlanePanel {
+    fn ui(&mut self, ui: &mut egui::Ui, reads: super::Reads<'_>, writes: &mut super::Writes<'_>) {
+        worst_plane_ui(ui, reads.d, writes.commands);
+    }
+}
+
 /// The worst-plane controls (in the cut-plane column).
-pub fn worst_plane_ui(ui: &mut egui::Ui, d: &Derived, out: &mut Vec<Command>) {
+fn worst_plane_ui(ui: &mut egui::Ui, d: &Derived, out: &mut Vec<Command>) {
     ui.heading("Worst plane");
     let mut edited = d.measure;
     let choice = &mut edited;
@@ -234,8 +243,17 @@ fn map_measure(d: &Derived) -> MapMeasure {
     }
 }
 
+/// The orientation-map tab.
+pub struct MapPanel;
+
+impl super::Panel for MapPanel {
+    fn ui(&mut self, ui: &mut egui::Ui, reads: super::Reads<'_>, writes: &mut super::Writes<'_>) {
+        map_ui(ui, reads.d, &reads.project.annotations, writes.commands);
+    }
+}
+
 /// The orientation map tab.
-pub fn map_ui(ui: &mut egui::Ui, d: &Derived, notes: &[Annotation], out: &mut Vec<Command>) {
+fn map_ui(ui: &mut egui::Ui, d: &Derived, notes: &[Annotation], out: &mut Vec<Command>) {
     notes_panel::notes_bar(ui, &d.name, FigureKind::Map, notes, out);
     // The measure with the map it colours (its parameters stay in the Worst plane section).
     ui.horizontal(|ui| {

@@ -1,5 +1,9 @@
-//! The window's panels. Each draws from the state it is given and returns what the user asked
-//! for as [`Command`]s; no mechanics is computed here beyond what a panel shows.
+//! The window's panels. Every panel has one shape, [`Panel`]: it reads the project and the
+//! shown case's derived results ([`Reads`]) and answers with [`Command`]s, changing in place only
+//! the view-only [`Settings`] ([`Writes`]); its own fields hold only what is being typed or
+//! animated. No mechanics is computed here beyond what a panel shows. The floating windows
+//! (export, path entry, About, Keys and mouse, questions) draw on the context instead of a
+//! panel's area and take what they show as arguments.
 
 pub mod cases_panel;
 pub mod envelope_panel;
@@ -20,9 +24,34 @@ pub mod view_panel;
 pub mod walkthrough_panel;
 
 use crate::picture::draw::camera::{Projection, ViewPreset};
-use crate::study::Derived;
+use crate::study::{Derived, Project};
 use crate::window::keys::{Act, keys_text};
 use crate::window::session::{Command, Settings, Status};
+
+/// What a panel reads: the project (lists, names, notes, material) and the shown case's
+/// derived results.
+#[derive(Clone, Copy)]
+pub struct Reads<'a> {
+    /// The open project.
+    pub project: &'a Project,
+    /// The shown case's results.
+    pub d: &'a Derived,
+}
+
+/// What a panel may change: the commands it returns (every change of the project is a
+/// [`Command::Edit`], which is what makes undo work) and the view-only settings.
+pub struct Writes<'a> {
+    /// The commands, applied at the end of the frame.
+    pub commands: &'a mut Vec<Command>,
+    /// Layers, camera, tab and the other view settings kept between runs.
+    pub settings: &'a mut Settings,
+}
+
+/// The one shape of a panel drawn in a side panel or the central area.
+pub trait Panel {
+    /// Draws the panel into `ui` from `reads`, answering through `writes`.
+    fn ui(&mut self, ui: &mut egui::Ui, reads: Reads<'_>, writes: &mut Writes<'_>);
+}
 
 /// A menu entry with its keys from the bindings table (written for the platform: ⌘ on macOS);
 /// whether it was clicked.

@@ -34,8 +34,23 @@ pub fn point_near<'a>(
     })
 }
 
+/// The Mohr-circles tab.
+pub struct MohrPanel;
+
+impl super::Panel for MohrPanel {
+    fn ui(&mut self, ui: &mut egui::Ui, reads: super::Reads<'_>, writes: &mut super::Writes<'_>) {
+        mohr_ui(
+            ui,
+            reads.d,
+            &reads.project.annotations,
+            writes.settings,
+            writes.commands,
+        );
+    }
+}
+
 /// The Mohr tab.
-pub fn mohr_ui(
+fn mohr_ui(
     ui: &mut egui::Ui,
     d: &Derived,
     notes: &[Annotation],

@@ -48,7 +48,7 @@ impl PlanePanel {
     }
 
     /// Draws the panel.
-    pub fn ui(&mut self, ui: &mut egui::Ui, d: &Derived, out: &mut Vec<Command>) {
+    fn show(&mut self, ui: &mut egui::Ui, d: &Derived, out: &mut Vec<Command>) {
         ui.heading("Cut plane");
         let ids: [egui::Id; 5] = std::array::from_fn(|i| egui::Id::unique(("plane-field", i)));
         self.refresh(ui, &ids, d.plane);
@@ -214,5 +214,11 @@ impl PlanePanel {
                 }
             }
         });
+    }
+}
+
+impl super::Panel for PlanePanel {
+    fn ui(&mut self, ui: &mut egui::Ui, reads: super::Reads<'_>, writes: &mut super::Writes<'_>) {
+        self.show(ui, reads.d, writes.commands);
     }
 }

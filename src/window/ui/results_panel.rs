@@ -3,8 +3,17 @@
 use crate::study::Derived;
 use crate::window::session::Command;
 
+/// The results section: every number with its unit and formula.
+pub struct ResultsPanel;
+
+impl super::Panel for ResultsPanel {
+    fn ui(&mut self, ui: &mut egui::Ui, reads: super::Reads<'_>, writes: &mut super::Writes<'_>) {
+        results_ui(ui, reads.d, writes.commands);
+    }
+}
+
 /// Draws the results.
-pub fn results_ui(ui: &mut egui::Ui, d: &Derived, out: &mut Vec<Command>) {
+fn results_ui(ui: &mut egui::Ui, d: &Derived, out: &mut Vec<Command>) {
     ui.horizontal_wrapped(|ui| {
         ui.heading("Results");
         if ui

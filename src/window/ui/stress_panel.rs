@@ -120,7 +120,7 @@ impl StressPanel {
     }
 
     /// Draws the panel.
-    pub fn ui(&mut self, ui: &mut egui::Ui, d: &Derived, out: &mut Vec<Command>) {
+    fn show(&mut self, ui: &mut egui::Ui, d: &Derived, out: &mut Vec<Command>) {
         ui.heading("Stress state");
         ui.horizontal(|ui| {
             ui.label("Unit");
@@ -378,5 +378,11 @@ impl StressPanel {
             }
             Err(e) => self.errors[r][c] = Some(e.to_string()),
         }
+    }
+}
+
+impl super::Panel for StressPanel {
+    fn ui(&mut self, ui: &mut egui::Ui, reads: super::Reads<'_>, writes: &mut super::Writes<'_>) {
+        self.show(ui, reads.d, writes.commands);
     }
 }

@@ -15,7 +15,7 @@ use crate::study::table::{COMPONENTS, Header, Ranked, TableError, TableOptions};
 use crate::study::{
     CaseInput, Derived, Edit, EnvelopeMeasure, LoadCase, Project, TableRowInput, TypedTensor,
 };
-use crate::window::session::{Command, Settings};
+use crate::window::session::Command;
 
 /// Rows the window keeps (the worst ones) unless told otherwise.
 pub const DEFAULT_KEEP: usize = 100_000;
@@ -324,14 +324,7 @@ impl TablePanel {
     }
 
     /// The tab.
-    pub fn ui(
-        &mut self,
-        ui: &mut egui::Ui,
-        project: &Project,
-        d: &Derived,
-        _settings: &mut Settings,
-        out: &mut Vec<Command>,
-    ) {
+    fn show(&mut self, ui: &mut egui::Ui, project: &Project, d: &Derived, out: &mut Vec<Command>) {
         self.poll();
         ui.horizontal_wrapped(|ui| {
             ui.label("Table file:");
@@ -790,4 +783,10 @@ fn histogram(ui: &mut egui::Ui, r: &Ranked, measure: EnvelopeMeasure, unit: Stre
         measure.label(),
         values.len()
     ));
+}
+
+impl super::Panel for TablePanel {
+    fn ui(&mut self, ui: &mut egui::Ui, reads: super::Reads<'_>, writes: &mut super::Writes<'_>) {
+        self.show(ui, reads.project, reads.d, writes.commands);
+    }
 }

@@ -14,8 +14,23 @@ use crate::window::session::Command;
 const PASS: egui::Color32 = egui::Color32::from_rgb(60, 150, 80);
 const FAIL: egui::Color32 = egui::Color32::from_rgb(200, 60, 50);
 
+/// The verdict section: each criterion governing first, with its bar and numbers.
+pub struct VerdictPanel;
+
+impl super::Panel for VerdictPanel {
+    fn ui(&mut self, ui: &mut egui::Ui, reads: super::Reads<'_>, writes: &mut super::Writes<'_>) {
+        verdict_ui(ui, reads.d, writes.commands);
+    }
+}
+
+impl super::Panel for MaterialPanel {
+    fn ui(&mut self, ui: &mut egui::Ui, reads: super::Reads<'_>, writes: &mut super::Writes<'_>) {
+        self.show(ui, &reads.project.material, reads.d, writes.commands);
+    }
+}
+
 /// Draws the verdict section.
-pub fn verdict_ui(ui: &mut egui::Ui, d: &Derived, out: &mut Vec<Command>) {
+fn verdict_ui(ui: &mut egui::Ui, d: &Derived, out: &mut Vec<Command>) {
     let title = if d.material_name.is_empty() {
         "Verdict".to_owned()
     } else {
@@ -242,7 +257,7 @@ impl MaterialPanel {
     }
 
     /// Draws the editor; a valid change becomes one undoable edit.
-    pub fn ui(
+    fn show(
         &mut self,
         ui: &mut egui::Ui,
         material: &Material,

@@ -76,9 +76,24 @@ pub fn worst_normals(d: &Derived, settings: &Settings) -> Vec<PlaneNormal> {
     d.worst_normals()
 }
 
+/// The 3D view tab.
+pub struct ViewPanel;
+
+impl super::Panel for ViewPanel {
+    fn ui(&mut self, ui: &mut egui::Ui, reads: super::Reads<'_>, writes: &mut super::Writes<'_>) {
+        view_ui(
+            ui,
+            reads.d,
+            &reads.project.annotations,
+            writes.settings,
+            writes.commands,
+        );
+    }
+}
+
 /// Draws the toolbar and the view; camera moves change `settings.camera` directly (the view
 /// is not part of undo).
-pub fn view_ui(
+fn view_ui(
     ui: &mut egui::Ui,
     d: &Derived,
     notes: &[Annotation],

@@ -70,7 +70,7 @@ impl WalkthroughPanel {
     }
 
     /// The tab.
-    pub fn ui(&mut self, ui: &mut egui::Ui, d: &Derived, settings: &mut Settings) {
+    fn show(&mut self, ui: &mut egui::Ui, d: &Derived, settings: &mut Settings) {
         let all = steps(d);
         let now = ui.input(|i| i.time);
         for act in crate::window::keys::pressed(ui.ctx(), crate::window::keys::Scope::Walkthrough) {
@@ -199,5 +199,11 @@ fn short(step: &Step) -> &'static str {
         StepKind::MaxShear => "Largest shear",
         StepKind::Worst => "Worst plane",
         StepKind::Verdict => "Verdict",
+    }
+}
+
+impl super::Panel for WalkthroughPanel {
+    fn ui(&mut self, ui: &mut egui::Ui, reads: super::Reads<'_>, writes: &mut super::Writes<'_>) {
+        self.show(ui, reads.d, writes.settings);
     }
 }
