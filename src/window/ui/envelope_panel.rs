@@ -74,7 +74,7 @@ impl EnvelopePanel {
                     )
                 },
             );
-            ui.small(format!(
+            ui.weak(format!(
                 "Pore pressure and the planes' strength from the worst-plane settings: p = {} {unit}, {strength}",
                 crate::text::format::readable(d.unit.from_pa(project.measure.pore_pressure_pa), 5),
                 unit = d.unit
@@ -86,7 +86,7 @@ impl EnvelopePanel {
             } else {
                 format!("'{}'", project.material.name)
             };
-            ui.small(format!(
+            ui.weak(format!(
                 "Utilization under proportional loading with {name}: {}",
                 c.formula()
             ));
@@ -119,7 +119,7 @@ impl EnvelopePanel {
                 return;
             }
         };
-        ui.small(env.counts.text("rows"))
+        ui.weak(env.counts.text("rows"))
             .on_hover_text("Failing at any scale or without frictional capacity ranks worst, above every number; never reaching the surface ranks best; then undefined, then not checked");
         let table = crate::output::results::TextTable {
             title: format!(

@@ -83,7 +83,7 @@ impl ExportPanel {
                     )
                     .on_hover_text("Figure title: the title block's first line");
                 }
-                ui.small("Text is 8.5 pt when the figure is printed 16 cm wide.");
+                ui.weak("Text is 8.5 pt when the figure is printed 16 cm wide.");
                 ui.horizontal(|ui| {
                     if ui
                         .add_enabled(!dialog_open, egui::Button::new("Save as PNG or SVG…"))
@@ -106,7 +106,7 @@ impl ExportPanel {
                 if let Some(e) = &self.error {
                     ui.colored_label(ui.visuals().error_fg_color, format!("⚠ {e}"));
                 }
-                ui.small("The format follows the file name's ending (.png or .svg).");
+                ui.weak("The format follows the file name's ending (.png or .svg).");
             });
         self.open = open;
     }

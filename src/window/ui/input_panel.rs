@@ -169,7 +169,7 @@ fn field_tip(kind: InputKind, label: &str) -> String {
 fn derived_lines(ui: &mut egui::Ui, input: &CaseInput, d: &Derived) {
     if let Some(r) = input.rosette_result() {
         let micro = |e: f64| format!("{} µε", readable(e * 1e6, 5));
-        ui.small(format!(
+        ui.weak(format!(
             "εx {}, εy {}, γxy {}; ε1 {}, ε2 {}",
             micro(r.strains[0]),
             micro(r.strains[1]),
@@ -177,7 +177,7 @@ fn derived_lines(ui: &mut egui::Ui, input: &CaseInput, d: &Derived) {
             micro(r.principal[0]),
             micro(r.principal[1])
         ));
-        ui.small(match r.angle_deg {
+        ui.weak(match r.angle_deg {
             Some(a) => format!("ε1 at {}° from x (counter-clockwise)", readable(a, 4)),
             None => "ε1 direction undefined: every direction strains alike".to_owned(),
         });
@@ -192,7 +192,7 @@ fn derived_lines(ui: &mut egui::Ui, input: &CaseInput, d: &Derived) {
                 d.unit
             )
         };
-        ui.small(format!(
+        ui.weak(format!(
             "in-plane principal stresses {} and {}; {}",
             shown(s1),
             shown(s2),

@@ -79,11 +79,11 @@ pub fn material_ui(
             });
             choice.cohesion_pa = Some(unit.to_pa(c));
             choice.friction_angle_deg = Some(phi);
-            ui.small("U = τ / (c + (σn − p) tan φ), compression positive");
+            ui.weak("U = τ / (c + (σn − p) tan φ), compression positive");
         } else {
             choice.cohesion_pa = None;
             choice.friction_angle_deg = None;
-            ui.small("not given: the material's c and φ are used when it has them; otherwise the Coulomb checks of planes are not checked");
+            ui.weak("not given: the material's c and φ are used when it has them; otherwise the Coulomb checks of planes are not checked");
         }
     }
 }
@@ -267,7 +267,7 @@ fn map_ui(ui: &mut egui::Ui, d: &Derived, notes: &[Annotation], out: &mut Vec<Co
             });
         }
         if matches!(choice.measure, Measure::SlipTendency | Measure::MohrCoulomb) {
-            ui.small("pore pressure and the planes' c, φ: Worst plane section, left");
+            ui.weak("pore pressure and the planes' c, φ: Worst plane section, left");
         }
     });
     let search = d.search;

@@ -405,7 +405,7 @@ pub fn keys_ui(ctx: &egui::Context, open: &mut bool) {
                         ui.end_row();
                     }
                 });
-            ui.small("Digit keys and the walk-through's keys act when no text field has the keyboard (press Esc to leave a field).");
+            ui.weak("Digit keys and the walk-through's keys act when no text field has the keyboard (press Esc to leave a field).");
         });
 }
 

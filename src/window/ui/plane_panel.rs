@@ -119,7 +119,7 @@ impl PlanePanel {
         }
 
         ui.label("Dip / dip direction");
-        ui.small("x = east, y = north, z = up");
+        ui.weak("x = east, y = north, z = up");
         let mut dip_changed = false;
         ui.horizontal(|ui| {
             let edit = egui::TextEdit::singleline(&mut self.dip)

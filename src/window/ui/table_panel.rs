@@ -502,7 +502,7 @@ impl TablePanel {
             Some(v) => crate::text::format::readable(v, 4),
             None => crate::output::results::standing_word(standing).to_owned(),
         };
-        ui.small(r.counts.text("rows read"))
+        ui.weak(r.counts.text("rows read"))
             .on_hover_text("Rows that fail at any scale or have no frictional capacity rank worst, above every number; rows that never reach the surface rank best; undefined values follow, with their reason");
         for b in r.bad.iter().take(5) {
             ui.colored_label(

@@ -47,7 +47,7 @@ pub fn layers_ui(ui: &mut egui::Ui, layers: &mut Layers) {
 
 fn faces_ui(ui: &mut egui::Ui, faces: &mut FaceChoice) {
     ui.label("Which cube faces carry their traction arrows.");
-    ui.small("Facing the viewer: the three faces you see, following the view as it turns. Untick to choose faces one by one (the hidden ones are drawn behind).");
+    ui.weak("Facing the viewer: the three faces you see, following the view as it turns. Untick to choose faces one by one (the hidden ones are drawn behind).");
     let mut facing = matches!(faces, FaceChoice::FacingViewer);
     if ui
         .checkbox(&mut facing, "Faces facing the viewer")
