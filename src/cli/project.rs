@@ -30,6 +30,10 @@ pub enum ProjectAction {
     AddCase(AddCaseArgs),
     /// Add a factored combination Σ factor × case tensor.
     Combine(CombineArgs),
+    /// Add the combinations of EN 1990 expression (6.10) generated from the load cases declared
+    /// as permanent and variable actions with your partial and combination factors (each
+    /// variable action leading in turn, each permanent action unfavourable and favourable).
+    GenerateCombinations(GenerateArgs),
     /// List the cases and combinations with their tensors.
     Show(ShowArgs),
     /// Set the material's name and strengths (stresses in the project's unit); what is not
@@ -230,6 +234,101 @@ pub struct CombineArgs {
     pub replace: bool,
 }
 
+/// `project generate-combinations`.
+#[derive(Debug, Clone, Args)]
+pub struct GenerateArgs {
+    /// The project file.
+    pub file: PathBuf,
+    /// A permanent action: its load case, γG,sup (unfavourable) and γG,inf (favourable), e.g.
+    /// dead:1.35:1.0. Repeat for each.
+    #[arg(long, value_name = "CASE:SUP:INF")]
+    pub permanent: Vec<String>,
+    /// A variable action: its load case, γQ and ψ0, e.g. live:1.5:0.7. Repeat for each.
+    #[arg(long, value_name = "CASE:GAMMA:PSI0")]
+    pub variable: Vec<String>,
+    /// Replace combinations of the same names instead of refusing.
+    #[arg(long)]
+    pub replace: bool,
+}
+
+/// An action written CASE:A:B (the case may hold ':'; the two factors are the last fields).
+fn action_of(arg: &'static str, text: &str) -> Result<(String, f64, f64), ArgError> {
+    let mut parts = text.rsplitn(3, ':');
+    let (Some(b), Some(a), Some(case)) = (parts.next(), parts.next(), parts.next()) else {
+        return Err(ArgError::new(
+            arg,
+            format!("'{text}' is not of the form CASE:FACTOR:FACTOR"),
+        ));
+    };
+    let number =
+        |t: &str| parse::number(t).map_err(|e| ArgError::new(arg, format!("'{text}': {e}")));
+    Ok((case.trim().to_owned(), number(a)?, number(b)?))
+}
+
+fn generate_combinations(a: &GenerateArgs) -> Result<String, CliError> {
+    use crate::study::actions::{Action, ActionKind, fundamental_combinations};
+    let mut project = load(&a.file)?;
+    let mut actions = Vec::new();
+    for text in &a.permanent {
+        let (case, unfavourable, favourable) = action_of("--permanent", text)?;
+        actions.push(Action {
+            case,
+            kind: ActionKind::Permanent {
+                unfavourable,
+                favourable,
+            },
+        });
+    }
+    for text in &a.variable {
+        let (case, gamma, psi0) = action_of("--variable", text)?;
+        actions.push(Action {
+            case,
+            kind: ActionKind::Variable { gamma, psi0 },
+        });
+    }
+    for action in &actions {
+        if !project.cases.iter().any(|c| c.name == action.case) {
+            let arg = match action.kind {
+                ActionKind::Permanent { .. } => "--permanent",
+                ActionKind::Variable { .. } => "--variable",
+            };
+            return Err(ArgError::new(
+                arg,
+                format!("'{}' is not a load case of the project", action.case),
+            )
+            .into());
+        }
+    }
+    let all = fundamental_combinations(&actions).map_err(|e| {
+        ArgError::new(
+            if a.permanent.is_empty() {
+                "--variable"
+            } else {
+                "--permanent"
+            },
+            e,
+        )
+    })?;
+    let count = all.len();
+    for combination in all {
+        project
+            .add_combination(combination, a.replace)
+            .map_err(|e| match e {
+                crate::study::StudyError::Duplicate(_) => ArgError::new(
+                    "--replace",
+                    format!("{e}; give --replace to write the generated combinations over it"),
+                ),
+                other => ArgError::new("FILE", other),
+            })?;
+    }
+    save(&a.file, &project)?;
+    Ok(format!(
+        "wrote {}: {count} combinations of EN 1990 expression (6.10) from {} actions; the factors are yours, check them against the code that applies\n",
+        a.file.display(),
+        actions.len()
+    ))
+}
+
 /// `project show`.
 #[derive(Debug, Clone, Args)]
 pub struct ShowArgs {
@@ -386,6 +485,7 @@ pub fn run(args: &ProjectArgs) -> Result<String, CliError> {
             save(&a.file, &project)?;
             Ok(format!("wrote {}\n", a.file.display()))
         }
+        ProjectAction::GenerateCombinations(a) => generate_combinations(a),
         ProjectAction::SetMaterial(a) => set_material(a),
         ProjectAction::SetPorePressure(a) => {
             let mut project = load(&a.file)?;
@@ -551,6 +651,15 @@ fn show_text(project: &Project) -> Result<String, CliError> {
         );
     }
     let _ = writeln!(s, "Combinations (Σ factor × case tensor):");
+    // Names padded to the longest (at least 16), so long generated names stay apart from
+    // their terms.
+    let width = project
+        .combinations
+        .iter()
+        .map(|c| terminal_safe(&c.name).chars().count())
+        .max()
+        .unwrap_or(0)
+        .max(16);
     for comb in &project.combinations {
         let terms: Vec<String> = comb
             .terms
@@ -559,7 +668,7 @@ fn show_text(project: &Project) -> Result<String, CliError> {
             .collect();
         let _ = writeln!(
             s,
-            "  {:<16} {}",
+            "  {:<width$} {}",
             terminal_safe(&comb.name),
             terms.join(" + ")
         );

@@ -2,6 +2,7 @@
 //! that change it, undo and redo, the results every panel reads, the envelope and the project
 //! file. The window and the command line are both front ends of it. No egui here.
 
+pub mod actions;
 pub mod annotations;
 pub mod atomic;
 pub mod derived;
