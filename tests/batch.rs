@@ -496,3 +496,87 @@ proptest! {
         let _ = rank_text(&text, &TableOptions { skip_bad_rows: skip, decimal_comma: comma, top: Some(3), ..options() });
     }
 }
+
+/// A plane-stress table (xx, yy, xy only) is read only when the user says so, and then ranks
+/// exactly as the same table with zz, yz and zx columns of zeros; a table holding those columns
+/// is refused under the option (never guessed either way).
+#[test]
+fn plane_stress_tables_are_read_only_when_said_and_rank_as_zero_out_of_plane() {
+    let dir = std::env::temp_dir().join(format!("planewise-plane-{}", std::process::id()));
+    std::fs::create_dir_all(&dir).unwrap();
+    let plane = dir.join("shell.csv");
+    let full = dir.join("full.csv");
+    let mut p = String::from("element,section,sxx,syy,sxy\n");
+    let mut f = String::from("element,section,sxx,syy,szz,sxy,syz,szx\n");
+    for i in 0..200 {
+        let x = f64::from(i);
+        let (a, b, c) = (
+            (x * 7.3) % 190.0 - 95.0,
+            (x * 3.1) % 80.0 - 40.0,
+            (x * 1.7) % 50.0 - 25.0,
+        );
+        let section = if i % 2 == 0 { "top" } else { "bottom" };
+        let _ = writeln!(p, "E{},{section},{a},{b},{c}", i / 2);
+        let _ = writeln!(f, "E{},{section},{a},{b},0,{c},0,0", i / 2);
+    }
+    std::fs::write(&plane, p).unwrap();
+    std::fs::write(&full, f).unwrap();
+    let (plane, full) = (plane.to_str().unwrap(), full.to_str().unwrap());
+    let ranked = |file: &str, extra: &[&str]| {
+        let mut args = vec![
+            "batch",
+            file,
+            "--unit",
+            "MPa",
+            "--rank",
+            "von-mises",
+            "--json",
+            "--quiet",
+        ];
+        args.extend_from_slice(extra);
+        let out = planewise_ok(&args);
+        serde_json::from_slice::<serde_json::Value>(&out.stdout).unwrap()
+    };
+    let a = ranked(plane, &["--plane-stress"]);
+    let b = ranked(full, &[]);
+    assert_eq!(a["plane_stress"], true);
+    assert!(b.get("plane_stress").is_none());
+    let rows = |j: &serde_json::Value| {
+        j["rows"]
+            .as_array()
+            .unwrap()
+            .iter()
+            .map(|r| (r["line"].clone(), r["value"].clone()))
+            .collect::<Vec<_>>()
+    };
+    assert_eq!(rows(&a), rows(&b));
+    assert_eq!(rows(&a).len(), 200);
+    // Without the option the shell table has no zz, yz, zx: refused, naming them.
+    let out = planewise(&[
+        "batch",
+        plane,
+        "--unit",
+        "MPa",
+        "--rank",
+        "von-mises",
+        "--quiet",
+    ]);
+    assert_eq!(out.status.code(), Some(2));
+    let e = String::from_utf8_lossy(&out.stderr);
+    assert!(e.contains("zz, yz, zx"), "{e}");
+    // With it, a table holding zz is refused, naming the column.
+    let out = planewise(&[
+        "batch",
+        full,
+        "--unit",
+        "MPa",
+        "--rank",
+        "von-mises",
+        "--plane-stress",
+        "--quiet",
+    ]);
+    assert_eq!(out.status.code(), Some(2));
+    let e = String::from_utf8_lossy(&out.stderr);
+    assert!(e.contains("'szz'") && e.contains("plane stress"), "{e}");
+    let _ = std::fs::remove_dir_all(&dir);
+}

@@ -44,6 +44,11 @@ pub struct BatchArgs {
     /// Numbers are written with a decimal comma (fields then separated by `;`, tabs or spaces).
     #[arg(long)]
     pub decimal_comma: bool,
+    /// The table holds xx, yy and xy only (plane stress, as shell results): zz, yz and zx are
+    /// zero. Never assumed: without it such a table is refused, with it a table that has those
+    /// columns is.
+    #[arg(long)]
+    pub plane_stress: bool,
     /// What to rank by: an equivalent or principal stress, a worst-plane measure or a criterion
     /// utilization.
     #[arg(long, value_name = "MEASURE")]
@@ -81,6 +86,9 @@ pub struct BatchJson<'a> {
     /// Unit of every stress below (components, principal values, stress measures).
     pub unit: String,
     pub convention: String,
+    /// With --plane-stress: zz, yz and zx were read as zero, as the user stated.
+    #[serde(skip_serializing_if = "std::ops::Not::not")]
+    pub plane_stress: bool,
     pub rows_read: u64,
     pub bad_rows: u64,
     /// The last line had no line end (the file may have been cut short).
@@ -276,6 +284,7 @@ pub fn run(args: &BatchArgs) -> Result<String, CliError> {
         top: args.top,
         by_place: args.top.is_none(),
         above,
+        plane_stress: args.plane_stress,
     };
     let measure = table::Measure {
         measure: args.rank,
@@ -400,9 +409,14 @@ pub fn run(args: &BatchArgs) -> Result<String, CliError> {
             "dimensionless".to_owned()
         };
         eprintln!(
-            "planewise batch: {name} ranked by {} ({what}), worst first; stresses in {unit}, {}; {}{}",
+            "planewise batch: {name} ranked by {} ({what}), worst first; stresses in {unit}, {}{}; {}{}",
             args.rank.key(),
             convention.key(),
+            if args.plane_stress {
+                ", plane stress (zz, yz, zx taken as zero, as stated)"
+            } else {
+                ""
+            },
             ranked.counts.text("rows"),
             json.rows_at_or_beyond.map_or_else(String::new, |n| format!(
                 "; {n} at or beyond {}",
@@ -478,6 +492,7 @@ fn to_json<'a>(
         measure: rows.rank.key().to_owned(),
         unit: unit.symbol().to_owned(),
         convention: convention.key().to_owned(),
+        plane_stress: rows.options.plane_stress,
         rows_read: ranked.total_rows,
         bad_rows: ranked.bad_count,
         last_line_unterminated: ranked.unterminated,

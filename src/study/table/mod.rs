@@ -56,6 +56,10 @@ pub const COMPONENTS: [&str; 6] = ["xx", "yy", "zz", "xy", "yz", "zx"];
 
 /// What the user says about the table.
 #[derive(Clone, Debug, PartialEq)]
+#[expect(
+    clippy::struct_excessive_bools,
+    reason = "independent reading options, each a yes/no the user sets"
+)]
 pub struct TableOptions {
     /// Component → header name, for the components the user names (others by header name).
     pub columns: Vec<(usize, String)>,
@@ -77,6 +81,10 @@ pub struct TableOptions {
     /// table's convention; else dimensionless); rows failing at any scale or without frictional
     /// capacity always are.
     pub above: Option<f64>,
+    /// The table holds xx, yy and xy only, and the user states that zz, yz and zx are zero
+    /// (plane stress, as shell results are). Never assumed: a table without those columns is
+    /// refused unless this is set, and a table with them is refused when it is.
+    pub plane_stress: bool,
 }
 
 impl TableOptions {
@@ -93,6 +101,7 @@ impl TableOptions {
             top: None,
             by_place: false,
             above: None,
+            plane_stress: false,
         }
     }
 }
@@ -104,7 +113,8 @@ pub struct Header {
     pub names: Vec<String>,
     /// The delimiter found in the header line.
     pub delimiter: Delimiter,
-    /// Column index of each component, in [`COMPONENTS`] order.
+    /// Column index of each component, in [`COMPONENTS`] order; [`usize::MAX`] for the
+    /// out-of-plane components of a plane-stress table (read as zero).
     pub components: [usize; 6],
     /// Column indices carried along as text (ids, coordinates, load step…).
     pub carried: Vec<usize>,

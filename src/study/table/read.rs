@@ -101,6 +101,9 @@ pub(super) fn skipped(line: &[u8]) -> bool {
 }
 
 /// Reads the header line and finds the components.
+/// The out-of-plane components zz, yz, zx, by their place in [`COMPONENTS`].
+const OUT_OF_PLANE: [usize; 3] = [2, 4, 5];
+
 pub(super) fn header(
     line: &[u8],
     number: u64,
@@ -178,8 +181,21 @@ pub(super) fn header(
         }
         components[k] = i;
     }
+    // Plane stress: the user said zz, yz and zx are zero; a column for one of them says
+    // otherwise, and is refused rather than read or dropped.
+    if options.plane_stress
+        && let Some(&k) = OUT_OF_PLANE.iter().find(|&&k| components[k] != usize::MAX)
+    {
+        return Err(bad(format!(
+            "plane stress says {} is zero, but column {} ('{}') holds it; leave out the plane-stress option or that column",
+            COMPONENTS[k],
+            components[k] + 1,
+            names[components[k]]
+        )));
+    }
     let missing: Vec<&str> = (0..6)
         .filter(|&k| components[k] == usize::MAX)
+        .filter(|k| !(options.plane_stress && OUT_OF_PLANE.contains(k)))
         .map(|k| COMPONENTS[k])
         .collect();
     if !missing.is_empty() {
@@ -270,6 +286,10 @@ pub(super) fn read_row(
     }
     let mut c = [0.0; 6];
     for (k, &i) in header.components.iter().enumerate() {
+        // An out-of-plane component of a plane-stress table: zero, as the user stated.
+        if i == usize::MAX {
+            continue;
+        }
         let raw = trim(&fields[i]);
         let raw = raw
             .strip_prefix(b"\"")

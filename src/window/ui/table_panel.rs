@@ -36,6 +36,10 @@ struct Job {
 const UNIT_FIRST: &str = "Choose the table's unit first: a table does not say, and a wrong unit is off by up to a factor of a million.";
 
 /// The tab's state.
+#[expect(
+    clippy::struct_excessive_bools,
+    reason = "independent check boxes of the tab"
+)]
 pub struct TablePanel {
     /// The file path as typed or chosen.
     pub path: String,
@@ -50,6 +54,8 @@ pub struct TablePanel {
     pub compression_positive: bool,
     /// Numbers use a decimal comma.
     pub decimal_comma: bool,
+    /// The table holds xx, yy and xy only; zz, yz and zx are zero (the user says so).
+    pub plane_stress: bool,
     /// What to rank by.
     pub measure: EnvelopeMeasure,
     /// How many worst rows to keep.
@@ -91,6 +97,7 @@ impl Default for TablePanel {
             unit: None,
             compression_positive: false,
             decimal_comma: false,
+            plane_stress: false,
             measure: EnvelopeMeasure::VonMises,
             keep: DEFAULT_KEEP,
             skip_bad_rows: false,
@@ -130,6 +137,7 @@ impl TablePanel {
                 SignConvention::TensionPositive
             },
             decimal_comma: self.decimal_comma,
+            plane_stress: self.plane_stress,
             skip_bad_rows: self.skip_bad_rows,
             top: Some(self.keep.max(1)),
             by_place: false,
@@ -150,7 +158,9 @@ impl TablePanel {
         );
         if let Some(Ok((h, _))) = &self.preview {
             for k in 0..6 {
-                self.mapping[k].clone_from(&h.names[h.components[k]]);
+                if let Some(name) = h.names.get(h.components[k]) {
+                    self.mapping[k].clone_from(name);
+                }
             }
         }
     }
@@ -380,6 +390,8 @@ impl TablePanel {
             unit.on_hover_text("The unit the table's components are written in: a table does not say, so it is yours to choose");
             ui.checkbox(&mut self.compression_positive, "compression +");
             ui.checkbox(&mut self.decimal_comma, "decimal comma");
+            ui.checkbox(&mut self.plane_stress, "plane stress")
+                .on_hover_text("The table holds xx, yy and xy only (shell results): zz, yz and zx are read as zero. Never assumed; a table with those columns is refused while this is on");
             ui.label("rank by");
             egui::ComboBox::from_id_salt("planewise-table-measure")
                 .selected_text(self.measure.label())
