@@ -392,6 +392,9 @@ impl TablePanel {
             ui.checkbox(&mut self.decimal_comma, "decimal comma");
             ui.checkbox(&mut self.plane_stress, "plane stress")
                 .on_hover_text("The table holds xx, yy and xy only (shell results): zz, yz and zx are read as zero. Never assumed; a table with those columns is refused while this is on");
+        });
+        // A row of its own: the label and its picker never part at a wrap.
+        ui.horizontal(|ui| {
             ui.label("rank by");
             egui::ComboBox::from_id_salt("planewise-table-measure")
                 .selected_text(self.measure.label())
