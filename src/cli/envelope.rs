@@ -232,6 +232,14 @@ pub fn run(args: &EnvelopeArgs) -> Result<String, CliError> {
         );
     }
     let _ = writeln!(s, "  {}", env.counts.text("rows"));
+    // Names padded to the longest (at least 16): generated combination names are long.
+    let width = json
+        .rows
+        .iter()
+        .map(|r| r.name.chars().count())
+        .max()
+        .unwrap_or(0)
+        .max(16);
     for (i, r) in json.rows.iter().enumerate() {
         let row = &env.rows[i];
         let value = match r.value {
@@ -244,7 +252,7 @@ pub fn run(args: &EnvelopeArgs) -> Result<String, CliError> {
         } else {
             ""
         };
-        let _ = writeln!(s, "  {:<16} {:<12} {value}{mark}", r.name, r.kind);
+        let _ = writeln!(s, "  {:<width$} {:<12} {value}{mark}", r.name, r.kind);
     }
     Ok(s)
 }
