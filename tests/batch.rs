@@ -580,3 +580,92 @@ fn plane_stress_tables_are_read_only_when_said_and_rank_as_zero_out_of_plane() {
     assert!(e.contains("'szz'") && e.contains("plane stress"), "{e}");
     let _ = std::fs::remove_dir_all(&dir);
 }
+
+/// Ranking within groups: each group's worst row and counts equal a brute force over the rows
+/// with the textbook von Mises σvM = √(½[(σx−σy)² + (σy−σz)² + (σz−σx)²] + 3(τxy² + τyz² + τzx²))
+/// (common practice, no source), rows in shuffled order across several groups.
+#[test]
+fn groups_give_each_groups_worst_row_and_counts_as_a_brute_force_does() {
+    let dir = std::env::temp_dir().join(format!("planewise-groups-{}", std::process::id()));
+    std::fs::create_dir_all(&dir).unwrap();
+    let file = dir.join("sets.csv");
+    let mut text = String::from("element,part,sxx,syy,szz,sxy,syz,szx\n");
+    let mut by_group: std::collections::BTreeMap<String, Vec<(usize, f64)>> =
+        std::collections::BTreeMap::new();
+    for i in 0..600usize {
+        let x = i as f64;
+        let c = [
+            (x * 7.31) % 200.0 - 100.0,
+            (x * 3.17) % 90.0 - 45.0,
+            (x * 1.93) % 60.0 - 30.0,
+            (x * 5.11) % 40.0 - 20.0,
+            (x * 2.39) % 30.0 - 15.0,
+            (x * 4.57) % 20.0 - 10.0,
+        ];
+        let part = format!("P{}", (i * 7919) % 13);
+        let _ = writeln!(
+            text,
+            "E{i},{part},{},{},{},{},{},{}",
+            c[0], c[1], c[2], c[3], c[4], c[5]
+        );
+        let vm = (0.5 * ((c[0] - c[1]).powi(2) + (c[1] - c[2]).powi(2) + (c[2] - c[0]).powi(2))
+            + 3.0 * (c[3] * c[3] + c[4] * c[4] + c[5] * c[5]))
+            .sqrt();
+        by_group.entry(part).or_default().push((i + 2, vm));
+    }
+    std::fs::write(&file, text).unwrap();
+    let out = planewise_ok(&[
+        "batch",
+        file.to_str().unwrap(),
+        "--unit",
+        "MPa",
+        "--rank",
+        "von-mises",
+        "--group-by",
+        "part",
+        "--at-or-beyond",
+        "80",
+        "--json",
+        "--quiet",
+    ]);
+    let j: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
+    assert_eq!(j["group_by"], "part");
+    let groups = j["groups"].as_array().unwrap();
+    assert_eq!(groups.len(), by_group.len());
+    let mut previous = f64::INFINITY;
+    for g in groups {
+        let rows = &by_group[g["group"].as_str().unwrap()];
+        let (line, worst) = rows.iter().fold(
+            (0, f64::MIN),
+            |best, &(l, v)| if v > best.1 { (l, v) } else { best },
+        );
+        let value = g["worst"]["value"].as_f64().unwrap();
+        assert!((value - worst).abs() < 1e-9 * worst.max(1.0), "{g}");
+        assert_eq!(g["worst"]["line"].as_u64().unwrap() as usize, line);
+        assert_eq!(g["rows"].as_u64().unwrap() as usize, rows.len());
+        let beyond = rows.iter().filter(|(_, v)| *v >= 80.0).count();
+        assert_eq!(g["rows_at_or_beyond"].as_u64().unwrap() as usize, beyond);
+        assert!(value <= previous, "groups not worst first");
+        previous = value;
+    }
+    // A group column that is not there, or is a component, is refused by name.
+    for (column, says) in [
+        ("set", "no column 'set'"),
+        ("sxx", "holds a stress component"),
+    ] {
+        let out = planewise(&[
+            "batch",
+            file.to_str().unwrap(),
+            "--unit",
+            "MPa",
+            "--rank",
+            "von-mises",
+            "--group-by",
+            column,
+            "--quiet",
+        ]);
+        assert_eq!(out.status.code(), Some(2));
+        assert!(String::from_utf8_lossy(&out.stderr).contains(says));
+    }
+    let _ = std::fs::remove_dir_all(&dir);
+}

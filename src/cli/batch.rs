@@ -49,6 +49,11 @@ pub struct BatchArgs {
     /// columns is.
     #[arg(long)]
     pub plane_stress: bool,
+    /// Rank within groups named by this column (an element set, a part): each group's worst
+    /// row with the group's count of rows (and, with --at-or-beyond, of rows at or beyond it),
+    /// worst group first; --top N keeps the N worst groups.
+    #[arg(long, value_name = "COLUMN")]
+    pub group_by: Option<String>,
     /// What to rank by: an equivalent or principal stress, a worst-plane measure or a criterion
     /// utilization.
     #[arg(long, value_name = "MEASURE")]
@@ -103,6 +108,12 @@ pub struct BatchJson<'a> {
     pub rows_at_or_beyond: Option<u64>,
     /// The first bad rows (with --skip-bad-rows).
     pub first_bad: Vec<BadJson>,
+    /// With --group-by: the group column and the groups, worst first (the rows are then
+    /// empty).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub group_by: Option<String>,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub groups: Option<Vec<GroupJson>>,
     /// Worst first (written one by one as they are read again, never held together).
     pub rows: Rows<'a>,
 }
@@ -140,16 +151,43 @@ impl Serialize for Rows<'_> {
         let mut seq = serializer.serialize_seq(Some(self.ranked.kept()))?;
         for row in self.each() {
             let (r, mut json) = row.map_err(S::Error::custom)?;
-            json.carried = header
-                .carried
-                .iter()
-                .zip(r.carried)
-                .map(|(&i, text)| (header.names[i].clone(), serde_json::Value::String(text)))
-                .collect();
+            json.carried = carried_json(header, &r);
             seq.serialize_element(&json)?;
         }
         seq.end()
     }
+}
+
+/// A row's carried columns as a JSON object, by header name.
+fn carried_json(
+    header: &table::Header,
+    row: &table::Row,
+) -> serde_json::Map<String, serde_json::Value> {
+    header
+        .carried
+        .iter()
+        .zip(&row.carried)
+        .map(|(&i, text)| {
+            (
+                header.names[i].clone(),
+                serde_json::Value::String(text.clone()),
+            )
+        })
+        .collect()
+}
+
+/// One group of a ranking by groups.
+#[derive(Debug, Serialize)]
+pub struct GroupJson {
+    /// The group's name.
+    pub group: String,
+    /// Its good rows.
+    pub rows: u64,
+    /// With --at-or-beyond: its rows at or beyond the threshold.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub rows_at_or_beyond: Option<u64>,
+    /// Its worst row.
+    pub worst: RowJson,
 }
 
 /// A bad row.
@@ -285,6 +323,7 @@ pub fn run(args: &BatchArgs) -> Result<String, CliError> {
         by_place: args.top.is_none(),
         above,
         plane_stress: args.plane_stress,
+        group_by: args.group_by.clone(),
     };
     let measure = table::Measure {
         measure: args.rank,
@@ -393,6 +432,26 @@ pub fn run(args: &BatchArgs) -> Result<String, CliError> {
         unit,
     };
     let mut json = to_json(rows, &name, unit, convention);
+    if let Some(g) = ranked.header.group {
+        let header = &ranked.header;
+        json.group_by = Some(header.names[g].clone());
+        json.groups = Some(
+            ranked
+                .groups
+                .iter()
+                .map(|group| {
+                    let mut worst = row_json(&group.worst, args.rank, unit, convention);
+                    worst.carried = carried_json(header, &group.worst);
+                    GroupJson {
+                        group: group.name.clone(),
+                        rows: group.rows,
+                        rows_at_or_beyond: above.map(|_| group.at_or_beyond),
+                        worst,
+                    }
+                })
+                .collect(),
+        );
+    }
     if let Some(v) = above {
         json.at_or_beyond = Some(clean(if args.rank.is_stress() {
             unit.from_pa(v)
@@ -508,6 +567,8 @@ fn to_json<'a>(
                 message: b.message.clone(),
             })
             .collect(),
+        group_by: None,
+        groups: None,
         rows,
     }
 }
@@ -551,7 +612,8 @@ fn field(text: &str) -> String {
 
 /// Plain RFC 4180 CSV: the header first (units in the column names), one row per ranked row;
 /// the run's description goes to standard error and `--json`.
-fn write_csv(w: &mut dyn std::io::Write, json: &BatchJson<'_>) -> std::io::Result<()> {
+/// The CSV columns of a row, from `line` to the plane (the carried columns by their names).
+fn row_columns(json: &BatchJson<'_>) -> Vec<String> {
     let rows = &json.rows;
     let header = &rows.ranked.header;
     let rank = rows.rank;
@@ -561,8 +623,7 @@ fn write_csv(w: &mut dyn std::io::Write, json: &BatchJson<'_>) -> std::io::Resul
     head.extend(COMPONENTS.iter().map(|c| format!("{c}_{u}")));
     head.extend(["sigma1", "sigma2", "sigma3"].map(|p| format!("{p}_{u}")));
     // σ1 and σ3 are columns already; another measure gets a column of its own.
-    let own_column = !matches!(rank, EnvelopeMeasure::Sigma1 | EnvelopeMeasure::Sigma3);
-    if own_column {
+    if own_column(rank) {
         head.push(if rank.is_stress() {
             format!("{}_{u}", json.measure.replace('-', "_"))
         } else {
@@ -570,35 +631,83 @@ fn write_csv(w: &mut dyn std::io::Write, json: &BatchJson<'_>) -> std::io::Resul
         });
     }
     head.push("condition".to_owned());
-    let plane = matches!(rank, EnvelopeMeasure::Plane(_));
-    if plane {
+    if matches!(rank, EnvelopeMeasure::Plane(_)) {
         head.extend(["dip_deg", "dip_direction_deg"].map(str::to_owned));
     }
-    writeln!(w, "{}", head.join(","))?;
+    head
+}
+
+/// Whether the measure has a column of its own (σ1 and σ3 are columns already).
+fn own_column(rank: EnvelopeMeasure) -> bool {
+    !matches!(rank, EnvelopeMeasure::Sigma1 | EnvelopeMeasure::Sigma3)
+}
+
+/// The CSV cells of one row, in [`row_columns`] order, appended to `line`.
+fn row_cells(line: &mut String, r: &table::Row, row: &RowJson, rank: EnvelopeMeasure) {
+    let _ = write!(line, "{}", row.line);
+    for t in &r.carried {
+        line.push(',');
+        line.push_str(&field(t));
+    }
+    for v in row.components.iter().chain(&row.principal) {
+        let _ = write!(line, ",{v}");
+    }
+    if own_column(rank) {
+        line.push(',');
+        if let Some(v) = row.value {
+            let _ = write!(line, "{v}");
+        }
+    }
+    let _ = write!(line, ",{}", row.condition.key());
+    if let Some([dip, dd]) = row.plane {
+        let _ = write!(line, ",{dip},{dd}");
+    } else if matches!(rank, EnvelopeMeasure::Plane(_)) {
+        line.push_str(",,");
+    }
+}
+
+fn write_csv(w: &mut dyn std::io::Write, json: &BatchJson<'_>) -> std::io::Result<()> {
+    let rows = &json.rows;
+    let rank = rows.rank;
+    if let (Some(column), Some(groups)) = (&json.group_by, &json.groups) {
+        return write_groups_csv(w, json, column, groups);
+    }
+    writeln!(w, "{}", row_columns(json).join(","))?;
     let mut line = String::new();
     for row in rows.each() {
         let (r, row) = row.map_err(std::io::Error::other)?;
         line.clear();
-        let _ = write!(line, "{}", row.line);
-        for t in &r.carried {
-            line.push(',');
-            line.push_str(&field(t));
+        row_cells(&mut line, &r, &row, rank);
+        line.push('\n');
+        w.write_all(line.as_bytes())?;
+    }
+    Ok(())
+}
+
+/// Groups as CSV: the group, its counts, then its worst row's columns.
+fn write_groups_csv(
+    w: &mut dyn std::io::Write,
+    json: &BatchJson<'_>,
+    column: &str,
+    groups: &[GroupJson],
+) -> std::io::Result<()> {
+    let rank = json.rows.rank;
+    let beyond = json.at_or_beyond.is_some();
+    let mut head = vec![field(column), "rows".to_owned()];
+    if beyond {
+        head.push("rows_at_or_beyond".to_owned());
+    }
+    head.extend(row_columns(json));
+    writeln!(w, "{}", head.join(","))?;
+    let ranked = json.rows.ranked;
+    let mut line = String::new();
+    for (g, group) in groups.iter().zip(&ranked.groups) {
+        line.clear();
+        let _ = write!(line, "{},{},", field(&g.group), g.rows);
+        if let Some(n) = g.rows_at_or_beyond {
+            let _ = write!(line, "{n},");
         }
-        for v in row.components.iter().chain(&row.principal) {
-            let _ = write!(line, ",{v}");
-        }
-        if own_column {
-            line.push(',');
-            if let Some(v) = row.value {
-                let _ = write!(line, "{v}");
-            }
-        }
-        let _ = write!(line, ",{}", row.condition.key());
-        if let Some([dip, dd]) = row.plane {
-            let _ = write!(line, ",{dip},{dd}");
-        } else if plane {
-            line.push_str(",,");
-        }
+        row_cells(&mut line, &group.worst, &g.worst, rank);
         line.push('\n');
         w.write_all(line.as_bytes())?;
     }

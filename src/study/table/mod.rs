@@ -85,6 +85,9 @@ pub struct TableOptions {
     /// (plane stress, as shell results are). Never assumed: a table without those columns is
     /// refused unless this is set, and a table with them is refused when it is.
     pub plane_stress: bool,
+    /// Rank within groups named by this column (an element set, a part): each group's worst
+    /// row and its counts, instead of the rows.
+    pub group_by: Option<String>,
 }
 
 impl TableOptions {
@@ -102,6 +105,7 @@ impl TableOptions {
             by_place: false,
             above: None,
             plane_stress: false,
+            group_by: None,
         }
     }
 }
@@ -118,6 +122,8 @@ pub struct Header {
     pub components: [usize; 6],
     /// Column indices carried along as text (ids, coordinates, load step…).
     pub carried: Vec<usize>,
+    /// With [`TableOptions::group_by`]: the column naming each row's group.
+    pub group: Option<usize>,
     /// Line number of the header (1-based; after comments and blank lines).
     pub line: u64,
 }
@@ -154,6 +160,19 @@ impl Row {
             ]
         });
     }
+}
+
+/// One group of a table ranked by groups: its worst row and how many rows it has.
+#[derive(Clone, Debug, PartialEq)]
+pub struct Group {
+    /// The group's name, as the group column writes it.
+    pub name: String,
+    /// Good rows in the group.
+    pub rows: u64,
+    /// With [`TableOptions::above`]: the group's rows at or beyond the threshold.
+    pub at_or_beyond: u64,
+    /// The group's worst row (the earliest line among equals).
+    pub worst: Row,
 }
 
 /// Where a kept row is in the file, with its rank key: all that a full ranking holds per row
@@ -261,6 +280,9 @@ pub struct Ranked {
     /// The last line has no line end: the file may have been cut short (its last row was read
     /// as it stands).
     pub unterminated: bool,
+    /// With [`TableOptions::group_by`]: the groups, worst first (the top N with
+    /// [`TableOptions::top`]); the rows are then not kept.
+    pub groups: Vec<Group>,
 }
 
 impl Ranked {

@@ -2,13 +2,15 @@
 //! row judged by the one ranking rule and kept in a bounded heap (the top N, or the rows at or
 //! beyond a threshold), or every row's place for a full ranking.
 
-use std::collections::BinaryHeap;
+use std::collections::{BinaryHeap, HashMap};
 use std::io::Read;
 
 use rayon::prelude::*;
 
 use super::read::{header, read_row, skipped, split};
-use super::{BadRow, Header, KEEP_BAD, Measure, Place, Ranked, Row, TableError, TableOptions};
+use super::{
+    BadRow, Group, Header, KEEP_BAD, Measure, Place, Ranked, Row, TableError, TableOptions,
+};
 use crate::study::envelope::{ConditionCounts, RankKey};
 
 /// A row in the heap, ordered by its key then by line (earlier first among equals).
@@ -90,9 +92,60 @@ impl Kept {
     }
 }
 
+/// A group so far: its worst row, its rows and those at or beyond the threshold.
+pub(super) struct GroupSoFar {
+    worst: Keyed,
+    rows: u64,
+    at_or_beyond: u64,
+}
+
+/// Adds `item` (a row of group `name`, at or beyond the threshold or not) to `groups`.
+fn add_to_group(groups: &mut HashMap<String, GroupSoFar>, name: &str, item: Keyed, beyond: bool) {
+    let beyond = u64::from(beyond);
+    match groups.get_mut(name) {
+        Some(g) => {
+            g.rows += 1;
+            g.at_or_beyond += beyond;
+            // Keyed's order is reversed: a smaller one goes first (is worse).
+            if item < g.worst {
+                g.worst = item;
+            }
+        }
+        None => {
+            groups.insert(
+                name.to_owned(),
+                GroupSoFar {
+                    worst: item,
+                    rows: 1,
+                    at_or_beyond: beyond,
+                },
+            );
+        }
+    }
+}
+
+/// Merges the groups of a later part into `into`.
+fn merge_groups(into: &mut HashMap<String, GroupSoFar>, from: HashMap<String, GroupSoFar>) {
+    for (name, g) in from {
+        match into.get_mut(&name) {
+            Some(h) => {
+                h.rows += g.rows;
+                h.at_or_beyond += g.at_or_beyond;
+                if g.worst < h.worst {
+                    h.worst = g.worst;
+                }
+            }
+            None => {
+                into.insert(name, g);
+            }
+        }
+    }
+}
+
 /// What one part of a block gave.
 pub(super) struct Part {
     kept: Kept,
+    groups: HashMap<String, GroupSoFar>,
     rows: u64,
     bad: Vec<BadRow>,
     bad_count: u64,
@@ -112,6 +165,7 @@ pub(super) fn parse_part(
 ) -> Result<Part, String> {
     let mut part = Part {
         kept: Kept::new(options.top),
+        groups: HashMap::new(),
         rows: 0,
         bad: Vec::new(),
         bad_count: 0,
@@ -122,7 +176,11 @@ pub(super) fn parse_part(
         .above
         .map(|v| RankKey::threshold(measure.measure, v));
     let mut fields = Vec::new();
-    let by_place = options.by_place && options.top.is_none();
+    // The group column's place among the carried texts of a row.
+    let group_slot = header
+        .group
+        .and_then(|g| header.carried.iter().position(|&c| c == g));
+    let by_place = options.by_place && options.top.is_none() && group_slot.is_none();
     for (k, line) in bytes.split(|b| *b == b'\n').enumerate() {
         let number = first_line + k as u64;
         if skipped(line) {
@@ -154,6 +212,13 @@ pub(super) fn parse_part(
                 row.take(&evaluated);
                 part.rows += 1;
                 part.counts.add(row.standing);
+                if let Some(slot) = group_slot {
+                    let beyond = threshold.as_ref().is_some_and(|t| key.at_or_beyond(t));
+                    part.at_or_beyond += u64::from(beyond);
+                    let name = row.carried.get(slot).cloned().unwrap_or_default();
+                    add_to_group(&mut part.groups, &name, Keyed { key, row }, beyond);
+                    continue;
+                }
                 if let Some(t) = &threshold {
                     if !key.at_or_beyond(t) {
                         continue;
@@ -208,6 +273,7 @@ pub fn rank(
     let mut next_line = 1u64;
     let mut header_found: Option<Header> = None;
     let mut kept = Kept::new(options.top);
+    let mut groups: HashMap<String, GroupSoFar> = HashMap::new();
     let (mut total_rows, mut bad_count, mut at_or_beyond) = (0u64, 0u64, 0u64);
     let mut counts = ConditionCounts::default();
     let mut bad: Vec<BadRow> = Vec::new();
@@ -301,6 +367,7 @@ pub fn rank(
             counts.merge(&part.counts);
             bad.extend(part.bad);
             kept.merge(part.kept);
+            merge_groups(&mut groups, part.groups);
         }
         bad.sort_by_key(|b| b.line);
         bad.truncate(KEEP_BAD);
@@ -321,6 +388,21 @@ pub fn rank(
         message: "no header row: the table is empty".to_owned(),
     })?;
     let (rows, places) = kept.into_ranked();
+    // The groups worst first (their worst rows' order), the top N of them with a limit.
+    let mut groups: Vec<(String, GroupSoFar)> = groups.into_iter().collect();
+    groups.sort_by(|a, b| a.1.worst.cmp(&b.1.worst).then_with(|| a.0.cmp(&b.0)));
+    if let Some(n) = options.top {
+        groups.truncate(n);
+    }
+    let groups = groups
+        .into_iter()
+        .map(|(name, g)| Group {
+            name,
+            rows: g.rows,
+            at_or_beyond: g.at_or_beyond,
+            worst: g.worst.row,
+        })
+        .collect();
     Ok(Ranked {
         header,
         rows,
@@ -331,5 +413,6 @@ pub fn rank(
         counts,
         at_or_beyond,
         unterminated,
+        groups,
     })
 }

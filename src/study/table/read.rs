@@ -208,11 +208,31 @@ pub(super) fn header(
     let carried = (0..names.len())
         .filter(|i| !components.contains(i))
         .collect();
+    let group = match &options.group_by {
+        None => None,
+        Some(wanted) => {
+            let wanted = wanted.trim();
+            let Some(i) = names.iter().position(|n| n.eq_ignore_ascii_case(wanted)) else {
+                return Err(bad(format!(
+                    "no column '{wanted}' to group by in the header ({} separated: {listed})",
+                    delimiter.name()
+                )));
+            };
+            if components.contains(&i) {
+                return Err(bad(format!(
+                    "column '{}' holds a stress component; group by a column of names (an element set, a part)",
+                    names[i]
+                )));
+            }
+            Some(i)
+        }
+    };
     Ok(Header {
         names,
         delimiter,
         components,
         carried,
+        group,
         line: number,
     })
 }

@@ -138,6 +138,7 @@ impl TablePanel {
             },
             decimal_comma: self.decimal_comma,
             plane_stress: self.plane_stress,
+            group_by: None,
             skip_bad_rows: self.skip_bad_rows,
             top: Some(self.keep.max(1)),
             by_place: false,
