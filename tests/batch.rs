@@ -614,20 +614,28 @@ fn groups_give_each_groups_worst_row_and_counts_as_a_brute_force_does() {
         by_group.entry(part).or_default().push((i + 2, vm));
     }
     std::fs::write(&file, text).unwrap();
-    let out = planewise_ok(&[
-        "batch",
-        file.to_str().unwrap(),
-        "--unit",
-        "MPa",
-        "--rank",
-        "von-mises",
-        "--group-by",
-        "part",
-        "--at-or-beyond",
-        "80",
-        "--json",
-        "--quiet",
-    ]);
+    let f = file.to_str().unwrap();
+    let grouped = |column: &str, extra: &[&str]| {
+        let mut args = vec![
+            "batch",
+            f,
+            "--unit",
+            "MPa",
+            "--rank",
+            "von-mises",
+            "--group-by",
+            column,
+            "--quiet",
+        ];
+        args.extend_from_slice(extra);
+        planewise(&args)
+    };
+    let out = grouped("part", &["--at-or-beyond", "80", "--json"]);
+    assert!(
+        out.status.success(),
+        "{}",
+        String::from_utf8_lossy(&out.stderr)
+    );
     let j: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
     assert_eq!(j["group_by"], "part");
     let groups = j["groups"].as_array().unwrap();
@@ -653,17 +661,7 @@ fn groups_give_each_groups_worst_row_and_counts_as_a_brute_force_does() {
         ("set", "no column 'set'"),
         ("sxx", "holds a stress component"),
     ] {
-        let out = planewise(&[
-            "batch",
-            file.to_str().unwrap(),
-            "--unit",
-            "MPa",
-            "--rank",
-            "von-mises",
-            "--group-by",
-            column,
-            "--quiet",
-        ]);
+        let out = grouped(column, &[]);
         assert_eq!(out.status.code(), Some(2));
         assert!(String::from_utf8_lossy(&out.stderr).contains(says));
     }
