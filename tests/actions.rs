@@ -152,6 +152,21 @@ fn bad_actions_are_refused_with_the_action_named() {
     let e = fundamental_combinations(&[variable("live", 1.5, 0.7), permanent("live", 1.35, 1.0)])
         .unwrap_err();
     assert_eq!(e, ActionsError::Twice("live".to_owned()));
+    // Too many actions for the full set: refused, not computed (70 would overflow a shift).
+    let many: Vec<Action> = (0..70)
+        .map(|j| permanent(&format!("G{j}"), 1.35, 1.0))
+        .collect();
+    assert_eq!(
+        fundamental_combinations(&many),
+        Err(ActionsError::TooMany(70))
+    );
+    let many: Vec<Action> = (0..13)
+        .map(|i| variable(&format!("Q{i}"), 1.5, 0.7))
+        .collect();
+    assert_eq!(
+        fundamental_combinations(&many),
+        Err(ActionsError::TooMany(13))
+    );
 }
 
 mod cli {

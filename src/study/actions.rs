@@ -103,9 +103,15 @@ pub fn fundamental_combinations(actions: &[Action]) -> Result<Vec<Combination>, 
             ActionKind::Permanent { .. } => None,
         })
         .collect();
-    let count = (1usize << permanent.len())
-        * (1 + variable.len() * (1usize << variable.len().saturating_sub(1)));
-    if permanent.len() + variable.len() > 24 || count > MOST {
+    // Checked before any shift: 64 actions or more would overflow it.
+    if actions.len() > 24 {
+        return Err(ActionsError::TooMany(actions.len()));
+    }
+    let choices = 1usize << permanent.len();
+    let permanent_only = if permanent.is_empty() { 0 } else { choices };
+    let count =
+        permanent_only + choices * variable.len() * (1usize << variable.len().saturating_sub(1));
+    if count > MOST {
         return Err(ActionsError::TooMany(actions.len()));
     }
     let mut out = Vec::with_capacity(count);
@@ -123,10 +129,7 @@ pub fn fundamental_combinations(actions: &[Action]) -> Result<Vec<Combination>, 
             })
             .unzip()
     };
-    for choice in 0..1usize << permanent.len() {
-        if permanent.is_empty() {
-            break;
-        }
+    for choice in 0..permanent_only {
         let (terms, words) = permanents(choice);
         out.push(combination(
             format!("6.10 permanent only | {}", words.join(" | ")),
@@ -142,7 +145,7 @@ pub fn fundamental_combinations(actions: &[Action]) -> Result<Vec<Combination>, 
             .collect();
         // Bit i set = the i-th other variable action accompanies; all of them first.
         for accompany in (0..1usize << others.len()).rev() {
-            for choice in 0..1usize << permanent.len() {
+            for choice in 0..choices {
                 let (mut terms, mut words) = permanents(choice);
                 terms.push(term(lead_case, lead_gamma));
                 words.insert(0, format!("{lead_case} leads"));
