@@ -17,6 +17,7 @@
 
 mod rank;
 mod read;
+mod stream;
 
 pub use rank::rank;
 pub use read::{component_of, preview};

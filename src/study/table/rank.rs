@@ -5,12 +5,9 @@
 use std::collections::{BinaryHeap, HashMap};
 use std::io::Read;
 
-use rayon::prelude::*;
-
-use super::read::{header, read_row, skipped, split};
-use super::{
-    BadRow, Group, Header, KEEP_BAD, Measure, Place, Ranked, Row, TableError, TableOptions,
-};
+use super::read::{read_row, skipped, split};
+use super::stream::{Parsed, note_bad, stream};
+use super::{BadRow, Group, Header, Measure, Place, Ranked, Row, TableError, TableOptions};
 use crate::study::envelope::{ConditionCounts, RankKey};
 
 /// A row in the heap, ordered by its key then by line (earlier first among equals).
@@ -147,8 +144,6 @@ pub(super) struct Part {
     kept: Kept,
     groups: HashMap<String, GroupSoFar>,
     rows: u64,
-    bad: Vec<BadRow>,
-    bad_count: u64,
     counts: ConditionCounts,
     at_or_beyond: u64,
 }
@@ -162,15 +157,17 @@ pub(super) fn parse_part(
     header: &Header,
     options: &TableOptions,
     measure: &Measure<'_>,
-) -> Result<Part, String> {
-    let mut part = Part {
-        kept: Kept::new(options.top),
-        groups: HashMap::new(),
-        rows: 0,
+) -> Result<Parsed<Part>, String> {
+    let mut part = Parsed {
+        value: Part {
+            kept: Kept::new(options.top),
+            groups: HashMap::new(),
+            rows: 0,
+            counts: ConditionCounts::default(),
+            at_or_beyond: 0,
+        },
         bad: Vec::new(),
         bad_count: 0,
-        counts: ConditionCounts::default(),
-        at_or_beyond: 0,
     };
     let threshold = options
         .above
@@ -205,43 +202,40 @@ pub(super) fn parse_part(
                 message: "the line is longer than 4 GiB".to_owned(),
             });
         }
+        let p = &mut part.value;
         match result {
             Ok(mut row) => {
                 let evaluated = measure.evaluate(&row.tensor).map_err(|e| e.to_string())?;
                 let key = measure.key(&evaluated);
                 row.take(&evaluated);
-                part.rows += 1;
-                part.counts.add(row.standing);
+                p.rows += 1;
+                p.counts.add(row.standing);
                 if let Some(slot) = group_slot {
                     let beyond = threshold.as_ref().is_some_and(|t| key.at_or_beyond(t));
-                    part.at_or_beyond += u64::from(beyond);
+                    p.at_or_beyond += u64::from(beyond);
                     let name = row.carried.get(slot).cloned().unwrap_or_default();
-                    add_to_group(&mut part.groups, &name, Keyed { key, row }, beyond);
+                    add_to_group(&mut p.groups, &name, Keyed { key, row }, beyond);
                     continue;
                 }
                 if let Some(t) = &threshold {
                     if !key.at_or_beyond(t) {
                         continue;
                     }
-                    part.at_or_beyond += 1;
+                    p.at_or_beyond += 1;
                 }
                 if by_place {
-                    part.kept.places.push(Place {
+                    p.kept.places.push(Place {
                         key,
                         line: number,
                         offset,
                         len,
                     });
                 } else {
-                    part.kept.push(Keyed { key, row });
+                    p.kept.push(Keyed { key, row });
                 }
             }
             Err(bad) => {
-                part.bad_count += 1;
-                if part.bad.len() < KEEP_BAD {
-                    part.bad.push(bad);
-                }
-                if !options.skip_bad_rows {
+                if !note_bad(&mut part, bad, options) {
                     break;
                 }
             }
@@ -250,143 +244,35 @@ pub(super) fn parse_part(
     Ok(part)
 }
 
-/// Bytes read per block.
-pub(super) const BLOCK: usize = 8 << 20;
-
 /// Ranks the table read from `source` (named `file` in messages). `progress` is told the bytes
 /// read so far and returns `false` to stop (then [`TableError::Cancelled`]).
 pub fn rank(
-    mut source: impl Read,
+    source: impl Read,
     file: &str,
     options: &TableOptions,
     measure: &Measure<'_>,
-    mut progress: impl FnMut(u64) -> bool,
+    progress: impl FnMut(u64) -> bool,
 ) -> Result<Ranked, TableError> {
-    let io = |cause| TableError::Io {
-        file: file.to_owned(),
-        cause,
-    };
-    let mut buffer: Vec<u8> = Vec::with_capacity(BLOCK + 4096);
-    let mut read_total = 0u64;
-    // Bytes of the source before the buffer's first byte.
-    let mut drained = 0u64;
-    let mut next_line = 1u64;
-    let mut header_found: Option<Header> = None;
     let mut kept = Kept::new(options.top);
     let mut groups: HashMap<String, GroupSoFar> = HashMap::new();
-    let (mut total_rows, mut bad_count, mut at_or_beyond) = (0u64, 0u64, 0u64);
+    let (mut total_rows, mut at_or_beyond) = (0u64, 0u64);
     let mut counts = ConditionCounts::default();
-    let mut bad: Vec<BadRow> = Vec::new();
-    let mut eof = false;
-    let mut unterminated = false;
-    let threads = rayon::current_num_threads().max(1);
-    while !eof {
-        // Fill the buffer up to a block.
-        let start = buffer.len();
-        buffer.resize(start + BLOCK, 0);
-        let mut filled = start;
-        while filled < buffer.len() {
-            let n = source.read(&mut buffer[filled..]).map_err(io)?;
-            if n == 0 {
-                eof = true;
-                break;
-            }
-            filled += n;
-        }
-        buffer.truncate(filled);
-        read_total += (filled - start) as u64;
-        if !progress(read_total) {
-            return Err(TableError::Cancelled);
-        }
-        // Whole lines only; the rest waits for the next block.
-        if eof && buffer.last().is_some_and(|b| *b != b'\n') {
-            unterminated = true;
-        }
-        let end = if eof {
-            buffer.len()
-        } else {
-            match memchr::memrchr(b'\n', &buffer) {
-                Some(i) => i + 1,
-                None => continue,
-            }
-        };
-        let mut block: &[u8] = &buffer[..end];
-        // The header: the first line that is not blank or a comment.
-        if header_found.is_none() {
-            if next_line == 1 && block.starts_with("\u{feff}".as_bytes()) {
-                block = &block[3..];
-            }
-            while !block.is_empty() {
-                let cut = memchr::memchr(b'\n', block).map_or(block.len(), |i| i + 1);
-                let (line, rest) = block.split_at(cut);
-                let number = next_line;
-                next_line += 1;
-                block = rest;
-                if !skipped(line) {
-                    header_found = Some(header(line, number, options, file)?);
-                    break;
-                }
-            }
-        }
-        let Some(h) = &header_found else {
-            buffer.drain(..end);
-            drained += end as u64;
-            continue;
-        };
-        // Parts of about equal size, cut at line ends, with their first line numbers and where
-        // they start in the source.
-        let mut parts: Vec<(&[u8], u64, u64)> = Vec::new();
-        let target = (block.len() / (threads * 4)).max(64 << 10);
-        let mut rest = block;
-        let mut line = next_line;
-        while !rest.is_empty() {
-            let cut = if rest.len() <= target {
-                rest.len()
-            } else {
-                memchr::memchr(b'\n', &rest[target..]).map_or(rest.len(), |i| target + i + 1)
-            };
-            let (part, tail) = rest.split_at(cut);
-            // A part ends with '\n', so its last split piece is empty: lines = count of '\n'.
-            let lines = memchr::memchr_iter(b'\n', part).count() as u64;
-            let part = part.strip_suffix(b"\n").unwrap_or(part);
-            let at = drained + (part.as_ptr() as usize - buffer.as_ptr() as usize) as u64;
-            parts.push((part, line, at));
-            line += lines.max(1);
-            rest = tail;
-        }
-        next_line = line;
-        let results: Vec<Result<Part, String>> = parts
-            .par_iter()
-            .map(|(bytes, first, at)| parse_part(bytes, *first, *at, h, options, measure))
-            .collect();
-        for r in results {
-            let part = r.map_err(TableError::Measure)?;
+    let streamed = stream(
+        source,
+        file,
+        options,
+        Ok,
+        progress,
+        |bytes, first, at, h| parse_part(bytes, first, at, h, options, measure),
+        |part| {
             total_rows += part.rows;
-            bad_count += part.bad_count;
             at_or_beyond += part.at_or_beyond;
             counts.merge(&part.counts);
-            bad.extend(part.bad);
             kept.merge(part.kept);
             merge_groups(&mut groups, part.groups);
-        }
-        bad.sort_by_key(|b| b.line);
-        bad.truncate(KEEP_BAD);
-        if !options.skip_bad_rows
-            && let Some(first) = bad.first()
-        {
-            return Err(TableError::Row {
-                file: file.to_owned(),
-                row: first.clone(),
-            });
-        }
-        buffer.drain(..end);
-        drained += end as u64;
-    }
-    let header = header_found.ok_or_else(|| TableError::Header {
-        file: file.to_owned(),
-        line: next_line.saturating_sub(1).max(1),
-        message: "no header row: the table is empty".to_owned(),
-    })?;
+            Ok(())
+        },
+    )?;
     let (rows, places) = kept.into_ranked();
     // The groups worst first (their worst rows' order), the top N of them with a limit.
     let mut groups: Vec<(String, GroupSoFar)> = groups.into_iter().collect();
@@ -404,15 +290,15 @@ pub fn rank(
         })
         .collect();
     Ok(Ranked {
-        header,
+        header: streamed.header,
         rows,
         places,
         total_rows,
-        bad_count,
-        bad,
+        bad_count: streamed.bad_count,
+        bad: streamed.bad,
         counts,
         at_or_beyond,
-        unterminated,
+        unterminated: streamed.unterminated,
         groups,
     })
 }
