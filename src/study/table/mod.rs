@@ -15,10 +15,17 @@
 //! The stream is read in blocks; each block is cut at line ends and its parts parsed in
 //! parallel (rayon). Quoted fields may hold delimiters and quotes but not line breaks.
 
+mod combine;
+mod join;
 mod rank;
 mod read;
 mod stream;
 
+pub use combine::{
+    PointCombination, PointGroup, PointRow, RankedPoints, combined, point_combinations, point_row,
+    rank_points,
+};
+pub use join::{CaseTable, JoinOptions, KEEP_UNMATCHED, Points, TableRead, join};
 pub use rank::rank;
 pub use read::{component_of, preview};
 use read::{read_row, split};
@@ -243,6 +250,14 @@ pub enum TableError {
     /// The ranking measure cannot be evaluated (for example a criterion without strengths).
     #[error("{0}")]
     Measure(String),
+    /// Tables that do not join: an id missing from a load case, or met twice in one.
+    #[error("{place}: {message}")]
+    Join {
+        /// Where: `file:line` or `file`.
+        place: String,
+        /// What is wrong, naming the id.
+        message: String,
+    },
     /// Stopped by the caller.
     #[error("cancelled")]
     Cancelled,

@@ -1,0 +1,486 @@
+//! Load cases as tables (issue 23, items 1–2): tables joined on id columns in any row order,
+//! combinations applied at every point, the envelope over them and the ranking of points.
+//!
+//! Checks against something outside the join: each point's combined tensor against the sum
+//! written out here term by term; the governing value against a brute force over every
+//! combination with the von Mises formula written out (σvM = √(½[(σxx−σyy)² + (σyy−σzz)² +
+//! (σzz−σxx)²] + 3(τxy² + τyz² + τzx²)), Budynas & Nisbett, Shigley's Mechanical Engineering
+//! Design, eq. 5-14, from memory) and, for Tresca, nalgebra's symmetric eigen solver.
+
+#![allow(
+    clippy::unwrap_used,
+    reason = "a test helper that fails should panic loudly"
+)]
+
+use std::fmt::Write as _;
+use std::io::Cursor;
+
+use planewise::mechanics::criteria::Strengths;
+use planewise::mechanics::search::{Measure as PlaneMeasure, SearchSettings};
+use planewise::mechanics::{SignConvention, StressUnit};
+use planewise::study::table::{
+    CaseTable, JoinOptions, Measure, Points, TableError, TableOptions, join, point_combinations,
+    rank_points,
+};
+use planewise::study::{Combination, EnvelopeMeasure, Term};
+use proptest::prelude::*;
+
+/// The textbook von Mises stress (see the file's head), Pa.
+fn von_mises(c: &[f64; 6]) -> f64 {
+    let [xx, yy, zz, xy, yz, zx] = *c;
+    (0.5 * ((xx - yy).powi(2) + (yy - zz).powi(2) + (zz - xx).powi(2))
+        + 3.0 * (xy * xy + yz * yz + zx * zx))
+        .sqrt()
+}
+
+/// Tresca σ1 − σ3 from nalgebra's symmetric eigen solver, Pa.
+fn tresca(c: &[f64; 6]) -> f64 {
+    let [xx, yy, zz, xy, yz, zx] = *c;
+    let m = nalgebra::Matrix3::new(xx, xy, zx, xy, yy, yz, zx, yz, zz);
+    let e = m.symmetric_eigen().eigenvalues;
+    e.max() - e.min()
+}
+
+fn options() -> TableOptions {
+    TableOptions::new(StressUnit::MPa, SignConvention::TensionPositive)
+}
+
+fn ids(names: &[&str]) -> JoinOptions {
+    JoinOptions {
+        ids: names.iter().map(|s| (*s).to_owned()).collect(),
+        ..JoinOptions::default()
+    }
+}
+
+fn tables(list: &[(&str, String)]) -> Vec<CaseTable<Cursor<Vec<u8>>>> {
+    list.iter()
+        .map(|(case, text)| CaseTable {
+            case: (*case).to_owned(),
+            file: format!("{case}.csv"),
+            source: Cursor::new(text.clone().into_bytes()),
+        })
+        .collect()
+}
+
+fn combination(name: &str, terms: &[(&str, f64)]) -> Combination {
+    Combination {
+        name: name.to_owned(),
+        terms: terms
+            .iter()
+            .map(|(case, factor)| Term {
+                case: (*case).to_owned(),
+                factor: *factor,
+                unknown: planewise::study::unknown::UnknownKeys::default(),
+            })
+            .collect(),
+        unknown: planewise::study::unknown::UnknownKeys::default(),
+    }
+}
+
+fn ranking<'a>(
+    measure: EnvelopeMeasure,
+    settings: &'a SearchSettings,
+    strengths: &'a Strengths,
+) -> Measure<'a> {
+    Measure {
+        measure,
+        convention: SignConvention::TensionPositive,
+        plane_settings: settings,
+        strengths,
+    }
+}
+
+/// A table of `case` over the points `order` (element, section point), components from
+/// `values[point]`, written in that row order.
+fn table_text(order: &[usize], values: &[[f64; 6]], header: &str) -> String {
+    let mut t = format!("{header}\n");
+    for &p in order {
+        let c = values[p];
+        let _ = writeln!(
+            t,
+            "{},{},{},{},{},{},{},{}",
+            p / 2 + 1,
+            if p % 2 == 0 { "top" } else { "bottom" },
+            c[0],
+            c[1],
+            c[2],
+            c[3],
+            c[4],
+            c[5]
+        );
+    }
+    t
+}
+
+fn shuffled(n: usize, seed: u64) -> Vec<usize> {
+    let mut order: Vec<usize> = (0..n).collect();
+    let mut s = seed | 1;
+    for i in (1..n).rev() {
+        s ^= s << 13;
+        s ^= s >> 7;
+        s ^= s << 17;
+        order.swap(i, (s % (i as u64 + 1)) as usize);
+    }
+    order
+}
+
+const HEADER: &str = "element,section,xx,yy,zz,xy,yz,zx";
+
+fn component() -> impl Strategy<Value = f64> {
+    (-2000i32..=2000).prop_map(|v| f64::from(v) / 10.0)
+}
+
+fn tensor() -> impl Strategy<Value = [f64; 6]> {
+    proptest::array::uniform6(component())
+}
+
+fn factor() -> impl Strategy<Value = f64> {
+    (-20i32..=20).prop_map(|v| f64::from(v) / 10.0)
+}
+
+proptest! {
+    #![proptest_config(ProptestConfig::with_cases(48))]
+
+    /// Three cases in three shuffled row orders, up to four combinations of random factors:
+    /// every point's governing combination is the largest of the hand-summed tensors' von
+    /// Mises values (brute force), and the ranking is that order.
+    #[test]
+    fn every_point_is_governed_by_its_worst_hand_summed_combination(
+        values in proptest::collection::vec((tensor(), tensor(), tensor()), 1..24),
+        factors in proptest::collection::vec(proptest::array::uniform3(factor()), 1..5),
+        seeds in proptest::array::uniform3(any::<u64>()),
+    ) {
+        let n = values.len();
+        let cases: [Vec<[f64; 6]>; 3] = [
+            values.iter().map(|v| v.0).collect(),
+            values.iter().map(|v| v.1).collect(),
+            values.iter().map(|v| v.2).collect(),
+        ];
+        let names = ["dead", "live", "wind"];
+        let list: Vec<(&str, String)> = (0..3)
+            .map(|c| (names[c], table_text(&shuffled(n, seeds[c]), &cases[c], HEADER)))
+            .collect();
+        let points = join(tables(&list), &options(), &ids(&["element", "section"]), |_| true)
+            .unwrap();
+        prop_assert_eq!(points.len(), n);
+        let combos: Vec<Combination> = factors
+            .iter()
+            .enumerate()
+            .map(|(k, f)| {
+                combination(
+                    &format!("C{k}"),
+                    &[("dead", f[0]), ("live", f[1]), ("wind", f[2])],
+                )
+            })
+            .collect();
+        let settings = SearchSettings::plain(PlaneMeasure::Shear, SignConvention::TensionPositive);
+        let strengths = Strengths::default();
+        let m = ranking(EnvelopeMeasure::VonMises, &settings, &strengths);
+        let pc = point_combinations(&points, &combos).unwrap();
+        let ranked = rank_points(&points, pc, &options(), &m).unwrap();
+        prop_assert_eq!(ranked.rows.len(), n);
+        // Brute force: per point (by its ids), the hand-summed tensor of every combination.
+        let mut expected: Vec<(f64, usize, usize)> = Vec::new();
+        for p in 0..n {
+            let mut best: Option<(f64, usize)> = None;
+            for (k, f) in factors.iter().enumerate() {
+                let sum: [f64; 6] = std::array::from_fn(|i| {
+                    1e6 * (f[0] * cases[0][p][i] + f[1] * cases[1][p][i] + f[2] * cases[2][p][i])
+                });
+                let v = von_mises(&sum);
+                if best.is_none_or(|(b, _)| v > b) {
+                    best = Some((v, k));
+                }
+            }
+            let (v, k) = best.unwrap();
+            expected.push((v, k, p));
+        }
+        for r in &ranked.rows {
+            let element: usize = r.row.carried[0].parse().unwrap();
+            let p = (element - 1) * 2 + usize::from(r.row.carried[1] == "bottom");
+            let (v, _, _) = expected[p];
+            let got = r.row.value.unwrap();
+            prop_assert!((got - v).abs() <= 1e-9 * v.max(1.0), "point {p}: {got} vs {v}");
+            // The governing combination's value is the maximum (ties may pick another index
+            // with the same value).
+            let f = factors[r.combination];
+            let sum: [f64; 6] = std::array::from_fn(|i| {
+                1e6 * (f[0] * cases[0][p][i] + f[1] * cases[1][p][i] + f[2] * cases[2][p][i])
+            });
+            prop_assert!((von_mises(&sum) - v).abs() <= 1e-9 * v.max(1.0));
+            for (a, b) in r.row.tensor.components_pa().iter().zip(sum) {
+                prop_assert!((a - b).abs() <= 1e-9 * b.abs().max(1.0));
+            }
+        }
+        // Worst first.
+        for w in ranked.rows.windows(2) {
+            prop_assert!(w[0].row.value.unwrap() >= w[1].row.value.unwrap());
+        }
+    }
+}
+
+/// The same tables in the same order and in reverse order give the same points and tensors.
+#[test]
+fn rows_in_different_orders_join_on_their_ids() {
+    let values: Vec<[f64; 6]> = (0..10)
+        .map(|p| std::array::from_fn(|i| (p * 6 + i) as f64))
+        .collect();
+    let other: Vec<[f64; 6]> = values.iter().map(|v| v.map(|x| -2.0 * x)).collect();
+    let forward: Vec<usize> = (0..10).collect();
+    let backward: Vec<usize> = (0..10).rev().collect();
+    let list = [
+        ("a", table_text(&forward, &values, HEADER)),
+        ("b", table_text(&backward, &other, HEADER)),
+    ];
+    let points = join(
+        tables(&list),
+        &options(),
+        &ids(&["element", "section"]),
+        |_| true,
+    )
+    .unwrap();
+    assert_eq!(points.len(), 10);
+    for p in 0..10 {
+        let ids = points.ids(p);
+        let element: usize = ids[0].parse().unwrap();
+        let q = (element - 1) * 2 + usize::from(ids[1] == "bottom");
+        assert_eq!(points.tensor(0, p), values[q].map(|x| x * 1e6));
+        assert_eq!(points.tensor(1, p), other[q].map(|x| x * 1e6));
+    }
+}
+
+fn join_error(list: &[(&str, String)], join_options: &JoinOptions) -> String {
+    match join(tables(list), &options(), join_options, |_| true) {
+        Err(e @ (TableError::Join { .. } | TableError::Header { .. })) => e.to_string(),
+        Err(e) => panic!("unexpected error {e}"),
+        Ok(_) => panic!("joined"),
+    }
+}
+
+/// A point missing from a table, or met twice in one, stops the join with the table, line
+/// and id; with `skip_unmatched` it is counted and left out.
+#[test]
+fn missing_and_duplicated_ids_are_named_or_counted() {
+    let values: Vec<[f64; 6]> = (0..6).map(|p| [f64::from(p), 0., 0., 0., 0., 0.]).collect();
+    let all = table_text(&[0, 1, 2, 3, 4, 5], &values, HEADER);
+    let missing = table_text(&[0, 1, 2, 4, 5], &values, HEADER);
+    let twice = table_text(&[0, 1, 2, 3, 3, 4, 5], &values, HEADER);
+    let join_ids = ids(&["element", "section"]);
+    let e = join_error(
+        &[("dead", all.clone()), ("live", missing.clone())],
+        &join_ids,
+    );
+    assert_eq!(
+        e,
+        "live.csv: no row for element=2, section=bottom (load case 'live'; it is in dead.csv)"
+    );
+    let e = join_error(&[("dead", all.clone()), ("live", twice.clone())], &join_ids);
+    assert_eq!(
+        e,
+        "live.csv:6: element=2, section=bottom appears a second time in load case 'live'"
+    );
+    // A point only in the second table is missing from the first.
+    let e = join_error(
+        &[("dead", missing.clone()), ("live", all.clone())],
+        &join_ids,
+    );
+    assert!(
+        e.starts_with("dead.csv: no row for element=2, section=bottom"),
+        "{e}"
+    );
+    // Counted and skipped.
+    let skip = JoinOptions {
+        skip_unmatched: true,
+        ..join_ids.clone()
+    };
+    let points = join(
+        tables(&[("dead", all.clone()), ("live", missing), ("wind", twice)]),
+        &options(),
+        &skip,
+        |_| true,
+    )
+    .unwrap();
+    assert_eq!(points.len(), 6);
+    assert_eq!(points.unmatched_count, 1, "{:?}", points.unmatched);
+    let settings = SearchSettings::plain(PlaneMeasure::Shear, SignConvention::TensionPositive);
+    let strengths = Strengths::default();
+    let m = ranking(EnvelopeMeasure::VonMises, &settings, &strengths);
+    let pc = point_combinations(&points, &[]).unwrap();
+    let ranked = rank_points(&points, pc, &options(), &m).unwrap();
+    assert_eq!(ranked.points, 5);
+    assert!(ranked.rows.iter().all(|r| r.row.carried != ["2", "bottom"]));
+    // Headers: an id column that is not there, or that holds a component.
+    let e = join_error(&[("dead", all.clone())], &ids(&["node"]));
+    assert!(e.starts_with("dead.csv:1: no id column 'node'"), "{e}");
+    let e = join_error(&[("dead", all.clone())], &ids(&["xx"]));
+    assert!(e.contains("holds a stress component"), "{e}");
+    let e = join_error(&[("dead", all.clone()), ("dead", all)], &join_ids);
+    assert_eq!(e, "dead.csv: the load case 'dead' is given twice");
+}
+
+/// One long table with a load-case column gives the same points and tensors as one table per
+/// case, whatever the rows' order.
+#[test]
+fn a_long_table_with_a_case_column_joins_like_one_table_per_case() {
+    let n = 12;
+    let dead: Vec<[f64; 6]> = (0..n)
+        .map(|p| std::array::from_fn(|i| (p * 7 + i) as f64 - 30.0))
+        .collect();
+    let live: Vec<[f64; 6]> = (0..n)
+        .map(|p| std::array::from_fn(|i| ((p * 3 + i * 5) % 11) as f64))
+        .collect();
+    let mut long = String::from("case,element,section,xx,yy,zz,xy,yz,zx\n");
+    let mut rows: Vec<(usize, usize)> = (0..n).flat_map(|p| [(0, p), (1, p)]).collect();
+    let order = shuffled(rows.len(), 99);
+    rows = order.iter().map(|&i| rows[i]).collect();
+    for (c, p) in rows {
+        let v = if c == 0 { dead[p] } else { live[p] };
+        let _ = writeln!(
+            long,
+            "{},{},{},{},{},{},{},{},{}",
+            ["dead", "live"][c],
+            p / 2 + 1,
+            if p % 2 == 0 { "top" } else { "bottom" },
+            v[0],
+            v[1],
+            v[2],
+            v[3],
+            v[4],
+            v[5]
+        );
+    }
+    let long_join = JoinOptions {
+        case_column: Some("case".to_owned()),
+        ..ids(&["element", "section"])
+    };
+    let a = join(tables(&[("", long)]), &options(), &long_join, |_| true).unwrap();
+    let order: Vec<usize> = (0..n).collect();
+    let b = join(
+        tables(&[
+            ("dead", table_text(&order, &dead, HEADER)),
+            ("live", table_text(&order, &live, HEADER)),
+        ]),
+        &options(),
+        &ids(&["element", "section"]),
+        |_| true,
+    )
+    .unwrap();
+    assert_eq!(a.len(), n);
+    let mut cases = a.cases.clone();
+    cases.sort();
+    assert_eq!(cases, ["dead", "live"]);
+    for p in 0..n {
+        let q = b
+            .find(&a.ids(p).iter().map(String::as_str).collect::<Vec<_>>())
+            .unwrap();
+        for (ca, name) in a.cases.iter().enumerate() {
+            let cb = b.cases.iter().position(|c| c == name).unwrap();
+            assert_eq!(a.tensor(ca, p), b.tensor(cb, q));
+        }
+    }
+}
+
+/// The governing combination under a worst-plane-free, eigenvalue measure (Tresca) is the
+/// brute-force maximum over nalgebra's eigenvalues; groups rank their worst points.
+#[test]
+fn tresca_and_groups_over_joined_tables() {
+    let n = 40;
+    let mut s: u64 = 12345;
+    let mut next = || {
+        s ^= s << 13;
+        s ^= s >> 7;
+        s ^= s << 17;
+        (s % 4001) as f64 / 10.0 - 200.0
+    };
+    let a: Vec<[f64; 6]> = (0..n).map(|_| std::array::from_fn(|_| next())).collect();
+    let b: Vec<[f64; 6]> = (0..n).map(|_| std::array::from_fn(|_| next())).collect();
+    let header = "element,section,part,xx,yy,zz,xy,yz,zx";
+    let with_part = |values: &[[f64; 6]], order: &[usize]| {
+        let mut t = format!("{header}\n");
+        for &p in order {
+            let c = values[p];
+            let _ = writeln!(
+                t,
+                "{},{},P{},{},{},{},{},{},{}",
+                p / 2 + 1,
+                if p % 2 == 0 { "top" } else { "bottom" },
+                p % 3,
+                c[0],
+                c[1],
+                c[2],
+                c[3],
+                c[4],
+                c[5]
+            );
+        }
+        t
+    };
+    let list = [
+        ("g", with_part(&a, &shuffled(n, 5))),
+        ("q", with_part(&b, &shuffled(n, 6))),
+    ];
+    let combos = [
+        combination("1.35g+1.5q", &[("g", 1.35), ("q", 1.5)]),
+        combination("1.0g", &[("g", 1.0)]),
+        combination("1.0g-1.5q", &[("g", 1.0), ("q", -1.5)]),
+    ];
+    let factors = [[1.35, 1.5], [1.0, 0.0], [1.0, -1.5]];
+    let brute = |p: usize| {
+        factors
+            .iter()
+            .map(|f| {
+                let t: [f64; 6] = std::array::from_fn(|i| 1e6 * (f[0] * a[p][i] + f[1] * b[p][i]));
+                tresca(&t)
+            })
+            .fold(f64::NEG_INFINITY, f64::max)
+    };
+    let mut opts = options();
+    opts.group_by = Some("part".to_owned());
+    let points = join(tables(&list), &opts, &ids(&["element", "section"]), |_| {
+        true
+    })
+    .unwrap();
+    let settings = SearchSettings::plain(PlaneMeasure::Shear, SignConvention::TensionPositive);
+    let strengths = Strengths::default();
+    let m = ranking(EnvelopeMeasure::Tresca, &settings, &strengths);
+    let pc = point_combinations(&points, &combos).unwrap();
+    let ranked = rank_points(&points, pc, &opts, &m).unwrap();
+    assert_eq!(ranked.groups.len(), 3);
+    for g in &ranked.groups {
+        let k: usize = g.name[1..].parse().unwrap();
+        let members: Vec<usize> = (0..n).filter(|p| p % 3 == k).collect();
+        assert_eq!(g.points, members.len() as u64);
+        let worst = members
+            .iter()
+            .map(|&p| brute(p))
+            .fold(f64::NEG_INFINITY, f64::max);
+        let got = g.worst.row.value.unwrap();
+        assert!(
+            (got - worst).abs() <= 1e-6 * worst,
+            "{}: {got} vs {worst}",
+            g.name
+        );
+    }
+    for w in ranked.groups.windows(2) {
+        assert!(w[0].worst.row.value >= w[1].worst.row.value);
+    }
+    assert_eq!(ranked.governs.iter().sum::<u64>(), n as u64);
+}
+
+/// A combination naming a case the tables lack is refused with the cases they have.
+#[test]
+fn a_combination_of_an_unknown_case_is_refused() {
+    let values = vec![[1.0, 0., 0., 0., 0., 0.]];
+    let points: Points = join(
+        tables(&[("dead", table_text(&[0], &values, HEADER))]),
+        &options(),
+        &ids(&["element", "section"]),
+        |_| true,
+    )
+    .unwrap();
+    let e = point_combinations(&points, &[combination("ULS", &[("snow", 1.5)])]).unwrap_err();
+    assert_eq!(
+        e,
+        "combination 'ULS' names the load case 'snow', which the tables do not have (they have: dead)"
+    );
+}
