@@ -12,6 +12,8 @@
     reason = "a test helper that fails should panic loudly"
 )]
 
+mod common;
+
 use std::fmt::Write as _;
 use std::io::Cursor;
 
@@ -176,7 +178,7 @@ proptest! {
         let settings = SearchSettings::plain(PlaneMeasure::Shear, SignConvention::TensionPositive);
         let strengths = Strengths::default();
         let m = ranking(EnvelopeMeasure::VonMises, &settings, &strengths);
-        let pc = point_combinations(&points, &combos).unwrap();
+        let pc = point_combinations(&points.cases, &combos).unwrap();
         let ranked = rank_points(&points, pc, &options(), &m).unwrap();
         prop_assert_eq!(ranked.rows.len(), n);
         // Brute force: per point (by its ids), the hand-summed tensor of every combination.
@@ -305,7 +307,7 @@ fn missing_and_duplicated_ids_are_named_or_counted() {
     let settings = SearchSettings::plain(PlaneMeasure::Shear, SignConvention::TensionPositive);
     let strengths = Strengths::default();
     let m = ranking(EnvelopeMeasure::VonMises, &settings, &strengths);
-    let pc = point_combinations(&points, &[]).unwrap();
+    let pc = point_combinations(&points.cases, &[]).unwrap();
     let ranked = rank_points(&points, pc, &options(), &m).unwrap();
     assert_eq!(ranked.points, 5);
     assert!(ranked.rows.iter().all(|r| r.row.carried != ["2", "bottom"]));
@@ -443,7 +445,7 @@ fn tresca_and_groups_over_joined_tables() {
     let settings = SearchSettings::plain(PlaneMeasure::Shear, SignConvention::TensionPositive);
     let strengths = Strengths::default();
     let m = ranking(EnvelopeMeasure::Tresca, &settings, &strengths);
-    let pc = point_combinations(&points, &combos).unwrap();
+    let pc = point_combinations(&points.cases, &combos).unwrap();
     let ranked = rank_points(&points, pc, &opts, &m).unwrap();
     assert_eq!(ranked.groups.len(), 3);
     for g in &ranked.groups {
@@ -478,9 +480,311 @@ fn a_combination_of_an_unknown_case_is_refused() {
         |_| true,
     )
     .unwrap();
-    let e = point_combinations(&points, &[combination("ULS", &[("snow", 1.5)])]).unwrap_err();
+    let e = point_combinations(&points.cases, &[combination("ULS", &[("snow", 1.5)])]).unwrap_err();
     assert_eq!(
         e,
         "combination 'ULS' names the load case 'snow', which the tables do not have (they have: dead)"
     );
+}
+
+mod cli {
+    //! `planewise batch` over load-case tables, from the command line.
+
+    use std::fmt::Write as _;
+
+    use super::common::{assert_bad_input, planewise, planewise_ok};
+
+    /// Writes the invented example tables (a two-element shell, top and bottom; values made
+    /// up for the test) into a fresh folder; returns it.
+    fn example() -> std::path::PathBuf {
+        let dir = std::env::temp_dir().join(format!("planewise-lt-{}", std::process::id()));
+        std::fs::create_dir_all(&dir).unwrap();
+        let head = "element,section,part,xx,yy,zz,xy,yz,zx\n";
+        let write = |name: &str, rows: &str| {
+            std::fs::write(dir.join(name), format!("{head}{rows}")).unwrap();
+        };
+        write(
+            "dead.csv",
+            "1,top,web,10,2,0,1,0,0\n1,bottom,web,-10,-2,0,-1,0,0\n2,top,flange,20,5,0,3,0,0\n2,bottom,flange,-20,-5,0,-3,0,0\n",
+        );
+        // Another row order.
+        write(
+            "live.csv",
+            "2,bottom,flange,-8,-1,0,-2,0,0\n1,top,web,5,1,0,0.5,0,0\n2,top,flange,8,1,0,2,0,0\n1,bottom,web,-5,-1,0,-0.5,0,0\n",
+        );
+        write(
+            "wind.csv",
+            "1,top,web,-3,0,0,6,0,0\n1,bottom,web,3,0,0,-6,0,0\n2,top,flange,4,0,0,1,0,0\n2,bottom,flange,-4,0,0,-1,0,0\n",
+        );
+        dir
+    }
+
+    fn arg(dir: &std::path::Path, case: &str) -> String {
+        format!("{case}={}", dir.join(format!("{case}.csv")).display())
+    }
+
+    /// EN 1990 expression (6.10) generated from three actions and applied at every point: the
+    /// worst point's governing combination and its tensor, summed here by hand.
+    #[test]
+    fn generated_combinations_govern_each_point() {
+        let dir = example();
+        let (d, l, w) = (arg(&dir, "dead"), arg(&dir, "live"), arg(&dir, "wind"));
+        let out = planewise_ok(&[
+            "batch",
+            &d,
+            &l,
+            &w,
+            "--ids",
+            "element,section",
+            "--unit",
+            "MPa",
+            "--rank",
+            "von-mises",
+            "--permanent",
+            "dead:1.35:1.0",
+            "--variable",
+            "live:1.5:0.7",
+            "--variable",
+            "wind:1.5:0.6",
+            "--top",
+            "2",
+            "--json",
+            "--quiet",
+        ]);
+        let json: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
+        // 2 × (1 + 2 × 2) = 10 combinations (EN 1990 (6.10) with each permanent action
+        // unfavourable or favourable and each variable action leading in turn).
+        assert_eq!(json["combinations"].as_array().unwrap().len(), 10);
+        let top = &json["rows"][0];
+        assert_eq!(top["ids"]["element"], "2");
+        assert_eq!(top["ids"]["section"], "top");
+        assert_eq!(
+            top["combination"],
+            "6.10 live leads | dead unfav | wind accomp"
+        );
+        // By hand: 1.35 × dead + 1.5 × live + 1.5 × 0.6 × wind at element 2, top.
+        let expected = [
+            1.35 * 20.0 + 1.5 * 8.0 + 0.9 * 4.0,
+            1.35 * 5.0 + 1.5 * 1.0,
+            0.0,
+            1.35 * 3.0 + 1.5 * 2.0 + 0.9 * 1.0,
+            0.0,
+            0.0,
+        ];
+        for (got, want) in top["components"].as_array().unwrap().iter().zip(expected) {
+            assert!(
+                (got.as_f64().unwrap() - want).abs() < 1e-9,
+                "{got} vs {want}"
+            );
+        }
+        assert_eq!(json["points"], 4);
+        let governed: u64 = json["combinations"]
+            .as_array()
+            .unwrap()
+            .iter()
+            .map(|c| c["points_governed"].as_u64().unwrap())
+            .sum();
+        assert_eq!(governed, 4);
+    }
+
+    /// Given combinations, CSV output, groups and a threshold.
+    #[test]
+    fn given_combinations_as_csv_by_groups() {
+        let dir = example();
+        let (d, l) = (arg(&dir, "dead"), arg(&dir, "live"));
+        let out = planewise_ok(&[
+            "batch",
+            &d,
+            &l,
+            "--ids",
+            "element,section",
+            "--unit",
+            "MPa",
+            "--rank",
+            "sigma1",
+            "--combination",
+            "ULS:dead=1.35,live=1.5",
+            "--combination",
+            "SLS:dead=1,live=1",
+            "--group-by",
+            "part",
+            "--at-or-beyond",
+            "10",
+            "--quiet",
+        ]);
+        let text = String::from_utf8(out.stdout).unwrap();
+        let lines: Vec<&str> = text.lines().collect();
+        assert_eq!(
+            lines[0],
+            "part,points,points_at_or_beyond,point,element,section,combination,xx_MPa,yy_MPa,zz_MPa,xy_MPa,yz_MPa,zx_MPa,sigma1_MPa,sigma2_MPa,sigma3_MPa,condition"
+        );
+        assert_eq!(lines.len(), 3, "{text}");
+        // Flange first (element 2 top under ULS: xx = 1.35·20 + 1.5·8 = 39); both flange
+        // points? Only the top is in tension: σ1 of the bottom is 0 (plane stress, zz = 0).
+        assert!(
+            lines[1].starts_with("flange,2,1,3,2,top,ULS,39,"),
+            "{}",
+            lines[1]
+        );
+        assert!(lines[2].starts_with("web,2,1,1,1,top,ULS,"), "{}", lines[2]);
+    }
+
+    /// A long table with a case column gives the same answer as a table per case.
+    #[test]
+    fn a_long_table_gives_the_same_answer() {
+        let dir = example();
+        let mut long = String::from("element,section,case,xx,yy,zz,xy,yz,zx\n");
+        for case in ["wind", "dead", "live"] {
+            let text = std::fs::read_to_string(dir.join(format!("{case}.csv"))).unwrap();
+            for row in text.lines().skip(1) {
+                let f: Vec<&str> = row.split(',').collect();
+                let _ = writeln!(long, "{},{},{case},{}", f[0], f[1], f[3..].join(","));
+            }
+        }
+        let path = dir.join("long.csv");
+        std::fs::write(&path, long).unwrap();
+        let common = [
+            "--ids",
+            "element,section",
+            "--unit",
+            "MPa",
+            "--rank",
+            "tresca",
+            "--combination",
+            "A:dead=1.35,live=1.5,wind=0.9",
+            "--combination",
+            "B:dead=1,wind=1.5",
+            "--json",
+            "--quiet",
+        ];
+        let mut a = vec!["batch", path.to_str().unwrap(), "--case-column", "case"];
+        a.extend(common);
+        let (d, l, w) = (arg(&dir, "dead"), arg(&dir, "live"), arg(&dir, "wind"));
+        let mut b = vec!["batch", &d, &l, &w];
+        b.extend(common);
+        let ja: serde_json::Value = serde_json::from_slice(&planewise_ok(&a).stdout).unwrap();
+        let jb: serde_json::Value = serde_json::from_slice(&planewise_ok(&b).stdout).unwrap();
+        let strip = |j: &serde_json::Value| {
+            j["rows"]
+                .as_array()
+                .unwrap()
+                .iter()
+                .map(|r| {
+                    (
+                        r["ids"].clone(),
+                        r["combination"].clone(),
+                        r["value"].clone(),
+                    )
+                })
+                .collect::<Vec<_>>()
+        };
+        assert_eq!(strip(&ja), strip(&jb));
+        assert_eq!(ja["cases"], serde_json::json!(["wind", "dead", "live"]));
+    }
+
+    /// Refusals name the argument and say what is wrong.
+    #[test]
+    fn bad_load_case_arguments_are_refused() {
+        let dir = example();
+        let (d, l) = (arg(&dir, "dead"), arg(&dir, "live"));
+        let dead = dir.join("dead.csv");
+        let dead = dead.to_str().unwrap();
+        let base = ["--unit", "MPa", "--rank", "von-mises"];
+        let with = |extra: &[&'static str], files: &[String]| -> Vec<String> {
+            let mut v: Vec<String> = files.to_vec();
+            v.extend(base.iter().map(|s| (*s).to_owned()));
+            v.extend(extra.iter().map(|s| (*s).to_owned()));
+            v
+        };
+        let cases: Vec<(Vec<String>, &str)> = vec![
+            (
+                with(&["--ids", "element,section"], &[dead.to_owned(), l.clone()]),
+                "CASE=FILE",
+            ),
+            (with(&[], &[d.clone(), l.clone()]), "--ids"),
+            (
+                with(
+                    &[
+                        "--ids",
+                        "element,section",
+                        "--combination",
+                        "U:dead=1.35,snow=1.5",
+                    ],
+                    &[d.clone(), l.clone()],
+                ),
+                "'snow', which the tables do not have (they have: dead, live)",
+            ),
+            (
+                with(
+                    &["--ids", "element,section", "--combination", "dead=1.35"],
+                    std::slice::from_ref(&d),
+                ),
+                "NAME:CASE=FACTOR",
+            ),
+            (
+                with(&["--ids", "node"], std::slice::from_ref(&d)),
+                "no id column 'node'",
+            ),
+            (
+                with(
+                    &["--ids", "element,section", "--case-column", "case"],
+                    &[d.clone(), l.clone()],
+                ),
+                "--case-column",
+            ),
+            (
+                with(&["--ids", "element,section"], &["dead=-".to_owned()]),
+                "standard input",
+            ),
+        ];
+        let owned: Vec<(Vec<&str>, &str)> = cases
+            .iter()
+            .map(|(v, m)| (v.iter().map(String::as_str).collect(), *m))
+            .collect();
+        let refs: Vec<(&[&str], &str)> = owned.iter().map(|(v, m)| (v.as_slice(), *m)).collect();
+        assert_bad_input("batch", &refs);
+        // An id missing from a table: named with the table, or counted with --skip-unmatched.
+        let short = dir.join("short.csv");
+        let text = std::fs::read_to_string(dir.join("live.csv")).unwrap();
+        std::fs::write(
+            &short,
+            text.lines().take(4).collect::<Vec<_>>().join("\n") + "\n",
+        )
+        .unwrap();
+        let s = format!("live={}", short.display());
+        let out = planewise(&[
+            "batch",
+            &d,
+            &s,
+            "--ids",
+            "element,section",
+            "--unit",
+            "MPa",
+            "--rank",
+            "von-mises",
+        ]);
+        assert_eq!(out.status.code(), Some(2));
+        let err = String::from_utf8_lossy(&out.stderr);
+        assert!(
+            err.contains("short.csv: no row for element=1, section=bottom (load case 'live'"),
+            "{err}"
+        );
+        let out = planewise_ok(&[
+            "batch",
+            &d,
+            &s,
+            "--ids",
+            "element,section",
+            "--unit",
+            "MPa",
+            "--rank",
+            "von-mises",
+            "--skip-unmatched",
+            "--json",
+            "--quiet",
+        ]);
+        let json: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
+        assert_eq!(json["points_left_out"], 1);
+        assert_eq!(json["points"], 3);
+    }
 }

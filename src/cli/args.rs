@@ -798,3 +798,69 @@ impl FigureOutArgs {
         Ok(format!("wrote {}\n", self.out.display()))
     }
 }
+
+/// Combination terms written `CASE=FACTOR,…` (factors may be negative or zero), for `arg`.
+pub fn terms_of(arg: &'static str, text: &str) -> Result<Vec<crate::study::Term>, ArgError> {
+    let mut terms = Vec::new();
+    for item in text.split(',').map(str::trim).filter(|s| !s.is_empty()) {
+        let Some((case, factor)) = item.rsplit_once('=') else {
+            return Err(ArgError::new(
+                arg,
+                format!("item '{item}' is not of the form CASE=FACTOR"),
+            ));
+        };
+        let factor = crate::text::parse::number(factor)
+            .map_err(|e| ArgError::new(arg, format!("factor of '{}' {e}", case.trim())))?;
+        terms.push(crate::study::Term {
+            unknown: crate::study::unknown::UnknownKeys::new(),
+            case: case.trim().to_owned(),
+            factor,
+        });
+    }
+    if terms.is_empty() {
+        return Err(ArgError::new(arg, "no terms given"));
+    }
+    Ok(terms)
+}
+
+/// An action written CASE:A:B (the case may hold ':'; the two factors are the last fields).
+fn action_of(arg: &'static str, text: &str) -> Result<(String, f64, f64), ArgError> {
+    let mut parts = text.rsplitn(3, ':');
+    let (Some(b), Some(a), Some(case)) = (parts.next(), parts.next(), parts.next()) else {
+        return Err(ArgError::new(
+            arg,
+            format!("'{text}' is not of the form CASE:FACTOR:FACTOR"),
+        ));
+    };
+    let number = |t: &str| {
+        crate::text::parse::number(t).map_err(|e| ArgError::new(arg, format!("'{text}': {e}")))
+    };
+    Ok((case.trim().to_owned(), number(a)?, number(b)?))
+}
+
+/// The actions of `--permanent CASE:SUP:INF` and `--variable CASE:GAMMA:PSI0`.
+pub fn actions_of(
+    permanent: &[String],
+    variable: &[String],
+) -> Result<Vec<crate::study::actions::Action>, ArgError> {
+    use crate::study::actions::{Action, ActionKind};
+    let mut actions = Vec::new();
+    for text in permanent {
+        let (case, unfavourable, favourable) = action_of("--permanent", text)?;
+        actions.push(Action {
+            case,
+            kind: ActionKind::Permanent {
+                unfavourable,
+                favourable,
+            },
+        });
+    }
+    for text in variable {
+        let (case, gamma, psi0) = action_of("--variable", text)?;
+        actions.push(Action {
+            case,
+            kind: ActionKind::Variable { gamma, psi0 },
+        });
+    }
+    Ok(actions)
+}

@@ -9,7 +9,7 @@ use clap::{Args, Subcommand};
 
 use super::{ArgError, CliError, values};
 use crate::mechanics::{SignConvention, StressUnit};
-use crate::study::{self, CaseInput, Combination, LoadCase, Project, Term, TypedTensor};
+use crate::study::{self, CaseInput, Combination, LoadCase, Project, TypedTensor};
 use crate::text::format::sig;
 use crate::text::parse;
 
@@ -251,41 +251,10 @@ pub struct GenerateArgs {
     pub replace: bool,
 }
 
-/// An action written CASE:A:B (the case may hold ':'; the two factors are the last fields).
-fn action_of(arg: &'static str, text: &str) -> Result<(String, f64, f64), ArgError> {
-    let mut parts = text.rsplitn(3, ':');
-    let (Some(b), Some(a), Some(case)) = (parts.next(), parts.next(), parts.next()) else {
-        return Err(ArgError::new(
-            arg,
-            format!("'{text}' is not of the form CASE:FACTOR:FACTOR"),
-        ));
-    };
-    let number =
-        |t: &str| parse::number(t).map_err(|e| ArgError::new(arg, format!("'{text}': {e}")));
-    Ok((case.trim().to_owned(), number(a)?, number(b)?))
-}
-
 fn generate_combinations(a: &GenerateArgs) -> Result<String, CliError> {
-    use crate::study::actions::{Action, ActionKind, fundamental_combinations};
+    use crate::study::actions::{ActionKind, fundamental_combinations};
     let mut project = load(&a.file)?;
-    let mut actions = Vec::new();
-    for text in &a.permanent {
-        let (case, unfavourable, favourable) = action_of("--permanent", text)?;
-        actions.push(Action {
-            case,
-            kind: ActionKind::Permanent {
-                unfavourable,
-                favourable,
-            },
-        });
-    }
-    for text in &a.variable {
-        let (case, gamma, psi0) = action_of("--variable", text)?;
-        actions.push(Action {
-            case,
-            kind: ActionKind::Variable { gamma, psi0 },
-        });
-    }
+    let actions = super::args::actions_of(&a.permanent, &a.variable)?;
     for action in &actions {
         if !project.cases.iter().any(|c| c.name == action.case) {
             let arg = match action.kind {
@@ -339,7 +308,7 @@ pub struct ShowArgs {
     pub json: bool,
 }
 
-fn load(file: &Path) -> Result<Project, ArgError> {
+pub(super) fn load(file: &Path) -> Result<Project, ArgError> {
     study::load(file)
         .map(|(p, _)| p)
         .map_err(|e| ArgError::new("FILE", e))
@@ -438,32 +407,7 @@ pub fn run(args: &ProjectArgs) -> Result<String, CliError> {
         }
         ProjectAction::Combine(a) => {
             let mut project = load(&a.file)?;
-            let mut terms = Vec::new();
-            for item in a
-                .factors
-                .split(',')
-                .map(str::trim)
-                .filter(|s| !s.is_empty())
-            {
-                let Some((case, factor)) = item.rsplit_once('=') else {
-                    return Err(ArgError::new(
-                        "--factors",
-                        format!("item '{item}' is not of the form CASE=FACTOR"),
-                    )
-                    .into());
-                };
-                let factor = parse::number(factor).map_err(|e| {
-                    ArgError::new("--factors", format!("factor of '{}' {e}", case.trim()))
-                })?;
-                terms.push(Term {
-                    unknown: crate::study::unknown::UnknownKeys::new(),
-                    case: case.trim().to_owned(),
-                    factor,
-                });
-            }
-            if terms.is_empty() {
-                return Err(ArgError::new("--factors", "no terms given").into());
-            }
+            let terms = super::args::terms_of("--factors", &a.factors)?;
             let name = a.name.trim().to_owned();
             if terms.iter().any(|t| t.case == name) {
                 return Err(ArgError::new(

@@ -24,21 +24,21 @@ pub struct PointCombination {
     pub factors: Vec<f64>,
 }
 
-/// The combinations' factors per case of `points`; a term naming a case the tables do not
-/// have is refused, listing the cases they have. Without combinations, each case alone (factor
-/// 1) — the envelope over the cases, said so by the caller.
+/// The combinations' factors per load case (`cases`, as [`Points::cases`] orders them); a
+/// term naming a case the tables do not have is refused, listing the cases they have. Without
+/// combinations, each case alone (factor 1) — the envelope over the cases, said so by the
+/// caller.
 pub fn point_combinations(
-    points: &Points,
+    cases: &[String],
     combinations: &[Combination],
 ) -> Result<Vec<PointCombination>, String> {
     if combinations.is_empty() {
-        return Ok(points
-            .cases
+        return Ok(cases
             .iter()
             .enumerate()
             .map(|(c, name)| PointCombination {
                 name: name.clone(),
-                factors: (0..points.cases.len())
+                factors: (0..cases.len())
                     .map(|k| if k == c { 1.0 } else { 0.0 })
                     .collect(),
             })
@@ -47,10 +47,9 @@ pub fn point_combinations(
     combinations
         .iter()
         .map(|comb| {
-            let mut factors = vec![0.0; points.cases.len()];
+            let mut factors = vec![0.0; cases.len()];
             for t in &comb.terms {
-                let c = points
-                    .cases
+                let c = cases
                     .iter()
                     .position(|c| *c == t.case)
                     .ok_or_else(|| {
@@ -58,7 +57,7 @@ pub fn point_combinations(
                             "combination '{}' names the load case '{}', which the tables do not have (they have: {})",
                             comb.name,
                             t.case,
-                            points.cases.join(", ")
+                            cases.join(", ")
                         )
                     })?;
                 if !t.factor.is_finite() {

@@ -63,7 +63,7 @@ pub struct TableRead {
 /// The points of joined tables, each with one tensor per load case.
 #[derive(Debug)]
 pub struct Points {
-    /// The id columns' names, as the first table writes them.
+    /// The id columns' names, as the user gave them.
     pub id_names: Vec<String>,
     /// The load cases, in the order given (or, with a case column, first met).
     pub cases: Vec<String>,
@@ -503,7 +503,7 @@ pub fn join<R: Read>(
     let long = join.case_column.is_some();
     let mut gather = Gather {
         points: Points {
-            id_names: Vec::new(),
+            id_names: join.ids.iter().map(|n| n.trim().to_owned()).collect(),
             cases: Vec::new(),
             tables: Vec::new(),
             ids: Vec::new(),
@@ -569,10 +569,6 @@ pub fn join<R: Read>(
             },
         )?;
         read_before += read_here;
-        let h = &streamed.header;
-        if gather.points.id_names.is_empty() {
-            gather.points.id_names = h.ids.iter().map(|&i| h.header.names[i].clone()).collect();
-        }
         gather.points.tables.push(TableRead {
             file,
             case: if long { String::new() } else { table.case },

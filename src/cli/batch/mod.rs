@@ -18,6 +18,8 @@ use crate::study::EnvelopeMeasure;
 use crate::study::table::{self, COMPONENTS, Ranked, TableError, TableOptions};
 use crate::text::format::clean;
 
+mod cases;
+
 /// Arguments of `planewise batch`.
 #[derive(Debug, Clone, Args)]
 #[expect(
@@ -26,9 +28,44 @@ use crate::text::format::clean;
 )]
 pub struct BatchArgs {
     /// The table: CSV, TSV, semicolon- or whitespace-separated text with a header row; `-` reads
-    /// standard input.
-    #[arg(value_name = "FILE")]
-    pub file: String,
+    /// standard input. Load cases as tables: one CASE=FILE per case (with --ids), or one long
+    /// table with --case-column.
+    #[arg(value_name = "FILE", required = true)]
+    pub files: Vec<String>,
+    /// Load-case tables: the id columns that name a point in every table, comma-separated (one
+    /// or more: element, integration point, section point); the tables are joined on them in
+    /// any row order.
+    #[arg(long, value_name = "COLUMN,…", value_delimiter = ',')]
+    pub ids: Vec<String>,
+    /// One long table of load cases: the column naming each row's load case.
+    #[arg(long, value_name = "COLUMN", requires = "ids")]
+    pub case_column: Option<String>,
+    /// A combination applied at every point, NAME:CASE=FACTOR,… (e.g.
+    /// "ULS-1:dead=1.35,live=1.5"). Repeat for each. Without any combination, each load case
+    /// alone is enveloped.
+    #[arg(
+        long,
+        value_name = "NAME:CASE=FACTOR,…",
+        requires = "ids",
+        allow_hyphen_values = true
+    )]
+    pub combination: Vec<String>,
+    /// With --variable: a permanent action, its load case, γG,sup and γG,inf (e.g.
+    /// dead:1.35:1.0); the combinations of EN 1990 expression (6.10) are generated and applied
+    /// at every point. The factors are yours. Repeat for each.
+    #[arg(long, value_name = "CASE:SUP:INF", requires = "ids")]
+    pub permanent: Vec<String>,
+    /// A variable action, its load case, γQ and ψ0 (e.g. live:1.5:0.7). Repeat for each.
+    #[arg(long, value_name = "CASE:GAMMA:PSI0", requires = "ids")]
+    pub variable: Vec<String>,
+    /// Apply the combinations of this project file at every point (their load cases must be
+    /// the tables' cases).
+    #[arg(long, value_name = "PROJECT", requires = "ids")]
+    pub combinations_from: Option<PathBuf>,
+    /// Count and leave out points missing from a load case or met twice in one (default: stop
+    /// at the first, naming its table, line and ids).
+    #[arg(long, requires = "ids")]
+    pub skip_unmatched: bool,
     /// Which header names hold the components, e.g. `xx=S11,yy=S22,zz=S33,xy=S12,yz=S23,zx=S13`
     /// (default: the columns named xx, yy, zz, xy, yz, zx, case-insensitive, also sxx… and
     /// s11…).
@@ -205,6 +242,15 @@ pub struct RowJson {
     pub line: u64,
     /// The carried columns by header name.
     pub carried: serde_json::Map<String, serde_json::Value>,
+    /// Its state's numbers.
+    #[serde(flatten)]
+    pub state: StateJson,
+}
+
+/// A ranked state's numbers: the same for a table's row and for a point's governing
+/// combination.
+#[derive(Debug, Serialize)]
+pub struct StateJson {
     /// xx, yy, zz, xy, yz, zx in the unit and convention.
     pub components: [f64; 6],
     /// σ1 ≥ σ2 ≥ σ3 in the convention.
@@ -249,8 +295,35 @@ fn columns(text: &str) -> Result<Vec<(usize, String)>, ArgError> {
     Ok(out)
 }
 
-/// Runs the subcommand.
-pub fn run(args: &BatchArgs) -> Result<String, CliError> {
+/// What every ranking of `batch` needs, read from the arguments once.
+pub(crate) struct Setup {
+    /// The components' unit.
+    pub unit: StressUnit,
+    /// Their sign convention.
+    pub convention: SignConvention,
+    /// The worst-plane measures' pore pressure and Coulomb strength.
+    pub settings: SearchSettings,
+    /// The criteria's strengths.
+    pub strengths: crate::mechanics::criteria::Strengths,
+    /// The reading and ranking options.
+    pub options: TableOptions,
+}
+
+impl Setup {
+    /// The one ranking measure.
+    pub fn measure(&self, rank: EnvelopeMeasure) -> table::Measure<'_> {
+        table::Measure {
+            measure: rank,
+            convention: self.convention,
+            plane_settings: &self.settings,
+            strengths: &self.strengths,
+        }
+    }
+}
+
+/// Reads the measure's parameters and the table options, checking that the measure can be
+/// evaluated and that `--out` is not one of the tables.
+fn setup(args: &BatchArgs) -> Result<Setup, CliError> {
     let unit = args.unit;
     let convention = if args.compression_positive {
         SignConvention::CompressionPositive
@@ -291,11 +364,14 @@ pub fn run(args: &BatchArgs) -> Result<String, CliError> {
             return Err(ArgError::new("--rank", format!("{}: {}", c.label(), check.note)).into());
         }
     }
-    if let Some(out) = &args.out
-        && args.file != "-"
-    {
-        crate::study::atomic::not_an_input(out, &[std::path::Path::new(&args.file)])
-            .map_err(|e| ArgError::new("--out", e))?;
+    if let Some(out) = &args.out {
+        let inputs: Vec<&std::path::Path> = args
+            .files
+            .iter()
+            .filter(|f| *f != "-")
+            .map(|f| std::path::Path::new(cases::file_part(f, args)))
+            .collect();
+        crate::study::atomic::not_an_input(out, &inputs).map_err(|e| ArgError::new("--out", e))?;
     }
     let above = args
         .at_or_beyond
@@ -325,25 +401,22 @@ pub fn run(args: &BatchArgs) -> Result<String, CliError> {
         plane_stress: args.plane_stress,
         group_by: args.group_by.clone(),
     };
-    let measure = table::Measure {
-        measure: args.rank,
+    Ok(Setup {
+        unit,
         convention,
-        plane_settings: &settings,
-        strengths: &strengths,
-    };
-    let name = if args.file == "-" {
-        "standard input".to_owned()
-    } else {
-        args.file.clone()
-    };
-    let size = (args.file != "-")
-        .then(|| std::fs::metadata(&args.file).ok().map(|m| m.len()))
-        .flatten();
+        settings,
+        strengths,
+        options,
+    })
+}
+
+/// A progress line on standard error for `size` bytes (when known), at most twice a second.
+pub(crate) fn progress_line(quiet: bool, size: Option<u64>) -> impl FnMut(u64) -> bool {
     let started = Instant::now();
     let mut last = 0.0;
-    let progress = |bytes: u64| {
+    move |bytes: u64| {
         let t = started.elapsed().as_secs_f64();
-        if !args.quiet && t - last >= 0.5 {
+        if !quiet && t - last >= 0.5 {
             last = t;
             let mb = bytes as f64 / 1e6;
             let share = size.map_or_else(String::new, |s| {
@@ -359,10 +432,39 @@ pub fn run(args: &BatchArgs) -> Result<String, CliError> {
             );
         }
         true
+    }
+}
+
+/// Runs the subcommand.
+pub fn run(args: &BatchArgs) -> Result<String, CliError> {
+    let setup = setup(args)?;
+    if cases::joined(args) {
+        return cases::run(args, &setup);
+    }
+    if args.files.len() > 1 {
+        return Err(ArgError::new(
+            "FILE",
+            "several tables are load cases: give each as CASE=FILE and name the id columns that join them with --ids",
+        )
+        .into());
+    }
+    let file = &args.files[0];
+    let (unit, convention, options) = (setup.unit, setup.convention, &setup.options);
+    let above = options.above;
+    let measure = setup.measure(args.rank);
+    let name = if file == "-" {
+        "standard input".to_owned()
+    } else {
+        file.to_owned()
     };
+    let size = (file != "-")
+        .then(|| std::fs::metadata(file).ok().map(|m| m.len()))
+        .flatten();
+    let started = Instant::now();
+    let progress = progress_line(args.quiet, size);
     // A full ranking holds each row's place, not the row, and reads the rows again in order:
     // from the file, or from a copy of standard input spilled to a temporary file.
-    let (ranked, source) = if args.file == "-" {
+    let (ranked, source) = if file == "-" {
         let stdin = std::io::stdin().lock();
         if options.by_place {
             let spill = spill_file().map_err(anyhow::Error::from)?;
@@ -371,25 +473,19 @@ pub fn run(args: &BatchArgs) -> Result<String, CliError> {
                 copy: std::io::BufWriter::new(&spill),
             };
             (
-                table::rank(tee, &name, &options, &measure, progress),
+                table::rank(tee, &name, options, &measure, progress),
                 Some(spill),
             )
         } else {
-            (
-                table::rank(stdin, &name, &options, &measure, progress),
-                None,
-            )
+            (table::rank(stdin, &name, options, &measure, progress), None)
         }
     } else {
-        if std::fs::metadata(&args.file).is_ok_and(|m| m.is_dir()) {
+        if std::fs::metadata(file).is_ok_and(|m| m.is_dir()) {
             return Err(ArgError::new("FILE", format!("{name} is a folder, not a table")).into());
         }
-        let f = std::fs::File::open(&args.file)
+        let f = std::fs::File::open(file)
             .map_err(|cause| ArgError::new("FILE", format!("{name}: {cause}")))?;
-        (
-            table::rank(&f, &name, &options, &measure, progress),
-            Some(f),
-        )
+        (table::rank(&f, &name, options, &measure, progress), Some(f))
     };
     let ranked = match ranked {
         Ok(r) => r,
@@ -426,7 +522,7 @@ pub fn run(args: &BatchArgs) -> Result<String, CliError> {
         ranked: &ranked,
         source: source.as_ref(),
         file: &name,
-        options: &options,
+        options,
         measure: &measure,
         rank: args.rank,
         unit,
@@ -591,13 +687,15 @@ fn row_json(
     RowJson {
         line: r.line,
         carried: serde_json::Map::new(),
-        components: r.tensor.components_pa().map(shown),
-        principal,
-        value: r
-            .value
-            .map(|v| clean(if rank.is_stress() { unit.from_pa(v) } else { v })),
-        condition: r.standing,
-        plane: r.plane,
+        state: StateJson {
+            components: r.tensor.components_pa().map(shown),
+            principal,
+            value: r
+                .value
+                .map(|v| clean(if rank.is_stress() { unit.from_pa(v) } else { v })),
+            condition: r.standing,
+            plane: r.plane,
+        },
     }
 }
 
@@ -610,24 +708,27 @@ fn field(text: &str) -> String {
     }
 }
 
-/// Plain RFC 4180 CSV: the header first (units in the column names), one row per ranked row;
-/// the run's description goes to standard error and `--json`.
 /// The CSV columns of a row, from `line` to the plane (the carried columns by their names).
 fn row_columns(json: &BatchJson<'_>) -> Vec<String> {
-    let rows = &json.rows;
-    let header = &rows.ranked.header;
-    let rank = rows.rank;
-    let u = &json.unit;
+    let header = &json.rows.ranked.header;
     let mut head: Vec<String> = vec!["line".into()];
     head.extend(header.carried.iter().map(|&i| field(&header.names[i])));
-    head.extend(COMPONENTS.iter().map(|c| format!("{c}_{u}")));
+    head.extend(state_columns(json.rows.rank, &json.unit));
+    head
+}
+
+/// The CSV columns of a state, from the components to the plane (stresses in `unit`).
+fn state_columns(rank: EnvelopeMeasure, unit: &str) -> Vec<String> {
+    let u = unit;
+    let mut head: Vec<String> = COMPONENTS.iter().map(|c| format!("{c}_{u}")).collect();
     head.extend(["sigma1", "sigma2", "sigma3"].map(|p| format!("{p}_{u}")));
     // σ1 and σ3 are columns already; another measure gets a column of its own.
     if own_column(rank) {
+        let name = rank.key().replace('-', "_");
         head.push(if rank.is_stress() {
-            format!("{}_{u}", json.measure.replace('-', "_"))
+            format!("{name}_{u}")
         } else {
-            json.measure.replace('-', "_")
+            name
         });
     }
     head.push("condition".to_owned());
@@ -649,23 +750,30 @@ fn row_cells(line: &mut String, r: &table::Row, row: &RowJson, rank: EnvelopeMea
         line.push(',');
         line.push_str(&field(t));
     }
-    for v in row.components.iter().chain(&row.principal) {
+    state_cells(line, &row.state, rank);
+}
+
+/// A state's cells in [`state_columns`] order, each after a comma, appended to `line`.
+fn state_cells(line: &mut String, state: &StateJson, rank: EnvelopeMeasure) {
+    for v in state.components.iter().chain(&state.principal) {
         let _ = write!(line, ",{v}");
     }
     if own_column(rank) {
         line.push(',');
-        if let Some(v) = row.value {
+        if let Some(v) = state.value {
             let _ = write!(line, "{v}");
         }
     }
-    let _ = write!(line, ",{}", row.condition.key());
-    if let Some([dip, dd]) = row.plane {
+    let _ = write!(line, ",{}", state.condition.key());
+    if let Some([dip, dd]) = state.plane {
         let _ = write!(line, ",{dip},{dd}");
     } else if matches!(rank, EnvelopeMeasure::Plane(_)) {
         line.push_str(",,");
     }
 }
 
+/// Plain RFC 4180 CSV: the header first (units in the column names), one row per ranked row;
+/// the run's description goes to standard error and `--json`.
 fn write_csv(w: &mut dyn std::io::Write, json: &BatchJson<'_>) -> std::io::Result<()> {
     let rows = &json.rows;
     let rank = rows.rank;
