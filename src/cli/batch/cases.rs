@@ -276,11 +276,12 @@ pub(super) fn run(args: &BatchArgs, setup: &Setup) -> Result<String, CliError> {
     let rows_read: u64 = points.tables.iter().map(|t| t.rows).sum();
     if !args.quiet {
         eprintln!(
-            "\rplanewise batch: {} rows of {} tables joined into {} points in {read:.2} s; {} combinations at every point, ranked in {:.2} s",
+            "\rplanewise batch: {} rows of {} tables joined into {} points ({:.0} MB held) in {read:.2} s; {} at every point, ranked in {:.2} s",
             rows_read,
             points.tables.len(),
             points.len(),
-            ranked.combinations.len(),
+            points.bytes_held() as f64 / 1e6,
+            count(ranked.combinations.len(), "combination"),
             seconds - read
         );
         for t in &points.tables {
@@ -312,7 +313,7 @@ pub(super) fn run(args: &BatchArgs, setup: &Setup) -> Result<String, CliError> {
             if combinations.is_empty() {
                 "each load case alone (no combinations given)".to_owned()
             } else {
-                format!("{} combinations", ranked.combinations.len())
+                count(ranked.combinations.len(), "combination")
             },
             ranked.counts.text("points"),
             json.points_at_or_beyond
@@ -515,4 +516,13 @@ fn write_csv(
         w.write_all(line.as_bytes())?;
     }
     Ok(())
+}
+
+/// `1 combination`, `6 combinations`.
+fn count(n: usize, noun: &str) -> String {
+    if n == 1 {
+        format!("1 {noun}")
+    } else {
+        format!("{n} {noun}s")
+    }
 }

@@ -160,8 +160,8 @@ impl Points {
         (0..self.len()).find(|&p| self.id_bytes(p) == wanted.as_bytes())
     }
 
-    /// Bytes held per point and case (tensors, ids, ends, hash slots, groups), for the
-    /// benchmark's memory figure.
+    /// Bytes held for the points (tensors, ids, their ends, groups; the hash table of ids is
+    /// let go once the tables are joined), for the run's memory figure.
     #[must_use]
     pub fn bytes_held(&self) -> usize {
         self.tensors.iter().map(Vec::capacity).sum::<usize>() * 48
@@ -618,6 +618,13 @@ pub fn join<R: Read>(
         };
         gather.leave_out(p, place, message)?;
     }
+    let points = &mut gather.points;
+    for column in &mut points.tensors {
+        column.shrink_to_fit();
+    }
+    points.ids.shrink_to_fit();
+    points.ends.shrink_to_fit();
+    points.groups.shrink_to_fit();
     if gather.points.cases.is_empty() || gather.points.is_empty() {
         return Err(TableError::Join {
             place: gather
