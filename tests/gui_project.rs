@@ -1158,3 +1158,120 @@ fn the_bindings_table_drives_the_panel_and_view_keys() {
         "{camera:?}"
     );
 }
+
+/// Load cases as tables in the window: two tables (one per case, rows in other orders) joined
+/// on their ids, the project's combination applied at every point, the points listed worst
+/// first with their governing combination; a clicked point becomes the project's load cases of
+/// those names, so its combination shows that point's summed tensor (1.35 × Gk + 1.5 × Qk,
+/// summed here by hand; the factors are the test's own).
+#[test]
+fn joined_load_case_tables_list_points_and_a_clicked_point_feeds_the_combination() {
+    use planewise::study::{CaseInput, Combination, LoadCase, Term, TypedTensor};
+    let dead = temp("joined-dead.csv");
+    let live = temp("joined-live.csv");
+    // Invented tables: element 1 and 2, integration points 1 and 2, MPa.
+    std::fs::write(
+        &dead,
+        "element,ip,xx,yy,zz,xy,yz,zx\n1,1,10,0,0,0,0,0\n1,2,20,0,0,0,0,0\n2,1,30,0,0,5,0,0\n2,2,40,0,0,0,0,0\n",
+    )
+    .unwrap();
+    std::fs::write(
+        &live,
+        "element,ip,xx,yy,zz,xy,yz,zx\n2,2,1,0,0,0,0,0\n2,1,60,0,0,0,0,0\n1,2,2,0,0,0,0,0\n1,1,3,0,0,0,0,0\n",
+    )
+    .unwrap();
+    let mut h = demo();
+    {
+        let p = &mut h.state_mut().project;
+        let zero = |name: &str| LoadCase {
+            unknown: planewise::study::unknown::UnknownKeys::new(),
+            name: name.to_owned(),
+            description: String::new(),
+            input: CaseInput::Tensor(TypedTensor {
+                unit: "MPa".to_owned(),
+                compression_positive: false,
+                components: [0.0; 6],
+            }),
+        };
+        p.add_case(zero("Gk"), false).unwrap();
+        p.add_case(zero("Qk"), false).unwrap();
+        let term = |case: &str, factor| Term {
+            case: case.to_owned(),
+            factor,
+            unknown: planewise::study::unknown::UnknownKeys::new(),
+        };
+        p.add_combination(
+            Combination {
+                name: "ULS-tables".to_owned(),
+                terms: vec![term("Gk", 1.35), term("Qk", 1.5)],
+                unknown: planewise::study::unknown::UnknownKeys::new(),
+            },
+            false,
+        )
+        .unwrap();
+    }
+    h.state_mut().settings.central = planewise::window::session::Central::Table;
+    h.run();
+    type_into(&mut h, "Table file path", dead.to_str().unwrap());
+    h.get_by_label("Load cases as tables").click();
+    h.run();
+    type_into(&mut h, "Id columns", "element, ip");
+    type_into(&mut h, "Load case of this table", "Gk");
+    h.get_by_label("Add a load-case table").click();
+    h.run();
+    type_into(&mut h, "Load case of table 2", "Qk");
+    type_into(&mut h, "Table 2 path", live.to_str().unwrap());
+    choose_table_unit(&mut h, "MPa");
+    h.get_by_label("Read and rank").click();
+    wait_for_table(&mut h);
+    let ranked = h.state().table_panel.ranked.clone().unwrap();
+    // Von Mises under ULS, by hand: (2,1): xx = 1.35·30 + 1.5·60 = 130.5, xy = 6.75;
+    // (2,2): 55.5; (1,2): 30; (1,1): 18.
+    let order: Vec<(&str, &str, &str)> = ranked
+        .rows
+        .iter()
+        .map(|r| {
+            (
+                r.carried[0].as_str(),
+                r.carried[1].as_str(),
+                r.carried[2].as_str(),
+            )
+        })
+        .collect();
+    assert_eq!(
+        order,
+        [
+            ("2", "1", "ULS-tables"),
+            ("2", "2", "ULS-tables"),
+            ("1", "2", "ULS-tables"),
+            ("1", "1", "ULS-tables")
+        ]
+    );
+    let worst = ranked.rows[0].value.unwrap();
+    let expected = (130.5f64.powi(2) + 3.0 * 6.75f64.powi(2)).sqrt() * 1e6;
+    assert!((worst - expected).abs() < 1e-3, "{worst} vs {expected}");
+    assert!(
+        h.query_by_label_contains("the project's 1 combinations of these cases")
+            .is_some()
+    );
+    // Point 3 (element 2, ip 1, the third met in the dead table) is the worst: click it.
+    h.get_by_label_contains("Point 3: click").click();
+    h.run();
+    let p = &h.state().project;
+    assert_eq!(p.active, "ULS-tables");
+    let t = p.tensor("ULS-tables").unwrap();
+    assert!((t.component_pa(Component::Xx) - 130.5e6).abs() < 1e-3);
+    assert!((t.component_pa(Component::Xy) - 6.75e6).abs() < 1e-3);
+    let case = p.case("Qk").unwrap();
+    let CaseInput::TableRow(row) = &case.input else {
+        panic!("not from a table: {:?}", case.input);
+    };
+    assert_eq!(row.id, "element=2, ip=1");
+    assert_eq!(row.file, live.to_str().unwrap());
+    // One undo step puts both cases back.
+    h.key_press_modifiers(egui::Modifiers::COMMAND, egui::Key::Z);
+    h.run();
+    let p = &h.state().project;
+    assert_eq!(p.tensor("Gk").unwrap().component_pa(Component::Xx), 0.0);
+    assert_eq!(p.tensor("Qk").unwrap().component_pa(Component::Xx), 0.0);
+}

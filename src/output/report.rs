@@ -490,14 +490,9 @@ fn case_section(
         if let crate::study::CaseInput::TableRow(row) = input {
             let _ = writeln!(
                 s,
-                "<p>Taken from the table {}, line {}{}.</p>",
+                "<p>Taken from the table {}, {}.</p>",
                 escape(&row.file),
-                row.line,
-                if row.id.is_empty() {
-                    String::new()
-                } else {
-                    format!(" ({})", escape(&row.id))
-                }
+                escape(&row.place())
             );
         }
         let (stress_unit, strain_unit, modulus_unit) = input.units();

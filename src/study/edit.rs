@@ -46,6 +46,15 @@ pub enum Edit {
     /// A load case taken from a row of an imported table (replacing a case of the same name),
     /// shown at once.
     AddTableRow(Box<LoadCase>),
+    /// The load cases of one point of joined load-case tables (each replacing a case of the
+    /// same name), then `show` shown (the point's governing combination when the project has
+    /// it, else its first case).
+    AddTablePoint {
+        /// One load case per table case.
+        cases: Vec<LoadCase>,
+        /// What to show afterwards.
+        show: String,
+    },
     /// A copy of a case or combination, shown at once.
     Duplicate(String),
     /// The active combination's summed tensor as a new load case.
@@ -219,6 +228,19 @@ impl Edit {
                 }
                 p.add_case((**case).clone(), true)?;
                 p.active.clone_from(&case.name);
+            }
+            Self::AddTablePoint { cases, show } => {
+                for case in cases {
+                    if p.is_combination(&case.name) {
+                        return Err(StudyError::Duplicate(case.name.clone()));
+                    }
+                    p.add_case(case.clone(), true)?;
+                }
+                if p.name_used(show) {
+                    p.active.clone_from(show);
+                } else if let Some(first) = cases.first() {
+                    p.active.clone_from(&first.name);
+                }
             }
             Self::AddCase => {
                 let name = p.unused_name("case");

@@ -56,13 +56,27 @@ pub enum CaseInput {
 pub struct TableRowInput {
     /// The table file, as it was named when imported.
     pub file: String,
-    /// Its line number (1-based).
+    /// Its line number (1-based); 0 for a point of joined load-case tables, which `id` names.
     pub line: u64,
-    /// The row's first carried column (an element or node id), if any.
+    /// The row's first carried column (an element or node id), if any; for a point of joined
+    /// tables its ids (`element=12, ip=3`).
     #[serde(default)]
     pub id: String,
     /// The components in the project's unit and convention at import.
     pub stress: TypedTensor,
+}
+
+impl TableRowInput {
+    /// Where in the table the stress was taken: `line 17 (E12)`, or for a point of joined
+    /// load-case tables `the point element=12, ip=3 (tables joined on their ids)`.
+    #[must_use]
+    pub fn place(&self) -> String {
+        match (self.line, self.id.is_empty()) {
+            (0, _) => format!("the point {} (tables joined on their ids)", self.id),
+            (line, true) => format!("line {line}"),
+            (line, false) => format!("line {line} ({})", self.id),
+        }
+    }
 }
 
 /// In-situ stresses as typed (compression positive).

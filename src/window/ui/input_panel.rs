@@ -69,14 +69,9 @@ impl InputPanel {
         }
         if let CaseInput::TableRow(row) = input {
             ui.label(format!(
-                "From the table {}, line {}{} (editing the stress makes it a typed tensor).",
+                "From the table {}, {} (editing the stress makes it a typed tensor).",
                 row.file,
-                row.line,
-                if row.id.is_empty() {
-                    String::new()
-                } else {
-                    format!(", {}", row.id)
-                }
+                row.place()
             ));
         }
         if kind == InputKind::Tensor {

@@ -3,6 +3,12 @@
 //! are laid out), sortable by any column and filterable by text, with a histogram of the ranked
 //! measure. Clicking a row makes it a load case ("row N of FILE"), shown at once, so every view
 //! follows. The reading itself is [`crate::study::table::rank`], the same as `planewise batch`.
+//!
+//! Load cases as tables: with id columns to join on, this table is one load case and more
+//! tables are the others (or one long table names its cases in a column); the project's
+//! combinations over those cases (each case alone when it has none) are applied at every point,
+//! the points are listed by their governing combination, and a clicked point becomes the
+//! project's load cases of those names, so its combinations, verdicts and figures follow.
 
 use std::path::PathBuf;
 use std::sync::Arc;
@@ -11,7 +17,10 @@ use std::sync::mpsc::Receiver;
 
 use crate::mechanics::search::{Measure as PlaneMeasure, SearchSettings};
 use crate::mechanics::{SignConvention, StressUnit};
-use crate::study::table::{COMPONENTS, Header, Ranked, TableError, TableOptions};
+use crate::study::table::{
+    COMPONENTS, CaseTable, Delimiter, Header, JoinOptions, Points, Ranked, RankedPoints,
+    TableError, TableOptions,
+};
 use crate::study::{
     CaseInput, Derived, Edit, EnvelopeMeasure, LoadCase, Project, TableRowInput, TypedTensor,
 };
@@ -23,9 +32,15 @@ pub const DEFAULT_KEEP: usize = 100_000;
 /// A table's header and its first rows' fields.
 type Preview = (Header, Vec<Vec<String>>);
 
+/// What a read gives: ranked rows, or joined points ranked by their governing combination.
+enum Answer {
+    Rows(Ranked),
+    Points(Box<(Points, RankedPoints, String)>),
+}
+
 /// A read in progress.
 struct Job {
-    answer: Receiver<Result<Ranked, TableError>>,
+    answer: Receiver<Result<Answer, TableError>>,
     cancel: Arc<AtomicBool>,
     bytes: Arc<AtomicU64>,
     size: Option<u64>,
@@ -77,6 +92,19 @@ pub struct TablePanel {
     /// Row order after sorting and filtering (indices into the result's rows).
     order: Vec<usize>,
     order_key: Option<(Option<SortKey>, bool, String)>,
+    /// Load cases as tables: the id columns the tables join on, comma-separated (empty: one
+    /// table of rows).
+    pub ids: String,
+    /// One long table: the column naming each row's load case (empty: a table per case).
+    pub case_column: String,
+    /// This table's load case, with a table per case.
+    pub first_case: String,
+    /// The other load-case tables: (case, path).
+    pub more_tables: Vec<(String, String)>,
+    /// The joined points of the last read, when it joined tables; with the list's rows
+    /// (their `line` is the point's number, their last carried text the governing
+    /// combination).
+    points: Option<Points>,
 }
 
 /// What the list can be sorted by.
@@ -109,6 +137,11 @@ impl Default for TablePanel {
             sort: (None, true),
             order: Vec::new(),
             order_key: None,
+            ids: String::new(),
+            case_column: String::new(),
+            first_case: "case 1".to_owned(),
+            more_tables: Vec::new(),
+            points: None,
         }
     }
 }
@@ -144,6 +177,29 @@ impl TablePanel {
             by_place: false,
             above: None,
         }
+    }
+
+    /// Whether the read joins load-case tables (id columns are given).
+    #[must_use]
+    pub fn joined(&self) -> bool {
+        !self.ids.trim().is_empty()
+    }
+
+    /// The load-case tables as (case, path): this table first (a long table: its only one).
+    fn tables(&self) -> Vec<(String, String)> {
+        let mut all = vec![(
+            self.first_case.trim().to_owned(),
+            self.path.trim().to_owned(),
+        )];
+        if self.case_column.trim().is_empty() {
+            all.extend(
+                self.more_tables
+                    .iter()
+                    .filter(|(_, f)| !f.trim().is_empty())
+                    .map(|(c, f)| (c.trim().to_owned(), f.trim().to_owned())),
+            );
+        }
+        all
     }
 
     /// Reads the header and first rows of the file at `path`.
@@ -192,6 +248,31 @@ impl TablePanel {
         let size = std::fs::metadata(&path).ok().map(|m| m.len());
         let (c, b, repaint) = (cancel.clone(), bytes.clone(), ctx.clone());
         let name = path.display().to_string();
+        let joined = self.joined();
+        let tables = self.tables();
+        let size = if joined {
+            Some(
+                tables
+                    .iter()
+                    .filter_map(|(_, f)| std::fs::metadata(f).ok())
+                    .map(|m| m.len())
+                    .sum(),
+            )
+        } else {
+            size
+        };
+        let join = JoinOptions {
+            ids: self
+                .ids
+                .split(',')
+                .map(str::trim)
+                .filter(|s| !s.is_empty())
+                .map(str::to_owned)
+                .collect(),
+            case_column: Some(self.case_column.trim().to_owned()).filter(|c| !c.is_empty()),
+            skip_unmatched: false,
+        };
+        let combinations = project.combinations.clone();
         let spawned = std::thread::Builder::new()
             .name("planewise-table".into())
             .spawn(move || {
@@ -201,18 +282,22 @@ impl TablePanel {
                     plane_settings: &settings,
                     strengths: &strengths,
                 };
-                let result = std::fs::File::open(&path)
-                    .map_err(|cause| TableError::Io {
-                        file: name.clone(),
-                        cause,
-                    })
-                    .and_then(|f| {
-                        crate::study::table::rank(f, &name, &options, &m, |n| {
-                            b.store(n, Ordering::Relaxed);
-                            repaint.request_repaint();
-                            !c.load(Ordering::Relaxed)
+                let progress = |n| {
+                    b.store(n, Ordering::Relaxed);
+                    repaint.request_repaint();
+                    !c.load(Ordering::Relaxed)
+                };
+                let result = if joined {
+                    read_points(&tables, &options, &join, &combinations, &m, progress)
+                } else {
+                    std::fs::File::open(&path)
+                        .map_err(|cause| TableError::Io {
+                            file: name.clone(),
+                            cause,
                         })
-                    });
+                        .and_then(|f| crate::study::table::rank(f, &name, &options, &m, progress))
+                        .map(Answer::Rows)
+                };
                 let _ = tx.send(result);
                 repaint.request_repaint();
             });
@@ -244,7 +329,24 @@ impl TablePanel {
             return;
         };
         match job.answer.try_recv() {
-            Ok(Ok(ranked)) => {
+            Ok(Ok(Answer::Points(joined))) => {
+                let (points, ranked_points, which) = *joined;
+                self.message = Some(format!(
+                    "{} points joined from {} tables ({} rows); {}; the {} worst points kept",
+                    points.len(),
+                    points.tables.len(),
+                    points.tables.iter().map(|t| t.rows).sum::<u64>(),
+                    which,
+                    ranked_points.rows.len()
+                ));
+                self.ranked = Some(as_ranked(&points, &ranked_points));
+                self.points = Some(points);
+                self.read_with = Some(job.read_with);
+                self.order_key = None;
+                self.job = None;
+            }
+            Ok(Ok(Answer::Rows(ranked))) => {
+                self.points = None;
                 self.message = Some(format!(
                     "{} rows read, {} kept (the worst), {} bad rows{}",
                     ranked.total_rows,
@@ -360,6 +462,7 @@ impl TablePanel {
                 out.push(Command::ImportTable);
             }
         });
+        self.cases_ui(ui);
         if self.preview.is_none() && self.ranked.is_none() {
             ui.label("A finite-element result table: one stress state per row, a header row first. The components are found by their header names — xx, yy, zz, xy, yz, zx, with or without an s, sigma or stress in front (sxx, SigmaXX), or s11 … s13 — and any other names can be mapped after Preview. Every other column (element, node, point) is carried along to identify the rows. The unit is yours to say.");
         }
@@ -457,6 +560,87 @@ impl TablePanel {
         }
     }
 
+    /// Load cases as tables: the id columns to join on, this table's case and the others (or
+    /// a long table's case column).
+    fn cases_ui(&mut self, ui: &mut egui::Ui) {
+        egui::CollapsingHeader::new("Load cases as tables")
+            .default_open(self.joined())
+            .show(ui, |ui| {
+                ui.weak("Finite-element results with one table per load case (or one long table with a load-case column): name the id columns that make a point (element, integration point, section point) and the tables are joined on them in any row order. The project's combinations of these cases are applied at every point (each case alone when it has none); a clicked point becomes the project's load cases of these names.");
+                ui.horizontal(|ui| {
+                    ui.label("join on ids");
+                    ui.add(
+                        egui::TextEdit::singleline(&mut self.ids)
+                            .id(egui::Id::unique("planewise-table-ids"))
+                            .hint_text("element, ip")
+                            .desired_width(140.0),
+                    )
+                    .on_hover_text("Id columns that name a point in every table, comma-separated (empty: one table of rows)");
+                    ui.label("case column");
+                    ui.add(
+                        egui::TextEdit::singleline(&mut self.case_column)
+                            .id(egui::Id::unique("planewise-table-case-column"))
+                            .hint_text("none")
+                            .desired_width(100.0),
+                    )
+                    .on_hover_text("One long table: the column naming each row's load case (empty: a table per case)");
+                });
+                if !self.case_column.trim().is_empty() {
+                    return;
+                }
+                ui.horizontal(|ui| {
+                    ui.label("this table is the load case");
+                    ui.add(
+                        egui::TextEdit::singleline(&mut self.first_case)
+                            .id(egui::Id::unique("planewise-table-first-case"))
+                            .desired_width(100.0),
+                    )
+                    .on_hover_text("Load case of this table: name it as the project's combinations do");
+                });
+                let mut remove = None;
+                for (i, (case, path)) in self.more_tables.iter_mut().enumerate() {
+                    ui.horizontal(|ui| {
+                        ui.label("load case");
+                        ui.add(
+                            egui::TextEdit::singleline(case)
+                                .id(egui::Id::unique(("planewise-table-case", i)))
+                                .desired_width(100.0),
+                        )
+                        .on_hover_text(format!("Load case of table {}", i + 2));
+                        ui.label("file");
+                        ui.add(
+                            egui::TextEdit::singleline(path)
+                                .id(egui::Id::unique(("planewise-table-more", i)))
+                                .hint_text("path to the case's table")
+                                .desired_width(260.0),
+                        )
+                        .on_hover_text(format!(
+                            "Table {} path: the same columns, points in any order",
+                            i + 2
+                        ));
+                        if ui
+                            .small_button("✕")
+                            .on_hover_text("Leave this table out")
+                            .clicked()
+                        {
+                            remove = Some(i);
+                        }
+                    });
+                }
+                if let Some(i) = remove {
+                    self.more_tables.remove(i);
+                }
+                if ui
+                    .button("Add a load-case table")
+                    .on_hover_text("Another table of the same points under another load case")
+                    .clicked()
+                {
+                    let n = self.more_tables.len() + 2;
+                    self.more_tables.push((format!("case {n}"), String::new()));
+                }
+            });
+    }
+
     fn mapping_ui(&mut self, ui: &mut egui::Ui, header: &Header, rows: &[Vec<String>]) {
         ui.label(format!(
             "{} separated, {} columns; components (change where the names differ):",
@@ -540,8 +724,12 @@ impl TablePanel {
         });
         // Column headers: click to sort (again to reverse).
         // The ranked value first, then what identifies the row, then the components.
+        let joined = self.points.is_some();
         let mut columns: Vec<(String, SortKey)> = vec![
-            ("line".into(), SortKey::Line),
+            (
+                (if joined { "point" } else { "line" }).into(),
+                SortKey::Line,
+            ),
             (
                 if measure.is_stress() {
                     format!("{} ({unit})", measure.label())
@@ -667,10 +855,17 @@ impl TablePanel {
                                     ui.scope_id().with(("planewise-table-row", row.line)),
                                     egui::Sense::click(),
                                 )
-                                .on_hover_text(format!(
-                                    "Row on line {}: click to show it as a load case",
-                                    row.line
-                                ));
+                                .on_hover_text(if joined {
+                                    format!(
+                                        "Point {}: click to make its load cases the project's, shown under its governing combination",
+                                        row.line
+                                    )
+                                } else {
+                                    format!(
+                                        "Row on line {}: click to show it as a load case",
+                                        row.line
+                                    )
+                                });
                             if response.clicked() {
                                 chosen = Some(i);
                             }
@@ -684,6 +879,10 @@ impl TablePanel {
                 (Some(k), true)
             };
             self.order_key = None;
+        }
+        if let (Some(i), Some(points)) = (chosen, &self.points) {
+            out.push(point_cases(points, &r.rows[i], d));
+            return;
         }
         if let Some(i) = chosen {
             let row = &r.rows[i];
@@ -726,6 +925,131 @@ impl TablePanel {
                 coalesce: None,
             });
         }
+    }
+}
+
+/// The edit that makes point `row` (a row of [`as_ranked`]) the project's load cases: one per
+/// table case, in the project's unit and convention, then its governing combination shown.
+fn point_cases(points: &Points, row: &crate::study::table::Row, d: &Derived) -> Command {
+    let p = usize::try_from(row.line.saturating_sub(1)).unwrap_or(0);
+    let id = points.id_text(p);
+    let unit = d.unit;
+    let sign = d.convention.sign();
+    let cases = points
+        .cases
+        .iter()
+        .enumerate()
+        .map(|(c, case)| {
+            let file = points
+                .tables
+                .get(c)
+                .filter(|t| !t.case.is_empty())
+                .or(points.tables.first())
+                .map(|t| t.file.clone())
+                .unwrap_or_default();
+            LoadCase {
+                unknown: crate::study::unknown::UnknownKeys::new(),
+                name: case.clone(),
+                description: format!("Load case '{case}' at {id}, from {file}"),
+                input: CaseInput::TableRow(TableRowInput {
+                    file,
+                    line: 0,
+                    id: id.clone(),
+                    stress: TypedTensor {
+                        unit: unit.symbol().to_owned(),
+                        compression_positive: d.convention == SignConvention::CompressionPositive,
+                        components: points.tensor(c, p).map(|v| sign * unit.from_pa(v)),
+                    },
+                }),
+            }
+        })
+        .collect();
+    Command::Edit {
+        edit: Edit::AddTablePoint {
+            cases,
+            show: row.carried.last().cloned().unwrap_or_default(),
+        },
+        coalesce: None,
+    }
+}
+
+/// Joins the load-case tables and ranks their points under the combinations of `project` whose
+/// terms all name the tables' cases (each case alone when none do); says which were used.
+fn read_points(
+    tables: &[(String, String)],
+    options: &TableOptions,
+    join: &JoinOptions,
+    combinations: &[crate::study::Combination],
+    measure: &crate::study::table::Measure<'_>,
+    progress: impl FnMut(u64) -> bool,
+) -> Result<Answer, TableError> {
+    let mut sources = Vec::new();
+    for (case, file) in tables {
+        let f = std::fs::File::open(file).map_err(|cause| TableError::Io {
+            file: file.clone(),
+            cause,
+        })?;
+        sources.push(CaseTable {
+            case: case.clone(),
+            file: file.clone(),
+            source: std::io::BufReader::with_capacity(1 << 16, f),
+        });
+    }
+    let points = crate::study::table::join(sources, options, join, progress)?;
+    let usable: Vec<crate::study::Combination> = combinations
+        .iter()
+        .filter(|c| c.terms.iter().all(|t| points.cases.contains(&t.case)))
+        .cloned()
+        .collect();
+    let which = if usable.is_empty() {
+        "each load case alone (the project has no combinations of these cases)".to_owned()
+    } else {
+        format!(
+            "the project's {} combinations of these cases at every point",
+            usable.len()
+        )
+    };
+    let factors = crate::study::table::point_combinations(&points.cases, &usable)
+        .map_err(TableError::Measure)?;
+    let ranked = crate::study::table::rank_points(&points, factors, options, measure)?;
+    Ok(Answer::Points(Box::new((points, ranked, which))))
+}
+
+/// Joined points as the list shows rows: `line` is the point's number, the carried texts are
+/// the ids and then the governing combination.
+fn as_ranked(points: &Points, ranked: &RankedPoints) -> Ranked {
+    let mut names = points.id_names.clone();
+    names.push("combination".to_owned());
+    let width = names.len();
+    let bad: Vec<crate::study::table::BadRow> =
+        points.tables.iter().flat_map(|t| t.bad.clone()).collect();
+    Ranked {
+        header: Header {
+            names,
+            delimiter: Delimiter::Byte(b','),
+            components: [usize::MAX; 6],
+            carried: (0..width).collect(),
+            group: None,
+            line: 1,
+        },
+        rows: ranked
+            .rows
+            .iter()
+            .map(|r| {
+                let mut row = r.row.clone();
+                row.carried
+                    .push(ranked.combinations[r.combination].name.clone());
+                row
+            })
+            .collect(),
+        places: Vec::new(),
+        total_rows: ranked.points,
+        bad_count: points.tables.iter().map(|t| t.bad_count).sum(),
+        bad,
+        counts: ranked.counts,
+        at_or_beyond: ranked.at_or_beyond,
+        unterminated: points.tables.iter().any(|t| t.unterminated),
+        groups: Vec::new(),
     }
 }
 
