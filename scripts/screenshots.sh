@@ -24,6 +24,12 @@ with open(sys.argv[1], "w") as f:
         f.write(f"E{i + 1},{x:.2f},{y:.2f}," + ",".join(f"{a:.3f}" for a in v) + "\n")
 PY
 scripts/gui-smoke.sh screenshots/window-table.png table --table target/screenshot-table.csv --table-unit MPa
+# Load cases as tables: the invented plate example, three tables joined on their ids under the
+# example project's generated combinations.
+cases=examples/load-cases
+scripts/gui-smoke.sh screenshots/window-load-cases.png table --project "$cases/plate.json" \
+    --table "$cases/dead.csv" --table-unit MPa --table-ids element,ip,section --table-as dead \
+    --table-case "live=$cases/live.csv" --table-case "wind=$cases/wind.csv"
 # The built-in demo project (an invented scenario) and its first factored combination; the cut
 # plane comes from the project.
 demo=(--project assets/demo-bracket-project.json --case "ULS 1")

@@ -43,7 +43,22 @@ fn main() -> ExitCode {
             cli.screenshot.as_deref(),
             cli.tab,
             cli.project.as_deref(),
-            cli.table.as_deref().map(|t| (t, cli.table_unit)),
+            cli.table
+                .as_deref()
+                .map(|path| planewise::window::app::TableStart {
+                    path,
+                    unit: cli.table_unit,
+                    ids: cli.table_ids.clone(),
+                    first_case: cli.table_as.clone(),
+                    more: cli
+                        .table_case
+                        .iter()
+                        .map(|t| match t.split_once('=') {
+                            Some((c, f)) => (c.trim().to_owned(), f.to_owned()),
+                            None => (String::new(), t.clone()),
+                        })
+                        .collect(),
+                }),
             &planewise::cli::subcommand_names(),
         ) {
             Ok(()) => ExitCode::SUCCESS,

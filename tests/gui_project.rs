@@ -1232,9 +1232,9 @@ fn joined_load_case_tables_list_points_and_a_clicked_point_feeds_the_combination
         .iter()
         .map(|r| {
             (
-                r.carried[0].as_str(),
                 r.carried[1].as_str(),
                 r.carried[2].as_str(),
+                r.carried[0].as_str(),
             )
         })
         .collect();

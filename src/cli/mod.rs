@@ -69,6 +69,16 @@ pub struct Cli {
     /// (von Mises, tension positive; change them in the tab).
     #[arg(long, value_name = "UNIT", requires = "table", value_parser = values::unit)]
     pub table_unit: Option<StressUnit>,
+    /// Load cases as tables: the id columns the --table file and the --table-case files join
+    /// on (e.g. element,ip).
+    #[arg(long, value_name = "COLUMN,…", requires = "table")]
+    pub table_ids: Option<String>,
+    /// The load case of the --table file, with --table-ids.
+    #[arg(long, value_name = "CASE", requires = "table_ids")]
+    pub table_as: Option<String>,
+    /// Another load-case table, CASE=FILE, with --table-ids. Repeat for each.
+    #[arg(long, value_name = "CASE=FILE", requires = "table_ids")]
+    pub table_case: Vec<String>,
 }
 
 /// The subcommands.

@@ -23,7 +23,7 @@ mod files;
 mod layout;
 mod screenshot;
 
-pub use screenshot::run;
+pub use screenshot::{TableStart, run};
 
 /// Version of the saved view state; bump it when a change needs migration.
 pub const FORMAT_VERSION: u32 = 2;

@@ -49,11 +49,26 @@ impl PlanewiseApp {
 /// Opens the window. With `screenshot`, writes a PNG of the first complete frame there and exits.
 /// `subcommands` are the command line's subcommands, named when the window cannot open (they
 /// need no display).
+/// The Table tab's start from the command line: `--table` and its unit, and for load cases as
+/// tables the id columns, the `--table` file's case and the other (case, file) tables.
+pub struct TableStart<'a> {
+    /// The table.
+    pub path: &'a Path,
+    /// Its unit, when said (the table is then read at once).
+    pub unit: Option<crate::mechanics::StressUnit>,
+    /// Id columns to join on.
+    pub ids: Option<String>,
+    /// The `--table` file's load case.
+    pub first_case: Option<String>,
+    /// The other load-case tables.
+    pub more: Vec<(String, String)>,
+}
+
 pub fn run(
     screenshot: Option<&Path>,
     tab: Option<Central>,
     project: Option<&Path>,
-    table: Option<(&Path, Option<crate::mechanics::StressUnit>)>,
+    table: Option<TableStart<'_>>,
     subcommands: &[String],
 ) -> anyhow::Result<()> {
     let headless = format!(
@@ -88,7 +103,7 @@ pub fn run(
     let outcome: Arc<Mutex<Option<Result<(), String>>>> = Arc::new(Mutex::new(None));
     let outcome_for_app = Arc::clone(&outcome);
     let shot = screenshot.map(Path::to_path_buf);
-    let table = table.map(|(path, unit)| (path.to_path_buf(), unit));
+    let table = table.map(|t| (t.path.to_path_buf(), t.unit, t.ids, t.first_case, t.more));
     eframe::run_native(
         "planewise",
         options,
@@ -112,8 +127,15 @@ pub fn run(
             if let Some(tab) = tab {
                 app.settings.central = tab;
             }
-            if let Some((path, unit)) = table {
+            if let Some((path, unit, ids, first_case, more)) = table {
                 app.open_table(&path);
+                if let Some(ids) = ids {
+                    app.table_panel.ids = ids;
+                    if let Some(case) = first_case {
+                        app.table_panel.first_case = case;
+                    }
+                    app.table_panel.more_tables = more;
+                }
                 // A unit said on the command line is the user's: the table is read at once.
                 if let Some(unit) = unit {
                     app.table_panel.unit = Some(unit);

@@ -34,7 +34,7 @@ type Preview = (Header, Vec<Vec<String>>);
 
 /// What a read gives: ranked rows, or joined points ranked by their governing combination.
 enum Answer {
-    Rows(Ranked),
+    Rows(Box<Ranked>),
     Points(Box<(Points, RankedPoints, String)>),
 }
 
@@ -102,9 +102,11 @@ pub struct TablePanel {
     /// The other load-case tables: (case, path).
     pub more_tables: Vec<(String, String)>,
     /// The joined points of the last read, when it joined tables; with the list's rows
-    /// (their `line` is the point's number, their last carried text the governing
+    /// (their `line` is the point's number, their first carried text the governing
     /// combination).
     points: Option<Points>,
+    /// A read has just given a list: fold the reading settings once.
+    fold_reading: bool,
 }
 
 /// What the list can be sorted by.
@@ -142,6 +144,7 @@ impl Default for TablePanel {
             first_case: "case 1".to_owned(),
             more_tables: Vec::new(),
             points: None,
+            fold_reading: false,
         }
     }
 }
@@ -296,7 +299,7 @@ impl TablePanel {
                             cause,
                         })
                         .and_then(|f| crate::study::table::rank(f, &name, &options, &m, progress))
-                        .map(Answer::Rows)
+                        .map(|r| Answer::Rows(Box::new(r)))
                 };
                 let _ = tx.send(result);
                 repaint.request_repaint();
@@ -341,11 +344,13 @@ impl TablePanel {
                 ));
                 self.ranked = Some(as_ranked(&points, &ranked_points));
                 self.points = Some(points);
+                self.fold_reading = true;
                 self.read_with = Some(job.read_with);
                 self.order_key = None;
                 self.job = None;
             }
             Ok(Ok(Answer::Rows(ranked))) => {
+                let ranked = *ranked;
                 self.points = None;
                 self.message = Some(format!(
                     "{} rows read, {} kept (the worst), {} bad rows{}",
@@ -359,6 +364,7 @@ impl TablePanel {
                     }
                 ));
                 self.ranked = Some(ranked);
+                self.fold_reading = true;
                 self.read_with = Some(job.read_with);
                 self.order_key = None;
                 self.job = None;
@@ -439,85 +445,100 @@ impl TablePanel {
     /// The tab.
     fn show(&mut self, ui: &mut egui::Ui, project: &Project, d: &Derived, out: &mut Vec<Command>) {
         self.poll();
-        ui.horizontal_wrapped(|ui| {
-            ui.label("Table file:");
-            let field = ui.add(
-                egui::TextEdit::singleline(&mut self.path)
-                    .id(egui::Id::unique("planewise-table-path"))
-                    .hint_text("path to a CSV, TSV or text table")
-                    .desired_width(320.0),
-            )
-            .on_hover_text("Table file path: CSV, TSV, semicolon or whitespace separated, with a header row");
-            if (field.lost_focus() && ui.input(|i| i.key_pressed(egui::Key::Enter)))
-                || ui.button("Preview").clicked()
-            {
-                let path = self.path.trim().to_owned();
-                self.load_preview(&path);
-            }
-            if ui
-                .button("Browse…")
-                .on_hover_text("Choose the table file (File → Import table…)")
-                .clicked()
-            {
-                out.push(Command::ImportTable);
-            }
-        });
-        self.cases_ui(ui);
-        if self.preview.is_none() && self.ranked.is_none() {
-            ui.label("A finite-element result table: one stress state per row, a header row first. The components are found by their header names — xx, yy, zz, xy, yz, zx, with or without an s, sigma or stress in front (sxx, SigmaXX), or s11 … s13 — and any other names can be mapped after Preview. Every other column (element, node, point) is carried along to identify the rows. The unit is yours to say.");
+        // What to read and how folds away once a read has given a list, so the list has the
+        // room; its header opens it again.
+        let mut fold = egui::collapsing_header::CollapsingState::load_with_default_open(
+            ui.ctx(),
+            ui.make_persistent_id("planewise-table-reading"),
+            true,
+        );
+        if std::mem::take(&mut self.fold_reading) {
+            fold.set_open(false);
         }
-        if let Some(preview) = &self.preview {
-            match preview {
-                Err(e) => {
-                    ui.colored_label(ui.visuals().error_fg_color, e);
-                }
-                Ok((header, rows)) => {
-                    let header = header.clone();
-                    let rows = rows.clone();
-                    self.mapping_ui(ui, &header, &rows);
-                }
-            }
-        }
-        ui.horizontal_wrapped(|ui| {
-            ui.label("Unit");
-            let unit = egui::ComboBox::from_id_salt("planewise-table-unit")
-                .selected_text(self.unit.map_or("choose…", StressUnit::symbol))
-                .show_ui(ui, |ui| {
-                    for u in StressUnit::ALL {
-                        ui.selectable_value(&mut self.unit, Some(u), u.symbol());
+        fold.show_header(ui, |ui| {
+            ui.strong("Table, columns and unit");
+        })
+        .body(|ui| {
+                ui.horizontal_wrapped(|ui| {
+                    ui.label("Table file:");
+                    let field = ui.add(
+                        egui::TextEdit::singleline(&mut self.path)
+                            .id(egui::Id::unique("planewise-table-path"))
+                            .hint_text("path to a CSV, TSV or text table")
+                            .desired_width(320.0),
+                    )
+                    .on_hover_text("Table file path: CSV, TSV, semicolon or whitespace separated, with a header row");
+                    if (field.lost_focus() && ui.input(|i| i.key_pressed(egui::Key::Enter)))
+                        || ui.button("Preview").clicked()
+                    {
+                        let path = self.path.trim().to_owned();
+                        self.load_preview(&path);
                     }
-                })
-                .response;
-            unit.widget_info(|| {
-                egui::WidgetInfo::labeled(egui::Role::ComboBox, true, "table unit")
-            });
-            unit.on_hover_text("The unit the table's components are written in: a table does not say, so it is yours to choose");
-            ui.checkbox(&mut self.compression_positive, "compression +");
-            ui.checkbox(&mut self.decimal_comma, "decimal comma");
-            ui.checkbox(&mut self.plane_stress, "plane stress")
-                .on_hover_text("The table holds xx, yy and xy only (shell results): zz, yz and zx are read as zero. Never assumed; a table with those columns is refused while this is on");
-        });
-        // A row of its own: the label and its picker never part at a wrap.
-        ui.horizontal(|ui| {
-            ui.label("rank by");
-            egui::ComboBox::from_id_salt("planewise-table-measure")
-                .selected_text(self.measure.label())
-                .show_ui(ui, |ui| {
-                    for m in EnvelopeMeasure::ALL {
-                        ui.selectable_value(&mut self.measure, m, m.label());
+                    if ui
+                        .button("Browse…")
+                        .on_hover_text("Choose the table file (File → Import table…)")
+                        .clicked()
+                    {
+                        out.push(Command::ImportTable);
                     }
-                })
-                .response
-                .widget_info(|| egui::WidgetInfo::labeled(egui::Role::ComboBox, true, "rank by"));
-        });
-        // A row of its own: a label and its field never part at a wrap.
-        ui.horizontal(|ui| {
-            ui.label("keep");
-            ui.add(egui::DragValue::new(&mut self.keep).range(1..=5_000_000))
-                .on_hover_text(
-                    "How many of the worst rows to keep (the file is read whole either way)",
-                );
-            ui.checkbox(&mut self.skip_bad_rows, "skip bad rows");
+                });
+                self.cases_ui(ui);
+                if self.preview.is_none() && self.ranked.is_none() {
+                    ui.label("A finite-element result table: one stress state per row, a header row first. The components are found by their header names — xx, yy, zz, xy, yz, zx, with or without an s, sigma or stress in front (sxx, SigmaXX), or s11 … s13 — and any other names can be mapped after Preview. Every other column (element, node, point) is carried along to identify the rows. The unit is yours to say.");
+                }
+                if let Some(preview) = &self.preview {
+                    match preview {
+                        Err(e) => {
+                            ui.colored_label(ui.visuals().error_fg_color, e);
+                        }
+                        Ok((header, rows)) => {
+                            let header = header.clone();
+                            let rows = rows.clone();
+                            self.mapping_ui(ui, &header, &rows);
+                        }
+                    }
+                }
+                ui.horizontal_wrapped(|ui| {
+                    ui.label("Unit");
+                    let unit = egui::ComboBox::from_id_salt("planewise-table-unit")
+                        .selected_text(self.unit.map_or("choose…", StressUnit::symbol))
+                        .show_ui(ui, |ui| {
+                            for u in StressUnit::ALL {
+                                ui.selectable_value(&mut self.unit, Some(u), u.symbol());
+                            }
+                        })
+                        .response;
+                    unit.widget_info(|| {
+                        egui::WidgetInfo::labeled(egui::Role::ComboBox, true, "table unit")
+                    });
+                    unit.on_hover_text("The unit the table's components are written in: a table does not say, so it is yours to choose");
+                    ui.checkbox(&mut self.compression_positive, "compression +");
+                    ui.checkbox(&mut self.decimal_comma, "decimal comma");
+                    ui.checkbox(&mut self.plane_stress, "plane stress")
+                        .on_hover_text("The table holds xx, yy and xy only (shell results): zz, yz and zx are read as zero. Never assumed; a table with those columns is refused while this is on");
+                });
+                // A row of its own: the label and its picker never part at a wrap.
+                ui.horizontal(|ui| {
+                    ui.label("rank by");
+                    egui::ComboBox::from_id_salt("planewise-table-measure")
+                        .selected_text(self.measure.label())
+                        .show_ui(ui, |ui| {
+                            for m in EnvelopeMeasure::ALL {
+                                ui.selectable_value(&mut self.measure, m, m.label());
+                            }
+                        })
+                        .response
+                        .widget_info(|| egui::WidgetInfo::labeled(egui::Role::ComboBox, true, "rank by"));
+                });
+                // A row of its own: a label and its field never part at a wrap.
+                ui.horizontal(|ui| {
+                    ui.label("keep");
+                    ui.add(egui::DragValue::new(&mut self.keep).range(1..=5_000_000))
+                        .on_hover_text(
+                            "How many of the worst rows to keep (the file is read whole either way)",
+                        );
+                    ui.checkbox(&mut self.skip_bad_rows, "skip bad rows");
+                });
         });
         ui.horizontal(|ui| {
             let ready = !self.path.trim().is_empty() && self.job.is_none() && self.unit.is_some();
@@ -702,7 +723,11 @@ impl TablePanel {
             Some(v) => crate::text::format::readable(v, 4),
             None => crate::output::results::standing_word(standing).to_owned(),
         };
-        ui.weak(r.counts.text("rows read"))
+        ui.weak(r.counts.text(if self.points.is_some() {
+            "points (their governing combinations)"
+        } else {
+            "rows read"
+        }))
             .on_hover_text("Rows that fail at any scale or have no frictional capacity rank worst, above every number; rows that never reach the surface rank best; undefined values follow, with their reason");
         for b in r.bad.iter().take(5) {
             ui.colored_label(
@@ -781,6 +806,27 @@ impl TablePanel {
                 base.max((text + pad).ceil()).min(240.0)
             })
             .collect();
+        // Joined points: the governing combination's column is as wide as its longest name
+        // (generated names are long), within reason.
+        let mut widths = widths;
+        if joined {
+            let longest = r
+                .rows
+                .iter()
+                .filter_map(|row| row.carried.first())
+                .max_by_key(|t| t.chars().count())
+                .cloned()
+                .unwrap_or_default();
+            let font = egui::TextStyle::Body.resolve(ui.style());
+            let text = ui.ctx().fonts_mut(|f| {
+                f.layout_no_wrap(longest, font, egui::Color32::WHITE)
+                    .size()
+                    .x
+            });
+            if let Some(w) = widths.get_mut(2) {
+                *w = w.max((text + pad).ceil()).min(360.0);
+            }
+        }
         let mut clicked_sort = None;
         let row_height = ui.text_style_height(&egui::TextStyle::Body) + 4.0;
         let mut chosen = None;
@@ -824,12 +870,25 @@ impl TablePanel {
                             let rect = ui
                                 .horizontal(|ui| {
                                     let mut width = widths.iter();
+                                    let mut column = 0;
                                     let mut cell = |ui: &mut egui::Ui, t: String| {
                                         let w = width.next().copied().unwrap_or(base);
-                                        ui.add_sized(
-                                            [w, row_height - 2.0],
-                                            egui::Label::new(t).truncate(),
-                                        );
+                                        let size = egui::vec2(w, row_height - 2.0);
+                                        // A joined point's combination name reads from its
+                                        // start, as text does.
+                                        if joined && column == 2 {
+                                            ui.allocate_ui_with_layout(
+                                                size,
+                                                egui::Layout::left_to_right(egui::Align::Center),
+                                                |ui| {
+                                                    ui.set_min_size(size);
+                                                    ui.add(egui::Label::new(t).truncate());
+                                                },
+                                            );
+                                        } else {
+                                            ui.add_sized(size, egui::Label::new(t).truncate());
+                                        }
+                                        column += 1;
                                     };
                                     cell(ui, row.line.to_string());
                                     cell(ui, value_text(row.value, row.standing));
@@ -967,7 +1026,7 @@ fn point_cases(points: &Points, row: &crate::study::table::Row, d: &Derived) -> 
     Command::Edit {
         edit: Edit::AddTablePoint {
             cases,
-            show: row.carried.last().cloned().unwrap_or_default(),
+            show: row.carried.first().cloned().unwrap_or_default(),
         },
         coalesce: None,
     }
@@ -1016,10 +1075,10 @@ fn read_points(
 }
 
 /// Joined points as the list shows rows: `line` is the point's number, the carried texts are
-/// the ids and then the governing combination.
+/// the governing combination and then the ids.
 fn as_ranked(points: &Points, ranked: &RankedPoints) -> Ranked {
-    let mut names = points.id_names.clone();
-    names.push("combination".to_owned());
+    let mut names = vec!["combination".to_owned()];
+    names.extend(points.id_names.iter().cloned());
     let width = names.len();
     let bad: Vec<crate::study::table::BadRow> =
         points.tables.iter().flat_map(|t| t.bad.clone()).collect();
@@ -1038,7 +1097,7 @@ fn as_ranked(points: &Points, ranked: &RankedPoints) -> Ranked {
             .map(|r| {
                 let mut row = r.row.clone();
                 row.carried
-                    .push(ranked.combinations[r.combination].name.clone());
+                    .insert(0, ranked.combinations[r.combination].name.clone());
                 row
             })
             .collect(),
