@@ -209,6 +209,7 @@ fn the_command_line_and_the_report_write_notes_and_captions_escaped() {
             figures: vec![planewise::output::report::ReportFigure::Mohr],
             date: "2026-12-03".into(),
             source: None,
+            tables: None,
         },
     )
     .unwrap();
@@ -247,6 +248,7 @@ fn the_report_names_a_table_rows_file_and_line() {
             figures: Vec::new(),
             date: "2026-12-03".into(),
             source: None,
+            tables: None,
         },
     )
     .unwrap();

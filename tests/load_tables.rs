@@ -787,4 +787,78 @@ mod cli {
         assert_eq!(json["points_left_out"], 1);
         assert_eq!(json["points"], 3);
     }
+
+    /// `--report`: the tables section names every file with its SHA-256 (checked against the
+    /// sha2 crate), the combinations with the points they govern, the worst points, and the
+    /// worst point's governing combination reported in full; the project file is unchanged.
+    #[test]
+    fn the_report_has_a_tables_section() {
+        use sha2::Digest as _;
+        let dir = example();
+        let (d, l, w) = (arg(&dir, "dead"), arg(&dir, "live"), arg(&dir, "wind"));
+        let project = dir.join("plate.json");
+        let _ = std::fs::remove_file(&project);
+        let p = project.to_str().unwrap();
+        planewise_ok(&["project", "new", p]);
+        for case in ["dead", "live", "wind"] {
+            planewise_ok(&["project", "add-case", p, "--name", case, "--stress", "xx=0"]);
+        }
+        planewise_ok(&[
+            "project",
+            "combine",
+            p,
+            "--name",
+            "ULS",
+            "--factors",
+            "dead=1.35,live=1.5,wind=0.9",
+        ]);
+        let before = std::fs::read(&project).unwrap();
+        let report = dir.join("tables.html");
+        planewise_ok(&[
+            "batch",
+            &d,
+            &l,
+            &w,
+            "--ids",
+            "element,section",
+            "--unit",
+            "MPa",
+            "--rank",
+            "von-mises",
+            "--combinations-from",
+            p,
+            "--top",
+            "3",
+            "--at-or-beyond",
+            "30",
+            "--report",
+            report.to_str().unwrap(),
+            "--quiet",
+        ]);
+        let html = std::fs::read_to_string(&report).unwrap();
+        assert_eq!(
+            std::fs::read(&project).unwrap(),
+            before,
+            "the project file changed"
+        );
+        assert!(html.contains("<h2>Load cases as tables</h2>"));
+        for case in ["dead", "live", "wind"] {
+            let bytes = std::fs::read(dir.join(format!("{case}.csv"))).unwrap();
+            let hex = sha2::Sha256::digest(&bytes)
+                .iter()
+                .fold(String::new(), |mut s, b| {
+                    let _ = write!(s, "{b:02x}");
+                    s
+                });
+            assert!(html.contains(&hex), "no SHA-256 of {case}.csv");
+        }
+        // 1.35 × dead + 1.5 × live + 0.9 × wind governs all four points (the only
+        // combination); element 2 top is the worst (xx = 1.35·20 + 1.5·8 + 0.9·4 = 42.6).
+        assert!(html.contains("<td class=\"num\">4</td>"), "points governed");
+        assert!(html.contains("element=2, section=top"));
+        assert!(html.contains("at or beyond 30 MPa"));
+        assert!(html.contains("reported in full below as <strong>ULS</strong>"));
+        // The governing combination's own section follows, with the worst point's tensor.
+        assert!(html.contains("42.6"), "the worst point's summed xx");
+    }
 }

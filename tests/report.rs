@@ -25,6 +25,7 @@ fn options() -> ReportOptions {
         figures: vec![ReportFigure::View3d, ReportFigure::Map, ReportFigure::Mohr],
         date: "2026-12-02".to_owned(),
         source: None,
+        tables: None,
     }
 }
 

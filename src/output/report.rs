@@ -37,6 +37,54 @@ pub struct ReportOptions {
     pub date: String,
     /// The project file checked, when the report is of a file as saved: its name and SHA-256.
     pub source: Option<SourceFile>,
+    /// Load cases as tables: their section (inputs, combinations, top points, counts).
+    pub tables: Option<TablesSection>,
+}
+
+/// One of the worst points of load cases as tables.
+#[derive(Clone, Debug, PartialEq)]
+pub struct TopPoint {
+    /// Its number, in the order the tables first name it.
+    pub point: u64,
+    /// Its ids, `element=12, ip=3`.
+    pub ids: String,
+    /// Its governing combination.
+    pub combination: String,
+    /// The measure's value there (Pa for stress measures).
+    pub value: Option<f64>,
+    /// How the value reads.
+    pub standing: Condition,
+    /// Its principal values, Pa, in the report's convention.
+    pub principal: [f64; 3],
+}
+
+/// The report's section on load cases as tables, as `planewise batch` ranked them.
+#[derive(Clone, Debug, PartialEq)]
+pub struct TablesSection {
+    /// Each table: its load case (empty for a long table) and its file with its SHA-256, rows
+    /// read and bad rows skipped.
+    pub inputs: Vec<(String, SourceFile, u64, u64)>,
+    /// How the tables were read: unit, convention, columns, plane stress, ids, case column.
+    pub reading: String,
+    /// The measure points are ranked by.
+    pub measure: EnvelopeMeasure,
+    /// Each combination: its name, its terms written out and how many points it governs.
+    pub combinations: Vec<(String, String, u64)>,
+    /// No combinations were given: each case alone was enveloped.
+    pub each_case_alone: bool,
+    /// Points ranked, and points left out as unmatched.
+    pub points: u64,
+    /// Points left out (missing from a case or met twice in one).
+    pub left_out: u64,
+    /// How many points stand in each condition, as text.
+    pub counts: String,
+    /// The threshold (Pa for stress measures) and how many points are at or beyond it.
+    pub threshold: Option<(f64, u64)>,
+    /// The worst points.
+    pub top: Vec<TopPoint>,
+    /// Which case or combination of the report shows the worst point (its tensors replace the
+    /// project's cases of the tables' names in this report).
+    pub worst_shown_as: Option<String>,
 }
 
 /// A project file as the report identifies it.
@@ -75,6 +123,7 @@ impl Default for ReportOptions {
             figures: vec![ReportFigure::View3d, ReportFigure::Mohr],
             date: now_iso8601(),
             source: None,
+            tables: None,
         }
     }
 }
@@ -233,6 +282,9 @@ pub fn html(project: &Project, options: &ReportOptions) -> Result<String, StudyE
     s.push_str("</section>\n");
     conventions(&mut s, unit, convention.key());
     material(&mut s, project, unit, &mut notes);
+    if let Some(t) = &options.tables {
+        tables_section(&mut s, t, unit, &mut notes);
+    }
     envelopes(&mut s, project, unit, &mut notes)?;
     for name in &names {
         case_section(&mut s, project, name, unit, options, &mut notes)?;
@@ -373,6 +425,104 @@ fn envelopes(
     }
     s.push_str("</section>\n");
     Ok(())
+}
+
+/// Load cases as tables: the files with their SHA-256, how they were read, the combinations,
+/// the counts and the worst points with their governing combination.
+fn tables_section(s: &mut String, t: &TablesSection, unit: StressUnit, notes: &mut Footnotes) {
+    let shown = |v: f64| {
+        if t.measure.is_stress() {
+            format!("{} {unit}", readable(unit.from_pa(v), 6))
+        } else {
+            readable(v, 6)
+        }
+    };
+    let _ = write!(
+        s,
+        "<section>\n<h2>Load cases as tables</h2>\n<p>Finite-element results read as one table per load case, joined on their ids; at every point each combination's tensor is Σ factor × case tensor{}, the combination with the worst {} governs the point, and the points are ranked by that value.</p>\n<table>\n<tr><th>load case</th><th>file</th><th>SHA-256</th><th>rows read</th><th>bad rows skipped</th></tr>\n",
+        notes.mark("Tensors superpose; principal values do not (common practice, no source)."),
+        escape(&t.measure.label())
+    );
+    for (case, file, rows, bad) in &t.inputs {
+        let _ = writeln!(
+            s,
+            "<tr><td>{}</td><td>{}</td><td><code>{}</code></td><td class=\"num\">{rows}</td><td class=\"num\">{bad}</td></tr>",
+            if case.is_empty() {
+                "(named by the case column)".to_owned()
+            } else {
+                escape(case)
+            },
+            escape(&file.name),
+            file.sha256
+        );
+    }
+    let _ = writeln!(s, "</table>\n<p>Read as: {}.</p>", escape(&t.reading));
+    if t.each_case_alone {
+        s.push_str(
+            "<p>No combinations were given: each load case alone (factor 1) is enveloped.</p>\n",
+        );
+    }
+    s.push_str("<table>\n<tr><th>combination</th><th>terms</th><th>points it governs</th></tr>\n");
+    for (name, terms, n) in &t.combinations {
+        let _ = writeln!(
+            s,
+            "<tr><td>{}</td><td>{}</td><td class=\"num\">{n}</td></tr>",
+            escape(name),
+            escape(terms)
+        );
+    }
+    let _ = writeln!(
+        s,
+        "</table>\n<p>{} points ranked{}; {}{}.</p>",
+        t.points,
+        if t.left_out > 0 {
+            format!(
+                ", {} left out (missing from a load case or met twice in one)",
+                t.left_out
+            )
+        } else {
+            String::new()
+        },
+        escape(&t.counts),
+        t.threshold.map_or_else(String::new, |(v, n)| format!(
+            "; {n} at or beyond {}",
+            shown(v)
+        ))
+    );
+    let _ = write!(
+        s,
+        "<h3>The worst points</h3>\n<table>\n<tr><th>#</th><th>point</th><th>ids</th><th>governing combination</th><th>{}</th><th>σ1</th><th>σ2</th><th>σ3</th></tr>\n",
+        escape(&t.measure.label())
+    );
+    for (i, top) in t.top.iter().enumerate() {
+        let value = top.value.map_or_else(
+            || crate::study::envelope::standing_text(top.standing).to_owned(),
+            shown,
+        );
+        let p = top
+            .principal
+            .map(|v| format!("{} {unit}", readable(unit.from_pa(v), 5)));
+        let _ = writeln!(
+            s,
+            "<tr><td class=\"num\">{}</td><td class=\"num\">{}</td><td>{}</td><td>{}</td><td class=\"num\">{value}</td><td class=\"num\">{}</td><td class=\"num\">{}</td><td class=\"num\">{}</td></tr>",
+            i + 1,
+            top.point,
+            escape(&top.ids),
+            escape(&top.combination),
+            p[0],
+            p[1],
+            p[2]
+        );
+    }
+    s.push_str("</table>\n");
+    if let Some(name) = &t.worst_shown_as {
+        let _ = writeln!(
+            s,
+            "<p>The worst point's load-case tensors stand in for the project's cases of the same names in this report (the project file is not changed); its governing combination is reported in full below as <strong>{}</strong>.</p>",
+            escape(name)
+        );
+    }
+    s.push_str("</section>\n");
 }
 
 fn row_table(s: &mut String, rows: &[ResultRow], unit: StressUnit, notes: &mut Footnotes) {

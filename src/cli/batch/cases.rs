@@ -300,6 +300,12 @@ pub(super) fn run(args: &BatchArgs, setup: &Setup) -> Result<String, CliError> {
         );
     }
     let json = to_json(args, setup, &points, &ranked, combinations.is_empty());
+    if let Some(path) = &args.report {
+        write_report(path, args, setup, &points, &ranked, &combinations)?;
+        if !args.quiet {
+            eprintln!("planewise batch: wrote the report {}", path.display());
+        }
+    }
     if !args.quiet {
         let what = if args.rank.is_stress() {
             format!("{}, {}", setup.unit, setup.convention.key())
@@ -525,4 +531,149 @@ fn count(n: usize, noun: &str) -> String {
     } else {
         format!("{n} {noun}s")
     }
+}
+
+/// The calculation report of the load-case tables: the `--combinations-from` project (or an
+/// empty one) with the worst point's case tensors standing in for its cases of those names, the
+/// combinations used added where it lacks them, and the tables section.
+fn write_report(
+    path: &std::path::Path,
+    args: &BatchArgs,
+    setup: &Setup,
+    points: &Points,
+    ranked: &RankedPoints,
+    given: &[Combination],
+) -> Result<(), CliError> {
+    use crate::output::report::{ReportOptions, SourceFile, TablesSection, TopPoint, html};
+    let (mut project, source) = match &args.combinations_from {
+        Some(p) => {
+            let project = crate::cli::project::load(p)
+                .map_err(|e| ArgError::new("--combinations-from", e.message))?;
+            let source = SourceFile::read(p).map_err(|e| {
+                ArgError::new("--combinations-from", format!("{}: {e}", p.display()))
+            })?;
+            (project, Some(source))
+        }
+        None => (
+            crate::study::Project::new(
+                "Load-case tables (no project given)",
+                setup.unit,
+                setup.convention,
+            ),
+            None,
+        ),
+    };
+    let unit = project
+        .unit()
+        .map_err(|e| ArgError::new("--combinations-from", e))?;
+    let convention = project.convention();
+    let mut inputs = Vec::new();
+    for t in &points.tables {
+        let file = SourceFile::read(std::path::Path::new(&t.file))
+            .map_err(|e| ArgError::new("FILE", format!("{}: {e}", t.file)))?;
+        inputs.push((t.case.clone(), file, t.rows, t.bad_count));
+    }
+    let worst = ranked
+        .rows
+        .first()
+        .or_else(|| ranked.groups.first().map(|g| &g.worst));
+    let mut shown_as = None;
+    if let Some(w) = worst {
+        let p = usize::try_from(w.row.line.saturating_sub(1)).unwrap_or(0);
+        for case in table::point_load_cases(points, p, unit, convention) {
+            if project.is_combination(&case.name) {
+                return Err(ArgError::new(
+                    "--combinations-from",
+                    format!(
+                        "'{}' is a combination of the project, not a load case",
+                        case.name
+                    ),
+                )
+                .into());
+            }
+            project
+                .add_case(case, true)
+                .map_err(|e| ArgError::new("FILE", e))?;
+        }
+        for c in given {
+            if !project.name_used(&c.name) {
+                project
+                    .add_combination(c.clone(), false)
+                    .map_err(|e| ArgError::new("--combination", e))?;
+            }
+        }
+        let name = ranked.combinations[w.combination].name.clone();
+        project.active.clone_from(&name);
+        shown_as = Some(name);
+    }
+    let terms = |c: &table::PointCombination| {
+        points
+            .cases
+            .iter()
+            .zip(&c.factors)
+            .filter(|(_, f)| **f != 0.0)
+            .map(|(case, f)| format!("{} × {case}", crate::text::format::readable(*f, 4)))
+            .collect::<Vec<_>>()
+            .join(" + ")
+    };
+    let principal =
+        |r: &PointRow| crate::mechanics::principal::principal_values_in(&r.row.tensor, convention);
+    let listed: Vec<&PointRow> = if ranked.groups.is_empty() {
+        ranked.rows.iter().take(50).collect()
+    } else {
+        ranked.groups.iter().map(|g| &g.worst).take(50).collect()
+    };
+    let section = TablesSection {
+        inputs,
+        reading: format!(
+            "unit {}, {}, components {}{}; joined on {}{}",
+            setup.unit,
+            setup.convention.key(),
+            args.columns
+                .as_deref()
+                .map_or_else(|| "by header name".to_owned(), |c| format!("mapped {c}")),
+            if setup.options.plane_stress {
+                ", plane stress (zz, yz and zx stated zero)"
+            } else {
+                ""
+            },
+            points.id_names.join(", "),
+            args.case_column
+                .as_deref()
+                .map_or_else(String::new, |c| format!(", load case in column {c}"))
+        ),
+        measure: args.rank,
+        combinations: ranked
+            .combinations
+            .iter()
+            .zip(&ranked.governs)
+            .map(|(c, &n)| (c.name.clone(), terms(c), n))
+            .collect(),
+        each_case_alone: given.is_empty(),
+        points: ranked.points,
+        left_out: points.unmatched_count,
+        counts: ranked.counts.text("points"),
+        threshold: setup.options.above.map(|v| (v, ranked.at_or_beyond)),
+        top: listed
+            .iter()
+            .map(|r| TopPoint {
+                point: r.row.line,
+                ids: points.id_text(usize::try_from(r.row.line - 1).unwrap_or(0)),
+                combination: ranked.combinations[r.combination].name.clone(),
+                value: r.row.value,
+                standing: r.row.standing,
+                principal: principal(r),
+            })
+            .collect(),
+        worst_shown_as: shown_as.clone(),
+    };
+    let options = ReportOptions {
+        cases: shown_as.into_iter().collect(),
+        source,
+        tables: Some(section),
+        ..ReportOptions::default()
+    };
+    let text = html(&project, &options).map_err(|e| ArgError::new("--report", e))?;
+    crate::study::atomic::write_atomic(path, text.as_bytes()).map_err(anyhow::Error::from)?;
+    Ok(())
 }

@@ -66,6 +66,12 @@ pub struct BatchArgs {
     /// at the first, naming its table, line and ids).
     #[arg(long, requires = "ids")]
     pub skip_unmatched: bool,
+    /// Also write a calculation report (HTML) of the load-case tables: the files with their
+    /// SHA-256, how they were read, the combinations, the counts, the worst points with their
+    /// governing combination, and the worst point's governing combination in full (with the
+    /// --combinations-from project's material and checks, its file unchanged).
+    #[arg(long, value_name = "FILE.html", requires = "ids")]
+    pub report: Option<PathBuf>,
     /// Which header names hold the components, e.g. `xx=S11,yy=S22,zz=S33,xy=S12,yz=S23,zx=S13`
     /// (default: the columns named xx, yy, zz, xy, yz, zx, case-insensitive, also sxx… and
     /// s11…).
@@ -364,14 +370,27 @@ fn setup(args: &BatchArgs) -> Result<Setup, CliError> {
             return Err(ArgError::new("--rank", format!("{}: {}", c.label(), check.note)).into());
         }
     }
+    let mut inputs: Vec<&std::path::Path> = args
+        .files
+        .iter()
+        .filter(|f| *f != "-")
+        .map(|f| std::path::Path::new(cases::file_part(f, args)))
+        .collect();
+    if let Some(p) = &args.combinations_from {
+        inputs.push(p);
+    }
     if let Some(out) = &args.out {
-        let inputs: Vec<&std::path::Path> = args
-            .files
-            .iter()
-            .filter(|f| *f != "-")
-            .map(|f| std::path::Path::new(cases::file_part(f, args)))
-            .collect();
         crate::study::atomic::not_an_input(out, &inputs).map_err(|e| ArgError::new("--out", e))?;
+    }
+    if let Some(report) = &args.report {
+        let ext = report.extension().and_then(|e| e.to_str()).unwrap_or("");
+        if !ext.eq_ignore_ascii_case("html") && !ext.eq_ignore_ascii_case("htm") {
+            return Err(
+                ArgError::new("--report", "the report is HTML: name the file .html").into(),
+            );
+        }
+        crate::study::atomic::not_an_input(report, &inputs)
+            .map_err(|e| ArgError::new("--report", e))?;
     }
     let above = args
         .at_or_beyond

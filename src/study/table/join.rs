@@ -637,3 +637,48 @@ pub fn join<R: Read>(
     }
     Ok(gather.points)
 }
+
+/// The load cases of point `p`: one per table case, named as the case, its tensor in `unit`
+/// and `convention` as typed, remembering the table and the point's ids.
+#[must_use]
+pub fn point_load_cases(
+    points: &Points,
+    p: usize,
+    unit: crate::mechanics::StressUnit,
+    convention: crate::mechanics::SignConvention,
+) -> Vec<crate::study::LoadCase> {
+    use crate::study::{CaseInput, LoadCase, TableRowInput, TypedTensor};
+    let id = points.id_text(p);
+    let sign = convention.sign();
+    points
+        .cases
+        .iter()
+        .enumerate()
+        .map(|(c, case)| {
+            // A table per case, or one long table for all.
+            let file = points
+                .tables
+                .get(c)
+                .filter(|t| !t.case.is_empty())
+                .or(points.tables.first())
+                .map(|t| t.file.clone())
+                .unwrap_or_default();
+            LoadCase {
+                unknown: crate::study::unknown::UnknownKeys::new(),
+                name: case.clone(),
+                description: format!("Load case '{case}' at {id}, from {file}"),
+                input: CaseInput::TableRow(TableRowInput {
+                    file,
+                    line: 0,
+                    id: id.clone(),
+                    stress: TypedTensor {
+                        unit: unit.symbol().to_owned(),
+                        compression_positive: convention
+                            == crate::mechanics::SignConvention::CompressionPositive,
+                        components: points.tensor(c, p).map(|v| sign * unit.from_pa(v)),
+                    },
+                }),
+            }
+        })
+        .collect()
+}

@@ -25,7 +25,7 @@ pub use combine::{
     PointCombination, PointGroup, PointRow, RankedPoints, combined, point_combinations, point_row,
     rank_points,
 };
-pub use join::{CaseTable, JoinOptions, KEEP_UNMATCHED, Points, TableRead, join};
+pub use join::{CaseTable, JoinOptions, KEEP_UNMATCHED, Points, TableRead, join, point_load_cases};
 pub use rank::rank;
 pub use read::{component_of, preview};
 use read::{read_row, split};

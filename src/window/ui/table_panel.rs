@@ -991,41 +991,9 @@ impl TablePanel {
 /// table case, in the project's unit and convention, then its governing combination shown.
 fn point_cases(points: &Points, row: &crate::study::table::Row, d: &Derived) -> Command {
     let p = usize::try_from(row.line.saturating_sub(1)).unwrap_or(0);
-    let id = points.id_text(p);
-    let unit = d.unit;
-    let sign = d.convention.sign();
-    let cases = points
-        .cases
-        .iter()
-        .enumerate()
-        .map(|(c, case)| {
-            let file = points
-                .tables
-                .get(c)
-                .filter(|t| !t.case.is_empty())
-                .or(points.tables.first())
-                .map(|t| t.file.clone())
-                .unwrap_or_default();
-            LoadCase {
-                unknown: crate::study::unknown::UnknownKeys::new(),
-                name: case.clone(),
-                description: format!("Load case '{case}' at {id}, from {file}"),
-                input: CaseInput::TableRow(TableRowInput {
-                    file,
-                    line: 0,
-                    id: id.clone(),
-                    stress: TypedTensor {
-                        unit: unit.symbol().to_owned(),
-                        compression_positive: d.convention == SignConvention::CompressionPositive,
-                        components: points.tensor(c, p).map(|v| sign * unit.from_pa(v)),
-                    },
-                }),
-            }
-        })
-        .collect();
     Command::Edit {
         edit: Edit::AddTablePoint {
-            cases,
+            cases: crate::study::table::point_load_cases(points, p, d.unit, d.convention),
             show: row.carried.first().cloned().unwrap_or_default(),
         },
         coalesce: None,
