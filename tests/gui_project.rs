@@ -1254,6 +1254,12 @@ fn joined_load_case_tables_list_points_and_a_clicked_point_feeds_the_combination
         h.query_by_label_contains("the project's 1 combinations of these cases")
             .is_some()
     );
+    // The project keeps where its load cases come from.
+    let kept = h.state().project.load_case_tables.clone().unwrap();
+    assert_eq!(kept.ids, ["element", "ip"]);
+    assert_eq!(kept.unit, "MPa");
+    let cases: Vec<&str> = kept.tables.iter().map(|t| t.case.as_str()).collect();
+    assert_eq!(cases, ["Gk", "Qk"]);
     // Point 3 (element 2, ip 1, the third met in the dead table) is the worst: click it.
     h.get_by_label_contains("Point 3: click").click();
     h.run();

@@ -861,4 +861,74 @@ mod cli {
         // The governing combination's own section follows, with the worst point's tensor.
         assert!(html.contains("42.6"), "the worst point's summed xx");
     }
+
+    /// `batch --project`: the project's load-case tables (relative files from its folder, ids,
+    /// unit) and its combinations give the same points as the same tables named on the
+    /// command line; a project without tables is refused.
+    #[test]
+    fn a_project_names_its_load_case_tables() {
+        let dir = example();
+        let project = dir.join("with-tables.json");
+        let _ = std::fs::remove_file(&project);
+        let p = project.to_str().unwrap();
+        planewise_ok(&["project", "new", p]);
+        for case in ["dead", "live"] {
+            planewise_ok(&["project", "add-case", p, "--name", case, "--stress", "xx=0"]);
+        }
+        planewise_ok(&[
+            "project",
+            "combine",
+            p,
+            "--name",
+            "ULS",
+            "--factors",
+            "dead=1.35,live=1.5",
+        ]);
+        let out = planewise(&["batch", "--project", p, "--rank", "von-mises"]);
+        assert_eq!(out.status.code(), Some(2));
+        assert!(String::from_utf8_lossy(&out.stderr).contains("names no load-case tables"));
+        let mut json: serde_json::Value =
+            serde_json::from_str(&std::fs::read_to_string(&project).unwrap()).unwrap();
+        json["load_case_tables"] = serde_json::json!({
+            "tables": [{"case": "dead", "file": "dead.csv"}, {"case": "live", "file": "live.csv"}],
+            "ids": ["element", "section"],
+            "unit": "MPa"
+        });
+        std::fs::write(&project, serde_json::to_string_pretty(&json).unwrap()).unwrap();
+        let a = planewise_ok(&[
+            "batch",
+            "--project",
+            p,
+            "--rank",
+            "von-mises",
+            "--json",
+            "--quiet",
+        ]);
+        let (d, l) = (arg(&dir, "dead"), arg(&dir, "live"));
+        let b = planewise_ok(&[
+            "batch",
+            &d,
+            &l,
+            "--ids",
+            "element,section",
+            "--unit",
+            "MPa",
+            "--rank",
+            "von-mises",
+            "--combination",
+            "ULS:dead=1.35,live=1.5",
+            "--json",
+            "--quiet",
+        ]);
+        let ja: serde_json::Value = serde_json::from_slice(&a.stdout).unwrap();
+        let jb: serde_json::Value = serde_json::from_slice(&b.stdout).unwrap();
+        assert_eq!(ja["rows"], jb["rows"]);
+        assert_eq!(ja["combinations"][0]["name"], "ULS");
+        // The file keeps the tables through a load and save.
+        let (loaded, _) = planewise::study::load(&project).unwrap();
+        assert_eq!(
+            loaded.load_case_tables.as_ref().unwrap().ids,
+            ["element", "section"]
+        );
+    }
 }

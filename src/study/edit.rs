@@ -43,6 +43,8 @@ pub enum Edit {
     Activate(String),
     /// A new load case with a zero stress, shown at once.
     AddCase,
+    /// Where the load cases come from as tables (None: nowhere).
+    SetLoadCaseTables(Option<Box<crate::study::LoadCaseTables>>),
     /// A load case taken from a row of an imported table (replacing a case of the same name),
     /// shown at once.
     AddTableRow(Box<LoadCase>),
@@ -241,6 +243,9 @@ impl Edit {
                 } else if let Some(first) = cases.first() {
                     p.active.clone_from(&first.name);
                 }
+            }
+            Self::SetLoadCaseTables(t) => {
+                p.load_case_tables = t.as_deref().cloned();
             }
             Self::AddCase => {
                 let name = p.unused_name("case");

@@ -27,4 +27,7 @@ pub use inputs::{
     CaseInput, FieldKind, InSituInput, InputKind, PlaneStressInput, PrincipalInput, RosetteInput,
     TableRowInput, TypedTensor,
 };
-pub use model::{Combination, FaultPlane, LoadCase, Material, MeasureChoice, Project, Term};
+pub use model::{
+    CaseTableFile, Combination, FaultPlane, LoadCase, LoadCaseTables, Material, MeasureChoice,
+    Project, Term,
+};

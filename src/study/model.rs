@@ -214,6 +214,10 @@ pub struct Project {
     /// Captions and pinned notes on the figures, per load case or combination.
     #[serde(default, skip_serializing_if = "Vec::is_empty")]
     pub annotations: Vec<super::annotations::Annotation>,
+    /// Load cases as tables: the finite-element tables the load cases come from at every
+    /// point, and how to read them (the window's Table tab and `planewise batch --project`).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub load_case_tables: Option<LoadCaseTables>,
     /// Top-level keys this version does not know, kept as read and written back.
     #[serde(flatten, default, skip_serializing_if = "serde_json::Map::is_empty")]
     pub unknown: UnknownKeys,
@@ -221,6 +225,48 @@ pub struct Project {
     /// set by [`crate::study::file::load`] and written back by its save.
     #[serde(skip)]
     pub unknown_inside: Option<Box<UnknownInside>>,
+}
+
+/// Load cases as tables: one table per load case (or one long table with a case column), the
+/// id columns that join them and how their components are read. Paths are as given; a relative
+/// one is read from the project file's folder.
+#[derive(Clone, Debug, Default, PartialEq, Serialize, Deserialize)]
+#[serde(default)]
+pub struct LoadCaseTables {
+    /// The tables: a load case and its file (one long table: its only file, case empty).
+    pub tables: Vec<CaseTableFile>,
+    /// The id columns that name a point in every table.
+    pub ids: Vec<String>,
+    /// One long table: the column naming each row's load case.
+    #[serde(skip_serializing_if = "String::is_empty")]
+    pub case_column: String,
+    /// The components' unit (a symbol: MPa, psi…); the tables do not say.
+    pub unit: String,
+    /// The components are written compression positive.
+    pub compression_positive: bool,
+    /// Component (xx … zx) → column name, for components not found by their header names.
+    #[serde(skip_serializing_if = "std::collections::BTreeMap::is_empty")]
+    pub columns: std::collections::BTreeMap<String, String>,
+    /// The tables hold xx, yy and xy only; zz, yz and zx are zero (the user says so).
+    pub plane_stress: bool,
+    /// Numbers are written with a decimal comma.
+    pub decimal_comma: bool,
+    /// Keys this version does not know, kept as read.
+    #[serde(flatten, skip_serializing_if = "serde_json::Map::is_empty")]
+    pub unknown: UnknownKeys,
+}
+
+/// One load-case table of [`LoadCaseTables`].
+#[derive(Clone, Debug, Default, PartialEq, Serialize, Deserialize)]
+#[serde(default)]
+pub struct CaseTableFile {
+    /// The load case (empty for a long table).
+    pub case: String,
+    /// The file, as given.
+    pub file: String,
+    /// Keys this version does not know, kept as read.
+    #[serde(flatten, skip_serializing_if = "serde_json::Map::is_empty")]
+    pub unknown: UnknownKeys,
 }
 
 fn default_unit() -> String {
@@ -245,6 +291,7 @@ impl Project {
             material: Material::default(),
             faults: Vec::new(),
             annotations: Vec::new(),
+            load_case_tables: None,
             unknown: UnknownKeys::new(),
             unknown_inside: None,
         }

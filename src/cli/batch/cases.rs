@@ -677,3 +677,83 @@ fn write_report(
     crate::study::atomic::write_atomic(path, text.as_bytes()).map_err(anyhow::Error::from)?;
     Ok(())
 }
+
+/// The arguments with the load-case tables of `project` (its `load_case_tables`): files
+/// (relative ones from the project's folder), ids, case column, unit, convention, mapping; its
+/// combinations applied (as `--combinations-from`).
+pub(super) fn from_project(
+    args: &BatchArgs,
+    project: &std::path::Path,
+) -> Result<BatchArgs, CliError> {
+    let p =
+        crate::cli::project::load(project).map_err(|e| ArgError::new("--project", e.message))?;
+    let Some(t) = &p.load_case_tables else {
+        return Err(ArgError::new(
+            "--project",
+            format!(
+                "{} names no load-case tables (set them in the window's Table tab, Load cases as tables, and save)",
+                project.display()
+            ),
+        )
+        .into());
+    };
+    if t.tables.is_empty() || t.ids.is_empty() {
+        return Err(ArgError::new(
+            "--project",
+            format!(
+                "{}: its load-case tables name no files or no id columns",
+                project.display()
+            ),
+        )
+        .into());
+    }
+    let unit = t
+        .unit
+        .parse::<crate::mechanics::StressUnit>()
+        .map_err(|e| {
+            ArgError::new(
+                "--project",
+                format!("{}: the tables' unit: {e}", project.display()),
+            )
+        })?;
+    let folder = project.parent().unwrap_or_else(|| std::path::Path::new(""));
+    let place = |file: &str| {
+        let path = std::path::Path::new(file);
+        if path.is_absolute() {
+            file.to_owned()
+        } else {
+            folder.join(path).display().to_string()
+        }
+    };
+    let long = !t.case_column.is_empty();
+    let mut out = args.clone();
+    out.project = None;
+    out.files = t
+        .tables
+        .iter()
+        .map(|f| {
+            if long {
+                place(&f.file)
+            } else {
+                format!("{}={}", f.case, place(&f.file))
+            }
+        })
+        .collect();
+    out.ids.clone_from(&t.ids);
+    out.case_column = long.then(|| t.case_column.clone());
+    out.unit = Some(unit);
+    out.compression_positive = t.compression_positive;
+    out.columns = (!t.columns.is_empty()).then(|| {
+        t.columns
+            .iter()
+            .map(|(k, v)| format!("{k}={v}"))
+            .collect::<Vec<_>>()
+            .join(",")
+    });
+    out.plane_stress = t.plane_stress;
+    out.decimal_comma = t.decimal_comma;
+    if !p.combinations.is_empty() {
+        out.combinations_from = Some(project.to_path_buf());
+    }
+    Ok(out)
+}

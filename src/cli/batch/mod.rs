@@ -30,8 +30,16 @@ pub struct BatchArgs {
     /// The table: CSV, TSV, semicolon- or whitespace-separated text with a header row; `-` reads
     /// standard input. Load cases as tables: one CASE=FILE per case (with --ids), or one long
     /// table with --case-column.
-    #[arg(value_name = "FILE", required = true)]
+    #[arg(value_name = "FILE", required_unless_present = "project")]
     pub files: Vec<String>,
+    /// Read the load-case tables the project file names (its files, ids, unit, convention and
+    /// column mapping, as the window's Table tab saved them) and apply its combinations.
+    #[arg(
+        long,
+        value_name = "PROJECT",
+        conflicts_with_all = ["files", "ids", "case_column", "combinations_from", "unit", "compression_positive", "columns", "plane_stress", "decimal_comma"]
+    )]
+    pub project: Option<PathBuf>,
     /// Load-case tables: the id columns that name a point in every table, comma-separated (one
     /// or more: element, integration point, section point); the tables are joined on them in
     /// any row order.
@@ -79,8 +87,13 @@ pub struct BatchArgs {
     pub columns: Option<String>,
     /// Unit of the components: required, since a table does not say and a wrong guess is off
     /// by a factor of a million.
-    #[arg(long, value_name = "UNIT", value_parser = values::unit)]
-    pub unit: StressUnit,
+    #[arg(
+        long,
+        value_name = "UNIT",
+        value_parser = values::unit,
+        required_unless_present = "project"
+    )]
+    pub unit: Option<StressUnit>,
     /// The components are written compression positive.
     #[arg(long)]
     pub compression_positive: bool,
@@ -330,7 +343,9 @@ impl Setup {
 /// Reads the measure's parameters and the table options, checking that the measure can be
 /// evaluated and that `--out` is not one of the tables.
 fn setup(args: &BatchArgs) -> Result<Setup, CliError> {
-    let unit = args.unit;
+    let unit = args
+        .unit
+        .ok_or_else(|| ArgError::new("--unit", "give the tables' unit"))?;
     let convention = if args.compression_positive {
         SignConvention::CompressionPositive
     } else {
@@ -456,6 +471,13 @@ pub(crate) fn progress_line(quiet: bool, size: Option<u64>) -> impl FnMut(u64) -
 
 /// Runs the subcommand.
 pub fn run(args: &BatchArgs) -> Result<String, CliError> {
+    let resolved;
+    let args = if let Some(project) = &args.project {
+        resolved = cases::from_project(args, project)?;
+        &resolved
+    } else {
+        args
+    };
     let setup = setup(args)?;
     if cases::joined(args) {
         return cases::run(args, &setup);

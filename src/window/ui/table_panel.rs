@@ -107,6 +107,8 @@ pub struct TablePanel {
     points: Option<Points>,
     /// A read has just given a list: fold the reading settings once.
     fold_reading: bool,
+    /// The project's load-case tables last taken into the tab's fields.
+    seen_tables: Option<crate::study::LoadCaseTables>,
 }
 
 /// What the list can be sorted by.
@@ -145,6 +147,7 @@ impl Default for TablePanel {
             more_tables: Vec::new(),
             points: None,
             fold_reading: false,
+            seen_tables: None,
         }
     }
 }
@@ -180,6 +183,84 @@ impl TablePanel {
             by_place: false,
             above: None,
         }
+    }
+
+    /// The load-case tables as the project keeps them: the tab's files (absolute where they
+    /// can be), ids, case column, unit, convention and mapping; `None` unless joining with a
+    /// unit chosen.
+    #[must_use]
+    pub fn load_case_tables(&self) -> Option<crate::study::LoadCaseTables> {
+        let unit = self.unit?;
+        if !self.joined() {
+            return None;
+        }
+        let absolute = |f: &str| {
+            std::fs::canonicalize(f).map_or_else(|_| f.to_owned(), |p| p.display().to_string())
+        };
+        let long = !self.case_column.trim().is_empty();
+        Some(crate::study::LoadCaseTables {
+            tables: self
+                .tables()
+                .into_iter()
+                .map(|(case, file)| crate::study::CaseTableFile {
+                    case: if long { String::new() } else { case },
+                    file: absolute(&file),
+                    unknown: crate::study::unknown::UnknownKeys::new(),
+                })
+                .collect(),
+            ids: self
+                .ids
+                .split(',')
+                .map(str::trim)
+                .filter(|s| !s.is_empty())
+                .map(str::to_owned)
+                .collect(),
+            case_column: self.case_column.trim().to_owned(),
+            unit: unit.symbol().to_owned(),
+            compression_positive: self.compression_positive,
+            columns: self
+                .mapping
+                .iter()
+                .enumerate()
+                .filter(|(_, n)| !n.trim().is_empty())
+                .map(|(k, n)| (COMPONENTS[k].to_owned(), n.trim().to_owned()))
+                .collect(),
+            plane_stress: self.plane_stress,
+            decimal_comma: self.decimal_comma,
+            unknown: crate::study::unknown::UnknownKeys::new(),
+        })
+    }
+
+    /// Takes the project's load-case tables into the tab's fields when the project names some
+    /// the tab has not taken yet and the tab has no table of its own.
+    fn take_from(&mut self, project: &Project) {
+        let Some(t) = &project.load_case_tables else {
+            return;
+        };
+        if self.seen_tables.as_ref() == Some(t) || self.job.is_some() {
+            return;
+        }
+        self.seen_tables = Some(t.clone());
+        if !self.path.trim().is_empty() {
+            return;
+        }
+        let mut files = t.tables.iter();
+        if let Some(first) = files.next() {
+            self.path.clone_from(&first.file);
+            self.first_case.clone_from(&first.case);
+        }
+        self.more_tables = files.map(|f| (f.case.clone(), f.file.clone())).collect();
+        self.ids = t.ids.join(", ");
+        self.case_column.clone_from(&t.case_column);
+        self.unit = t.unit.parse().ok();
+        self.compression_positive = t.compression_positive;
+        self.plane_stress = t.plane_stress;
+        self.decimal_comma = t.decimal_comma;
+        for (k, c) in COMPONENTS.iter().enumerate() {
+            self.mapping[k] = t.columns.get(*c).cloned().unwrap_or_default();
+        }
+        let path = self.path.clone();
+        self.load_preview(&path);
     }
 
     /// Whether the read joins load-case tables (id columns are given).
@@ -445,6 +526,7 @@ impl TablePanel {
     /// The tab.
     fn show(&mut self, ui: &mut egui::Ui, project: &Project, d: &Derived, out: &mut Vec<Command>) {
         self.poll();
+        self.take_from(project);
         // What to read and how folds away once a read has given a list, so the list has the
         // room; its header opens it again.
         let mut fold = egui::collapsing_header::CollapsingState::load_with_default_open(
@@ -553,6 +635,16 @@ impl TablePanel {
                 .clicked()
             {
                 self.start(ui.ctx(), project);
+                // The project keeps where its load cases come from as tables.
+                if let Some(t) = self.load_case_tables()
+                    && project.load_case_tables.as_ref() != Some(&t)
+                {
+                    self.seen_tables = Some(t.clone());
+                    out.push(Command::Edit {
+                        edit: Edit::SetLoadCaseTables(Some(Box::new(t))),
+                        coalesce: None,
+                    });
+                }
             }
             if self.unit.is_none() && !self.path.trim().is_empty() {
                 ui.colored_label(
