@@ -1274,6 +1274,12 @@ fn joined_load_case_tables_list_points_and_a_clicked_point_feeds_the_combination
     };
     assert_eq!(row.id, "element=2, ip=1");
     assert_eq!(row.file, live.to_str().unwrap());
+    // The window's report carries the tables section of this read.
+    let report = temp("joined-report.html");
+    h.state_mut().report_to(&report);
+    let html = std::fs::read_to_string(&report).unwrap();
+    assert!(html.contains("Load cases as tables"), "no tables section");
+    assert!(html.contains("joined-live.csv") && html.contains("ULS-tables"));
     // One undo step puts both cases back.
     h.key_press_modifiers(egui::Modifiers::COMMAND, egui::Key::Z);
     h.run();

@@ -41,6 +41,75 @@ pub struct ReportOptions {
     pub tables: Option<TablesSection>,
 }
 
+impl TablesSection {
+    /// The section of `points` ranked as `ranked` by `measure` (`each_case_alone`: no
+    /// combinations were given; `threshold` in Pa for stress measures), read as `reading`
+    /// says; each table's SHA-256 read from its file; principal values in `convention`. The
+    /// 50 worst points (or groups' worst points) are listed.
+    pub fn of(
+        points: &crate::study::table::Points,
+        ranked: &crate::study::table::RankedPoints,
+        reading: String,
+        measure: EnvelopeMeasure,
+        each_case_alone: bool,
+        threshold: Option<f64>,
+        convention: crate::mechanics::SignConvention,
+    ) -> Result<Self, String> {
+        let mut inputs = Vec::new();
+        for t in &points.tables {
+            let file = SourceFile::read(std::path::Path::new(&t.file))
+                .map_err(|e| format!("{}: {e}", t.file))?;
+            inputs.push((t.case.clone(), file, t.rows, t.bad_count));
+        }
+        let terms = |c: &crate::study::table::PointCombination| {
+            points
+                .cases
+                .iter()
+                .zip(&c.factors)
+                .filter(|(_, f)| **f != 0.0)
+                .map(|(case, f)| format!("{} × {case}", readable(*f, 4)))
+                .collect::<Vec<_>>()
+                .join(" + ")
+        };
+        let listed: Vec<&crate::study::table::PointRow> = if ranked.groups.is_empty() {
+            ranked.rows.iter().take(50).collect()
+        } else {
+            ranked.groups.iter().map(|g| &g.worst).take(50).collect()
+        };
+        Ok(Self {
+            inputs,
+            reading,
+            measure,
+            combinations: ranked
+                .combinations
+                .iter()
+                .zip(&ranked.governs)
+                .map(|(c, &n)| (c.name.clone(), terms(c), n))
+                .collect(),
+            each_case_alone,
+            points: ranked.points,
+            left_out: points.unmatched_count,
+            counts: ranked.counts.text("points"),
+            threshold: threshold.map(|v| (v, ranked.at_or_beyond)),
+            top: listed
+                .iter()
+                .map(|r| TopPoint {
+                    point: r.row.line,
+                    ids: points.id_text(usize::try_from(r.row.line.saturating_sub(1)).unwrap_or(0)),
+                    combination: ranked.combinations[r.combination].name.clone(),
+                    value: r.row.value,
+                    standing: r.row.standing,
+                    principal: crate::mechanics::principal::principal_values_in(
+                        &r.row.tensor,
+                        convention,
+                    ),
+                })
+                .collect(),
+            worst_shown_as: None,
+        })
+    }
+}
+
 /// One of the worst points of load cases as tables.
 #[derive(Clone, Debug, PartialEq)]
 pub struct TopPoint {

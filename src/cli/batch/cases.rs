@@ -544,7 +544,7 @@ fn write_report(
     ranked: &RankedPoints,
     given: &[Combination],
 ) -> Result<(), CliError> {
-    use crate::output::report::{ReportOptions, SourceFile, TablesSection, TopPoint, html};
+    use crate::output::report::{ReportOptions, SourceFile, TablesSection, html};
     let (mut project, source) = match &args.combinations_from {
         Some(p) => {
             let project = crate::cli::project::load(p)
@@ -567,12 +567,6 @@ fn write_report(
         .unit()
         .map_err(|e| ArgError::new("--combinations-from", e))?;
     let convention = project.convention();
-    let mut inputs = Vec::new();
-    for t in &points.tables {
-        let file = SourceFile::read(std::path::Path::new(&t.file))
-            .map_err(|e| ArgError::new("FILE", format!("{}: {e}", t.file)))?;
-        inputs.push((t.case.clone(), file, t.rows, t.bad_count));
-    }
     let worst = ranked
         .rows
         .first()
@@ -606,67 +600,34 @@ fn write_report(
         project.active.clone_from(&name);
         shown_as = Some(name);
     }
-    let terms = |c: &table::PointCombination| {
-        points
-            .cases
-            .iter()
-            .zip(&c.factors)
-            .filter(|(_, f)| **f != 0.0)
-            .map(|(case, f)| format!("{} × {case}", crate::text::format::readable(*f, 4)))
-            .collect::<Vec<_>>()
-            .join(" + ")
-    };
-    let principal =
-        |r: &PointRow| crate::mechanics::principal::principal_values_in(&r.row.tensor, convention);
-    let listed: Vec<&PointRow> = if ranked.groups.is_empty() {
-        ranked.rows.iter().take(50).collect()
-    } else {
-        ranked.groups.iter().map(|g| &g.worst).take(50).collect()
-    };
-    let section = TablesSection {
-        inputs,
-        reading: format!(
-            "unit {}, {}, components {}{}; joined on {}{}",
-            setup.unit,
-            setup.convention.key(),
-            args.columns
-                .as_deref()
-                .map_or_else(|| "by header name".to_owned(), |c| format!("mapped {c}")),
-            if setup.options.plane_stress {
-                ", plane stress (zz, yz and zx stated zero)"
-            } else {
-                ""
-            },
-            points.id_names.join(", "),
-            args.case_column
-                .as_deref()
-                .map_or_else(String::new, |c| format!(", load case in column {c}"))
-        ),
-        measure: args.rank,
-        combinations: ranked
-            .combinations
-            .iter()
-            .zip(&ranked.governs)
-            .map(|(c, &n)| (c.name.clone(), terms(c), n))
-            .collect(),
-        each_case_alone: given.is_empty(),
-        points: ranked.points,
-        left_out: points.unmatched_count,
-        counts: ranked.counts.text("points"),
-        threshold: setup.options.above.map(|v| (v, ranked.at_or_beyond)),
-        top: listed
-            .iter()
-            .map(|r| TopPoint {
-                point: r.row.line,
-                ids: points.id_text(usize::try_from(r.row.line - 1).unwrap_or(0)),
-                combination: ranked.combinations[r.combination].name.clone(),
-                value: r.row.value,
-                standing: r.row.standing,
-                principal: principal(r),
-            })
-            .collect(),
-        worst_shown_as: shown_as.clone(),
-    };
+    let reading = format!(
+        "unit {}, {}, components {}{}; joined on {}{}",
+        setup.unit,
+        setup.convention.key(),
+        args.columns
+            .as_deref()
+            .map_or_else(|| "by header name".to_owned(), |c| format!("mapped {c}")),
+        if setup.options.plane_stress {
+            ", plane stress (zz, yz and zx stated zero)"
+        } else {
+            ""
+        },
+        points.id_names.join(", "),
+        args.case_column
+            .as_deref()
+            .map_or_else(String::new, |c| format!(", load case in column {c}"))
+    );
+    let mut section = TablesSection::of(
+        points,
+        ranked,
+        reading,
+        args.rank,
+        given.is_empty(),
+        setup.options.above,
+        convention,
+    )
+    .map_err(|e| ArgError::new("FILE", e))?;
+    section.worst_shown_as.clone_from(&shown_as);
     let options = ReportOptions {
         cases: shown_as.into_iter().collect(),
         source,

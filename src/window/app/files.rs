@@ -194,12 +194,20 @@ impl PlanewiseApp {
             .as_ref()
             .filter(|_| !self.dirty())
             .and_then(|f| crate::output::report::SourceFile::read(f).ok());
-        let options = crate::output::report::ReportOptions {
-            source,
-            ..crate::output::report::ReportOptions::default()
-        };
-        let written = crate::output::report::html(&self.project, &options)
-            .map_err(|e| e.to_string())
+        // The Table tab's last joined read, when there is one, gives the tables section.
+        let tables = self
+            .table_panel
+            .report_section(self.project.convention())
+            .transpose();
+        let written = tables
+            .and_then(|tables| {
+                let options = crate::output::report::ReportOptions {
+                    source,
+                    tables,
+                    ..crate::output::report::ReportOptions::default()
+                };
+                crate::output::report::html(&self.project, &options).map_err(|e| e.to_string())
+            })
             .and_then(|text| {
                 crate::study::atomic::write_atomic(path, text.as_bytes()).map_err(|e| e.to_string())
             });

@@ -109,6 +109,9 @@ pub struct TablePanel {
     fold_reading: bool,
     /// The project's load-case tables last taken into the tab's fields.
     seen_tables: Option<crate::study::LoadCaseTables>,
+    /// The last joined read's ranking, whether it enveloped each case alone, and how it read
+    /// the tables (for the report's tables section).
+    joined_ranking: Option<(RankedPoints, bool, String)>,
 }
 
 /// What the list can be sorted by.
@@ -148,6 +151,7 @@ impl Default for TablePanel {
             points: None,
             fold_reading: false,
             seen_tables: None,
+            joined_ranking: None,
         }
     }
 }
@@ -261,6 +265,27 @@ impl TablePanel {
         }
         let path = self.path.clone();
         self.load_preview(&path);
+    }
+
+    /// The report's tables section of the last joined read, if any (each table's SHA-256 read
+    /// now); principal values in `convention`.
+    #[must_use]
+    pub fn report_section(
+        &self,
+        convention: SignConvention,
+    ) -> Option<Result<crate::output::report::TablesSection, String>> {
+        let points = self.points.as_ref()?;
+        let (ranked, alone, reading) = self.joined_ranking.as_ref()?;
+        let (_, _, measure) = self.read_with?;
+        Some(crate::output::report::TablesSection::of(
+            points,
+            ranked,
+            reading.clone(),
+            measure,
+            *alone,
+            None,
+            convention,
+        ))
     }
 
     /// Whether the read joins load-case tables (id columns are given).
@@ -415,6 +440,40 @@ impl TablePanel {
         match job.answer.try_recv() {
             Ok(Ok(Answer::Points(joined))) => {
                 let (points, ranked_points, which) = *joined;
+                let (unit, compression_positive, _) = job.read_with;
+                let reading = format!(
+                    "unit {unit}, {}, components {}{}; joined on {}{}",
+                    if compression_positive {
+                        "compression-positive"
+                    } else {
+                        "tension-positive"
+                    },
+                    if self.mapping.iter().all(|m| m.trim().is_empty()) {
+                        "by header name".to_owned()
+                    } else {
+                        format!(
+                            "from the columns {}",
+                            COMPONENTS
+                                .iter()
+                                .zip(&self.mapping)
+                                .map(|(c, m)| format!("{c}={m}"))
+                                .collect::<Vec<_>>()
+                                .join(", ")
+                        )
+                    },
+                    if self.plane_stress {
+                        ", plane stress (zz, yz and zx stated zero)"
+                    } else {
+                        ""
+                    },
+                    points.id_names.join(", "),
+                    if self.case_column.trim().is_empty() {
+                        String::new()
+                    } else {
+                        format!(", load case in column {}", self.case_column.trim())
+                    }
+                );
+                let alone = which.starts_with("each load case alone");
                 self.message = Some(format!(
                     "{} points joined from {} tables ({} rows); {}; the {} worst points kept",
                     points.len(),
@@ -424,6 +483,7 @@ impl TablePanel {
                     ranked_points.rows.len()
                 ));
                 self.ranked = Some(as_ranked(&points, &ranked_points));
+                self.joined_ranking = Some((ranked_points, alone, reading));
                 self.points = Some(points);
                 self.fold_reading = true;
                 self.read_with = Some(job.read_with);
@@ -433,6 +493,7 @@ impl TablePanel {
             Ok(Ok(Answer::Rows(ranked))) => {
                 let ranked = *ranked;
                 self.points = None;
+                self.joined_ranking = None;
                 self.message = Some(format!(
                     "{} rows read, {} kept (the worst), {} bad rows{}",
                     ranked.total_rows,
