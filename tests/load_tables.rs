@@ -495,9 +495,13 @@ mod cli {
     use super::common::{assert_bad_input, planewise, planewise_ok};
 
     /// Writes the invented example tables (a two-element shell, top and bottom; values made
-    /// up for the test) into a fresh folder; returns it.
+    /// up for the test) into a fresh folder of its own; returns it. Each call gets its own
+    /// folder: tests run in parallel, and one rewriting a table while another reads it made
+    /// the reader see an empty file.
     fn example() -> std::path::PathBuf {
-        let dir = std::env::temp_dir().join(format!("planewise-lt-{}", std::process::id()));
+        static CALLS: std::sync::atomic::AtomicUsize = std::sync::atomic::AtomicUsize::new(0);
+        let call = CALLS.fetch_add(1, std::sync::atomic::Ordering::Relaxed);
+        let dir = std::env::temp_dir().join(format!("planewise-lt-{}-{call}", std::process::id()));
         std::fs::create_dir_all(&dir).unwrap();
         let head = "element,section,part,xx,yy,zz,xy,yz,zx\n";
         let write = |name: &str, rows: &str| {

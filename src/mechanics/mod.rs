@@ -3,6 +3,7 @@
 
 pub mod analysis;
 pub mod criteria;
+pub mod fatigue;
 pub mod inputs;
 pub mod invariants;
 pub mod mohr;

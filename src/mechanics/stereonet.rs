@@ -57,6 +57,15 @@ pub fn orientation_map(
     size: usize,
 ) -> OrientationMap {
     let objective = super::search::Objective::new(tensor, settings);
+    orientation_map_of(size, |pole| objective.at_normal(pole))
+}
+
+/// Evaluates `value` for the pole at every cell centre of a `size` × `size` grid over the disc
+/// (`None` where it is undefined).
+pub fn orientation_map_of<F: FnMut(&Vector3<f64>) -> Option<f64>>(
+    size: usize,
+    mut value: F,
+) -> OrientationMap {
     let mut values = Vec::with_capacity(size * size);
     let mut range: Option<(f64, f64)> = None;
     let step = 2.0 / size as f64;
@@ -64,7 +73,7 @@ pub fn orientation_map(
         let y = 1.0 - (row as f64 + 0.5) * step;
         for col in 0..size {
             let x = -1.0 + (col as f64 + 0.5) * step;
-            let v = pole_at(x, y).and_then(|pole| objective.at_normal(&pole));
+            let v = pole_at(x, y).and_then(|pole| value(&pole));
             if let Some(v) = v {
                 range = Some(range.map_or((v, v), |(lo, hi)| (lo.min(v), hi.max(v))));
             }

@@ -12,6 +12,7 @@ pub mod error;
 pub mod file;
 pub mod history;
 pub mod inputs;
+pub mod load_history;
 pub mod model;
 pub mod table;
 pub mod unknown;
