@@ -313,3 +313,391 @@ proptest! {
         }
     }
 }
+
+mod cli {
+    //! `planewise fatigue` and `planewise cycles` from the command line.
+
+    use std::fmt::Write as _;
+
+    use super::common::{assert_bad_input, planewise_ok};
+
+    const SHAFT: &str = "examples/fatigue-shaft";
+
+    fn folder() -> std::path::PathBuf {
+        static CALLS: std::sync::atomic::AtomicUsize = std::sync::atomic::AtomicUsize::new(0);
+        let call = CALLS.fetch_add(1, std::sync::atomic::Ordering::Relaxed);
+        let dir =
+            std::env::temp_dir().join(format!("planewise-fatigue-{}-{call}", std::process::id()));
+        std::fs::create_dir_all(&dir).unwrap();
+        dir
+    }
+
+    fn json(args: &[&str]) -> serde_json::Value {
+        let mut full = vec!["fatigue"];
+        full.extend_from_slice(args);
+        full.push("--json");
+        serde_json::from_slice(&planewise_ok(&full).stdout).unwrap()
+    }
+
+    const LIMITS: [&str; 4] = ["--bending-limit", "320", "--torsion-limit", "200"];
+
+    #[test]
+    fn components_and_factors_on_a_project_give_one_answer() {
+        let history = format!("{SHAFT}/history.csv");
+        let project = format!("{SHAFT}/project.json");
+        let factors = format!("{SHAFT}/factors.csv");
+        let mut a_args = vec!["--history", history.as_str()];
+        a_args.extend(LIMITS);
+        let mut b_args = vec!["--project", project.as_str(), "--factors", factors.as_str()];
+        b_args.extend(LIMITS);
+        let a = json(&a_args);
+        let b = json(&b_args);
+        let u = |v: &serde_json::Value| v["utilization"].as_f64().unwrap();
+        // The example's history file holds six significant digits.
+        assert!((u(&a) - u(&b)).abs() < 1e-5, "{} vs {}", u(&a), u(&b));
+        assert_eq!(a["time_column"], "angle_deg");
+        assert_eq!(a["constants"]["coefficient_symbol"], "k");
+        assert!(a["caution"].as_str().unwrap().contains("surface finish"));
+    }
+
+    #[test]
+    fn units_and_conventions_do_not_change_the_answer() {
+        let dir = folder();
+        let text = std::fs::read_to_string(format!("{SHAFT}/history.csv")).unwrap();
+        // The same history in kPa and compression positive.
+        let mut converted = String::new();
+        for line in text.lines() {
+            if line.starts_with('#') || line.starts_with("angle") {
+                converted.push_str(line);
+            } else {
+                let mut f = line.split(',');
+                let t = f.next().unwrap();
+                converted.push_str(t);
+                for v in f {
+                    let v: f64 = v.parse().unwrap();
+                    write!(converted, ",{}", -1000.0 * v).unwrap();
+                }
+            }
+            converted.push('\n');
+        }
+        let kpa = dir.join("kpa.csv");
+        std::fs::write(&kpa, converted).unwrap();
+        let mpa = format!("{SHAFT}/history.csv");
+        let mut a_args = vec!["--history", mpa.as_str()];
+        a_args.extend(LIMITS);
+        let a = json(&a_args);
+        let b = json(&[
+            "--history",
+            kpa.to_str().unwrap(),
+            "--unit",
+            "kPa",
+            "--compression-positive",
+            "--bending-limit",
+            "320000",
+            "--torsion-limit",
+            "200000",
+        ]);
+        let u = |v: &serde_json::Value| v["utilization"].as_f64().unwrap();
+        assert!((u(&a) - u(&b)).abs() < 1e-9);
+        let value = |v: &serde_json::Value| v["critical_plane"]["value"].as_f64().unwrap();
+        assert!((1000.0 * value(&a) - value(&b)).abs() < 1e-3);
+        assert_eq!(b["unit"], "kPa");
+        assert_eq!(b["convention"], "compression-positive");
+    }
+
+    #[test]
+    fn finite_life_figures_and_text() {
+        let dir = folder();
+        let (map, path) = (dir.join("map.svg"), dir.join("path.svg"));
+        let history = format!("{SHAFT}/history.csv");
+        let out = planewise_ok(&[
+            "fatigue",
+            "--history",
+            &history,
+            "--bending-limit",
+            "320",
+            "--torsion-limit",
+            "200",
+            "--sn",
+            "550,-0.08",
+            "--map",
+            map.to_str().unwrap(),
+            "--path-figure",
+            path.to_str().unwrap(),
+            "--resolution",
+            "32",
+        ]);
+        let text = String::from_utf8(out.stdout).unwrap();
+        for expected in [
+            "Critical plane: dip",
+            "Utilization",
+            "factor of safety",
+            "Damage per repeat",
+            "Governing cycle: angle_deg",
+            "Defer to the applicable design code",
+        ] {
+            assert!(text.contains(expected), "{expected}: {text}");
+        }
+        for f in [&map, &path] {
+            let svg = std::fs::read_to_string(f).unwrap();
+            roxmltree::Document::parse(&svg).unwrap();
+        }
+        assert!(
+            std::fs::read_to_string(&map)
+                .unwrap()
+                .contains("log₁₀ of the damage")
+        );
+    }
+
+    #[test]
+    fn bad_fatigue_arguments_name_themselves() {
+        let dir = folder();
+        let missing = dir.join("missing.csv");
+        std::fs::write(&missing, "t,xx,yy,zz,xy\n0,1,2,3,4\n1,2,3,4,5\n").unwrap();
+        let missing = missing.to_str().unwrap().to_owned();
+        let h = format!("{SHAFT}/history.csv");
+        let h = h.as_str();
+        assert_bad_input(
+            "fatigue",
+            &[
+                (
+                    &["--bending-limit", "320", "--torsion-limit", "200"],
+                    "--history",
+                ),
+                (
+                    &["--history", h, "--torsion-limit", "200"],
+                    "--bending-limit",
+                ),
+                (
+                    &[
+                        "--history",
+                        h,
+                        "--bending-limit",
+                        "320",
+                        "--torsion-limit",
+                        "100",
+                    ],
+                    "--bending-limit",
+                ),
+                (
+                    &[
+                        "--history",
+                        h,
+                        "--bending-limit",
+                        "320",
+                        "--torsion-limit",
+                        "200",
+                        "--criterion",
+                        "nope",
+                    ],
+                    "--criterion",
+                ),
+                (
+                    &[
+                        "--history",
+                        h,
+                        "--bending-limit",
+                        "320",
+                        "--torsion-limit",
+                        "200",
+                        "--path",
+                        "square",
+                    ],
+                    "--path",
+                ),
+                (
+                    &[
+                        "--history",
+                        h,
+                        "--bending-limit",
+                        "320",
+                        "--torsion-limit",
+                        "200",
+                        "--criterion",
+                        "matake",
+                        "--sn",
+                        "500,-0.1",
+                    ],
+                    "--sn",
+                ),
+                (
+                    &[
+                        "--history",
+                        h,
+                        "--bending-limit",
+                        "320",
+                        "--torsion-limit",
+                        "200",
+                        "--sn",
+                        "500,0.1",
+                    ],
+                    "--sn",
+                ),
+                (
+                    &[
+                        "--history",
+                        h,
+                        "--torsion-limit",
+                        "200",
+                        "--criterion",
+                        "mcdiarmid",
+                    ],
+                    "--tensile-strength",
+                ),
+                (
+                    &[
+                        "--history",
+                        &missing,
+                        "--bending-limit",
+                        "320",
+                        "--torsion-limit",
+                        "200",
+                    ],
+                    "no column for yz, zx",
+                ),
+                (
+                    &[
+                        "--history",
+                        h,
+                        "--bending-limit",
+                        "320",
+                        "--torsion-limit",
+                        "200",
+                        "--map",
+                        "x.txt",
+                    ],
+                    "--map",
+                ),
+                (
+                    &[
+                        "--history",
+                        h,
+                        "--bending-limit",
+                        "320",
+                        "--torsion-limit",
+                        "200",
+                        "--path-figure",
+                        h,
+                    ],
+                    "--path-figure",
+                ),
+            ],
+        );
+    }
+
+    #[test]
+    fn every_point_of_load_case_tables_ranked_by_utilization() {
+        // Two invented load-case tables (bending and torsion per unit factor) at three points and
+        // a factor history; each point's answer equals `--history` of its hand-summed tensors.
+        let dir = folder();
+        std::fs::write(
+            dir.join("bending.csv"),
+            "node,xx,yy,zz,xy,yz,zx\n1,100,0,0,0,0,0\n2,220,0,0,0,0,0\n3,150,20,0,10,0,0\n",
+        )
+        .unwrap();
+        std::fs::write(
+            dir.join("torsion.csv"),
+            "node,xx,yy,zz,xy,yz,zx\n3,0,0,0,60,0,5\n1,0,0,0,100,0,0\n2,0,0,0,90,0,0\n",
+        )
+        .unwrap();
+        let steps = 24;
+        let mut factors = String::from("step,bending,torsion\n");
+        let mut rows = Vec::new();
+        for i in 0..=steps {
+            let w = 2.0 * std::f64::consts::PI * f64::from(i) / f64::from(steps);
+            let (fb, ft) = (w.sin(), 0.3 + (w - 1.0).sin());
+            writeln!(factors, "{i},{fb},{ft}").unwrap();
+            rows.push((i, fb, ft));
+        }
+        std::fs::write(dir.join("factors.csv"), factors).unwrap();
+        let cases = [
+            (
+                "1",
+                [100.0, 0.0, 0.0, 0.0, 0.0, 0.0],
+                [0.0, 0.0, 0.0, 100.0, 0.0, 0.0],
+            ),
+            (
+                "2",
+                [220.0, 0.0, 0.0, 0.0, 0.0, 0.0],
+                [0.0, 0.0, 0.0, 90.0, 0.0, 0.0],
+            ),
+            (
+                "3",
+                [150.0, 20.0, 0.0, 10.0, 0.0, 0.0],
+                [0.0, 0.0, 0.0, 60.0, 0.0, 5.0],
+            ),
+        ];
+        let mut expected = Vec::new();
+        for (id, b, t) in cases {
+            let mut text = String::from("step,xx,yy,zz,xy,yz,zx\n");
+            for (i, fb, ft) in &rows {
+                write!(text, "{i}").unwrap();
+                for k in 0..6 {
+                    write!(text, ",{}", fb * b[k] + ft * t[k]).unwrap();
+                }
+                text.push('\n');
+            }
+            let file = dir.join(format!("point{id}.csv"));
+            std::fs::write(&file, text).unwrap();
+            let mut args = vec!["--history", file.to_str().unwrap()];
+            args.extend(LIMITS);
+            expected.push((id, json(&args)["utilization"].as_f64().unwrap()));
+        }
+        expected.sort_by(|a, b| b.1.total_cmp(&a.1));
+        let bending = format!("bending={}", dir.join("bending.csv").display());
+        let torsion = format!("torsion={}", dir.join("torsion.csv").display());
+        let f = dir.join("factors.csv");
+        let mut args = vec![
+            "--case-table",
+            bending.as_str(),
+            "--case-table",
+            torsion.as_str(),
+            "--ids",
+            "node",
+            "--factors",
+            f.to_str().unwrap(),
+        ];
+        args.extend(LIMITS);
+        let got = json(&args);
+        let listed = got["listed"].as_array().unwrap();
+        assert_eq!(listed.len(), 3);
+        for ((id, u), row) in expected.iter().zip(listed) {
+            assert_eq!(row["ids"]["node"], *id);
+            assert!((row["utilization"].as_f64().unwrap() - u).abs() < 1e-9);
+        }
+        // --above keeps those at or above it.
+        let threshold = format!("{}", expected[1].1 - 1e-9);
+        args.extend(["--above", threshold.as_str()]);
+        assert_eq!(json(&args)["listed"].as_array().unwrap().len(), 2);
+    }
+
+    #[test]
+    fn cycles_counts_the_astm_example() {
+        // ASTM E1049-85 (2017) §5.4.4 example history (the standard's worked example, the same
+        // as the rainflow package's tests): ranges 3 (½), 4 (1½), 6 (½), 8 (1), 9 (½).
+        let dir = folder();
+        let f = dir.join("astm.csv");
+        std::fs::write(
+            &f,
+            "t,load\n0,-2\n1,1\n2,-3\n3,5\n4,-1\n5,3\n6,-4\n7,4\n8,-2\n",
+        )
+        .unwrap();
+        let out = planewise_ok(&["cycles", f.to_str().unwrap(), "--column", "load", "--json"]);
+        let v: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
+        let mut by_range = std::collections::BTreeMap::<i64, f64>::new();
+        for c in v["cycles"].as_array().unwrap() {
+            *by_range
+                .entry(c["range"].as_f64().unwrap().round() as i64)
+                .or_default() += c["count"].as_f64().unwrap();
+        }
+        let got: Vec<(i64, f64)> = by_range.into_iter().collect();
+        assert_eq!(got, vec![(3, 0.5), (4, 1.5), (6, 0.5), (8, 1.0), (9, 0.5)]);
+        assert_bad_input(
+            "cycles",
+            &[(
+                &[f.to_str().unwrap(), "--column", "strain"],
+                "no column 'strain'",
+            )],
+        );
+    }
+}

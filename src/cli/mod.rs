@@ -6,8 +6,10 @@
 pub mod analyze;
 pub mod args;
 pub mod batch;
+pub mod cycles;
 pub mod envelope;
 pub mod explain;
+pub mod fatigue;
 pub mod figure;
 pub mod map;
 pub mod mohr;
@@ -122,6 +124,14 @@ pub enum Command {
     /// first, streaming: the top N or every row, as CSV or JSON.
     #[command(after_long_help = CONVENTIONS)]
     Batch(batch::BatchArgs),
+    /// A load history judged on its critical plane: Findley, Matake, McDiarmid or Dang Van
+    /// from the fatigue limits, and finite life by rainflow and Miner's rule; one point, or
+    /// every point of load-case tables ranked.
+    #[command(after_long_help = CONVENTIONS)]
+    Fatigue(fatigue::FatigueArgs),
+    /// Rainflow counting (ASTM E1049-85) of one column of a CSV: ranges, means and counts.
+    #[command(after_long_help = CAUTION)]
+    Cycles(cycles::CyclesArgs),
 }
 
 /// `--case` names nothing in the project: said with the names it has.
@@ -196,6 +206,8 @@ pub enum CliError {
 pub fn run(command: &Command) -> Result<String, CliError> {
     match command {
         Command::Analyze(args) => analyze::run(args),
+        Command::Fatigue(args) => fatigue::run(args),
+        Command::Cycles(args) => cycles::run(args),
         Command::Figure(args) => figure::run(args),
         Command::WorstPlane(args) => worst_plane::run(args),
         Command::Map(args) => map::run(args),

@@ -176,7 +176,7 @@ pub fn map(
         colour_range: input.map_range,
         plane_value: input.plane.and_then(|n| objective.at_normal(&n.vector())),
         worst_value: input.worst.as_ref().and_then(|r| r.value),
-        principal: shown.principal.directions,
+        principal: Some(shown.principal.directions),
         plane: input.plane,
         worst: input.worst_normals(),
         cone: input.worst.as_ref().and_then(|r| r.cone),
@@ -193,7 +193,7 @@ pub fn map(
             .collect(),
     };
     let what = MapMeasure {
-        measure: search.measure,
+        measure: search.measure.into(),
         unit: input.unit,
         convention: input.convention,
     };

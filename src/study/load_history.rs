@@ -88,13 +88,13 @@ fn located(file: &Path, e: &HistoryError) -> String {
     format!("{}: {e}", file.display())
 }
 
-/// A history of the six components, in `unit` and `convention`; every component must have a
-/// column (a missing one is an error naming it, never a zero).
+/// A history of the six components, in `unit` and `convention`, with its time column's name;
+/// every component must have a column (a missing one is an error naming it, never a zero).
 pub fn read_components(
     path: &Path,
     unit: StressUnit,
     convention: SignConvention,
-) -> Result<StressHistory, String> {
+) -> Result<(StressHistory, String), String> {
     let cols = read_columns(path)?;
     let file = path.display();
     let mut index = [None; 6];
@@ -140,39 +140,78 @@ pub fn read_components(
             t
         })
         .collect();
-    StressHistory::new(cols.time, tensors).map_err(|e| located(path, &e))
+    let history = StressHistory::new(cols.time, tensors).map_err(|e| located(path, &e))?;
+    Ok((history, cols.time_name))
 }
 
-/// A history from factors in time on load cases: one column per case, named as `cases` name
-/// them (every column must name a case; cases without a column are not used).
+/// Factors in time on load cases, as read: which cases, and each step's factor on each.
+#[derive(Clone, Debug, PartialEq)]
+pub struct Factors {
+    /// The file, for messages.
+    pub file: String,
+    /// The time (or step) column's name.
+    pub time_name: String,
+    /// The load cases the columns name, in column order.
+    pub cases: Vec<String>,
+    /// Times.
+    pub time: Vec<f64>,
+    /// Per step, one factor per case of `cases`.
+    pub rows: Vec<Vec<f64>>,
+}
+
+impl Factors {
+    /// Reads a factor table whose every column after the first names one of `known` cases.
+    pub fn read(path: &Path, known: &[String]) -> Result<Self, String> {
+        let cols = read_columns(path)?;
+        let file = path.display().to_string();
+        let mut cases: Vec<String> = Vec::new();
+        for name in &cols.names {
+            if !known.iter().any(|k| k == name) {
+                return Err(format!(
+                    "{file}:1: column '{name}' names no load case (there are: {})",
+                    if known.is_empty() {
+                        "none".to_owned()
+                    } else {
+                        known.join(", ")
+                    }
+                ));
+            }
+            if cases.contains(name) {
+                return Err(format!("{file}:1: load case '{name}' has two columns"));
+            }
+            cases.push(name.clone());
+        }
+        Ok(Self {
+            file,
+            time_name: cols.time_name,
+            cases,
+            time: cols.time,
+            rows: cols.rows,
+        })
+    }
+
+    /// σ(t) = Σ fᵢ(t) σᵢ with `tensors` the cases' tensors in the order of `self.cases`.
+    pub fn history(&self, tensors: &[StressTensor]) -> Result<StressHistory, String> {
+        StressHistory::from_factors(tensors, self.time.clone(), &self.rows)
+            .map_err(|e| format!("{}: {e}", self.file))
+    }
+}
+
+/// A history from factors in time on named load cases (`cases`: name and tensor); returns it
+/// with the factors read (the cases used, in column order).
 pub fn read_factors(
     path: &Path,
     cases: &[(String, StressTensor)],
-) -> Result<(StressHistory, Vec<String>), String> {
-    let cols = read_columns(path)?;
-    let file = path.display();
-    let mut used = Vec::new();
-    for name in &cols.names {
-        let Some((_, t)) = cases.iter().find(|(n, _)| n == name) else {
-            let have: Vec<&str> = cases.iter().map(|(n, _)| n.as_str()).collect();
-            return Err(format!(
-                "{file}:1: column '{name}' names no load case (the project has: {})",
-                if have.is_empty() {
-                    "none".to_owned()
-                } else {
-                    have.join(", ")
-                }
-            ));
-        };
-        if used.iter().any(|(n, _): &(String, StressTensor)| n == name) {
-            return Err(format!("{file}:1: load case '{name}' has two columns"));
-        }
-        used.push((name.clone(), *t));
-    }
-    let tensors: Vec<StressTensor> = used.iter().map(|(_, t)| *t).collect();
-    let history = StressHistory::from_factors(&tensors, cols.time, &cols.rows)
-        .map_err(|e| located(path, &e))?;
-    Ok((history, used.into_iter().map(|(n, _)| n).collect()))
+) -> Result<(StressHistory, Factors), String> {
+    let known: Vec<String> = cases.iter().map(|(n, _)| n.clone()).collect();
+    let factors = Factors::read(path, &known)?;
+    let tensors: Vec<StressTensor> = factors
+        .cases
+        .iter()
+        .filter_map(|name| cases.iter().find(|(n, _)| n == name).map(|(_, t)| *t))
+        .collect();
+    let history = factors.history(&tensors)?;
+    Ok((history, factors))
 }
 
 #[cfg(test)]
@@ -194,7 +233,9 @@ mod tests {
             "h.csv",
             "# invented\ntime,S12,xx,yy,zz,yz,zx\n0,1,2,0,0,0,0\n\n0.5,-1,-2,0,0,0,0\n",
         );
-        let h = read_components(&p, StressUnit::MPa, SignConvention::CompressionPositive).unwrap();
+        let (h, time) =
+            read_components(&p, StressUnit::MPa, SignConvention::CompressionPositive).unwrap();
+        assert_eq!(time, "time");
         assert_eq!(h.time(), &[0.0, 0.5]);
         assert_eq!(h.tensors_pa()[0], [-2e6, 0.0, 0.0, -1e6, 0.0, 0.0]);
     }
@@ -220,7 +261,7 @@ mod tests {
         let p = write("f.csv", "t,dead,snow\n0,1,1\n1,1,0\n");
         let e = read_factors(&p, &[("dead".to_owned(), case)]).unwrap_err();
         assert!(
-            e.ends_with(":1: column 'snow' names no load case (the project has: dead)"),
+            e.ends_with(":1: column 'snow' names no load case (there are: dead)"),
             "{e}"
         );
     }

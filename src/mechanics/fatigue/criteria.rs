@@ -276,14 +276,14 @@ pub fn evaluate(
     hydrostatic: &[f64],
 ) -> PlaneValue {
     let circle = method.circle(&path.tau);
-    let (step, sigma_n_max_pa) = path
-        .sigma_n
-        .iter()
-        .copied()
-        .enumerate()
-        .fold((0, f64::NEG_INFINITY), |best, (i, v)| {
-            if v > best.1 { (i, v) } else { best }
-        });
+    let (step, sigma_n_max_pa) =
+        path.sigma_n
+            .iter()
+            .copied()
+            .enumerate()
+            .fold((0, f64::NEG_INFINITY), |best, (i, v)| {
+                if v > best.1 { (i, v) } else { best }
+            });
     let k = constants.coefficient;
     let (value_pa, step) = match constants.criterion {
         Criterion::Findley | Criterion::Matake | Criterion::McDiarmid => {

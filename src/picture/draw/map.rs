@@ -19,8 +19,9 @@ use crate::text::format::{distinct_digits, readable};
 pub struct MapMarks {
     /// Colours span this range instead of the data's (values beyond take the end colours).
     pub colour_range: Option<(f64, f64)>,
-    /// Principal directions σ1, σ2, σ3 (in the display convention's order).
-    pub principal: [Vector3<f64>; 3],
+    /// Principal directions σ1, σ2, σ3 (in the display convention's order); none for a
+    /// history, which has no fixed principal frame.
+    pub principal: Option<[Vector3<f64>; 3]>,
     /// The current cut plane.
     pub plane: Option<PlaneNormal>,
     /// The worst planes.
@@ -35,11 +36,54 @@ pub struct MapMarks {
     pub notes: Vec<Pinned<PlaneNormal>>,
 }
 
+/// What the map is coloured by.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub enum MapQuantity {
+    /// A measure of the stress on a plane (the worst-plane measures).
+    Plane(Measure),
+    /// A fatigue criterion's value ÷ its limit over a load history.
+    Utilization {
+        /// The criterion's name.
+        criterion: &'static str,
+    },
+    /// Miner's damage per repeat of a load history, as its base-10 logarithm.
+    LogDamage,
+}
+
+impl From<Measure> for MapQuantity {
+    fn from(m: Measure) -> Self {
+        Self::Plane(m)
+    }
+}
+
+impl MapQuantity {
+    /// Whether values are stresses (in pascals).
+    #[must_use]
+    pub fn is_stress(self) -> bool {
+        matches!(self, Self::Plane(m) if m.is_stress())
+    }
+
+    /// Whether some planes may be blank for want of frictional capacity.
+    #[must_use]
+    pub fn uses_friction(self) -> bool {
+        matches!(self, Self::Plane(m) if m.uses_friction())
+    }
+
+    /// What the triangles mark.
+    #[must_use]
+    pub fn worst_name(self) -> &'static str {
+        match self {
+            Self::Plane(_) => "worst planes",
+            Self::Utilization { .. } | Self::LogDamage => "critical plane",
+        }
+    }
+}
+
 /// What the map shows and in which unit and convention.
 #[derive(Clone, Copy, Debug, PartialEq)]
 pub struct MapMeasure {
-    /// The measure.
-    pub measure: Measure,
+    /// The quantity.
+    pub measure: MapQuantity,
     /// Unit of stress measures.
     pub unit: StressUnit,
     /// Display convention (normal-max, normal-min).
@@ -50,18 +94,27 @@ impl MapMeasure {
     /// The map's title, the same in the window and in `planewise map`.
     #[must_use]
     pub fn title(&self) -> String {
-        let key = self.measure.key();
-        if self.measure.is_stress() {
-            format!(
-                "Orientation map: {key} ({}, {})",
+        match self.measure {
+            MapQuantity::Plane(measure) if measure.is_stress() => format!(
+                "Orientation map: {} ({}, {})",
+                measure.key(),
                 self.unit.symbol(),
-                match self.measure {
+                match measure {
                     Measure::NormalMax | Measure::NormalMin => self.convention.key(),
                     _ => "magnitude",
                 }
-            )
-        } else {
-            format!("Orientation map: {key} (dimensionless; compression-positive effective stress)")
+            ),
+            MapQuantity::Plane(measure) => format!(
+                "Orientation map: {} (dimensionless; compression-positive effective stress)",
+                measure.key()
+            ),
+            MapQuantity::Utilization { criterion } => format!(
+                "Orientation map: {criterion} utilization over the history (value ÷ limit, dimensionless)"
+            ),
+            MapQuantity::LogDamage => {
+                "Orientation map: log₁₀ of the damage per repeat of the history (Miner's sum)"
+                    .to_owned()
+            }
         }
     }
 
@@ -210,7 +263,7 @@ pub fn map_frame(
     // Mark labels, placed last around everything else.
     let mut labels: Vec<Label> = Vec::new();
     // Marks: principal axes (white diamonds), current plane (disc), worst planes (triangles).
-    for (i, d) in marks.principal.iter().enumerate() {
+    for (i, d) in marks.principal.iter().flatten().enumerate() {
         if let Ok(n) = PlaneNormal::from_vector(*d) {
             let at = to_px(centre, r, project_pole(&n));
             frame
@@ -317,9 +370,9 @@ pub fn map_frame(
         ""
     };
     let worst_key = if marks.cone.is_some() {
-        "▲ worst planes (line: their cone)"
+        format!("▲ {} (line: their cone)", what.measure.worst_name())
     } else {
-        "▲ worst planes"
+        format!("▲ {}", what.measure.worst_name())
     };
     let lines = [
         what.title(),
@@ -344,7 +397,19 @@ pub fn map_frame(
             None => "the measure is undefined for every plane".to_owned(),
         },
         format!(
-            "◇ principal axes   ● cut plane{}   {worst_key}{}",
+            "{}{}{}   {worst_key}{}",
+            if marks.principal.is_some() {
+                "◇ principal axes   "
+            } else {
+                ""
+            },
+            // The static map always names the cut plane (its legend is the same with and
+            // without one); a history's map only when it has one.
+            if marks.plane.is_some() || marks.principal.is_some() {
+                "● cut plane"
+            } else {
+                ""
+            },
             marks.plane.map_or_else(String::new, |_| format!(
                 ": {}",
                 marks

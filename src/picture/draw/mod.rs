@@ -13,6 +13,7 @@ pub mod camera;
 pub mod chart;
 pub mod egui_backend;
 pub mod frame;
+pub mod history;
 pub mod map;
 pub mod mohr;
 pub mod pixels;

@@ -94,7 +94,8 @@ impl EnvelopePanel {
         let shown = MapMeasure {
             measure: measure
                 .plane()
-                .unwrap_or(crate::mechanics::search::Measure::Shear),
+                .unwrap_or(crate::mechanics::search::Measure::Shear)
+                .into(),
             unit: d.unit,
             convention: d.convention,
         };

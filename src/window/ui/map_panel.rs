@@ -17,7 +17,7 @@ use super::notes_panel;
 /// Value text for a measure.
 fn value_text(measure: Measure, v: f64, d: &Derived) -> String {
     MapMeasure {
-        measure,
+        measure: measure.into(),
         unit: d.unit,
         convention: d.convention,
     }
@@ -237,7 +237,7 @@ pub fn map_figure(
 /// The measure of the map in the window's unit and convention.
 fn map_measure(d: &Derived) -> MapMeasure {
     MapMeasure {
-        measure: d.search.measure,
+        measure: d.search.measure.into(),
         unit: d.unit,
         convention: d.convention,
     }

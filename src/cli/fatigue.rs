@@ -1,0 +1,1059 @@
+//! `planewise fatigue`: a load history at a point (or at every point of load-case tables),
+//! judged on its critical plane by a long-life criterion, and optionally its finite life by
+//! rainflow counting and Miner's rule.
+
+use std::fmt::Write as _;
+use std::path::{Path, PathBuf};
+
+use clap::Args;
+use rayon::prelude::*;
+use serde::Serialize;
+
+use super::{ArgError, CliError, values};
+use crate::mechanics::fatigue::critical::utilization_map;
+use crate::mechanics::fatigue::life::{WorstCycle, damage_map};
+use crate::mechanics::fatigue::{
+    Constants, Criterion, CriticalPlane, DamagePlane, FatigueLimits, PathMethod, PlanePath,
+    SearchSettings, SnCurve, StressHistory, critical_plane, damage_plane,
+};
+use crate::mechanics::{SignConvention, StressTensor, StressUnit};
+use crate::study::load_history::{Factors, read_components};
+use crate::text::format::{clean, sig};
+
+/// Arguments of `planewise fatigue`.
+#[derive(Debug, Clone, Args)]
+pub struct FatigueArgs {
+    /// The history as a CSV: a time (or step) column first, then the six components by name
+    /// (xx, yy, zz, xy, yz, zx or S11 … S13), one line per step.
+    #[arg(long, value_name = "FILE", conflicts_with_all = ["project", "case_table"])]
+    pub history: Option<PathBuf>,
+    /// Factors in time on load cases: a CSV of a time column and one column per load case
+    /// (named as the project or the tables name them); σ(t) = Σ fᵢ(t) σᵢ. With --project or
+    /// --case-table.
+    #[arg(long, value_name = "FILE")]
+    pub factors: Option<PathBuf>,
+    /// The project whose load cases --factors scales.
+    #[arg(long, value_name = "FILE", requires = "factors")]
+    pub project: Option<PathBuf>,
+    /// Many points: a load-case table CASE=FILE (one stress state per row, joined on --ids);
+    /// repeat for each case. Every point gets the --factors history and the points are ranked.
+    #[arg(long, value_name = "CASE=FILE", requires_all = ["factors", "ids"])]
+    pub case_table: Vec<String>,
+    /// The id columns the --case-table files join on (e.g. element,ip).
+    #[arg(long, value_name = "COLUMN,…", value_delimiter = ',')]
+    pub ids: Vec<String>,
+    /// With --case-table: how many of the worst points to list.
+    #[arg(long, value_name = "N", default_value = "20")]
+    pub top: usize,
+    /// With --case-table: list every point at or above this utilization (or damage with --sn)
+    /// instead of the top N.
+    #[arg(long, value_name = "VALUE", allow_hyphen_values = true)]
+    pub above: Option<String>,
+    /// Unit of the history's (or tables') stresses and of every stress typed and printed.
+    /// [default: MPa, or the project's unit with --project]
+    #[arg(long, value_name = "UNIT", value_parser = values::unit)]
+    pub unit: Option<StressUnit>,
+    /// Stresses read and printed are compression-positive.
+    #[arg(long)]
+    pub compression_positive: bool,
+    /// The long-life criterion.
+    #[arg(long, value_name = "NAME", default_value = "findley", value_parser = criterion)]
+    pub criterion: Criterion,
+    /// Fully reversed bending (or tension–compression) fatigue limit f₋₁, in --unit.
+    #[arg(long, value_name = "STRESS")]
+    pub bending_limit: Option<String>,
+    /// Fully reversed torsion fatigue limit t₋₁, in --unit.
+    #[arg(long, value_name = "STRESS")]
+    pub torsion_limit: Option<String>,
+    /// Ultimate tensile strength σu, in --unit (McDiarmid).
+    #[arg(long, value_name = "STRESS")]
+    pub tensile_strength: Option<String>,
+    /// The criterion's stress coefficient (k, μ, t₋₁/(2σu) or α), given directly with --limit
+    /// instead of the fatigue limits.
+    #[arg(
+        long,
+        value_name = "NUMBER",
+        allow_hyphen_values = true,
+        requires = "limit"
+    )]
+    pub coefficient: Option<String>,
+    /// The criterion's limit (f*, t₋₁ or β), in --unit, with --coefficient.
+    #[arg(long, value_name = "STRESS", requires = "coefficient")]
+    pub limit: Option<String>,
+    /// How the shear amplitude of a path is measured: circle (minimum circumscribed circle)
+    /// or chord (longest chord).
+    #[arg(long = "path", value_name = "METHOD", default_value = "circle", value_parser = path_method)]
+    pub path: PathMethod,
+    /// Finite life: the torsion S–N curve τa = τ'f (2N)^b as τ'f,b (τ'f in --unit), e.g.
+    /// 450,-0.09. Findley only.
+    #[arg(long, value_name = "TAUF,B", allow_hyphen_values = true)]
+    pub sn: Option<String>,
+    /// With --sn: shear amplitude below which cycles do no damage, in --unit (a cut-off;
+    /// without it Basquin's line is followed to every amplitude).
+    #[arg(long, value_name = "STRESS", requires = "sn")]
+    pub endurance: Option<String>,
+    /// Write the orientation map of the utilization (or of log₁₀ damage with --sn) over every
+    /// plane, .svg or .png.
+    #[arg(long, value_name = "FILE")]
+    pub map: Option<PathBuf>,
+    /// Write the critical plane's shear path with its amplitude circle and σn(t), |τ(t)|
+    /// against time, .svg or .png.
+    #[arg(long, value_name = "FILE")]
+    pub path_figure: Option<PathBuf>,
+    /// Map cells per side (16 to 512).
+    #[arg(long, value_name = "N", default_value = "120", value_parser = clap::value_parser!(u16).range(16..=512))]
+    pub resolution: u16,
+    /// Print one JSON object instead of the text.
+    #[arg(long)]
+    pub json: bool,
+    /// No progress on standard error (many points).
+    #[arg(long)]
+    pub quiet: bool,
+}
+
+fn criterion(text: &str) -> Result<Criterion, String> {
+    Criterion::from_key(text).ok_or_else(|| {
+        let keys: Vec<&str> = Criterion::ALL.iter().map(|c| c.key()).collect();
+        format!("'{text}' is not a criterion (one of: {})", keys.join(", "))
+    })
+}
+
+fn path_method(text: &str) -> Result<PathMethod, String> {
+    PathMethod::from_key(text)
+        .ok_or_else(|| format!("'{text}' is not a path method (circle or chord)"))
+}
+
+/// The history and where it came from.
+struct Source {
+    /// What it is, for people.
+    text: String,
+    /// The name of its time (or step) column.
+    time_name: String,
+    history: StressHistory,
+}
+
+/// The settings every point shares.
+struct Setup {
+    unit: StressUnit,
+    convention: SignConvention,
+    constants: Constants,
+    limits: Option<FatigueLimits>,
+    sn: Option<SnCurve>,
+    method: PathMethod,
+    search: SearchSettings,
+}
+
+fn stress(arg: &'static str, text: &str, unit: StressUnit) -> Result<f64, ArgError> {
+    super::stress_value(arg, text, unit)
+}
+
+impl Setup {
+    fn read(args: &FatigueArgs, unit: StressUnit) -> Result<Self, ArgError> {
+        let convention = if args.compression_positive {
+            SignConvention::CompressionPositive
+        } else {
+            SignConvention::TensionPositive
+        };
+        let (constants, limits) = if let (Some(k), Some(limit)) = (&args.coefficient, &args.limit) {
+            if args.bending_limit.is_some() || args.torsion_limit.is_some() {
+                return Err(ArgError::new(
+                    "--coefficient",
+                    "give the criterion's constants or the fatigue limits, not both",
+                ));
+            }
+            let k = crate::text::parse::number(k).map_err(|e| ArgError::new("--coefficient", e))?;
+            let limit = stress("--limit", limit, unit)?;
+            (
+                Constants::given(args.criterion, k, limit)
+                    .map_err(|e| ArgError::new("--limit", e))?,
+                None,
+            )
+        } else {
+            fn need<'a>(a: Option<&'a str>, name: &'static str) -> Result<&'a str, ArgError> {
+                a.ok_or_else(|| {
+                    ArgError::new(
+                        name,
+                        "the fatigue limits are needed (--bending-limit and --torsion-limit), or the criterion's constants (--coefficient and --limit)",
+                    )
+                })
+            }
+            let torsion = stress(
+                "--torsion-limit",
+                need(args.torsion_limit.as_deref(), "--torsion-limit")?,
+                unit,
+            )?;
+            let bending = if args.criterion == Criterion::McDiarmid {
+                args.bending_limit
+                    .as_deref()
+                    .map(|b| stress("--bending-limit", b, unit))
+                    .transpose()?
+                    .unwrap_or(f64::NAN)
+            } else {
+                stress(
+                    "--bending-limit",
+                    need(args.bending_limit.as_deref(), "--bending-limit")?,
+                    unit,
+                )?
+            };
+            let tensile = args
+                .tensile_strength
+                .as_deref()
+                .map(|t| stress("--tensile-strength", t, unit))
+                .transpose()?;
+            let limits = FatigueLimits {
+                bending_pa: bending,
+                torsion_pa: torsion,
+                tensile_strength_pa: tensile,
+            };
+            let arg = if args.criterion == Criterion::McDiarmid {
+                "--tensile-strength"
+            } else {
+                "--bending-limit"
+            };
+            let derived = if args.criterion == Criterion::McDiarmid {
+                // McDiarmid reads t₋₁ and σu only.
+                Constants::derive(
+                    args.criterion,
+                    &FatigueLimits {
+                        bending_pa: 1.0,
+                        ..limits
+                    },
+                )
+            } else {
+                Constants::derive(args.criterion, &limits)
+            };
+            (derived.map_err(|e| ArgError::new(arg, e))?, Some(limits))
+        };
+        let sn = args
+            .sn
+            .as_deref()
+            .map(|text| {
+                if args.criterion != Criterion::Findley {
+                    return Err(ArgError::new(
+                        "--sn",
+                        "finite life is computed with Findley's parameter; use --criterion findley",
+                    ));
+                }
+                let [coefficient, exponent] =
+                    crate::text::parse::numbers::<2>(text).map_err(|e| ArgError::new("--sn", e))?;
+                let endurance = args
+                    .endurance
+                    .as_deref()
+                    .map(|e| stress("--endurance", e, unit))
+                    .transpose()?;
+                SnCurve::new(unit.to_pa(coefficient), exponent, endurance)
+                    .map_err(|e| ArgError::new("--sn", e))
+            })
+            .transpose()?;
+        Ok(Self {
+            unit,
+            convention,
+            constants,
+            limits,
+            sn,
+            method: args.path,
+            search: SearchSettings::default(),
+        })
+    }
+}
+
+/// One point's answer.
+struct Judged {
+    plane: CriticalPlane,
+    life: Option<DamagePlane>,
+}
+
+impl Judged {
+    fn of(history: &StressHistory, setup: &Setup) -> Self {
+        let plane = critical_plane(history, &setup.constants, setup.method, &setup.search);
+        let life = setup
+            .sn
+            .as_ref()
+            .map(|sn| damage_plane(history, setup.constants.coefficient, sn, &setup.search));
+        Self { plane, life }
+    }
+
+    /// What points are ranked by: the damage with an S–N curve, else the utilization.
+    fn rank_value(&self) -> f64 {
+        self.life
+            .as_ref()
+            .map_or(self.plane.utilization, |l| l.damage.damage)
+    }
+}
+
+// ---- JSON contract -------------------------------------------------------------------------
+
+/// The constants used.
+#[derive(Debug, Serialize)]
+pub struct ConstantsJson {
+    pub coefficient_symbol: &'static str,
+    pub coefficient: f64,
+    pub limit_symbol: &'static str,
+    /// In `unit`.
+    pub limit: f64,
+    pub derivation: String,
+    /// The fatigue limits they were derived from, in `unit` (null when given directly).
+    pub bending_limit: Option<f64>,
+    pub torsion_limit: Option<f64>,
+    pub tensile_strength: Option<f64>,
+}
+
+/// The critical plane of the long-life criterion.
+#[derive(Debug, Serialize)]
+pub struct PlaneJson {
+    /// Upward unit normal.
+    pub normal: [f64; 3],
+    pub dip_deg: f64,
+    pub dip_direction_deg: f64,
+    /// Shear amplitude τa (the path's amplitude circle's radius), in `unit`.
+    pub shear_amplitude: f64,
+    /// Mean shear vector (the circle's centre) in the plane's axes (a along strike, b up the
+    /// dip), in `unit`.
+    pub mean_shear: [f64; 2],
+    /// Largest normal stress over the history, in `unit`, tension positive whatever the
+    /// display convention (the criteria are written so).
+    pub normal_stress_max: f64,
+    /// The criterion's value, in `unit`.
+    pub value: f64,
+    /// Time at which the value (Dang Van) or σn,max (the others) is reached, in the history's
+    /// first column.
+    pub time: f64,
+}
+
+/// The governing cycle of finite life.
+#[derive(Debug, Serialize)]
+pub struct CycleJson {
+    pub from_time: f64,
+    pub to_time: f64,
+    /// Direction in the plane it was counted on, degrees from the plane's strike axis.
+    pub direction_deg: f64,
+    pub shear_amplitude: f64,
+    pub normal_stress_max: f64,
+    /// τeq = (τa + k·σn,max)/√(1 + k²), in `unit`.
+    pub equivalent_amplitude: f64,
+    pub count: f64,
+    pub damage: f64,
+}
+
+/// Finite life.
+#[derive(Debug, Serialize)]
+pub struct LifeJson {
+    /// τ'f in `unit`.
+    pub sn_coefficient: f64,
+    pub sn_exponent: f64,
+    pub endurance_limit: Option<f64>,
+    pub method: &'static str,
+    pub normal: [f64; 3],
+    pub dip_deg: f64,
+    pub dip_direction_deg: f64,
+    pub damage_per_repeat: f64,
+    /// Repeats of the history to failure; null when nothing does damage.
+    pub life_repeats: Option<f64>,
+    pub governing_cycle: Option<CycleJson>,
+}
+
+/// What every fatigue answer states first: the criterion, units, path method and constants.
+#[derive(Debug, Serialize)]
+pub struct SettingsJson {
+    pub criterion: &'static str,
+    pub definition: &'static str,
+    pub unit: &'static str,
+    pub convention: &'static str,
+    pub path_method: &'static str,
+    pub constants: ConstantsJson,
+}
+
+impl SettingsJson {
+    fn of(setup: &Setup) -> Self {
+        Self {
+            criterion: setup.constants.criterion.key(),
+            definition: setup.constants.criterion.definition(),
+            unit: setup.unit.symbol(),
+            convention: setup.convention.key(),
+            path_method: setup.method.key(),
+            constants: constants_json(setup),
+        }
+    }
+
+    /// The constants' line of the text.
+    fn constants_line(&self) -> String {
+        let c = &self.constants;
+        format!(
+            "  Constants: {} = {}, {} = {} {}  ({})",
+            c.coefficient_symbol,
+            sig(c.coefficient, 5),
+            c.limit_symbol,
+            sig(c.limit, 6),
+            self.unit,
+            c.derivation
+        )
+    }
+}
+
+/// `planewise fatigue --json` for one point.
+#[derive(Debug, Serialize)]
+pub struct FatigueJson {
+    #[serde(flatten)]
+    pub settings: SettingsJson,
+    pub history: String,
+    /// The name of the history's first column (time or step), which every time here is in.
+    pub time_column: String,
+    pub steps: usize,
+    pub critical_plane: PlaneJson,
+    /// Value ÷ limit.
+    pub utilization: f64,
+    /// Limit ÷ value: the factor on the whole history that reaches the limit; null when the
+    /// value is not positive.
+    pub factor_of_safety: Option<f64>,
+    pub life: Option<LifeJson>,
+    pub planes_evaluated: usize,
+    pub caution: &'static str,
+}
+
+/// The cautions every fatigue answer carries.
+pub const FATIGUE_CAUTION: &str = "Fatigue results are sensitive to surface finish, size, notches, residual stress and environment, which these criteria do not see; the fatigue limits and S–N curve must come from tests of the material in its condition. Defer to the applicable design code and test data.";
+
+fn constants_json(setup: &Setup) -> ConstantsJson {
+    let u = setup.unit;
+    let c = &setup.constants;
+    ConstantsJson {
+        coefficient_symbol: c.criterion.coefficient_symbol(),
+        coefficient: clean(c.coefficient),
+        limit_symbol: c.criterion.limit_symbol(),
+        limit: clean(u.from_pa(c.limit_pa)),
+        derivation: c.derivation.clone(),
+        bending_limit: setup
+            .limits
+            .map(|l| l.bending_pa)
+            .filter(|v| v.is_finite())
+            .map(|v| clean(u.from_pa(v))),
+        torsion_limit: setup.limits.map(|l| clean(u.from_pa(l.torsion_pa))),
+        tensile_strength: setup
+            .limits
+            .and_then(|l| l.tensile_strength_pa)
+            .map(|v| clean(u.from_pa(v))),
+    }
+}
+
+fn plane_json(p: &CriticalPlane, h: &StressHistory, u: StressUnit) -> PlaneJson {
+    let v = &p.value;
+    let scale = h.scale_pa();
+    let stress = |x: f64| clean(u.from_pa(crate::text::format::clean_relative(x, scale)));
+    PlaneJson {
+        normal: p.normal.map(|c| crate::text::format::resolved(clean(c))),
+        dip_deg: crate::text::format::angle(p.dip_deg, false),
+        dip_direction_deg: crate::text::format::angle(p.dip_direction_deg, true),
+        shear_amplitude: stress(v.tau_amplitude_pa),
+        mean_shear: v.circle.centre.map(stress),
+        normal_stress_max: stress(v.sigma_n_max_pa),
+        value: stress(v.value_pa),
+        time: h.time()[v.step],
+    }
+}
+
+fn cycle_json(c: &WorstCycle, h: &StressHistory, u: StressUnit) -> CycleJson {
+    CycleJson {
+        from_time: h.time()[c.from.min(c.to)],
+        to_time: h.time()[c.from.max(c.to)],
+        direction_deg: c.direction_deg,
+        shear_amplitude: clean(u.from_pa(c.amplitude_pa)),
+        normal_stress_max: clean(u.from_pa(c.sigma_n_max_pa)),
+        equivalent_amplitude: clean(u.from_pa(c.equivalent_pa)),
+        count: c.count,
+        damage: c.damage,
+    }
+}
+
+const LIFE_METHOD: &str = "rainflow (ASTM E1049-85) of the shear resolved every 15° in the plane; per cycle Findley's P = τa + k·σn,max (σn,max between the cycle's reversals: the criterion's mean-stress term), τeq = P/√(1 + k²) on the torsion S–N curve; Palmgren–Miner sum; the plane of largest damage";
+
+fn life_json(l: &DamagePlane, sn: &SnCurve, h: &StressHistory, u: StressUnit) -> LifeJson {
+    LifeJson {
+        sn_coefficient: clean(u.from_pa(sn.coefficient_pa)),
+        sn_exponent: sn.exponent,
+        endurance_limit: sn.endurance_pa.map(|e| clean(u.from_pa(e))),
+        method: LIFE_METHOD,
+        normal: l.normal.map(|c| crate::text::format::resolved(clean(c))),
+        dip_deg: crate::text::format::angle(l.dip_deg, false),
+        dip_direction_deg: crate::text::format::angle(l.dip_direction_deg, true),
+        damage_per_repeat: l.damage.damage,
+        life_repeats: l.life_repeats,
+        governing_cycle: l.damage.worst.as_ref().map(|c| cycle_json(c, h, u)),
+    }
+}
+
+fn single_json(source: &Source, setup: &Setup, j: &Judged) -> FatigueJson {
+    let u = setup.unit;
+    let h = &source.history;
+    FatigueJson {
+        settings: SettingsJson::of(setup),
+        history: source.text.clone(),
+        time_column: source.time_name.clone(),
+        steps: h.len(),
+        critical_plane: plane_json(&j.plane, h, u),
+        utilization: clean(j.plane.utilization),
+        factor_of_safety: j.plane.factor_of_safety().map(clean),
+        life: j
+            .life
+            .as_ref()
+            .zip(setup.sn.as_ref())
+            .map(|(l, sn)| life_json(l, sn, h, u)),
+        planes_evaluated: j.plane.evaluations + j.life.as_ref().map_or(0, |l| l.evaluations),
+        caution: FATIGUE_CAUTION,
+    }
+}
+
+// ---- text ----------------------------------------------------------------------------------
+
+/// A unit normal to the four decimals the search resolves (about 0.01°).
+fn normal_text(n: [f64; 3]) -> String {
+    let c = |v: f64| {
+        let r = format!("{v:.4}");
+        if r == "-0.0000" {
+            "0.0000".to_owned()
+        } else {
+            r
+        }
+    };
+    format!("({}, {}, {})", c(n[0]), c(n[1]), c(n[2]))
+}
+
+fn single_text(json: &FatigueJson) -> String {
+    let settings = &json.settings;
+    let u = settings.unit;
+    let c = &settings.constants;
+    let p = &json.critical_plane;
+    let mut s = String::new();
+    let _ = writeln!(
+        s,
+        "Fatigue on the critical plane: {} — {}",
+        Criterion::from_key(settings.criterion).map_or(settings.criterion, Criterion::label),
+        settings.definition
+    );
+    let _ = writeln!(
+        s,
+        "  History: {}, {} steps; stresses in {u}, {} (σn in the criteria is tension-positive)",
+        json.history, json.steps, settings.convention
+    );
+    if let (Some(t), bending) = (c.torsion_limit, c.bending_limit) {
+        let _ = writeln!(
+            s,
+            "  Material: {}t₋₁ {} {u} (fully reversed torsion){}",
+            bending.map_or_else(String::new, |b| format!(
+                "f₋₁ {} {u} (fully reversed bending), ",
+                sig(b, 6)
+            )),
+            sig(t, 6),
+            c.tensile_strength
+                .map_or_else(String::new, |v| format!(", σu {} {u}", sig(v, 6)))
+        );
+    }
+    let _ = writeln!(s, "{}", settings.constants_line());
+    let _ = writeln!(
+        s,
+        "  Shear amplitude: {}",
+        PathMethod::from_key(settings.path_method).map_or("", PathMethod::label)
+    );
+    let _ = writeln!(
+        s,
+        "  Critical plane: dip {}° / dip direction {}°, normal {}",
+        sig(p.dip_deg, 4),
+        sig(p.dip_direction_deg, 4),
+        normal_text(p.normal)
+    );
+    let _ = writeln!(
+        s,
+        "    τa {} {u}, mean shear ({}, {}) {u}, σn,max {} {u}; value {} {u} (at {} {})",
+        sig(p.shear_amplitude, 6),
+        sig(p.mean_shear[0], 4),
+        sig(p.mean_shear[1], 4),
+        sig(p.normal_stress_max, 6),
+        sig(p.value, 6),
+        json.time_column,
+        sig(p.time, 6)
+    );
+    let _ = writeln!(
+        s,
+        "  Utilization {} (value ÷ {}); factor of safety {}",
+        sig(json.utilization, 4),
+        c.limit_symbol,
+        json.factor_of_safety.map_or_else(
+            || "undefined (the value is not positive)".to_owned(),
+            |f| format!(
+                "{} ({} ÷ value: the factor on the whole history that reaches the limit)",
+                sig(f, 4),
+                c.limit_symbol
+            )
+        )
+    );
+    if let Some(l) = &json.life {
+        let _ = writeln!(
+            s,
+            "  Finite life: torsion S–N τa = τ'f (2N)^b, τ'f {} {u}, b {}; {}",
+            sig(l.sn_coefficient, 6),
+            sig(l.sn_exponent, 4),
+            l.endurance_limit.map_or_else(
+                || "no endurance limit: Basquin's line below every amplitude".to_owned(),
+                |e| format!("cycles below {} {u} do no damage (a cut-off)", sig(e, 6))
+            )
+        );
+        let _ = writeln!(s, "    Method: {}", l.method);
+        let _ = writeln!(
+            s,
+            "    Plane of largest damage: dip {}° / dip direction {}°, normal {}",
+            sig(l.dip_deg, 4),
+            sig(l.dip_direction_deg, 4),
+            normal_text(l.normal)
+        );
+        let _ = writeln!(
+            s,
+            "    Damage per repeat {}; life {}",
+            sig(l.damage_per_repeat, 4),
+            l.life_repeats.map_or_else(
+                || "unlimited (no cycle does damage)".to_owned(),
+                |n| format!("{} repeats of the history", sig(n, 4))
+            )
+        );
+        if let Some(g) = &l.governing_cycle {
+            let _ = writeln!(
+                s,
+                "    Governing cycle: {} {} to {}, τa {} {u}, σn,max {} {u}, τeq {} {u}, {} cycle, damage {}",
+                json.time_column,
+                sig(g.from_time, 6),
+                sig(g.to_time, 6),
+                sig(g.shear_amplitude, 5),
+                sig(g.normal_stress_max, 5),
+                sig(g.equivalent_amplitude, 5),
+                if g.count < 1.0 { "half" } else { "full" },
+                sig(g.damage, 4)
+            );
+        }
+    }
+    let _ = writeln!(s, "  Planes evaluated: {}", json.planes_evaluated);
+    let _ = writeln!(s, "{}", json.caution);
+    s
+}
+
+// ---- figures -------------------------------------------------------------------------------
+
+fn write_figures(
+    args: &FatigueArgs,
+    source: &Source,
+    setup: &Setup,
+    j: &Judged,
+) -> Result<Vec<String>, CliError> {
+    use crate::picture::draw::Sizes;
+    use crate::picture::draw::history::{PathFigure, path_frame};
+    use crate::picture::draw::map::{MapMarks, MapMeasure, MapQuantity, map_frame};
+    let mut written = Vec::new();
+    let h = &source.history;
+    let criterion = setup.constants.criterion;
+    if let Some(path) = &args.path_figure {
+        let (w, ht) = (1400_u32, 760_u32);
+        let plane = &j.plane;
+        let p = PlanePath::of(h, &plane.axes);
+        let governing = j
+            .life
+            .as_ref()
+            .and_then(|l| l.damage.worst)
+            .map(|c| (c.from, c.to));
+        let fig = PathFigure {
+            title: format!(
+                "{} critical plane: dip {}° / dip direction {}°; utilization {}",
+                criterion.label(),
+                sig(plane.dip_deg, 4),
+                sig(plane.dip_direction_deg, 4),
+                sig(plane.utilization, 4)
+            ),
+            time: h.time().to_vec(),
+            time_label: source.time_name.clone(),
+            tau: p.tau,
+            sigma_n: p.sigma_n,
+            circle: plane.value.circle,
+            method: match setup.method {
+                PathMethod::Circle => "minimum circumscribed circle",
+                PathMethod::Chord => "longest chord",
+            },
+            unit: setup.unit,
+            convention: setup.convention,
+            governing: if j.life.is_some() { governing } else { None },
+        };
+        let frame = path_frame(&fig, w, ht, Sizes::for_export(w as f32, ht as f32));
+        crate::output::export::write_figure(path, &frame, "Shear path on the critical plane")
+            .map_err(|e| ArgError::new("--path-figure", e))?;
+        written.push(format!("wrote {}", path.display()));
+    }
+    if let Some(path) = &args.map {
+        let (w, ht) = (1200_u32, 900_u32);
+        let size = usize::from(args.resolution);
+        let (map, quantity, worst, worst_value) = if let (Some(sn), Some(l)) = (&setup.sn, &j.life)
+        {
+            let mut m = damage_map(h, setup.constants.coefficient, sn, size);
+            // Damage spans decades: the map shows its logarithm (planes with none are blank).
+            for v in &mut m.values {
+                *v = v.filter(|d| *d > 0.0).map(f64::log10);
+            }
+            m.range = m.values.iter().flatten().fold(None, |r, v| {
+                Some(r.map_or((*v, *v), |(lo, hi): (f64, f64)| (lo.min(*v), hi.max(*v))))
+            });
+            (
+                m,
+                MapQuantity::LogDamage,
+                l.normal,
+                (l.damage.damage > 0.0).then(|| l.damage.damage.log10()),
+            )
+        } else {
+            (
+                utilization_map(h, &setup.constants, setup.method, size),
+                MapQuantity::Utilization {
+                    criterion: criterion.label(),
+                },
+                j.plane.normal,
+                Some(j.plane.utilization),
+            )
+        };
+        let marks = MapMarks {
+            colour_range: None,
+            principal: None,
+            plane: None,
+            worst: crate::mechanics::PlaneNormal::try_from(worst)
+                .into_iter()
+                .collect(),
+            cone: None,
+            plane_value: None,
+            worst_value,
+            notes: Vec::new(),
+        };
+        let what = MapMeasure {
+            measure: quantity,
+            unit: setup.unit,
+            convention: setup.convention,
+        };
+        let frame = map_frame(
+            &map,
+            &marks,
+            &what,
+            w,
+            ht,
+            Sizes::for_export(w as f32, ht as f32),
+        );
+        crate::output::export::write_figure(path, &frame, &what.title())
+            .map_err(|e| ArgError::new("--map", e))?;
+        written.push(format!("wrote {}", path.display()));
+    }
+    Ok(written)
+}
+
+// ---- many points ---------------------------------------------------------------------------
+
+/// One ranked point, in the JSON.
+#[derive(Debug, Serialize)]
+pub struct PointJson {
+    pub ids: serde_json::Map<String, serde_json::Value>,
+    pub utilization: f64,
+    pub factor_of_safety: Option<f64>,
+    pub critical_plane: PlaneJson,
+    pub life: Option<LifeJson>,
+}
+
+/// `planewise fatigue --case-table … --json`.
+#[derive(Debug, Serialize)]
+pub struct PointsJson {
+    #[serde(flatten)]
+    pub settings: SettingsJson,
+    pub factors: String,
+    pub cases: Vec<String>,
+    pub steps: usize,
+    /// "utilization" or "damage per repeat".
+    pub ranked_by: &'static str,
+    pub points: usize,
+    pub listed: Vec<PointJson>,
+    pub seconds: f64,
+    pub caution: &'static str,
+}
+
+fn many_points(args: &FatigueArgs, setup: &Setup, factors_file: &Path) -> Result<String, CliError> {
+    use crate::study::table::{self, CaseTable, JoinOptions, TableOptions};
+    let started = std::time::Instant::now();
+    let mut tables = Vec::new();
+    for text in &args.case_table {
+        let Some((case, file)) = text.split_once('=') else {
+            return Err(ArgError::new(
+                "--case-table",
+                format!("'{text}': give each load-case table as CASE=FILE"),
+            )
+            .into());
+        };
+        let f = std::fs::File::open(file)
+            .map_err(|e| ArgError::new("--case-table", format!("{file}: {e}")))?;
+        tables.push(CaseTable {
+            case: case.trim().to_owned(),
+            file: file.to_owned(),
+            source: std::io::BufReader::new(f),
+        });
+    }
+    let options = TableOptions::new(setup.unit, setup.convention);
+    let join = JoinOptions {
+        ids: args.ids.iter().map(|s| s.trim().to_owned()).collect(),
+        case_column: None,
+        skip_unmatched: false,
+    };
+    let points = table::join(tables, &options, &join, |_| true)
+        .map_err(|e| ArgError::new("--case-table", e))?;
+    let factors =
+        Factors::read(factors_file, &points.cases).map_err(|e| ArgError::new("--factors", e))?;
+    let case_index: Vec<usize> = factors
+        .cases
+        .iter()
+        .filter_map(|c| points.cases.iter().position(|p| p == c))
+        .collect();
+    let threshold = args
+        .above
+        .as_deref()
+        .map(|t| crate::text::parse::number(t).map_err(|e| ArgError::new("--above", e)))
+        .transpose()?;
+    let n = points.len();
+    let done = std::sync::atomic::AtomicUsize::new(0);
+    let quiet = args.quiet || args.json;
+    let judged: Vec<Result<(usize, Judged), String>> = (0..n)
+        .into_par_iter()
+        .filter(|p| !points.left_out(*p))
+        .map(|p| {
+            let tensors: Vec<StressTensor> = case_index
+                .iter()
+                .map(|c| StressTensor::from_pa(points.tensor(*c, p)).map_err(|e| e.to_string()))
+                .collect::<Result<_, _>>()?;
+            let history = factors.history(&tensors)?;
+            let j = Judged::of(&history, setup);
+            let k = done.fetch_add(1, std::sync::atomic::Ordering::Relaxed) + 1;
+            if !quiet && k.is_multiple_of(500) {
+                eprint!("\rplanewise fatigue: {k} of {n} points   ");
+            }
+            Ok((p, j))
+        })
+        .collect();
+    if !quiet {
+        eprintln!(
+            "\rplanewise fatigue: {n} points judged in {:.1} s   ",
+            started.elapsed().as_secs_f64()
+        );
+    }
+    let mut judged: Vec<(usize, Judged)> = judged
+        .into_iter()
+        .collect::<Result<_, _>>()
+        .map_err(|e| ArgError::new("--factors", e))?;
+    judged.sort_by(|a, b| {
+        b.1.rank_value()
+            .total_cmp(&a.1.rank_value())
+            .then(a.0.cmp(&b.0))
+    });
+    let listed: Vec<&(usize, Judged)> = match threshold {
+        Some(t) => judged.iter().filter(|(_, j)| j.rank_value() >= t).collect(),
+        None => judged.iter().take(args.top).collect(),
+    };
+    // Every point's history has the same times.
+    let times = StressHistory::new(factors.time.clone(), vec![[0.0; 6]; factors.time.len()])
+        .map_err(|e| ArgError::new("--factors", format!("{}: {e}", factors.file)))?;
+    let u = setup.unit;
+    let json = PointsJson {
+        settings: SettingsJson::of(setup),
+        factors: factors.file.clone(),
+        cases: factors.cases.clone(),
+        steps: factors.time.len(),
+        ranked_by: if setup.sn.is_some() {
+            "damage per repeat"
+        } else {
+            "utilization"
+        },
+        points: judged.len(),
+        listed: listed
+            .iter()
+            .map(|(p, j)| PointJson {
+                ids: points
+                    .id_names
+                    .iter()
+                    .zip(points.ids(*p))
+                    .map(|(k, v)| (k.clone(), serde_json::Value::String(v)))
+                    .collect(),
+                utilization: clean(j.plane.utilization),
+                factor_of_safety: j.plane.factor_of_safety().map(clean),
+                critical_plane: plane_json(&j.plane, &times, u),
+                life: j
+                    .life
+                    .as_ref()
+                    .zip(setup.sn.as_ref())
+                    .map(|(l, sn)| life_json(l, sn, &times, u)),
+            })
+            .collect(),
+        seconds: started.elapsed().as_secs_f64(),
+        caution: FATIGUE_CAUTION,
+    };
+    if args.json {
+        let mut text = serde_json::to_string_pretty(&json).map_err(anyhow::Error::from)?;
+        text.push('\n');
+        return Ok(text);
+    }
+    let mut s = String::new();
+    let _ = writeln!(
+        s,
+        "Fatigue at {} points ({} — {}), ranked by {}; history: {} on {}, {} steps; {u}, {}",
+        json.points,
+        setup.constants.criterion.label(),
+        json.settings.definition,
+        json.ranked_by,
+        json.factors,
+        json.cases.join(", "),
+        json.steps,
+        json.settings.convention,
+        u = json.settings.unit
+    );
+    let _ = writeln!(s, "{}", json.settings.constants_line());
+    let _ = writeln!(
+        s,
+        "{:<24} {:>11} {:>8} {:>8} {:>11} {:>11}{}",
+        points.id_names.join(","),
+        "utilization",
+        "dip°",
+        "dipdir°",
+        format!("τa {}", json.settings.unit),
+        format!("σn,max {}", json.settings.unit),
+        if setup.sn.is_some() {
+            "      damage        life"
+        } else {
+            ""
+        }
+    );
+    for p in &json.listed {
+        let ids: Vec<String> = p
+            .ids
+            .values()
+            .map(|v| v.as_str().unwrap_or_default().to_owned())
+            .collect();
+        let _ = write!(
+            s,
+            "{:<24} {:>11} {:>8} {:>8} {:>11} {:>11}",
+            ids.join(","),
+            sig(p.utilization, 4),
+            sig(p.critical_plane.dip_deg, 4),
+            sig(p.critical_plane.dip_direction_deg, 4),
+            sig(p.critical_plane.shear_amplitude, 5),
+            sig(p.critical_plane.normal_stress_max, 5)
+        );
+        if let Some(l) = &p.life {
+            let _ = write!(
+                s,
+                " {:>11} {:>11}",
+                sig(l.damage_per_repeat, 4),
+                l.life_repeats
+                    .map_or_else(|| "unlimited".to_owned(), |n| sig(n, 4))
+            );
+        }
+        s.push('\n');
+    }
+    if json.listed.is_empty() {
+        let _ = writeln!(s, "  (no point at or above the threshold)");
+    }
+    let _ = writeln!(s, "{}", json.caution);
+    Ok(s)
+}
+
+// ---- run -----------------------------------------------------------------------------------
+
+fn read_source(
+    args: &FatigueArgs,
+    unit: StressUnit,
+    convention: SignConvention,
+) -> Result<Source, ArgError> {
+    if let Some(file) = &args.history {
+        let (history, time_name) =
+            read_components(file, unit, convention).map_err(|e| ArgError::new("--history", e))?;
+        return Ok(Source {
+            text: format!("{} (components)", file.display()),
+            time_name,
+            history,
+        });
+    }
+    let (Some(project_file), Some(factors)) = (&args.project, &args.factors) else {
+        return Err(ArgError::new(
+            "--history",
+            "give the history: --history FILE (components in time), --project FILE with --factors FILE (factors on its load cases), or --case-table with --ids and --factors (many points)",
+        ));
+    };
+    let (project, _) =
+        crate::study::load(project_file).map_err(|e| ArgError::new("--project", e))?;
+    let mut cases = Vec::new();
+    for c in &project.cases {
+        let t = project
+            .tensor(&c.name)
+            .map_err(|e| ArgError::new("--project", format!("load case '{}': {e}", c.name)))?;
+        cases.push((c.name.clone(), t));
+    }
+    let (history, read) = crate::study::load_history::read_factors(factors, &cases)
+        .map_err(|e| ArgError::new("--factors", e))?;
+    Ok(Source {
+        text: format!(
+            "{} × load cases {} of {}",
+            factors.display(),
+            read.cases.join(", "),
+            project_file.display()
+        ),
+        time_name: read.time_name,
+        history,
+    })
+}
+
+/// Runs the subcommand.
+pub fn run(args: &FatigueArgs) -> Result<String, CliError> {
+    let project_unit = args
+        .project
+        .as_ref()
+        .map(|p| {
+            crate::study::load(p)
+                .map_err(|e| ArgError::new("--project", e))
+                .and_then(|(pr, _)| pr.unit().map_err(|e| ArgError::new("--project", e)))
+        })
+        .transpose()?;
+    let unit = args.unit.or(project_unit).unwrap_or(StressUnit::MPa);
+    let setup = Setup::read(args, unit)?;
+    for (arg, path) in [("--map", &args.map), ("--path-figure", &args.path_figure)] {
+        if let Some(p) = path {
+            crate::output::export::ImageFormat::from_path(p).map_err(|e| ArgError::new(arg, e))?;
+            let inputs: Vec<&Path> = [&args.history, &args.factors, &args.project]
+                .into_iter()
+                .flatten()
+                .map(PathBuf::as_path)
+                .collect();
+            crate::study::atomic::not_an_input(p, &inputs).map_err(|e| ArgError::new(arg, e))?;
+        }
+    }
+    if !args.case_table.is_empty() {
+        if args.map.is_some() || args.path_figure.is_some() {
+            return Err(ArgError::new(
+                "--map",
+                "figures are drawn for one point (--history or --project); not with --case-table",
+            )
+            .into());
+        }
+        let Some(factors) = &args.factors else {
+            return Err(ArgError::new("--factors", "--case-table needs --factors").into());
+        };
+        return many_points(args, &setup, factors);
+    }
+    // Read in the given convention: the history file's components are in it.
+    let source = read_source(args, unit, setup.convention)?;
+    let judged = Judged::of(&source.history, &setup);
+    let json = single_json(&source, &setup, &judged);
+    let written = write_figures(args, &source, &setup, &judged)?;
+    let mut out = if args.json {
+        let mut text = serde_json::to_string_pretty(&json).map_err(anyhow::Error::from)?;
+        text.push('\n');
+        text
+    } else {
+        single_text(&json)
+    };
+    if !args.json {
+        for w in written {
+            let _ = writeln!(out, "{w}");
+        }
+    }
+    Ok(out)
+}
