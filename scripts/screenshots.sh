@@ -55,6 +55,13 @@ $bin figure "${demo[@]}" --layers cube,element,labels,legend,triad \
     --view z --size 1100x750 --out screenshots/plane-element.png
 $bin figure "${demo[@]}" --layers cube,field,ellipsoid,axes,legend,triad \
     --view three-quarter --size 1100x750 --out screenshots/traction-field.png
+# Fatigue: the invented shaft in out-of-phase bending and torsion; the critical plane's shear
+# path with the governing cycle shaded, and the Findley utilization over every plane.
+shaft=examples/fatigue-shaft
+$bin fatigue --history $shaft/history.csv --bending-limit 320 --torsion-limit 200 \
+    --sn 550,-0.08 --path-figure screenshots/fatigue-path.png > /dev/null
+$bin fatigue --history $shaft/history.csv --bending-limit 320 --torsion-limit 200 \
+    --map screenshots/fatigue-map.png > /dev/null
 # A page of the calculation report as a real browser prints it.
 scripts/report-browser.sh target/report-browser
 pdftoppm -png -r 80 -f 3 -l 3 -singlefile target/report-browser/report.pdf screenshots/report-page

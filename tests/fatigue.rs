@@ -162,6 +162,23 @@ fn a_triangular_shear_path_separates_circle_and_chord_by_root3_over_2() {
 }
 
 #[test]
+fn circle_and_chord_agree_on_every_plane_under_proportional_loading() {
+    // Proportional loading draws a segment on every plane, whose circle is the one on its
+    // length: both methods give the same amplitude and centre (derived, no published value).
+    let h = in_phase(180.0 * MPA, 90.0 * MPA, 360);
+    let c = Constants::derive(Criterion::DangVan, &limits()).unwrap();
+    for n in sweep(5.0) {
+        let a = value_on(&h, &c, PathMethod::Circle, &n);
+        let b = value_on(&h, &c, PathMethod::Chord, &n);
+        assert!(
+            (a.tau_amplitude_pa - b.tau_amplitude_pa).abs() < 1e-6 * MPA,
+            "{n:?}"
+        );
+        assert!((a.value_pa - b.value_pa).abs() < 1e-6 * MPA, "{n:?}");
+    }
+}
+
+#[test]
 fn dang_van_on_a_hand_built_history() {
     // Pure shear τxy alternating 0 → 100 → −100 → 0 MPa with a mean pressure step: σxx = σyy =
     // σzz = p at the step where τxy = 100 (p = 60 MPa) and 0 elsewhere. On the planes of
@@ -447,6 +464,50 @@ mod cli {
                 .unwrap()
                 .contains("log₁₀ of the damage")
         );
+    }
+
+    #[test]
+    fn the_fatigue_report_names_its_inputs_and_states_the_result() {
+        use sha2::Digest as _;
+        let dir = folder();
+        let report = dir.join("fatigue.html");
+        let history = format!("{SHAFT}/history.csv");
+        let mut args = vec!["--history", history.as_str()];
+        args.extend(LIMITS);
+        args.extend(["--sn", "550,-0.08"]);
+        let result = json(&args);
+        let mut full = vec!["fatigue"];
+        full.extend(&args);
+        full.extend(["--resolution", "24", "--report", report.to_str().unwrap()]);
+        planewise_ok(&full);
+        let html = std::fs::read_to_string(&report).unwrap();
+        let page = scraper::Html::parse_document(&html);
+        let text: String = page.root_element().text().collect();
+        // The history file's SHA-256, checked with the sha2 crate.
+        let digest = sha2::Sha256::digest(std::fs::read(&history).unwrap());
+        let hex = digest.iter().fold(String::new(), |mut s, b| {
+            write!(s, "{b:02x}").unwrap();
+            s
+        });
+        assert!(text.contains(&hex), "no SHA-256 {hex}");
+        let utilization = format!("{:.4}", result["utilization"].as_f64().unwrap());
+        for expected in [
+            "Material and the criterion's constants",
+            "k = (2 − r)/(2√(r − 1))",
+            "Criterion and critical plane",
+            utilization.as_str(),
+            "Finite life",
+            "repeats of the history",
+            "surface finish",
+            "Prepared by",
+        ] {
+            assert!(text.contains(expected), "{expected}");
+        }
+        let svgs = page
+            .select(&scraper::Selector::parse("figure svg").unwrap())
+            .count();
+        assert_eq!(svgs, 2, "the path figure and the map");
+        assert!(!html.contains("http"), "no web address in the report");
     }
 
     #[test]

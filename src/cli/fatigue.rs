@@ -100,6 +100,10 @@ pub struct FatigueArgs {
     /// against time, .svg or .png.
     #[arg(long, value_name = "FILE")]
     pub path_figure: Option<PathBuf>,
+    /// Write the fatigue calculation report: one self-contained HTML page (inputs with their
+    /// SHA-256, material and constants, critical plane, utilization, life, both figures).
+    #[arg(long, value_name = "FILE.html")]
+    pub report: Option<PathBuf>,
     /// Map cells per side (16 to 512).
     #[arg(long, value_name = "N", default_value = "120", value_parser = clap::value_parser!(u16).range(16..=512))]
     pub resolution: u16,
@@ -444,7 +448,16 @@ fn plane_json(p: &CriticalPlane, h: &StressHistory, u: StressUnit) -> PlaneJson 
         dip_deg: crate::text::format::angle(p.dip_deg, false),
         dip_direction_deg: crate::text::format::angle(p.dip_direction_deg, true),
         shear_amplitude: stress(v.tau_amplitude_pa),
-        mean_shear: v.circle.centre.map(stress),
+        // The plane is found to about 0.01°: a component below 1e-5 of the path's size is the
+        // search's resolution, not a result.
+        mean_shear: v.circle.centre.map(|x| {
+            let size = v.circle.radius + v.circle.centre[0].hypot(v.circle.centre[1]);
+            if x.abs() < 1e-5 * size {
+                0.0
+            } else {
+                stress(x)
+            }
+        }),
         normal_stress_max: stress(v.sigma_n_max_pa),
         value: stress(v.value_pa),
         time: h.time()[v.step],
@@ -635,112 +648,318 @@ fn single_text(json: &FatigueJson) -> String {
 
 // ---- figures -------------------------------------------------------------------------------
 
+/// The critical plane's shear path figure.
+fn path_figure(source: &Source, setup: &Setup, j: &Judged) -> crate::picture::draw::Frame {
+    use crate::picture::draw::Sizes;
+    use crate::picture::draw::history::{PathFigure, path_frame};
+    let h = &source.history;
+    let (w, ht) = (1400_u32, 760_u32);
+    let plane = &j.plane;
+    let p = PlanePath::of(h, &plane.axes);
+    let governing = j
+        .life
+        .as_ref()
+        .and_then(|l| l.damage.worst)
+        .map(|c| (c.from, c.to));
+    let fig = PathFigure {
+        title: format!(
+            "{} critical plane: dip {}° / dip direction {}°; utilization {}",
+            setup.constants.criterion.label(),
+            sig(plane.dip_deg, 4),
+            sig(plane.dip_direction_deg, 4),
+            sig(plane.utilization, 4)
+        ),
+        time: h.time().to_vec(),
+        time_label: source.time_name.clone(),
+        tau: p.tau,
+        sigma_n: p.sigma_n,
+        circle: plane.value.circle,
+        method: match setup.method {
+            PathMethod::Circle => "minimum circumscribed circle",
+            PathMethod::Chord => "longest chord",
+        },
+        unit: setup.unit,
+        convention: setup.convention,
+        governing,
+    };
+    path_frame(&fig, w, ht, Sizes::for_export(w as f32, ht as f32))
+}
+
+/// The orientation map of the utilization (or of log₁₀ damage with an S–N curve), with its
+/// title.
+fn map_figure(
+    source: &Source,
+    setup: &Setup,
+    j: &Judged,
+    resolution: usize,
+) -> (crate::picture::draw::Frame, String) {
+    use crate::picture::draw::Sizes;
+    use crate::picture::draw::map::{MapMarks, MapMeasure, MapQuantity, map_frame};
+    let h = &source.history;
+    let (w, ht) = (1200_u32, 900_u32);
+    let (map, quantity, worst, worst_value) = if let (Some(sn), Some(l)) = (&setup.sn, &j.life) {
+        let mut m = damage_map(h, setup.constants.coefficient, sn, resolution);
+        // Damage spans decades: the map shows its logarithm (planes with none are blank).
+        for v in &mut m.values {
+            *v = v.filter(|d| *d > 0.0).map(f64::log10);
+        }
+        m.range = m.values.iter().flatten().fold(None, |r, v| {
+            Some(r.map_or((*v, *v), |(lo, hi): (f64, f64)| (lo.min(*v), hi.max(*v))))
+        });
+        (
+            m,
+            MapQuantity::LogDamage,
+            l.normal,
+            (l.damage.damage > 0.0).then(|| l.damage.damage.log10()),
+        )
+    } else {
+        (
+            utilization_map(h, &setup.constants, setup.method, resolution),
+            MapQuantity::Utilization {
+                criterion: setup.constants.criterion.label(),
+            },
+            j.plane.normal,
+            Some(j.plane.utilization),
+        )
+    };
+    let marks = MapMarks {
+        colour_range: None,
+        principal: None,
+        plane: None,
+        worst: crate::mechanics::PlaneNormal::try_from(worst)
+            .into_iter()
+            .collect(),
+        cone: None,
+        plane_value: None,
+        worst_value,
+        notes: Vec::new(),
+    };
+    let what = MapMeasure {
+        measure: quantity,
+        unit: setup.unit,
+        convention: setup.convention,
+    };
+    let frame = map_frame(
+        &map,
+        &marks,
+        &what,
+        w,
+        ht,
+        Sizes::for_export(w as f32, ht as f32),
+    );
+    (frame, what.title())
+}
+
 fn write_figures(
     args: &FatigueArgs,
     source: &Source,
     setup: &Setup,
     j: &Judged,
 ) -> Result<Vec<String>, CliError> {
-    use crate::picture::draw::Sizes;
-    use crate::picture::draw::history::{PathFigure, path_frame};
-    use crate::picture::draw::map::{MapMarks, MapMeasure, MapQuantity, map_frame};
     let mut written = Vec::new();
-    let h = &source.history;
-    let criterion = setup.constants.criterion;
     if let Some(path) = &args.path_figure {
-        let (w, ht) = (1400_u32, 760_u32);
-        let plane = &j.plane;
-        let p = PlanePath::of(h, &plane.axes);
-        let governing = j
-            .life
-            .as_ref()
-            .and_then(|l| l.damage.worst)
-            .map(|c| (c.from, c.to));
-        let fig = PathFigure {
-            title: format!(
-                "{} critical plane: dip {}° / dip direction {}°; utilization {}",
-                criterion.label(),
-                sig(plane.dip_deg, 4),
-                sig(plane.dip_direction_deg, 4),
-                sig(plane.utilization, 4)
-            ),
-            time: h.time().to_vec(),
-            time_label: source.time_name.clone(),
-            tau: p.tau,
-            sigma_n: p.sigma_n,
-            circle: plane.value.circle,
-            method: match setup.method {
-                PathMethod::Circle => "minimum circumscribed circle",
-                PathMethod::Chord => "longest chord",
-            },
-            unit: setup.unit,
-            convention: setup.convention,
-            governing: if j.life.is_some() { governing } else { None },
-        };
-        let frame = path_frame(&fig, w, ht, Sizes::for_export(w as f32, ht as f32));
+        let frame = path_figure(source, setup, j);
         crate::output::export::write_figure(path, &frame, "Shear path on the critical plane")
             .map_err(|e| ArgError::new("--path-figure", e))?;
         written.push(format!("wrote {}", path.display()));
     }
     if let Some(path) = &args.map {
-        let (w, ht) = (1200_u32, 900_u32);
-        let size = usize::from(args.resolution);
-        let (map, quantity, worst, worst_value) = if let (Some(sn), Some(l)) = (&setup.sn, &j.life)
-        {
-            let mut m = damage_map(h, setup.constants.coefficient, sn, size);
-            // Damage spans decades: the map shows its logarithm (planes with none are blank).
-            for v in &mut m.values {
-                *v = v.filter(|d| *d > 0.0).map(f64::log10);
-            }
-            m.range = m.values.iter().flatten().fold(None, |r, v| {
-                Some(r.map_or((*v, *v), |(lo, hi): (f64, f64)| (lo.min(*v), hi.max(*v))))
-            });
-            (
-                m,
-                MapQuantity::LogDamage,
-                l.normal,
-                (l.damage.damage > 0.0).then(|| l.damage.damage.log10()),
-            )
-        } else {
-            (
-                utilization_map(h, &setup.constants, setup.method, size),
-                MapQuantity::Utilization {
-                    criterion: criterion.label(),
-                },
-                j.plane.normal,
-                Some(j.plane.utilization),
-            )
-        };
-        let marks = MapMarks {
-            colour_range: None,
-            principal: None,
-            plane: None,
-            worst: crate::mechanics::PlaneNormal::try_from(worst)
-                .into_iter()
-                .collect(),
-            cone: None,
-            plane_value: None,
-            worst_value,
-            notes: Vec::new(),
-        };
-        let what = MapMeasure {
-            measure: quantity,
-            unit: setup.unit,
-            convention: setup.convention,
-        };
-        let frame = map_frame(
-            &map,
-            &marks,
-            &what,
-            w,
-            ht,
-            Sizes::for_export(w as f32, ht as f32),
-        );
-        crate::output::export::write_figure(path, &frame, &what.title())
+        let (frame, title) = map_figure(source, setup, j, usize::from(args.resolution));
+        crate::output::export::write_figure(path, &frame, &title)
             .map_err(|e| ArgError::new("--map", e))?;
         written.push(format!("wrote {}", path.display()));
     }
+    if let Some(path) = &args.report {
+        let html = report(args, source, setup, j)?;
+        crate::study::atomic::write_atomic(path, html.as_bytes())
+            .map_err(|e| anyhow::anyhow!("{}: {e}", path.display()))?;
+        written.push(format!("wrote {}", path.display()));
+    }
     Ok(written)
+}
+
+/// The fatigue calculation report of one point.
+fn report(
+    args: &FatigueArgs,
+    source: &Source,
+    setup: &Setup,
+    j: &Judged,
+) -> Result<String, CliError> {
+    use crate::output::export::{ImageFormat, encode};
+    use crate::output::fatigue_report::{FatigueReport, Section, html};
+    use crate::output::report::SourceFile;
+    let json = single_json(source, setup, j);
+    let u = json.settings.unit;
+    let c = &json.settings.constants;
+    let mut inputs = Vec::new();
+    for (role, file) in [
+        ("history (components in time)", &args.history),
+        ("factors in time", &args.factors),
+        ("project (load cases)", &args.project),
+    ] {
+        if let Some(f) = file {
+            let read = SourceFile::read(f)
+                .map_err(|e| ArgError::new("--report", format!("{}: {e}", f.display())))?;
+            inputs.push((role.to_owned(), read));
+        }
+    }
+    let stress = |v: f64| format!("{} {u}", sig(v, 6));
+    let mut material = Vec::new();
+    if let Some(b) = c.bending_limit {
+        material.push((
+            "f₋₁, fully reversed bending fatigue limit".to_owned(),
+            stress(b),
+        ));
+    }
+    if let Some(t) = c.torsion_limit {
+        material.push((
+            "t₋₁, fully reversed torsion fatigue limit".to_owned(),
+            stress(t),
+        ));
+    }
+    if let Some(t) = c.tensile_strength {
+        material.push(("σu, tensile strength".to_owned(), stress(t)));
+    }
+    material.push((
+        format!("{} (coefficient)", c.coefficient_symbol),
+        sig(c.coefficient, 6),
+    ));
+    material.push((format!("{} (limit)", c.limit_symbol), stress(c.limit)));
+    material.push((
+        "how the constants were had".to_owned(),
+        c.derivation.clone(),
+    ));
+    let p = &json.critical_plane;
+    let mut sections = vec![
+        Section {
+            heading: "Load history".to_owned(),
+            rows: vec![
+                ("source".to_owned(), json.history.clone()),
+                ("steps".to_owned(), json.steps.to_string()),
+                (
+                    format!("{} (first column)", json.time_column),
+                    format!(
+                        "{} to {}",
+                        sig(source.history.time()[0], 6),
+                        sig(*source.history.time().last().unwrap_or(&0.0), 6)
+                    ),
+                ),
+                ("unit and convention".to_owned(), format!("{u}, {} (σn in the criteria is tension-positive)", json.settings.convention)),
+            ],
+            note: String::new(),
+        },
+        Section {
+            heading: "Material and the criterion's constants".to_owned(),
+            rows: material,
+            note: "Calibrations derived on Mohr's circle from the two fatigue-limit tests so that the criterion gives utilization 1 in both (Planewise's src/mechanics/fatigue/criteria.rs); forms as in Socie & Marquis, Multiaxial Fatigue (SAE, 2000).".to_owned(),
+        },
+        Section {
+            heading: "Criterion and critical plane".to_owned(),
+            rows: vec![
+                ("criterion".to_owned(), format!(
+                    "{} — {}",
+                    setup.constants.criterion.label(),
+                    json.settings.definition
+                )),
+                ("shear amplitude".to_owned(), setup.method.label().to_owned()),
+                ("critical plane".to_owned(), format!(
+                    "dip {}° / dip direction {}°, normal {}",
+                    sig(p.dip_deg, 4),
+                    sig(p.dip_direction_deg, 4),
+                    normal_text(p.normal)
+                )),
+                ("τa, shear amplitude".to_owned(), stress(p.shear_amplitude)),
+                ("mean shear (a, b)".to_owned(), format!("({}, {}) {u}", sig(p.mean_shear[0], 4), sig(p.mean_shear[1], 4))),
+                ("σn,max".to_owned(), stress(p.normal_stress_max)),
+                ("value".to_owned(), format!("{} (at {} {})", stress(p.value), json.time_column, sig(p.time, 6))),
+                ("utilization = value ÷ limit".to_owned(), sig(json.utilization, 4)),
+                ("factor of safety = limit ÷ value".to_owned(), json.factor_of_safety.map_or_else(|| "undefined (the value is not positive)".to_owned(), |f| sig(f, 4))),
+                ("planes evaluated".to_owned(), json.planes_evaluated.to_string()),
+            ],
+            note: "The factor of safety is the factor on the whole history that reaches the limit (every criterion scales with the stresses).".to_owned(),
+        },
+    ];
+    if let Some(l) = &json.life {
+        let mut rows = vec![
+            (
+                "S–N curve (torsion)".to_owned(),
+                format!(
+                    "τa = τ'f (2N)^b, τ'f {}, b {}",
+                    stress(l.sn_coefficient),
+                    sig(l.sn_exponent, 4)
+                ),
+            ),
+            (
+                "endurance limit".to_owned(),
+                l.endurance_limit.map_or_else(
+                    || "none: Basquin's line below every amplitude".to_owned(),
+                    |e| format!("{}: cycles below it do no damage (a cut-off)", stress(e)),
+                ),
+            ),
+            ("method".to_owned(), l.method.to_owned()),
+            (
+                "plane of largest damage".to_owned(),
+                format!(
+                    "dip {}° / dip direction {}°, normal {}",
+                    sig(l.dip_deg, 4),
+                    sig(l.dip_direction_deg, 4),
+                    normal_text(l.normal)
+                ),
+            ),
+            (
+                "damage per repeat (Miner)".to_owned(),
+                sig(l.damage_per_repeat, 4),
+            ),
+            (
+                "life".to_owned(),
+                l.life_repeats.map_or_else(
+                    || "unlimited (no cycle does damage)".to_owned(),
+                    |n| format!("{} repeats of the history", sig(n, 4)),
+                ),
+            ),
+        ];
+        if let Some(g) = &l.governing_cycle {
+            rows.push((
+                "governing cycle".to_owned(),
+                format!(
+                    "{} {} to {}; τa {}, σn,max {}, τeq {}; {} cycle; damage {}",
+                    json.time_column,
+                    sig(g.from_time, 6),
+                    sig(g.to_time, 6),
+                    stress(g.shear_amplitude),
+                    stress(g.normal_stress_max),
+                    stress(g.equivalent_amplitude),
+                    if g.count < 1.0 { "half" } else { "full" },
+                    sig(g.damage, 4)
+                ),
+            ));
+        }
+        sections.push(Section {
+            heading: "Finite life".to_owned(),
+            rows,
+            note: "Rainflow counting per ASTM E1049-85; Palmgren–Miner summation. Miner's rule ignores load sequence; the S–N curve must be of the material in its condition.".to_owned(),
+        });
+    }
+    let svg = |frame: &crate::picture::draw::Frame, title: &str| -> Result<String, CliError> {
+        let bytes = encode(frame, ImageFormat::Svg, title).map_err(|e| anyhow::anyhow!("{e}"))?;
+        Ok(String::from_utf8_lossy(&bytes).into_owned())
+    };
+    let path = path_figure(source, setup, j);
+    let (map, map_title) = map_figure(source, setup, j, usize::from(args.resolution));
+    Ok(html(&FatigueReport {
+        title: json.history.clone(),
+        date: crate::output::report::now_iso8601(),
+        inputs,
+        sections,
+        figures: vec![
+            (
+                "The critical plane's shear path in its own axes with the amplitude circle, and σn(t), |τ(t)| against time (the governing cycle shaded when finite life is computed).".to_owned(),
+                svg(&path, "Shear path on the critical plane")?,
+            ),
+            (format!("{map_title}; the critical plane marked."), svg(&map, &map_title)?),
+        ],
+        caution: FATIGUE_CAUTION.to_owned(),
+    }))
 }
 
 // ---- many points ---------------------------------------------------------------------------
@@ -1014,9 +1233,20 @@ pub fn run(args: &FatigueArgs) -> Result<String, CliError> {
         .transpose()?;
     let unit = args.unit.or(project_unit).unwrap_or(StressUnit::MPa);
     let setup = Setup::read(args, unit)?;
-    for (arg, path) in [("--map", &args.map), ("--path-figure", &args.path_figure)] {
+    for (arg, path) in [
+        ("--map", &args.map),
+        ("--path-figure", &args.path_figure),
+        ("--report", &args.report),
+    ] {
         if let Some(p) = path {
-            crate::output::export::ImageFormat::from_path(p).map_err(|e| ArgError::new(arg, e))?;
+            if arg == "--report" {
+                if p.extension().and_then(|e| e.to_str()) != Some("html") {
+                    return Err(ArgError::new(arg, "the report is an .html file").into());
+                }
+            } else {
+                crate::output::export::ImageFormat::from_path(p)
+                    .map_err(|e| ArgError::new(arg, e))?;
+            }
             let inputs: Vec<&Path> = [&args.history, &args.factors, &args.project]
                 .into_iter()
                 .flatten()
@@ -1026,7 +1256,7 @@ pub fn run(args: &FatigueArgs) -> Result<String, CliError> {
         }
     }
     if !args.case_table.is_empty() {
-        if args.map.is_some() || args.path_figure.is_some() {
+        if args.map.is_some() || args.path_figure.is_some() || args.report.is_some() {
             return Err(ArgError::new(
                 "--map",
                 "figures are drawn for one point (--history or --project); not with --case-table",

@@ -3,6 +3,7 @@
 //! the pictures, below the window and the command line.
 
 pub mod export;
+pub mod fatigue_report;
 pub mod report;
 pub mod results;
 pub mod walkthrough;

@@ -237,7 +237,7 @@ fn date_of(days: u64) -> String {
     format!("{y:04}-{m:02}-{d:02}")
 }
 
-const STYLE: &str = r#"
+pub(super) const STYLE: &str = r#"
 body { font-family: "DejaVu Sans", Arial, sans-serif; font-size: 10pt; color: #1e232b; margin: 0 auto; max-width: 190mm; line-height: 1.35; }
 h1 { font-size: 17pt; margin: 0 0 2mm 0; }
 h2 { font-size: 13pt; margin: 6mm 0 2mm 0; border-bottom: 1px solid #888; }
@@ -368,7 +368,7 @@ pub fn html(project: &Project, options: &ReportOptions) -> Result<String, StudyE
 }
 
 /// A CSS string literal's content (quotes and backslashes escaped, no markup possible there).
-fn css_string(text: &str) -> String {
+pub(super) fn css_string(text: &str) -> String {
     text.chars()
         .filter(|c| !c.is_control())
         .map(|c| match c {
@@ -915,7 +915,7 @@ fn case_section(
 
 /// An SVG document made fit to sit inside HTML: no XML declaration and no namespace URL (HTML
 /// puts `<svg>` in its namespace itself), so the report holds no web address at all.
-fn inline_svg(svg: &str) -> String {
+pub(super) fn inline_svg(svg: &str) -> String {
     svg.lines()
         .filter(|l| !l.starts_with("<?xml"))
         .map(|l| l.replace(r#" xmlns="http://www.w3.org/2000/svg""#, ""))

@@ -192,7 +192,9 @@ fn hull(points: &[[f64; 2]]) -> Vec<[f64; 2]> {
     out
 }
 
-/// The circle on the longest chord of the path (both ends of the path's diameter on it).
+/// The circle on the longest chord of the path (both ends of the path's diameter on it): the
+/// farthest pair of the convex hull by rotating calipers (Shamos 1978), O(n log n) for the hull
+/// and O(h) for the pairs.
 #[must_use]
 pub fn longest_chord(points: &[[f64; 2]]) -> Circle {
     let h = hull(points);
@@ -200,8 +202,82 @@ pub fn longest_chord(points: &[[f64; 2]]) -> Circle {
         centre: points.first().copied().unwrap_or([0.0, 0.0]),
         radius: 0.0,
     };
-    for (i, &a) in h.iter().enumerate() {
-        for &b in &h[i + 1..] {
+    let m = h.len();
+    if m < 3 {
+        if m == 2 {
+            best = two(h[0], h[1]);
+        }
+        return best;
+    }
+    // Few corners: every pair (exact and cheap).
+    if m <= 32 {
+        for (i, &a) in h.iter().enumerate() {
+            for &b in &h[i + 1..] {
+                let c = two(a, b);
+                if c.radius > best.radius {
+                    best = c;
+                }
+            }
+        }
+        return best;
+    }
+    // A hull of nearly collinear points (a proportional path with round-off) can zigzag by
+    // round-off, which the calipers cannot walk: its farthest pair is the extreme pair along
+    // its length.
+    let (first, last) = (h[0], h[m / 2]);
+    let shoelace: f64 = (0..m)
+        .map(|i| {
+            let (a, b) = (h[i], h[(i + 1) % m]);
+            a[0] * b[1] - a[1] * b[0]
+        })
+        .sum();
+    let extent = dist(first, last).max(h.iter().map(|p| dist(first, *p)).fold(0.0_f64, f64::max));
+    if shoelace.abs() <= 1e-9 * extent * extent {
+        let far = h
+            .iter()
+            .copied()
+            .max_by(|p, q| dist(first, *p).total_cmp(&dist(first, *q)))
+            .unwrap_or(first);
+        let d = [far[0] - first[0], far[1] - first[1]];
+        let along = |p: &[f64; 2]| (p[0] - first[0]) * d[0] + (p[1] - first[1]) * d[1];
+        let lo = h
+            .iter()
+            .copied()
+            .min_by(|p, q| along(p).total_cmp(&along(q)))
+            .unwrap_or(first);
+        let hi = h
+            .iter()
+            .copied()
+            .max_by(|p, q| along(p).total_cmp(&along(q)))
+            .unwrap_or(far);
+        return two(lo, hi);
+    }
+    // Twice the area of the triangle (a, b, c).
+    let area = |a: [f64; 2], b: [f64; 2], c: [f64; 2]| {
+        ((b[0] - a[0]) * (c[1] - a[1]) - (b[1] - a[1]) * (c[0] - a[0])).abs()
+    };
+    let mut j = 1;
+    for i in 0..m {
+        let next = (i + 1) % m;
+        // Advance the antipodal point while it gets farther from the edge (i, next).
+        while area(h[i], h[next], h[(j + 1) % m]) > area(h[i], h[next], h[j]) {
+            j = (j + 1) % m;
+        }
+        for c in [two(h[i], h[j]), two(h[next], h[j])] {
+            if c.radius > best.radius {
+                best = c;
+            }
+        }
+    }
+    best
+}
+
+/// The longest chord by trying every pair (for tests of [`longest_chord`]).
+#[cfg(test)]
+fn longest_chord_by_pairs(points: &[[f64; 2]]) -> Circle {
+    let mut best = two(points[0], points[0]);
+    for (i, &a) in points.iter().enumerate() {
+        for &b in &points[i + 1..] {
             let c = two(a, b);
             if c.radius > best.radius {
                 best = c;
@@ -243,6 +319,29 @@ mod tests {
     }
 
     #[test]
+    fn a_proportional_path_with_round_off_has_its_whole_length_as_chord() {
+        // A segment through the origin along (0.5, 0.866), sampled as a sine with the
+        // round-off a projection leaves: the chord is the segment, as the circle is.
+        let pts: Vec<[f64; 2]> = (0..=360)
+            .map(|i| {
+                let s = f64::from(i).to_radians().sin() * 3.4e7;
+                [s * 0.087_f64.cos() * 0.5, s * 0.866_025_403_784_438_6]
+            })
+            .collect();
+        let chord = longest_chord(&pts);
+        let pairs = longest_chord_by_pairs(&pts);
+        let circle = enclosing_circle(&pts);
+        assert!(
+            (chord.radius - pairs.radius).abs() < 1e-6,
+            "{chord:?} {pairs:?}"
+        );
+        assert!(
+            (chord.radius - circle.radius).abs() < 1e-6,
+            "{chord:?} {circle:?}"
+        );
+    }
+
+    #[test]
     fn triangle_path_circle_and_chord_differ_by_root3_over_2() {
         // Equilateral triangle of side 2 traced edge by edge: circumradius 2/√3, chord/2 = 1
         // (derived, no published value).
@@ -280,6 +379,12 @@ mod tests {
                 .count();
             assert!(pts.iter().all(|p| dist(c.centre, *p) <= c.radius + 1e-9));
             assert!(on >= n.min(2), "n {n}: {on} on the circle");
+            let chord = longest_chord(&pts);
+            let pairs = longest_chord_by_pairs(&pts);
+            assert!(
+                (chord.radius - pairs.radius).abs() < 1e-15,
+                "n {n}: {chord:?} vs {pairs:?}"
+            );
             // No smaller circle about a nearby centre holds them all (a local check of
             // minimality; the global one is Welzl's proof).
             for d in [[1e-4, 0.0], [0.0, 1e-4], [-1e-4, 0.0], [0.0, -1e-4]] {

@@ -38,7 +38,7 @@ impl Default for SearchSettings {
 type Score = (f64, f64);
 
 fn better(a: Score, b: Score, scale: f64) -> bool {
-    let tie = 1e-9 * scale.max(f64::MIN_POSITIVE);
+    let tie = 1e-12 * scale.max(f64::MIN_POSITIVE);
     if a.0 > b.0 + tie {
         true
     } else if a.0 >= b.0 - tie {
@@ -199,6 +199,18 @@ pub fn critical_plane(
     settings: &SearchSettings,
 ) -> CriticalPlane {
     let mut ev = Evaluator::new(history, constants, method);
+    // Matake and McDiarmid read their value on the plane of largest τa, which is flat there
+    // (second order in the plane's error) while σn is not (first order): their search goes on
+    // to 1e-4° so that the value is good to about 1e-6.
+    let tight = SearchSettings {
+        tolerance_deg: settings.tolerance_deg.min(1e-4),
+        ..*settings
+    };
+    let settings = if constants.criterion.plane_of_largest_shear() {
+        &tight
+    } else {
+        settings
+    };
     let (n, _, evaluations) = search(settings, history.scale_pa(), |n| {
         let v = ev.at(n);
         plane_score(constants, &v)

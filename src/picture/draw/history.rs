@@ -137,24 +137,27 @@ pub fn path_frame(fig: &PathFigure, width: u32, height: u32, sizes: Sizes) -> Fr
     let sym = u.symbol();
     let sign = fig.convention.sign();
     let c = fig.circle;
+    // The plane is found to about 0.01°, so a mean-shear component below 1e-5 of the path's
+    // size is the search's resolution, not a result: it prints as 0.
+    let size = c.radius + c.centre[0].hypot(c.centre[1]);
+    let resolved = |v: f64| if v.abs() < 1e-5 * size { 0.0 } else { v };
     let key_lines = [
         (fig.title.clone(), style::INK),
         (
             format!(
-                "Shear path τ(t) on the plane (◇ its start) and its amplitude circle (● centre = mean shear): {}",
+                "Left: the shear path τ(t) on the plane (◇ its start) and its {}",
                 fig.method
             ),
             style::SHEAR_PART,
         ),
         (
             format!(
-                "τa {} {sym}, mean shear ({}, {}) {sym}; right: σn(t) ({}) and |τ(t)| against time",
+                "τa {} {sym} (the circle's radius); ● mean shear ({}, {}) {sym}",
                 readable(u.from_pa(c.radius), 4),
-                readable(u.from_pa(c.centre[0]), 4),
-                readable(u.from_pa(c.centre[1]), 4),
-                fig.convention.key()
+                readable(u.from_pa(resolved(c.centre[0])), 4),
+                readable(u.from_pa(resolved(c.centre[1])), 4),
             ),
-            style::INK,
+            style::WORST_PLANE,
         ),
     ];
     let top = 16.0 * sizes.line + 4.0 * 1.45 * sizes.text + 1.8 * sizes.text;
@@ -304,7 +307,9 @@ pub fn path_frame(fig: &PathFigure, width: u32, height: u32, sizes: Sizes) -> Fr
     let mut lines = key_lines.to_vec();
     lines.push((
         format!(
-            "σn(t) teal, |τ(t)| orange{}",
+            "Right: σn(t) ({}) teal, |τ(t)| orange, against {}{}",
+            fig.convention.key(),
+            fig.time_label,
             if fig.governing.is_some() {
                 "; shaded: the governing cycle"
             } else {
