@@ -10,13 +10,15 @@ use rayon::prelude::*;
 use serde::Serialize;
 
 use super::{ArgError, CliError, values};
-use crate::mechanics::fatigue::critical::utilization_map;
-use crate::mechanics::fatigue::life::{WorstCycle, damage_map};
+use crate::mechanics::fatigue::life::WorstCycle;
 use crate::mechanics::fatigue::{
-    Constants, Criterion, CriticalPlane, DamagePlane, FatigueLimits, PathMethod, PlanePath,
-    SearchSettings, SnCurve, StressHistory, critical_plane, damage_plane,
+    Constants, Criterion, CriticalPlane, DamagePlane, FatigueLimits, PathMethod, SearchSettings,
+    SnCurve, StressHistory,
 };
 use crate::mechanics::{SignConvention, StressTensor, StressUnit};
+use crate::picture::draw::Sizes;
+use crate::picture::figures;
+use crate::study::fatigue::{FATIGUE_CAUTION, FatigueSetup, Judged, LIFE_METHOD, LoadedHistory};
 use crate::study::load_history::{Factors, read_components};
 use crate::text::format::{clean, sig};
 
@@ -127,32 +129,13 @@ fn path_method(text: &str) -> Result<PathMethod, String> {
         .ok_or_else(|| format!("'{text}' is not a path method (circle or chord)"))
 }
 
-/// The history and where it came from.
-struct Source {
-    /// What it is, for people.
-    text: String,
-    /// The name of its time (or step) column.
-    time_name: String,
-    history: StressHistory,
-}
-
-/// The settings every point shares.
-struct Setup {
-    unit: StressUnit,
-    convention: SignConvention,
-    constants: Constants,
-    limits: Option<FatigueLimits>,
-    sn: Option<SnCurve>,
-    method: PathMethod,
-    search: SearchSettings,
-}
-
 fn stress(arg: &'static str, text: &str, unit: StressUnit) -> Result<f64, ArgError> {
     super::stress_value(arg, text, unit)
 }
 
-impl Setup {
-    fn read(args: &FatigueArgs, unit: StressUnit) -> Result<Self, ArgError> {
+/// The settings the arguments give, stresses read in `unit`.
+fn read_setup(args: &FatigueArgs, unit: StressUnit) -> Result<FatigueSetup, ArgError> {
+    {
         let convention = if args.compression_positive {
             SignConvention::CompressionPositive
         } else {
@@ -249,7 +232,7 @@ impl Setup {
                     .map_err(|e| ArgError::new("--sn", e))
             })
             .transpose()?;
-        Ok(Self {
+        Ok(FatigueSetup {
             unit,
             convention,
             constants,
@@ -258,30 +241,6 @@ impl Setup {
             method: args.path,
             search: SearchSettings::default(),
         })
-    }
-}
-
-/// One point's answer.
-struct Judged {
-    plane: CriticalPlane,
-    life: Option<DamagePlane>,
-}
-
-impl Judged {
-    fn of(history: &StressHistory, setup: &Setup) -> Self {
-        let plane = critical_plane(history, &setup.constants, setup.method, &setup.search);
-        let life = setup
-            .sn
-            .as_ref()
-            .map(|sn| damage_plane(history, setup.constants.coefficient, sn, &setup.search));
-        Self { plane, life }
-    }
-
-    /// What points are ranked by: the damage with an S–N curve, else the utilization.
-    fn rank_value(&self) -> f64 {
-        self.life
-            .as_ref()
-            .map_or(self.plane.utilization, |l| l.damage.damage)
     }
 }
 
@@ -368,7 +327,7 @@ pub struct SettingsJson {
 }
 
 impl SettingsJson {
-    fn of(setup: &Setup) -> Self {
+    fn of(setup: &FatigueSetup) -> Self {
         Self {
             criterion: setup.constants.criterion.key(),
             definition: setup.constants.criterion.definition(),
@@ -414,10 +373,7 @@ pub struct FatigueJson {
     pub caution: &'static str,
 }
 
-/// The cautions every fatigue answer carries.
-pub const FATIGUE_CAUTION: &str = "Fatigue results are sensitive to surface finish, size, notches, residual stress and environment, which these criteria do not see; the fatigue limits and S–N curve must come from tests of the material in its condition. Defer to the applicable design code and test data.";
-
-fn constants_json(setup: &Setup) -> ConstantsJson {
+fn constants_json(setup: &FatigueSetup) -> ConstantsJson {
     let u = setup.unit;
     let c = &setup.constants;
     ConstantsJson {
@@ -477,8 +433,6 @@ fn cycle_json(c: &WorstCycle, h: &StressHistory, u: StressUnit) -> CycleJson {
     }
 }
 
-const LIFE_METHOD: &str = "rainflow (ASTM E1049-85) of the shear resolved every 15° in the plane; per cycle Findley's P = τa + k·σn,max (σn,max between the cycle's reversals: the criterion's mean-stress term), τeq = P/√(1 + k²) on the torsion S–N curve; Palmgren–Miner sum; the plane of largest damage";
-
 fn life_json(l: &DamagePlane, sn: &SnCurve, h: &StressHistory, u: StressUnit) -> LifeJson {
     LifeJson {
         sn_coefficient: clean(u.from_pa(sn.coefficient_pa)),
@@ -494,7 +448,7 @@ fn life_json(l: &DamagePlane, sn: &SnCurve, h: &StressHistory, u: StressUnit) ->
     }
 }
 
-fn single_json(source: &Source, setup: &Setup, j: &Judged) -> FatigueJson {
+fn single_json(source: &LoadedHistory, setup: &FatigueSetup, j: &Judged) -> FatigueJson {
     let u = setup.unit;
     let h = &source.history;
     FatigueJson {
@@ -517,18 +471,7 @@ fn single_json(source: &Source, setup: &Setup, j: &Judged) -> FatigueJson {
 
 // ---- text ----------------------------------------------------------------------------------
 
-/// A unit normal to the four decimals the search resolves (about 0.01°).
-fn normal_text(n: [f64; 3]) -> String {
-    let c = |v: f64| {
-        let r = format!("{v:.4}");
-        if r == "-0.0000" {
-            "0.0000".to_owned()
-        } else {
-            r
-        }
-    };
-    format!("({}, {}, {})", c(n[0]), c(n[1]), c(n[2]))
-}
+use crate::output::fatigue_report::normal_text;
 
 fn single_text(json: &FatigueJson) -> String {
     let settings = &json.settings;
@@ -648,318 +591,55 @@ fn single_text(json: &FatigueJson) -> String {
 
 // ---- figures -------------------------------------------------------------------------------
 
-/// The critical plane's shear path figure.
-fn path_figure(source: &Source, setup: &Setup, j: &Judged) -> crate::picture::draw::Frame {
-    use crate::picture::draw::Sizes;
-    use crate::picture::draw::history::{PathFigure, path_frame};
-    let h = &source.history;
-    let (w, ht) = (1400_u32, 760_u32);
-    let plane = &j.plane;
-    let p = PlanePath::of(h, &plane.axes);
-    let governing = j
-        .life
-        .as_ref()
-        .and_then(|l| l.damage.worst)
-        .map(|c| (c.from, c.to));
-    let fig = PathFigure {
-        title: format!(
-            "{} critical plane: dip {}° / dip direction {}°; utilization {}",
-            setup.constants.criterion.label(),
-            sig(plane.dip_deg, 4),
-            sig(plane.dip_direction_deg, 4),
-            sig(plane.utilization, 4)
-        ),
-        time: h.time().to_vec(),
-        time_label: source.time_name.clone(),
-        tau: p.tau,
-        sigma_n: p.sigma_n,
-        circle: plane.value.circle,
-        method: match setup.method {
-            PathMethod::Circle => "minimum circumscribed circle",
-            PathMethod::Chord => "longest chord",
-        },
-        unit: setup.unit,
-        convention: setup.convention,
-        governing,
-    };
-    path_frame(&fig, w, ht, Sizes::for_export(w as f32, ht as f32))
-}
-
-/// The orientation map of the utilization (or of log₁₀ damage with an S–N curve), with its
-/// title.
-fn map_figure(
-    source: &Source,
-    setup: &Setup,
-    j: &Judged,
-    resolution: usize,
-) -> (crate::picture::draw::Frame, String) {
-    use crate::picture::draw::Sizes;
-    use crate::picture::draw::map::{MapMarks, MapMeasure, MapQuantity, map_frame};
-    let h = &source.history;
-    let (w, ht) = (1200_u32, 900_u32);
-    let (map, quantity, worst, worst_value) = if let (Some(sn), Some(l)) = (&setup.sn, &j.life) {
-        let mut m = damage_map(h, setup.constants.coefficient, sn, resolution);
-        // Damage spans decades: the map shows its logarithm (planes with none are blank).
-        for v in &mut m.values {
-            *v = v.filter(|d| *d > 0.0).map(f64::log10);
-        }
-        m.range = m.values.iter().flatten().fold(None, |r, v| {
-            Some(r.map_or((*v, *v), |(lo, hi): (f64, f64)| (lo.min(*v), hi.max(*v))))
-        });
-        (
-            m,
-            MapQuantity::LogDamage,
-            l.normal,
-            (l.damage.damage > 0.0).then(|| l.damage.damage.log10()),
-        )
-    } else {
-        (
-            utilization_map(h, &setup.constants, setup.method, resolution),
-            MapQuantity::Utilization {
-                criterion: setup.constants.criterion.label(),
-            },
-            j.plane.normal,
-            Some(j.plane.utilization),
-        )
-    };
-    let marks = MapMarks {
-        colour_range: None,
-        principal: None,
-        plane: None,
-        worst: crate::mechanics::PlaneNormal::try_from(worst)
-            .into_iter()
-            .collect(),
-        cone: None,
-        plane_value: None,
-        worst_value,
-        notes: Vec::new(),
-    };
-    let what = MapMeasure {
-        measure: quantity,
-        unit: setup.unit,
-        convention: setup.convention,
-    };
-    let frame = map_frame(
-        &map,
-        &marks,
-        &what,
-        w,
-        ht,
-        Sizes::for_export(w as f32, ht as f32),
-    );
-    (frame, what.title())
-}
-
 fn write_figures(
     args: &FatigueArgs,
-    source: &Source,
-    setup: &Setup,
+    source: &LoadedHistory,
+    setup: &FatigueSetup,
     j: &Judged,
 ) -> Result<Vec<String>, CliError> {
     let mut written = Vec::new();
     if let Some(path) = &args.path_figure {
-        let frame = path_figure(source, setup, j);
+        let frame = figures::fatigue_path(
+            source,
+            setup,
+            j,
+            None,
+            [1400, 760],
+            Sizes::for_export(1400.0, 760.0),
+        );
         crate::output::export::write_figure(path, &frame, "Shear path on the critical plane")
             .map_err(|e| ArgError::new("--path-figure", e))?;
         written.push(format!("wrote {}", path.display()));
     }
     if let Some(path) = &args.map {
-        let (frame, title) = map_figure(source, setup, j, usize::from(args.resolution));
+        let (frame, title) = figures::fatigue_map(
+            source,
+            setup,
+            j,
+            usize::from(args.resolution),
+            None,
+            [1200, 900],
+            Sizes::for_export(1200.0, 900.0),
+        );
         crate::output::export::write_figure(path, &frame, &title)
             .map_err(|e| ArgError::new("--map", e))?;
         written.push(format!("wrote {}", path.display()));
     }
     if let Some(path) = &args.report {
-        let html = report(args, source, setup, j)?;
+        let html = crate::output::fatigue_report::of(
+            source,
+            setup,
+            j,
+            usize::from(args.resolution),
+            &crate::output::report::now_iso8601(),
+        )
+        .map(|r| crate::output::fatigue_report::html(&r))
+        .map_err(|e| ArgError::new("--report", e))?;
         crate::study::atomic::write_atomic(path, html.as_bytes())
             .map_err(|e| anyhow::anyhow!("{}: {e}", path.display()))?;
         written.push(format!("wrote {}", path.display()));
     }
     Ok(written)
-}
-
-/// The fatigue calculation report of one point.
-fn report(
-    args: &FatigueArgs,
-    source: &Source,
-    setup: &Setup,
-    j: &Judged,
-) -> Result<String, CliError> {
-    use crate::output::export::{ImageFormat, encode};
-    use crate::output::fatigue_report::{FatigueReport, Section, html};
-    use crate::output::report::SourceFile;
-    let json = single_json(source, setup, j);
-    let u = json.settings.unit;
-    let c = &json.settings.constants;
-    let mut inputs = Vec::new();
-    for (role, file) in [
-        ("history (components in time)", &args.history),
-        ("factors in time", &args.factors),
-        ("project (load cases)", &args.project),
-    ] {
-        if let Some(f) = file {
-            let read = SourceFile::read(f)
-                .map_err(|e| ArgError::new("--report", format!("{}: {e}", f.display())))?;
-            inputs.push((role.to_owned(), read));
-        }
-    }
-    let stress = |v: f64| format!("{} {u}", sig(v, 6));
-    let mut material = Vec::new();
-    if let Some(b) = c.bending_limit {
-        material.push((
-            "f₋₁, fully reversed bending fatigue limit".to_owned(),
-            stress(b),
-        ));
-    }
-    if let Some(t) = c.torsion_limit {
-        material.push((
-            "t₋₁, fully reversed torsion fatigue limit".to_owned(),
-            stress(t),
-        ));
-    }
-    if let Some(t) = c.tensile_strength {
-        material.push(("σu, tensile strength".to_owned(), stress(t)));
-    }
-    material.push((
-        format!("{} (coefficient)", c.coefficient_symbol),
-        sig(c.coefficient, 6),
-    ));
-    material.push((format!("{} (limit)", c.limit_symbol), stress(c.limit)));
-    material.push((
-        "how the constants were had".to_owned(),
-        c.derivation.clone(),
-    ));
-    let p = &json.critical_plane;
-    let mut sections = vec![
-        Section {
-            heading: "Load history".to_owned(),
-            rows: vec![
-                ("source".to_owned(), json.history.clone()),
-                ("steps".to_owned(), json.steps.to_string()),
-                (
-                    format!("{} (first column)", json.time_column),
-                    format!(
-                        "{} to {}",
-                        sig(source.history.time()[0], 6),
-                        sig(*source.history.time().last().unwrap_or(&0.0), 6)
-                    ),
-                ),
-                ("unit and convention".to_owned(), format!("{u}, {} (σn in the criteria is tension-positive)", json.settings.convention)),
-            ],
-            note: String::new(),
-        },
-        Section {
-            heading: "Material and the criterion's constants".to_owned(),
-            rows: material,
-            note: "Calibrations derived on Mohr's circle from the two fatigue-limit tests so that the criterion gives utilization 1 in both (Planewise's src/mechanics/fatigue/criteria.rs); forms as in Socie & Marquis, Multiaxial Fatigue (SAE, 2000).".to_owned(),
-        },
-        Section {
-            heading: "Criterion and critical plane".to_owned(),
-            rows: vec![
-                ("criterion".to_owned(), format!(
-                    "{} — {}",
-                    setup.constants.criterion.label(),
-                    json.settings.definition
-                )),
-                ("shear amplitude".to_owned(), setup.method.label().to_owned()),
-                ("critical plane".to_owned(), format!(
-                    "dip {}° / dip direction {}°, normal {}",
-                    sig(p.dip_deg, 4),
-                    sig(p.dip_direction_deg, 4),
-                    normal_text(p.normal)
-                )),
-                ("τa, shear amplitude".to_owned(), stress(p.shear_amplitude)),
-                ("mean shear (a, b)".to_owned(), format!("({}, {}) {u}", sig(p.mean_shear[0], 4), sig(p.mean_shear[1], 4))),
-                ("σn,max".to_owned(), stress(p.normal_stress_max)),
-                ("value".to_owned(), format!("{} (at {} {})", stress(p.value), json.time_column, sig(p.time, 6))),
-                ("utilization = value ÷ limit".to_owned(), sig(json.utilization, 4)),
-                ("factor of safety = limit ÷ value".to_owned(), json.factor_of_safety.map_or_else(|| "undefined (the value is not positive)".to_owned(), |f| sig(f, 4))),
-                ("planes evaluated".to_owned(), json.planes_evaluated.to_string()),
-            ],
-            note: "The factor of safety is the factor on the whole history that reaches the limit (every criterion scales with the stresses).".to_owned(),
-        },
-    ];
-    if let Some(l) = &json.life {
-        let mut rows = vec![
-            (
-                "S–N curve (torsion)".to_owned(),
-                format!(
-                    "τa = τ'f (2N)^b, τ'f {}, b {}",
-                    stress(l.sn_coefficient),
-                    sig(l.sn_exponent, 4)
-                ),
-            ),
-            (
-                "endurance limit".to_owned(),
-                l.endurance_limit.map_or_else(
-                    || "none: Basquin's line below every amplitude".to_owned(),
-                    |e| format!("{}: cycles below it do no damage (a cut-off)", stress(e)),
-                ),
-            ),
-            ("method".to_owned(), l.method.to_owned()),
-            (
-                "plane of largest damage".to_owned(),
-                format!(
-                    "dip {}° / dip direction {}°, normal {}",
-                    sig(l.dip_deg, 4),
-                    sig(l.dip_direction_deg, 4),
-                    normal_text(l.normal)
-                ),
-            ),
-            (
-                "damage per repeat (Miner)".to_owned(),
-                sig(l.damage_per_repeat, 4),
-            ),
-            (
-                "life".to_owned(),
-                l.life_repeats.map_or_else(
-                    || "unlimited (no cycle does damage)".to_owned(),
-                    |n| format!("{} repeats of the history", sig(n, 4)),
-                ),
-            ),
-        ];
-        if let Some(g) = &l.governing_cycle {
-            rows.push((
-                "governing cycle".to_owned(),
-                format!(
-                    "{} {} to {}; τa {}, σn,max {}, τeq {}; {} cycle; damage {}",
-                    json.time_column,
-                    sig(g.from_time, 6),
-                    sig(g.to_time, 6),
-                    stress(g.shear_amplitude),
-                    stress(g.normal_stress_max),
-                    stress(g.equivalent_amplitude),
-                    if g.count < 1.0 { "half" } else { "full" },
-                    sig(g.damage, 4)
-                ),
-            ));
-        }
-        sections.push(Section {
-            heading: "Finite life".to_owned(),
-            rows,
-            note: "Rainflow counting per ASTM E1049-85; Palmgren–Miner summation. Miner's rule ignores load sequence; the S–N curve must be of the material in its condition.".to_owned(),
-        });
-    }
-    let svg = |frame: &crate::picture::draw::Frame, title: &str| -> Result<String, CliError> {
-        let bytes = encode(frame, ImageFormat::Svg, title).map_err(|e| anyhow::anyhow!("{e}"))?;
-        Ok(String::from_utf8_lossy(&bytes).into_owned())
-    };
-    let path = path_figure(source, setup, j);
-    let (map, map_title) = map_figure(source, setup, j, usize::from(args.resolution));
-    Ok(html(&FatigueReport {
-        title: json.history.clone(),
-        date: crate::output::report::now_iso8601(),
-        inputs,
-        sections,
-        figures: vec![
-            (
-                "The critical plane's shear path in its own axes with the amplitude circle, and σn(t), |τ(t)| against time (the governing cycle shaded when finite life is computed).".to_owned(),
-                svg(&path, "Shear path on the critical plane")?,
-            ),
-            (format!("{map_title}; the critical plane marked."), svg(&map, &map_title)?),
-        ],
-        caution: FATIGUE_CAUTION.to_owned(),
-    }))
 }
 
 // ---- many points ---------------------------------------------------------------------------
@@ -990,7 +670,11 @@ pub struct PointsJson {
     pub caution: &'static str,
 }
 
-fn many_points(args: &FatigueArgs, setup: &Setup, factors_file: &Path) -> Result<String, CliError> {
+fn many_points(
+    args: &FatigueArgs,
+    setup: &FatigueSetup,
+    factors_file: &Path,
+) -> Result<String, CliError> {
     use crate::study::table::{self, CaseTable, JoinOptions, TableOptions};
     let started = std::time::Instant::now();
     let mut tables = Vec::new();
@@ -1181,14 +865,15 @@ fn read_source(
     args: &FatigueArgs,
     unit: StressUnit,
     convention: SignConvention,
-) -> Result<Source, ArgError> {
+) -> Result<LoadedHistory, ArgError> {
     if let Some(file) = &args.history {
         let (history, time_name) =
             read_components(file, unit, convention).map_err(|e| ArgError::new("--history", e))?;
-        return Ok(Source {
+        return Ok(LoadedHistory {
             text: format!("{} (components)", file.display()),
             time_name,
             history,
+            files: vec![("history (components in time)".to_owned(), file.clone())],
         });
     }
     let (Some(project_file), Some(factors)) = (&args.project, &args.factors) else {
@@ -1208,7 +893,7 @@ fn read_source(
     }
     let (history, read) = crate::study::load_history::read_factors(factors, &cases)
         .map_err(|e| ArgError::new("--factors", e))?;
-    Ok(Source {
+    Ok(LoadedHistory {
         text: format!(
             "{} × load cases {} of {}",
             factors.display(),
@@ -1216,6 +901,10 @@ fn read_source(
             project_file.display()
         ),
         time_name: read.time_name,
+        files: vec![
+            ("factors in time".to_owned(), factors.clone()),
+            ("project (load cases)".to_owned(), project_file.clone()),
+        ],
         history,
     })
 }
@@ -1232,7 +921,7 @@ pub fn run(args: &FatigueArgs) -> Result<String, CliError> {
         })
         .transpose()?;
     let unit = args.unit.or(project_unit).unwrap_or(StressUnit::MPa);
-    let setup = Setup::read(args, unit)?;
+    let setup = read_setup(args, unit)?;
     for (arg, path) in [
         ("--map", &args.map),
         ("--path-figure", &args.path_figure),

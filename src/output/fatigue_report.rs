@@ -7,6 +7,8 @@ use std::fmt::Write as _;
 
 use super::report::{BUILD_COMMIT, STYLE, SourceFile, css_string};
 use crate::picture::draw::svg::escape;
+use crate::study::fatigue::{FATIGUE_CAUTION, FatigueSetup, Judged, LIFE_METHOD, LoadedHistory};
+use crate::text::format::sig;
 
 /// A table of the report: its heading and rows of (label, value), both plain text.
 #[derive(Clone, Debug, PartialEq)]
@@ -99,4 +101,253 @@ pub fn html(r: &FatigueReport) -> String {
     }
     s.push_str("</body>\n</html>\n");
     s
+}
+
+/// A unit normal to the four decimals the search resolves (about 0.01°).
+#[must_use]
+pub fn normal_text(n: [f64; 3]) -> String {
+    let c = |v: f64| {
+        let r = format!("{v:.4}");
+        if r == "-0.0000" {
+            "0.0000".to_owned()
+        } else {
+            r
+        }
+    };
+    format!("({}, {}, {})", c(n[0]), c(n[1]), c(n[2]))
+}
+
+/// The report of one point's fatigue study (`resolution`: map cells per side; `date`: ISO 8601).
+pub fn of(
+    loaded: &LoadedHistory,
+    setup: &FatigueSetup,
+    judged: &Judged,
+    resolution: usize,
+    date: &str,
+) -> Result<FatigueReport, String> {
+    use crate::output::export::{ImageFormat, encode};
+    use crate::picture::draw::Sizes;
+    use crate::picture::figures;
+    let u = setup.unit;
+    let sym = u.symbol();
+    let c = &setup.constants;
+    let criterion = c.criterion;
+    let history = &loaded.history;
+    let time = |step: usize| sig(history.time()[step], 6);
+    let mut inputs = Vec::new();
+    for (role, file) in &loaded.files {
+        let read = SourceFile::read(file).map_err(|e| format!("{}: {e}", file.display()))?;
+        inputs.push((role.clone(), read));
+    }
+    let stress = |v: f64| format!("{} {sym}", sig(u.from_pa(v), 6));
+    let mut material = Vec::new();
+    if let Some(l) = &setup.limits {
+        if l.bending_pa.is_finite() {
+            material.push((
+                "f₋₁, fully reversed bending fatigue limit".to_owned(),
+                stress(l.bending_pa),
+            ));
+        }
+        material.push((
+            "t₋₁, fully reversed torsion fatigue limit".to_owned(),
+            stress(l.torsion_pa),
+        ));
+        if let Some(t) = l.tensile_strength_pa {
+            material.push(("σu, tensile strength".to_owned(), stress(t)));
+        }
+    }
+    material.push((
+        format!("{} (coefficient)", criterion.coefficient_symbol()),
+        sig(c.coefficient, 6),
+    ));
+    material.push((
+        format!("{} (limit)", criterion.limit_symbol()),
+        stress(c.limit_pa),
+    ));
+    material.push((
+        "how the constants were had".to_owned(),
+        c.derivation.clone(),
+    ));
+    let p = &judged.plane;
+    let v = &p.value;
+    // The plane is found to about 0.01°: a mean-shear component below 1e-5 of the path's size
+    // is the search's resolution (as in the command line's output).
+    let size = v.circle.radius + v.circle.centre[0].hypot(v.circle.centre[1]);
+    let mean = |x: f64| if x.abs() < 1e-5 * size { 0.0 } else { x };
+    let mut sections = vec![
+        Section {
+            heading: "Load history".to_owned(),
+            rows: vec![
+                ("source".to_owned(), loaded.text.clone()),
+                ("steps".to_owned(), history.len().to_string()),
+                (
+                    format!("{} (first column)", loaded.time_name),
+                    format!("{} to {}", time(0), time(history.len() - 1)),
+                ),
+                (
+                    "unit and convention".to_owned(),
+                    format!(
+                        "{sym}, {} (σn in the criteria is tension-positive)",
+                        setup.convention.key()
+                    ),
+                ),
+            ],
+            note: String::new(),
+        },
+        Section {
+            heading: "Material and the criterion's constants".to_owned(),
+            rows: material,
+            note: "Calibrations derived on Mohr's circle from the two fatigue-limit tests so that the criterion gives utilization 1 in both (Planewise's src/mechanics/fatigue/criteria.rs); forms as in Socie & Marquis, Multiaxial Fatigue (SAE, 2000).".to_owned(),
+        },
+        Section {
+            heading: "Criterion and critical plane".to_owned(),
+            rows: vec![
+                (
+                    "criterion".to_owned(),
+                    format!("{} — {}", criterion.label(), criterion.definition()),
+                ),
+                ("shear amplitude".to_owned(), setup.method.label().to_owned()),
+                (
+                    "critical plane".to_owned(),
+                    format!(
+                        "dip {}° / dip direction {}°, normal {}",
+                        sig(p.dip_deg, 4),
+                        sig(p.dip_direction_deg, 4),
+                        normal_text(p.normal)
+                    ),
+                ),
+                ("τa, shear amplitude".to_owned(), stress(v.tau_amplitude_pa)),
+                (
+                    "mean shear (a, b)".to_owned(),
+                    format!(
+                        "({}, {}) {sym}",
+                        sig(u.from_pa(mean(v.circle.centre[0])), 4),
+                        sig(u.from_pa(mean(v.circle.centre[1])), 4)
+                    ),
+                ),
+                ("σn,max".to_owned(), stress(v.sigma_n_max_pa)),
+                (
+                    "value".to_owned(),
+                    format!(
+                        "{} (at {} {})",
+                        stress(v.value_pa),
+                        loaded.time_name,
+                        time(v.step)
+                    ),
+                ),
+                ("utilization = value ÷ limit".to_owned(), sig(p.utilization, 4)),
+                (
+                    "factor of safety = limit ÷ value".to_owned(),
+                    p.factor_of_safety().map_or_else(
+                        || "undefined (the value is not positive)".to_owned(),
+                        |f| sig(f, 4),
+                    ),
+                ),
+                (
+                    "planes evaluated".to_owned(),
+                    (p.evaluations + judged.life.as_ref().map_or(0, |l| l.evaluations)).to_string(),
+                ),
+            ],
+            note: "The factor of safety is the factor on the whole history that reaches the limit (every criterion scales with the stresses).".to_owned(),
+        },
+    ];
+    if let (Some(l), Some(sn)) = (&judged.life, &setup.sn) {
+        let mut rows = vec![
+            (
+                "S–N curve (torsion)".to_owned(),
+                format!(
+                    "τa = τ'f (2N)^b, τ'f {}, b {}",
+                    stress(sn.coefficient_pa),
+                    sig(sn.exponent, 4)
+                ),
+            ),
+            (
+                "endurance limit".to_owned(),
+                sn.endurance_pa.map_or_else(
+                    || "none: Basquin's line below every amplitude".to_owned(),
+                    |e| format!("{}: cycles below it do no damage (a cut-off)", stress(e)),
+                ),
+            ),
+            ("method".to_owned(), LIFE_METHOD.to_owned()),
+            (
+                "plane of largest damage".to_owned(),
+                format!(
+                    "dip {}° / dip direction {}°, normal {}",
+                    sig(l.dip_deg, 4),
+                    sig(l.dip_direction_deg, 4),
+                    normal_text(l.normal)
+                ),
+            ),
+            (
+                "damage per repeat (Miner)".to_owned(),
+                sig(l.damage.damage, 4),
+            ),
+            (
+                "life".to_owned(),
+                l.life_repeats.map_or_else(
+                    || "unlimited (no cycle does damage)".to_owned(),
+                    |n| format!("{} repeats of the history", sig(n, 4)),
+                ),
+            ),
+        ];
+        if let Some(g) = &l.damage.worst {
+            rows.push((
+                "governing cycle".to_owned(),
+                format!(
+                    "{} {} to {}; τa {}, σn,max {}, τeq {}; {} cycle; damage {}",
+                    loaded.time_name,
+                    time(g.from.min(g.to)),
+                    time(g.from.max(g.to)),
+                    stress(g.amplitude_pa),
+                    stress(g.sigma_n_max_pa),
+                    stress(g.equivalent_pa),
+                    if g.count < 1.0 { "half" } else { "full" },
+                    sig(g.damage, 4)
+                ),
+            ));
+        }
+        sections.push(Section {
+            heading: "Finite life".to_owned(),
+            rows,
+            note: "Rainflow counting per ASTM E1049-85; Palmgren–Miner summation. Miner's rule ignores load sequence; the S–N curve must be of the material in its condition.".to_owned(),
+        });
+    }
+    let svg = |frame: &crate::picture::draw::Frame, title: &str| -> Result<String, String> {
+        let bytes = encode(frame, ImageFormat::Svg, title).map_err(|e| e.to_string())?;
+        Ok(String::from_utf8_lossy(&bytes).into_owned())
+    };
+    let path = figures::fatigue_path(
+        loaded,
+        setup,
+        judged,
+        None,
+        [1400, 760],
+        Sizes::for_export(1400.0, 760.0),
+    );
+    let (map, map_title) = figures::fatigue_map(
+        loaded,
+        setup,
+        judged,
+        resolution,
+        None,
+        [1200, 900],
+        Sizes::for_export(1200.0, 900.0),
+    );
+    Ok(FatigueReport {
+        title: loaded.text.clone(),
+        date: date.to_owned(),
+        inputs,
+        sections,
+        figures: vec![
+            (
+                "The critical plane's shear path in its own axes with the amplitude circle, and σn(t), |τ(t)| against time (the governing cycle shaded when finite life is computed).".to_owned(),
+                svg(&path, "Shear path on the critical plane")?,
+            ),
+            (
+                format!("{map_title}; the critical plane marked."),
+                svg(&map, &map_title)?,
+            ),
+        ],
+        caution: FATIGUE_CAUTION.to_owned(),
+    })
 }

@@ -370,3 +370,146 @@ pub fn titled(
     let picture = build(height.saturating_sub(block).max(16));
     with_title_block(&picture, &lines, size, h)
 }
+
+/// The shear path figure of a fatigue study on the critical plane, or on the plane of unit
+/// normal `on` (the cut plane), with the governing cycle shaded when finite life was computed
+/// (critical plane only).
+#[must_use]
+pub fn fatigue_path(
+    loaded: &crate::study::fatigue::LoadedHistory,
+    setup: &crate::study::fatigue::FatigueSetup,
+    judged: &crate::study::fatigue::Judged,
+    on: Option<nalgebra::Vector3<f64>>,
+    [w, h]: [u32; 2],
+    sizes: crate::picture::draw::Sizes,
+) -> Frame {
+    use crate::mechanics::fatigue::critical::value_on;
+    use crate::mechanics::fatigue::{PathMethod, PlaneAxes, PlanePath};
+    use crate::picture::draw::history::{PathFigure, path_frame};
+    use crate::text::format::sig;
+    let history = &loaded.history;
+    let criterion = setup.constants.criterion;
+    let (axes, circle, title, governing) = if let Some(n) = on {
+        let value = value_on(history, &setup.constants, setup.method, &n);
+        let (dip, dd) = PlaneNormal::from_vector(n).map_or((0.0, 0.0), |p| p.dip_deg());
+        (
+            PlaneAxes::of(n),
+            value.circle,
+            format!(
+                "Cut plane: dip {}° / dip direction {}°; {} utilization on it {}",
+                sig(dip, 4),
+                sig(dd, 4),
+                criterion.label(),
+                sig(value.value_pa / setup.constants.limit_pa, 4)
+            ),
+            None,
+        )
+    } else {
+        let plane = &judged.plane;
+        (
+            plane.axes,
+            plane.value.circle,
+            format!(
+                "{} critical plane: dip {}° / dip direction {}°; utilization {}",
+                criterion.label(),
+                sig(plane.dip_deg, 4),
+                sig(plane.dip_direction_deg, 4),
+                sig(plane.utilization, 4)
+            ),
+            judged
+                .life
+                .as_ref()
+                .and_then(|l| l.damage.worst)
+                .map(|c| (c.from, c.to)),
+        )
+    };
+    let p = PlanePath::of(history, &axes);
+    let fig = PathFigure {
+        title,
+        time: history.time().to_vec(),
+        time_label: loaded.time_name.clone(),
+        tau: p.tau,
+        sigma_n: p.sigma_n,
+        circle,
+        method: match setup.method {
+            PathMethod::Circle => "minimum circumscribed circle",
+            PathMethod::Chord => "longest chord",
+        },
+        unit: setup.unit,
+        convention: setup.convention,
+        governing,
+    };
+    path_frame(&fig, w, h, sizes)
+}
+
+/// The orientation map of a fatigue study: the utilization over every plane, or log₁₀ of the
+/// damage with an S–N curve, the critical plane marked (and the cut plane `on`, when given);
+/// with its title.
+#[must_use]
+pub fn fatigue_map(
+    loaded: &crate::study::fatigue::LoadedHistory,
+    setup: &crate::study::fatigue::FatigueSetup,
+    judged: &crate::study::fatigue::Judged,
+    resolution: usize,
+    on: Option<PlaneNormal>,
+    [w, h]: [u32; 2],
+    sizes: crate::picture::draw::Sizes,
+) -> (Frame, String) {
+    use crate::mechanics::fatigue::critical::utilization_map;
+    use crate::mechanics::fatigue::life::damage_map;
+    use crate::picture::draw::map::MapQuantity;
+    let history = &loaded.history;
+    let (map, quantity, worst, worst_value) = if let (Some(sn), Some(l)) = (&setup.sn, &judged.life)
+    {
+        let mut m = damage_map(history, setup.constants.coefficient, sn, resolution);
+        // Damage spans decades: the map shows its logarithm (planes with none are blank).
+        for v in &mut m.values {
+            *v = v.filter(|d| *d > 0.0).map(f64::log10);
+        }
+        m.range = m.values.iter().flatten().fold(None, |r, v| {
+            Some(r.map_or((*v, *v), |(lo, hi): (f64, f64)| (lo.min(*v), hi.max(*v))))
+        });
+        (
+            m,
+            MapQuantity::LogDamage,
+            l.normal,
+            (l.damage.damage > 0.0).then(|| l.damage.damage.log10()),
+        )
+    } else {
+        (
+            utilization_map(history, &setup.constants, setup.method, resolution),
+            MapQuantity::Utilization {
+                criterion: setup.constants.criterion.label(),
+            },
+            judged.plane.normal,
+            Some(judged.plane.utilization),
+        )
+    };
+    let plane_value = on.map(|n| {
+        crate::mechanics::fatigue::critical::value_on(
+            history,
+            &setup.constants,
+            setup.method,
+            &n.vector(),
+        )
+        .value_pa
+            / setup.constants.limit_pa
+    });
+    let marks = MapMarks {
+        colour_range: None,
+        principal: None,
+        plane: on,
+        worst: PlaneNormal::try_from(worst).into_iter().collect(),
+        cone: None,
+        // The cut plane's value is a utilization: shown only on the utilization map.
+        plane_value: plane_value.filter(|_| quantity != MapQuantity::LogDamage),
+        worst_value,
+        notes: Vec::new(),
+    };
+    let what = MapMeasure {
+        measure: quantity,
+        unit: setup.unit,
+        convention: setup.convention,
+    };
+    (map_frame(&map, &marks, &what, w, h, sizes), what.title())
+}

@@ -9,6 +9,7 @@ pub mod derived;
 pub mod edit;
 pub mod envelope;
 pub mod error;
+pub mod fatigue;
 pub mod file;
 pub mod history;
 pub mod inputs;
