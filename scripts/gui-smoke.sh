@@ -25,7 +25,7 @@ export WINIT_X11_SCALE_FACTOR=1 LIBGL_ALWAYS_SOFTWARE=1
 # Keep the run's saved state out of the user's home.
 export XDG_DATA_HOME="$(mktemp -d)"
 # A second argument picks the tab the window opens on (3d, map, mohr, envelope, walkthrough,
-# table); any further arguments go to planewise (e.g. --table FILE).
+# table, fatigue); any further arguments go to planewise (e.g. --table FILE).
 tab=(); [ -n "${2:-}" ] && tab=(--tab "$2")
 timeout 120 xvfb-run -a -s "-screen 0 1280x800x24" target/release/planewise --screenshot "$out" "${tab[@]}" "${@:3}"
 [ -s "$out" ] || { echo "gui-smoke: no screenshot written" >&2; exit 1; }

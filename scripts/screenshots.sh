@@ -55,6 +55,10 @@ $bin figure "${demo[@]}" --layers cube,element,labels,legend,triad \
     --view z --size 1100x750 --out screenshots/plane-element.png
 $bin figure "${demo[@]}" --layers cube,field,ellipsoid,axes,legend,triad \
     --view three-quarter --size 1100x750 --out screenshots/traction-field.png
+# The Fatigue tab on the invented shaft, judged with finite life.
+scripts/gui-smoke.sh screenshots/window-fatigue.png fatigue \
+    --fatigue-history examples/fatigue-shaft/history.csv --fatigue-unit MPa \
+    --fatigue-limits 320,200 --fatigue-sn 550,-0.08
 # Fatigue: the invented shaft in out-of-phase bending and torsion; the critical plane's shear
 # path with the governing cycle shaded, and the Findley utilization over every plane.
 shaft=examples/fatigue-shaft

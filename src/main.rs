@@ -59,6 +59,21 @@ fn main() -> ExitCode {
                         })
                         .collect(),
                 }),
+            cli.fatigue_history
+                .zip(cli.fatigue_unit)
+                .map(|(path, unit)| {
+                    let pair = |text: Option<&str>| {
+                        let text = text.unwrap_or_default();
+                        let (a, b) = text.split_once(',').unwrap_or((text, ""));
+                        (a.trim().to_owned(), b.trim().to_owned())
+                    };
+                    planewise::window::app::FatigueStart {
+                        path,
+                        unit,
+                        limits: pair(cli.fatigue_limits.as_deref()),
+                        sn: cli.fatigue_sn.as_deref().map(|s| pair(Some(s))),
+                    }
+                }),
             &planewise::cli::subcommand_names(),
         ) {
             Ok(()) => ExitCode::SUCCESS,

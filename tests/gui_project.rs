@@ -9,7 +9,7 @@
 
 mod common;
 
-use common::NoDialogs;
+use common::{NoDialogs, type_into};
 
 use std::path::PathBuf;
 
@@ -39,22 +39,6 @@ fn temp(name: &str) -> PathBuf {
 }
 
 /// Replaces the text of the field whose accessible name starts with `name`.
-fn type_into(h: &mut Harness<'static, PlanewiseApp>, name: &str, text: &str) {
-    fn field<'a>(h: &'a Harness<'static, PlanewiseApp>, name: &'a str) -> egui_kittest::Node<'a> {
-        h.get(
-            by().role(Role::TextInput)
-                .predicate(move |n| n.label().is_some_and(|l| l.starts_with(name))),
-        )
-    }
-    field(h, name).focus();
-    h.run();
-    h.key_press_modifiers(egui::Modifiers::COMMAND, egui::Key::A);
-    h.key_press(egui::Key::Backspace);
-    h.run();
-    field(h, name).type_text(text);
-    h.run();
-}
-
 /// Chooses the Table tab's unit as a user does: the picker, then the unit.
 fn choose_table_unit(h: &mut Harness<'static, PlanewiseApp>, unit: &str) {
     h.get_by_label("table unit").click();

@@ -81,6 +81,24 @@ pub struct Cli {
     /// Another load-case table, CASE=FILE, with --table-ids. Repeat for each.
     #[arg(long, value_name = "CASE=FILE", requires = "table_ids")]
     pub table_case: Vec<String>,
+    /// Open the window's Fatigue tab on this history (time, then the six components) and judge
+    /// it with --fatigue-unit and --fatigue-limits.
+    #[arg(long, value_name = "FILE", requires_all = ["fatigue_unit", "fatigue_limits"])]
+    pub fatigue_history: Option<String>,
+    /// The unit of the --fatigue-history file.
+    #[arg(long, value_name = "UNIT", requires = "fatigue_history", value_parser = values::unit)]
+    pub fatigue_unit: Option<StressUnit>,
+    /// The fully reversed bending and torsion fatigue limits f₋₁,t₋₁ in --fatigue-unit.
+    #[arg(long, value_name = "F,T", requires = "fatigue_history")]
+    pub fatigue_limits: Option<String>,
+    /// Finite life in the Fatigue tab: the torsion S–N curve τ'f,b.
+    #[arg(
+        long,
+        value_name = "TAUF,B",
+        requires = "fatigue_history",
+        allow_hyphen_values = true
+    )]
+    pub fatigue_sn: Option<String>,
 }
 
 /// The subcommands.

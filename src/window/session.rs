@@ -81,11 +81,13 @@ pub enum Central {
     Walkthrough,
     /// An imported finite-element table, ranked.
     Table,
+    /// A load history judged on its critical plane.
+    Fatigue,
 }
 
 impl Central {
     /// Every tab, in the order the window shows them.
-    pub const ALL: [Self; 7] = [
+    pub const ALL: [Self; 8] = [
         Self::View3d,
         Self::Map,
         Self::Mohr,
@@ -93,6 +95,7 @@ impl Central {
         Self::Faults,
         Self::Walkthrough,
         Self::Table,
+        Self::Fatigue,
     ];
 
     /// The name `--tab` takes.
@@ -106,6 +109,7 @@ impl Central {
             Self::Faults => "faults",
             Self::Walkthrough => "walkthrough",
             Self::Table => "table",
+            Self::Fatigue => "fatigue",
         }
     }
 
@@ -120,6 +124,7 @@ impl Central {
             Self::Faults => "Named planes checked as faults",
             Self::Walkthrough => "The walk-through of the shown case",
             Self::Table => "An imported finite-element table, ranked",
+            Self::Fatigue => "A load history judged on its critical plane",
         }
     }
 }

@@ -68,3 +68,30 @@ impl planewise::window::app::Dialogs for NoDialogs {
 fn unavailable() -> planewise::window::app::DialogOutcome {
     planewise::window::app::DialogOutcome::Unavailable("test machine: no desktop portal".to_owned())
 }
+
+/// Types `text` into the window's text field whose accessible name (its hint or tooltip) starts
+/// with `name`, replacing what it held, as a user does: focus, select all, type.
+pub fn type_into(
+    h: &mut egui_kittest::Harness<'static, planewise::window::app::PlanewiseApp>,
+    name: &str,
+    text: &str,
+) {
+    use egui_kittest::kittest::Queryable as _;
+    fn field<'a>(
+        h: &'a egui_kittest::Harness<'static, planewise::window::app::PlanewiseApp>,
+        name: &'a str,
+    ) -> egui_kittest::Node<'a> {
+        h.get(
+            egui_kittest::kittest::by()
+                .role(egui::accesskit::Role::TextInput)
+                .predicate(move |n| n.label().is_some_and(|l| l.starts_with(name))),
+        )
+    }
+    field(h, name).focus();
+    h.run();
+    h.key_press_modifiers(egui::Modifiers::COMMAND, egui::Key::A);
+    h.key_press(egui::Key::Backspace);
+    h.run();
+    field(h, name).type_text(text);
+    h.run();
+}

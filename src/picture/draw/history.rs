@@ -307,11 +307,10 @@ pub fn path_frame(fig: &PathFigure, width: u32, height: u32, sizes: Sizes) -> Fr
     let mut lines = key_lines.to_vec();
     lines.push((
         format!(
-            "Right: σn(t) ({}) teal, |τ(t)| orange, against {}{}",
+            "Right: σn(t) ({}) teal, |τ(t)| orange{}",
             fig.convention.key(),
-            fig.time_label,
             if fig.governing.is_some() {
-                "; shaded: the governing cycle"
+                "; shaded: governing cycle"
             } else {
                 ""
             }

@@ -25,7 +25,8 @@ impl PlanewiseApp {
             | Central::Envelope
             | Central::Faults
             | Central::Walkthrough
-            | Central::Table => FigureKind::View3d,
+            | Central::Table
+            | Central::Fatigue => FigureKind::View3d,
         };
         let walk = crate::output::walkthrough::steps(&d);
         let step = &walk[self.walkthrough_panel.step.min(walk.len() - 1)];
@@ -47,17 +48,19 @@ impl PlanewiseApp {
             ));
         }
         figures::titled(&lines, sizes.text, [w, h], |h| match settings.central {
-            Central::View3d | Central::Envelope | Central::Faults | Central::Table => {
-                figures::view_3d(
-                    &input,
-                    settings.layers,
-                    settings.faces,
-                    &settings.camera,
-                    w,
-                    h,
-                    sizes,
-                )
-            }
+            Central::View3d
+            | Central::Envelope
+            | Central::Faults
+            | Central::Table
+            | Central::Fatigue => figures::view_3d(
+                &input,
+                settings.layers,
+                settings.faces,
+                &settings.camera,
+                w,
+                h,
+                sizes,
+            ),
             Central::Map => figures::map(&input, &d.search, 256, w, h, sizes),
             Central::Mohr => figures::mohr(&input, w, h, sizes),
             Central::Walkthrough => crate::output::walkthrough::step_figure(&d, step, w, h, sizes),

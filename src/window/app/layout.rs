@@ -98,6 +98,8 @@ impl PlanewiseApp {
                     );
                 ui.selectable_value(central, Central::Table, "Table")
                     .on_hover_text("A finite-element result table, ranked (File → Import table…)");
+                ui.selectable_value(central, Central::Fatigue, "Fatigue")
+                    .on_hover_text("A load history judged on its critical plane: criteria, life, the shear path and the map");
             });
             let panel: &mut dyn Panel = match writes.settings.central {
                 Central::View3d => &mut ViewPanel,
@@ -106,6 +108,7 @@ impl PlanewiseApp {
                 Central::Faults => &mut self.faults_panel,
                 Central::Walkthrough => &mut self.walkthrough_panel,
                 Central::Table => &mut self.table_panel,
+                Central::Fatigue => &mut self.fatigue_panel,
                 Central::Envelope => &mut self.envelope_panel,
             };
             panel.ui(ui, reads, &mut writes);

@@ -23,7 +23,7 @@ mod files;
 mod layout;
 mod screenshot;
 
-pub use screenshot::{TableStart, run};
+pub use screenshot::{FatigueStart, TableStart, run};
 
 /// Version of the saved view state; bump it when a change needs migration.
 pub const FORMAT_VERSION: u32 = 2;
@@ -133,6 +133,8 @@ pub struct PlanewiseApp {
     pub walkthrough_panel: ui::walkthrough_panel::WalkthroughPanel,
     /// The Table tab.
     pub table_panel: ui::table_panel::TablePanel,
+    /// The Fatigue tab.
+    pub fatigue_panel: ui::fatigue_panel::FatiguePanel,
     /// Export window state.
     pub export_panel: ui::export_panel::ExportPanel,
     /// The in-window path entry for projects when no dialog opens.
@@ -179,6 +181,7 @@ impl PlanewiseApp {
         Self {
             walkthrough_panel: ui::walkthrough_panel::WalkthroughPanel::default(),
             table_panel: ui::table_panel::TablePanel::default(),
+            fatigue_panel: ui::fatigue_panel::FatiguePanel::default(),
             clean: project.clone(),
             project,
             file,

@@ -64,11 +64,26 @@ pub struct TableStart<'a> {
     pub more: Vec<(String, String)>,
 }
 
+/// The Fatigue tab's start from the command line: `--fatigue-history` with its unit, the
+/// fatigue limits and (for finite life) the S–N curve, all as typed; the history is judged at
+/// once.
+pub struct FatigueStart {
+    /// The history file (components in time).
+    pub path: String,
+    /// Its unit.
+    pub unit: crate::mechanics::StressUnit,
+    /// f₋₁ and t₋₁ as typed.
+    pub limits: (String, String),
+    /// τ'f and b as typed, for finite life.
+    pub sn: Option<(String, String)>,
+}
+
 pub fn run(
     screenshot: Option<&Path>,
     tab: Option<Central>,
     project: Option<&Path>,
     table: Option<TableStart<'_>>,
+    fatigue: Option<FatigueStart>,
     subcommands: &[String],
 ) -> anyhow::Result<()> {
     let headless = format!(
@@ -141,6 +156,20 @@ pub fn run(
                     app.table_panel.unit = Some(unit);
                     app.table_panel.start(&cc.egui_ctx, &app.project);
                 }
+            }
+            if let Some(f) = fatigue {
+                let panel = &mut app.fatigue_panel;
+                panel.path = f.path;
+                panel.unit = Some(f.unit);
+                (panel.bending, panel.torsion) = f.limits;
+                if let Some((coefficient, exponent)) = f.sn {
+                    panel.life = true;
+                    panel.sn_coefficient = coefficient;
+                    panel.sn_exponent = exponent;
+                }
+                app.settings.central = Central::Fatigue;
+                let project = app.project.clone();
+                app.fatigue_panel.judge(&project);
             }
             if let Some(path) = shot {
                 app.screenshot_on_start(path);

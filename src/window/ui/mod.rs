@@ -8,6 +8,7 @@
 pub mod cases_panel;
 pub mod envelope_panel;
 pub mod export_panel;
+pub mod fatigue_panel;
 pub mod faults_panel;
 pub mod file_prompt;
 pub mod input_panel;

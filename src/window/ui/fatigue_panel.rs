@@ -1,0 +1,544 @@
+//! The Fatigue tab: a load history (components in time, or factors in time on the project's load
+//! cases) judged on its critical plane — the criterion's constants, the critical plane with its
+//! utilization and factor of safety, finite life with an S–N curve — with the shear path on the
+//! critical plane (or the cut plane) and the orientation map, and the fatigue report.
+//!
+//! The tab's fields are the window's, not the project's: a history is a file beside the project.
+
+use std::path::PathBuf;
+
+use crate::mechanics::fatigue::{
+    Constants, Criterion, FatigueLimits, PathMethod, SearchSettings, SnCurve,
+};
+use crate::mechanics::{SignConvention, StressUnit};
+use crate::picture::draw::egui_backend;
+use crate::study::fatigue::{FATIGUE_CAUTION, FatigueSetup, Judged, LoadedHistory};
+use crate::study::load_history::{read_components, read_factors};
+use crate::study::{Edit, Project};
+use crate::text::format::sig;
+use crate::window::session::Command;
+
+/// Where the history comes from.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Default)]
+pub enum HistoryKind {
+    /// A CSV of time and the six components.
+    #[default]
+    Components,
+    /// A CSV of time and one factor column per load case of the project.
+    Factors,
+}
+
+/// Which plane the path figure shows.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Default)]
+pub enum PathOn {
+    /// The critical plane.
+    #[default]
+    Critical,
+    /// The project's cut plane.
+    CutPlane,
+}
+
+/// The Fatigue tab's fields and its last answer.
+#[derive(Default)]
+#[expect(
+    clippy::struct_excessive_bools,
+    reason = "independent check boxes and toggles of the tab"
+)]
+pub struct FatiguePanel {
+    /// The history file as typed.
+    pub path: String,
+    /// What the file holds.
+    pub kind: HistoryKind,
+    /// Unit of the components (and of every stress typed here); none until chosen.
+    pub unit: Option<StressUnit>,
+    /// The components are compression positive.
+    pub compression_positive: bool,
+    /// The criterion.
+    pub criterion: Option<Criterion>,
+    /// f₋₁, t₋₁ and σu as typed, in the unit.
+    pub bending: String,
+    /// t₋₁ as typed.
+    pub torsion: String,
+    /// σu as typed (McDiarmid).
+    pub tensile: String,
+    /// The shear amplitude is half the longest chord (default: the circumscribed circle).
+    pub chord: bool,
+    /// Finite life: τ'f and b as typed, and the endurance limit (empty: none).
+    pub life: bool,
+    /// τ'f as typed.
+    pub sn_coefficient: String,
+    /// b as typed.
+    pub sn_exponent: String,
+    /// The endurance limit as typed (empty: none).
+    pub endurance: String,
+    /// The path figure's plane.
+    pub path_on: PathOn,
+    /// The report's file as typed.
+    pub report_path: String,
+    /// The last answer: what was read, with what, and the result.
+    pub answer: Option<(LoadedHistory, FatigueSetup, Judged)>,
+    /// The map of the last answer, computed once (the frame is redrawn at the tab's size from
+    /// it).
+    map_cache: Option<((u32, u32), crate::picture::draw::Frame)>,
+    /// What went wrong, or what was written.
+    pub message: Option<Result<String, String>>,
+    /// A judgement has just succeeded: fold the inputs once, so the figures get the room.
+    fold_inputs: bool,
+    /// In a narrow tab, which figure is shown: the map (else the shear path).
+    pub show_map: bool,
+}
+
+fn number(text: &str, what: &str) -> Result<f64, String> {
+    crate::text::parse::number(text).map_err(|e| format!("{what}: {e}"))
+}
+
+impl FatiguePanel {
+    /// Reads the history and judges it with the tab's settings (the project gives the load
+    /// cases of a factor history).
+    pub fn judge(&mut self, project: &Project) {
+        self.map_cache = None;
+        self.message = Some(self.try_judge(project).map(|()| String::new()));
+        self.fold_inputs = matches!(self.message, Some(Ok(_)));
+        if matches!(&self.message, Some(Ok(m)) if m.is_empty()) {
+            self.message = None;
+        }
+    }
+
+    fn try_judge(&mut self, project: &Project) -> Result<(), String> {
+        let unit = self
+            .unit
+            .ok_or("choose the unit of the history's stresses (a file does not say)")?;
+        let criterion = self.criterion.unwrap_or(Criterion::Findley);
+        let convention = if self.compression_positive {
+            SignConvention::CompressionPositive
+        } else {
+            SignConvention::TensionPositive
+        };
+        let stress = |text: &str, what: &str| number(text, what).map(|v| unit.to_pa(v));
+        let torsion = stress(&self.torsion, "t₋₁, the torsion fatigue limit")?;
+        let bending = if criterion == Criterion::McDiarmid && self.bending.trim().is_empty() {
+            1.0
+        } else {
+            stress(&self.bending, "f₋₁, the bending fatigue limit")?
+        };
+        let tensile = if self.tensile.trim().is_empty() {
+            None
+        } else {
+            Some(stress(&self.tensile, "σu, the tensile strength")?)
+        };
+        let limits = FatigueLimits {
+            bending_pa: bending,
+            torsion_pa: torsion,
+            tensile_strength_pa: tensile,
+        };
+        let constants = Constants::derive(criterion, &limits).map_err(|e| e.to_string())?;
+        let sn = if self.life {
+            if criterion != Criterion::Findley {
+                return Err(
+                    "finite life is computed with Findley's parameter: choose Findley".into(),
+                );
+            }
+            let endurance = if self.endurance.trim().is_empty() {
+                None
+            } else {
+                Some(stress(&self.endurance, "the endurance limit")?)
+            };
+            Some(
+                SnCurve::new(
+                    stress(&self.sn_coefficient, "τ'f, the S–N coefficient")?,
+                    number(&self.sn_exponent, "b, the S–N exponent")?,
+                    endurance,
+                )
+                .map_err(|e| e.to_string())?,
+            )
+        } else {
+            None
+        };
+        let path = PathBuf::from(self.path.trim());
+        if self.path.trim().is_empty() {
+            return Err("type the history file's path".into());
+        }
+        let loaded = match self.kind {
+            HistoryKind::Components => {
+                let (history, time_name) = read_components(&path, unit, convention)?;
+                LoadedHistory {
+                    text: format!("{} (components)", path.display()),
+                    time_name,
+                    history,
+                    files: vec![("history (components in time)".to_owned(), path.clone())],
+                }
+            }
+            HistoryKind::Factors => {
+                let mut cases = Vec::new();
+                for c in &project.cases {
+                    let t = project
+                        .tensor(&c.name)
+                        .map_err(|e| format!("load case '{}': {e}", c.name))?;
+                    cases.push((c.name.clone(), t));
+                }
+                let (history, read) = read_factors(&path, &cases)?;
+                LoadedHistory {
+                    text: format!(
+                        "{} × the project's load cases {}",
+                        path.display(),
+                        read.cases.join(", ")
+                    ),
+                    time_name: read.time_name,
+                    history,
+                    files: vec![("factors in time".to_owned(), path.clone())],
+                }
+            }
+        };
+        let setup = FatigueSetup {
+            unit,
+            convention,
+            constants,
+            limits: Some(limits),
+            sn,
+            method: if self.chord {
+                PathMethod::Chord
+            } else {
+                PathMethod::Circle
+            },
+            search: SearchSettings::default(),
+        };
+        let judged = Judged::of(&loaded.history, &setup);
+        self.answer = Some((loaded, setup, judged));
+        Ok(())
+    }
+
+    fn inputs_ui(&mut self, ui: &mut egui::Ui, project: &Project) {
+        ui.horizontal_wrapped(|ui| {
+            ui.label("History file:");
+            ui.add(
+                egui::TextEdit::singleline(&mut self.path)
+                    .hint_text("history file (CSV: time, then columns)")
+                    .desired_width(300.0),
+            )
+            .on_hover_text("A CSV: a time (or step) column first, then the six components by name (xx … zx or S11 … S13), or one factor column per load case of the project");
+            ui.radio_value(&mut self.kind, HistoryKind::Components, "components in time");
+            ui.radio_value(&mut self.kind, HistoryKind::Factors, "factors on the load cases")
+                .on_hover_text(format!(
+                    "σ(t) = Σ fᵢ(t) σᵢ over the project's load cases ({})",
+                    project
+                        .cases
+                        .iter()
+                        .map(|c| c.name.as_str())
+                        .collect::<Vec<_>>()
+                        .join(", ")
+                ));
+        });
+        ui.horizontal_wrapped(|ui| {
+            ui.label("Unit:");
+            let shown = self.unit.map_or("choose…", StressUnit::symbol);
+            egui::ComboBox::from_id_salt("fatigue unit")
+                .selected_text(shown)
+                .show_ui(ui, |ui| {
+                    for u in StressUnit::ALL {
+                        ui.selectable_value(&mut self.unit, Some(u), u.symbol());
+                    }
+                })
+                .response
+                .widget_info(|| {
+                    egui::WidgetInfo::labeled(egui::Role::ComboBox, true, "fatigue unit")
+                });
+            ui.checkbox(&mut self.compression_positive, "compression positive");
+            ui.separator();
+            ui.label("Criterion:");
+            let criterion = self.criterion.get_or_insert(Criterion::Findley);
+            egui::ComboBox::from_id_salt("fatigue criterion")
+                .selected_text(criterion.label())
+                .show_ui(ui, |ui| {
+                    for c in Criterion::ALL {
+                        ui.selectable_value(criterion, c, c.label())
+                            .on_hover_text(c.definition());
+                    }
+                })
+                .response
+                .widget_info(|| {
+                    egui::WidgetInfo::labeled(egui::Role::ComboBox, true, "fatigue criterion")
+                });
+            ui.weak(criterion.definition());
+        });
+        let unit = self.unit.map_or("", StressUnit::symbol);
+        ui.horizontal_wrapped(|ui| {
+            let field = |ui: &mut egui::Ui, text: &mut String, symbol: &str, hint: String, tip: &str| {
+                ui.label(symbol).on_hover_text(tip);
+                ui.add(
+                    egui::TextEdit::singleline(text)
+                        .hint_text(hint)
+                        .desired_width(90.0),
+                )
+                .on_hover_text(tip);
+            };
+            field(
+                ui,
+                &mut self.bending,
+                "f₋₁",
+                format!("f₋₁ bending limit {unit}"),
+                "Fully reversed bending (or tension–compression) fatigue limit f₋₁, in the unit",
+            );
+            field(
+                ui,
+                &mut self.torsion,
+                "t₋₁",
+                format!("t₋₁ torsion limit {unit}"),
+                "Fully reversed torsion fatigue limit t₋₁, in the unit",
+            );
+            field(
+                ui,
+                &mut self.tensile,
+                "σu",
+                format!("σu tensile strength {unit}"),
+                "Ultimate tensile strength σu, in the unit (McDiarmid only)",
+            );
+            ui.label(unit);
+            ui.checkbox(&mut self.chord, "longest chord")
+                .on_hover_text("Off: the shear amplitude is the radius of the path's minimum circumscribed circle. On: half its longest chord (can fall short by up to 13 % on non-harmonic paths)");
+        });
+        ui.horizontal_wrapped(|ui| {
+            ui.checkbox(&mut self.life, "finite life")
+                .on_hover_text("Rainflow (ASTM E1049-85) on directions in each plane, Findley's parameter as a torsion amplitude on the S–N curve τa = τ'f (2N)^b, Miner's sum");
+            if self.life {
+                for (text, symbol, hint) in [
+                    (&mut self.sn_coefficient, "τ'f", format!("τ'f S–N coefficient {unit}")),
+                    (&mut self.sn_exponent, "b", "b S–N exponent".to_owned()),
+                    (&mut self.endurance, "endurance", format!("endurance limit {unit} (none)")),
+                ] {
+                    ui.label(symbol);
+                    ui.add(
+                        egui::TextEdit::singleline(text)
+                            .hint_text(hint)
+                            .desired_width(90.0),
+                    );
+                }
+                ui.weak("τa = τ'f (2N)^b on torsion; no endurance limit: Basquin's line below every amplitude");
+            }
+        });
+    }
+
+    fn answer_ui(
+        &mut self,
+        ui: &mut egui::Ui,
+        plane_normal: &crate::mechanics::PlaneNormal,
+        out: &mut Vec<Command>,
+    ) {
+        let Some((loaded, setup, judged)) = &self.answer else {
+            ui.label("A history at one point, judged on every plane: give the file, its unit, the fatigue limits, and Judge (Ctrl+Enter in a field). The same as planewise fatigue on the command line.");
+            return;
+        };
+        let u = setup.unit;
+        let sym = u.symbol();
+        let p = &judged.plane;
+        let c = &setup.constants;
+        ui.label(format!(
+            "{}: {} steps of {}; constants {} = {}, {} = {} {sym} ({})",
+            loaded.text,
+            loaded.history.len(),
+            loaded.time_name,
+            c.criterion.coefficient_symbol(),
+            sig(c.coefficient, 4),
+            c.criterion.limit_symbol(),
+            sig(u.from_pa(c.limit_pa), 5),
+            c.derivation
+        ));
+        ui.horizontal_wrapped(|ui| {
+            ui.strong(format!(
+                "Utilization {} (value ÷ {})",
+                sig(p.utilization, 4),
+                c.criterion.limit_symbol()
+            ))
+            .on_hover_text(c.criterion.definition());
+            ui.label(format!(
+                "factor of safety {}",
+                p.factor_of_safety()
+                    .map_or_else(|| "undefined".to_owned(), |f| sig(f, 4))
+            ))
+            .on_hover_text("Limit ÷ value: the factor on the whole history that reaches the limit");
+            ui.label(format!(
+                "critical plane dip {}° / dip direction {}°; τa {} {sym}, σn,max {} {sym}",
+                sig(p.dip_deg, 4),
+                sig(p.dip_direction_deg, 4),
+                sig(u.from_pa(p.value.tau_amplitude_pa), 5),
+                sig(u.from_pa(p.value.sigma_n_max_pa), 5)
+            ));
+            if ui
+                .button("Make it the cut plane")
+                .on_hover_text("The project's cut plane becomes the critical plane, so the 3D view, the map and the Mohr circles show it (one undo step)")
+                .clicked()
+                && let Ok(n) = crate::mechanics::PlaneNormal::try_from(p.normal)
+            {
+                out.push(Command::Edit {
+                    edit: Edit::SetPlane(n),
+                    coalesce: None,
+                });
+            }
+        });
+        if let Some(l) = &judged.life {
+            ui.label(format!(
+                "Finite life: damage {} per repeat, life {} on the plane dip {}° / dip direction {}°{}",
+                sig(l.damage.damage, 4),
+                l.life_repeats
+                    .map_or_else(|| "unlimited".to_owned(), |n| format!("{} repeats", sig(n, 4))),
+                sig(l.dip_deg, 4),
+                sig(l.dip_direction_deg, 4),
+                l.damage.worst.map_or_else(String::new, |w| format!(
+                    "; governing cycle {} {} to {}",
+                    loaded.time_name,
+                    sig(loaded.history.time()[w.from.min(w.to)], 5),
+                    sig(loaded.history.time()[w.from.max(w.to)], 5)
+                ))
+            ));
+        }
+        ui.horizontal_wrapped(|ui| {
+            ui.label("Path figure on:");
+            ui.radio_value(&mut self.path_on, PathOn::Critical, "the critical plane");
+            let (dip, dd) = plane_normal.dip_deg();
+            ui.radio_value(
+                &mut self.path_on,
+                PathOn::CutPlane,
+                format!("the cut plane ({}° / {}°)", sig(dip, 3), sig(dd, 4)),
+            );
+            ui.separator();
+            ui.add(
+                egui::TextEdit::singleline(&mut self.report_path)
+                    .hint_text("report file .html")
+                    .desired_width(200.0),
+            );
+            if ui.button("Write report").clicked() {
+                self.message = Some(self.write_report());
+            }
+        });
+        ui.colored_label(ui.visuals().warn_fg_color, FATIGUE_CAUTION);
+    }
+
+    /// Writes the fatigue report to the typed path.
+    fn write_report(&self) -> Result<String, String> {
+        let Some((loaded, setup, judged)) = &self.answer else {
+            return Err("judge a history first".into());
+        };
+        let path = PathBuf::from(self.report_path.trim());
+        if path.extension().and_then(|e| e.to_str()) != Some("html") {
+            return Err("the report is an .html file: type its path".into());
+        }
+        let inputs: Vec<&std::path::Path> = loaded.files.iter().map(|(_, p)| p.as_path()).collect();
+        crate::study::atomic::not_an_input(&path, &inputs)?;
+        let report = crate::output::fatigue_report::of(
+            loaded,
+            setup,
+            judged,
+            96,
+            &crate::output::report::now_iso8601(),
+        )?;
+        crate::study::atomic::write_atomic(
+            &path,
+            crate::output::fatigue_report::html(&report).as_bytes(),
+        )
+        .map_err(|e| format!("{}: {e}", path.display()))?;
+        Ok(format!("wrote {}", path.display()))
+    }
+
+    fn figures_ui(&mut self, ui: &mut egui::Ui, plane_normal: &crate::mechanics::PlaneNormal) {
+        let Some((loaded, setup, judged)) = &self.answer else {
+            return;
+        };
+        let sizes = crate::picture::draw::Sizes::default();
+        // Side by side when the tab is wide; else one at a time, chosen here.
+        let wide = ui.available_width() >= 1000.0;
+        if !wide {
+            ui.horizontal(|ui| {
+                ui.label("Figure:");
+                ui.radio_value(&mut self.show_map, false, "shear path and σn(t), |τ(t)|");
+                ui.radio_value(&mut self.show_map, true, "orientation map");
+            });
+        }
+        let size = ui.available_size().max(egui::vec2(300.0, 240.0));
+        let (path_size, map_size) = if wide {
+            (
+                egui::vec2(0.6 * size.x, size.y),
+                egui::vec2(0.4 * size.x, size.y),
+            )
+        } else if self.show_map {
+            (egui::Vec2::ZERO, size)
+        } else {
+            (size, egui::Vec2::ZERO)
+        };
+        let on = (self.path_on == PathOn::CutPlane).then(|| plane_normal.vector());
+        let layout = if wide {
+            egui::Layout::left_to_right(egui::Align::Min)
+        } else {
+            egui::Layout::top_down(egui::Align::Min)
+        };
+        let key = (map_size.x as u32, map_size.y as u32);
+        if key.0 > 0 && self.map_cache.as_ref().is_none_or(|(k, _)| *k != key) {
+            let (frame, _) = crate::picture::figures::fatigue_map(
+                loaded,
+                setup,
+                judged,
+                72,
+                None,
+                [key.0, key.1],
+                sizes,
+            );
+            self.map_cache = Some((key, frame));
+        }
+        ui.with_layout(layout, |ui| {
+            if path_size.x > 0.0 {
+                let (rect, _) = ui.allocate_exact_size(path_size, egui::Sense::hover());
+                let frame = crate::picture::figures::fatigue_path(
+                    loaded,
+                    setup,
+                    judged,
+                    on,
+                    [rect.width() as u32, rect.height() as u32],
+                    sizes,
+                );
+                ui.painter_at(rect)
+                    .extend(egui_backend::shapes(&frame, rect, ui.ctx()));
+            }
+            if map_size.x > 0.0
+                && let Some((_, frame)) = &self.map_cache
+            {
+                let (rect, _) = ui.allocate_exact_size(map_size, egui::Sense::hover());
+                ui.painter_at(rect)
+                    .extend(egui_backend::shapes(frame, rect, ui.ctx()));
+            }
+        });
+    }
+}
+
+impl super::Panel for FatiguePanel {
+    fn ui(&mut self, ui: &mut egui::Ui, reads: super::Reads<'_>, writes: &mut super::Writes<'_>) {
+        let fold = std::mem::take(&mut self.fold_inputs);
+        egui::CollapsingHeader::new("History and material")
+            .default_open(true)
+            .open(fold.then_some(false))
+            .show(ui, |ui| {
+                self.inputs_ui(ui, reads.project);
+                ui.horizontal(|ui| {
+                    let enter =
+                        ui.input(|i| i.modifiers.command && i.key_pressed(egui::Key::Enter));
+                    if ui
+                        .button("Judge")
+                        .on_hover_text("Read the history and search every plane (Ctrl+Enter)")
+                        .clicked()
+                        || enter
+                    {
+                        self.judge(reads.project);
+                    }
+                    match &self.message {
+                        Some(Err(e)) => {
+                            ui.colored_label(ui.visuals().error_fg_color, e);
+                        }
+                        Some(Ok(m)) => {
+                            ui.label(m);
+                        }
+                        None => {}
+                    }
+                });
+            });
+        ui.separator();
+        self.answer_ui(ui, &reads.d.plane, writes.commands);
+        self.figures_ui(ui, &reads.d.plane);
+    }
+}
