@@ -506,7 +506,7 @@ mod cli {
         let svgs = page
             .select(&scraper::Selector::parse("figure svg").unwrap())
             .count();
-        assert_eq!(svgs, 2, "the path figure and the map");
+        assert_eq!(svgs, 3, "the components, the path figure and the map");
         assert!(!html.contains("http"), "no web address in the report");
     }
 

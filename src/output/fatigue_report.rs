@@ -340,6 +340,21 @@ pub fn of(
         sections,
         figures: vec![
             (
+                "The history: its six components against time.".to_owned(),
+                svg(
+                    &crate::picture::draw::history::components_frame(
+                        history.time(),
+                        history.tensors_pa(),
+                        &loaded.time_name,
+                        u,
+                        setup.convention,
+                        [1400, 560],
+                        Sizes::for_export(1400.0, 560.0),
+                    ),
+                    "The history's components",
+                )?,
+            ),
+            (
                 "The critical plane's shear path in its own axes with the amplitude circle, and σn(t), |τ(t)| against time (the governing cycle shaded when finite life is computed).".to_owned(),
                 svg(&path, "Shear path on the critical plane")?,
             ),

@@ -321,6 +321,138 @@ pub fn path_frame(fig: &PathFigure, width: u32, height: u32, sizes: Sizes) -> Fr
     frame
 }
 
+/// The six components of a history against time, each curve named at its end (colours alone
+/// do not carry it): normal components in the axis colours, shear components darker.
+#[must_use]
+pub fn components_frame(
+    time: &[f64],
+    tensors_pa: &[[f64; 6]],
+    time_label: &str,
+    unit: StressUnit,
+    convention: SignConvention,
+    [width, height]: [u32; 2],
+    sizes: Sizes,
+) -> Frame {
+    const NAMES: [&str; 6] = ["σxx", "σyy", "σzz", "τxy", "τyz", "τzx"];
+    let colors = [
+        style::AXES[0],
+        style::AXES[1],
+        style::AXES[2],
+        style::Rgba::rgb(120, 40, 40),
+        style::Rgba::rgb(30, 90, 40),
+        style::Rgba::rgb(30, 50, 120),
+    ];
+    let (w, h) = (width as f32, height as f32);
+    let mut frame = Frame {
+        width: w,
+        height: h,
+        background: style::BACKGROUND,
+        prims: Vec::new(),
+    };
+    let sign = convention.sign();
+    let top = 16.0 * sizes.line + 2.0 * 1.45 * sizes.text + 1.8 * sizes.text;
+    let bottom = 3.6 * sizes.text + crate::picture::caution::caution_height(w, h);
+    let b = Box2 {
+        x: 4.5 * sizes.text,
+        y: top,
+        w: (w - 4.5 * sizes.text - 4.0 * sizes.text).max(16.0),
+        h: (h - top - bottom).max(16.0),
+    };
+    let t0 = time.first().copied().unwrap_or(0.0);
+    let t1 = time.last().copied().unwrap_or(1.0).max(t0 + 1e-30);
+    // The display convention flips every component (a shear's sign follows the axes' pairing).
+    let shown = |v: f64, _k: usize| sign * v;
+    let (mut lo, mut hi) = (0.0_f64, 0.0_f64);
+    for t in tensors_pa {
+        for (k, v) in t.iter().enumerate() {
+            lo = lo.min(shown(*v, k));
+            hi = hi.max(shown(*v, k));
+        }
+    }
+    let span = (hi - lo).max(1e-30) * 1.1;
+    let mid = 0.5 * (hi + lo);
+    let tx = |t: f64| b.x + ((t - t0) / (t1 - t0)) as f32 * b.w;
+    let vy = |v: f64| b.y + (0.5 - (v - mid) / span) as f32 * b.h;
+    let tt = chart::round_ticks(t0, t1, 6.0);
+    let ts: Vec<(f32, String)> = tt
+        .iter()
+        .map(|v| tx(*v))
+        .zip(tick_labels(&tt, None))
+        .collect();
+    let vt = stress_ticks(mid - 0.5 * span, mid + 0.5 * span, 6.0, unit);
+    let vs: Vec<(f32, String)> = vt
+        .iter()
+        .map(|v| vy(*v))
+        .zip(tick_labels(&vt, Some(unit)))
+        .collect();
+    let vlabel = format!("stress, {}", unit.symbol());
+    axes(&mut frame, b, &ts, &vs, [time_label, &vlabel], sizes);
+    // Components that are zero at every step are named in the key, not drawn.
+    let scale = hi.max(-lo);
+    let zero: Vec<bool> = (0..6)
+        .map(|k| tensors_pa.iter().all(|s| s[k].abs() <= 1e-12 * scale))
+        .collect();
+    let mut ends: Vec<(f32, usize)> = Vec::new();
+    for k in (0..6).filter(|k| !zero[*k]) {
+        let pts: Vec<[f32; 2]> = time
+            .iter()
+            .zip(tensors_pa)
+            .map(|(t, s)| [tx(*t), vy(shown(s[k], k))])
+            .collect();
+        for pair in pts.windows(2) {
+            line(&mut frame, pair[0], pair[1], 1.8 * sizes.line, colors[k]);
+        }
+        if let Some(end) = pts.last() {
+            ends.push((end[1], k));
+        }
+    }
+    // The names at the curves' ends, pushed apart where the ends meet.
+    ends.sort_by(|a, c| a.0.total_cmp(&c.0));
+    let gap = 1.15 * sizes.text;
+    for i in 1..ends.len() {
+        if ends[i].0 < ends[i - 1].0 + gap {
+            ends[i].0 = ends[i - 1].0 + gap;
+        }
+    }
+    for (y, k) in ends {
+        frame.prims.push(Prim::Text {
+            at: [b.x + b.w + 0.3 * sizes.text, y],
+            text: NAMES[k].to_owned(),
+            size: sizes.text,
+            color: colors[k],
+            anchor: Anchor::LeftCenter,
+            halo: true,
+        });
+    }
+    let zero_names: Vec<&str> = (0..6).filter(|k| zero[*k]).map(|k| NAMES[k]).collect();
+    chart::key(
+        &mut frame,
+        [
+            (
+                format!(
+                    "The history's six components against {time_label} ({}, {})",
+                    unit.symbol(),
+                    convention.key()
+                ),
+                style::INK,
+            ),
+            (
+                if zero_names.is_empty() {
+                    "Each curve is named at its end".to_owned()
+                } else {
+                    format!(
+                        "Each curve is named at its end; zero at every step: {}",
+                        zero_names.join(", ")
+                    )
+                },
+                style::INK,
+            ),
+        ],
+        sizes,
+    );
+    frame
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;

@@ -38,6 +38,21 @@ pub enum PathOn {
     CutPlane,
 }
 
+/// What the cached map was drawn for: its size in pixels and the cut plane marked on it.
+type MapKey = (u32, u32, [u64; 3]);
+
+/// The figure the tab shows.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Default)]
+pub enum Shown {
+    /// The shear path on a plane with σn(t) and |τ(t)|.
+    #[default]
+    Path,
+    /// The orientation map.
+    Map,
+    /// The six components against time.
+    Components,
+}
+
 /// The Fatigue tab's fields and its last answer.
 #[derive(Default)]
 #[expect(
@@ -79,13 +94,13 @@ pub struct FatiguePanel {
     pub answer: Option<(LoadedHistory, FatigueSetup, Judged)>,
     /// The map of the last answer, computed once (the frame is redrawn at the tab's size from
     /// it).
-    map_cache: Option<((u32, u32), crate::picture::draw::Frame)>,
+    map_cache: Option<(MapKey, crate::picture::draw::Frame)>,
     /// What went wrong, or what was written.
     pub message: Option<Result<String, String>>,
     /// A judgement has just succeeded: fold the inputs once, so the figures get the room.
     fold_inputs: bool,
-    /// In a narrow tab, which figure is shown: the map (else the shear path).
-    pub show_map: bool,
+    /// Which figure the tab shows.
+    pub figure: Shown,
 }
 
 fn number(text: &str, what: &str) -> Result<f64, String> {
@@ -443,67 +458,60 @@ impl FatiguePanel {
             return;
         };
         let sizes = crate::picture::draw::Sizes::default();
-        // Side by side when the tab is wide; else one at a time, chosen here.
-        let wide = ui.available_width() >= 1000.0;
-        if !wide {
-            ui.horizontal(|ui| {
-                ui.label("Figure:");
-                ui.radio_value(&mut self.show_map, false, "shear path and σn(t), |τ(t)|");
-                ui.radio_value(&mut self.show_map, true, "orientation map");
-            });
-        }
+        ui.horizontal(|ui| {
+            ui.label("Figure:");
+            ui.radio_value(
+                &mut self.figure,
+                Shown::Path,
+                "shear path, σn(t) and |τ(t)|",
+            );
+            ui.radio_value(&mut self.figure, Shown::Map, "orientation map");
+            ui.radio_value(&mut self.figure, Shown::Components, "components in time");
+        });
         let size = ui.available_size().max(egui::vec2(300.0, 240.0));
-        let (path_size, map_size) = if wide {
-            (
-                egui::vec2(0.6 * size.x, size.y),
-                egui::vec2(0.4 * size.x, size.y),
-            )
-        } else if self.show_map {
-            (egui::Vec2::ZERO, size)
-        } else {
-            (size, egui::Vec2::ZERO)
-        };
-        let on = (self.path_on == PathOn::CutPlane).then(|| plane_normal.vector());
-        let layout = if wide {
-            egui::Layout::left_to_right(egui::Align::Min)
-        } else {
-            egui::Layout::top_down(egui::Align::Min)
-        };
-        let key = (map_size.x as u32, map_size.y as u32);
-        if key.0 > 0 && self.map_cache.as_ref().is_none_or(|(k, _)| *k != key) {
-            let (frame, _) = crate::picture::figures::fatigue_map(
+        let (rect, _) = ui.allocate_exact_size(size, egui::Sense::hover());
+        let px = [rect.width() as u32, rect.height() as u32];
+        let frame = match self.figure {
+            Shown::Path => crate::picture::figures::fatigue_path(
                 loaded,
                 setup,
                 judged,
-                72,
-                None,
-                [key.0, key.1],
+                (self.path_on == PathOn::CutPlane).then(|| plane_normal.vector()),
+                px,
                 sizes,
-            );
-            self.map_cache = Some((key, frame));
-        }
-        ui.with_layout(layout, |ui| {
-            if path_size.x > 0.0 {
-                let (rect, _) = ui.allocate_exact_size(path_size, egui::Sense::hover());
-                let frame = crate::picture::figures::fatigue_path(
-                    loaded,
-                    setup,
-                    judged,
-                    on,
-                    [rect.width() as u32, rect.height() as u32],
-                    sizes,
-                );
-                ui.painter_at(rect)
-                    .extend(egui_backend::shapes(&frame, rect, ui.ctx()));
+            ),
+            Shown::Components => crate::picture::draw::history::components_frame(
+                loaded.history.time(),
+                loaded.history.tensors_pa(),
+                &loaded.time_name,
+                setup.unit,
+                setup.convention,
+                px,
+                sizes,
+            ),
+            Shown::Map => {
+                let n = plane_normal.vector();
+                let key = (px[0], px[1], [n.x.to_bits(), n.y.to_bits(), n.z.to_bits()]);
+                if self.map_cache.as_ref().is_none_or(|(k, _)| *k != key) {
+                    let (frame, _) = crate::picture::figures::fatigue_map(
+                        loaded,
+                        setup,
+                        judged,
+                        72,
+                        Some(*plane_normal),
+                        px,
+                        sizes,
+                    );
+                    self.map_cache = Some((key, frame));
+                }
+                match &self.map_cache {
+                    Some((_, frame)) => frame.clone(),
+                    None => return,
+                }
             }
-            if map_size.x > 0.0
-                && let Some((_, frame)) = &self.map_cache
-            {
-                let (rect, _) = ui.allocate_exact_size(map_size, egui::Sense::hover());
-                ui.painter_at(rect)
-                    .extend(egui_backend::shapes(frame, rect, ui.ctx()));
-            }
-        });
+        };
+        ui.painter_at(rect)
+            .extend(egui_backend::shapes(&frame, rect, ui.ctx()));
     }
 }
 
