@@ -730,6 +730,35 @@ mod cli {
         let threshold = format!("{}", expected[1].1 - 1e-9);
         args.extend(["--above", threshold.as_str()]);
         assert_eq!(json(&args)["listed"].as_array().unwrap().len(), 2);
+        // The same histories as one long table, a history per point (rows of the points
+        // interleaved), rank the same.
+        let mut long = String::from("node,step,xx,yy,zz,xy,yz,zx\n");
+        for (i, fb, ft) in &rows {
+            for (id, b, t) in &cases {
+                write!(long, "{id},{i}").unwrap();
+                for k in 0..6 {
+                    write!(long, ",{}", fb * b[k] + ft * t[k]).unwrap();
+                }
+                long.push('\n');
+            }
+        }
+        let long_file = dir.join("long.csv");
+        std::fs::write(&long_file, long).unwrap();
+        let mut args = vec![
+            "--histories",
+            long_file.to_str().unwrap(),
+            "--ids",
+            "node",
+            "--time-column",
+            "step",
+        ];
+        args.extend(LIMITS);
+        let got = json(&args);
+        assert_eq!(got["steps"], 25);
+        for ((id, u), row) in expected.iter().zip(got["listed"].as_array().unwrap()) {
+            assert_eq!(row["ids"]["node"], *id);
+            assert!((row["utilization"].as_f64().unwrap() - u).abs() < 1e-9);
+        }
     }
 
     #[test]

@@ -41,13 +41,23 @@ pub struct FatigueArgs {
     /// repeat for each case. Every point gets the --factors history and the points are ranked.
     #[arg(long, value_name = "CASE=FILE", requires_all = ["factors", "ids"])]
     pub case_table: Vec<String>,
-    /// The id columns the --case-table files join on (e.g. element,ip).
+    /// Many points: one long table of a history per point — the --ids columns naming the
+    /// point, the --time-column, and the six components — one row per point and step; the
+    /// points are ranked.
+    #[arg(long, value_name = "FILE", conflicts_with_all = ["history", "project", "case_table", "factors"])]
+    pub histories: Option<PathBuf>,
+    /// The time (or step) column of --histories.
+    #[arg(long, value_name = "NAME", default_value = "time")]
+    pub time_column: String,
+    /// The id columns the --case-table files join on, or that name the points of --histories
+    /// (e.g. element,ip).
     #[arg(long, value_name = "COLUMN,…", value_delimiter = ',')]
     pub ids: Vec<String>,
-    /// With --case-table: how many of the worst points to list.
+    /// With --case-table or --histories: how many of the worst points to list.
     #[arg(long, value_name = "N", default_value = "20")]
     pub top: usize,
-    /// With --case-table: list every point at or above this utilization (or damage with --sn)
+    /// With --case-table or --histories: list every point at or above this utilization (or
+    /// damage with --sn)
     /// instead of the top N.
     #[arg(long, value_name = "VALUE", allow_hyphen_values = true)]
     pub above: Option<String>,
@@ -659,9 +669,13 @@ pub struct PointJson {
 pub struct PointsJson {
     #[serde(flatten)]
     pub settings: SettingsJson,
-    pub factors: String,
+    /// Where the histories come from: a factor history on load-case tables, or a history per
+    /// point.
+    pub histories: String,
+    /// The load cases the factors scale (empty for a history per point).
     pub cases: Vec<String>,
-    pub steps: usize,
+    /// Steps of every point's history; null when the points' histories differ in length.
+    pub steps: Option<usize>,
     /// "utilization" or "damage per repeat".
     pub ranked_by: &'static str,
     pub points: usize,
@@ -670,13 +684,119 @@ pub struct PointsJson {
     pub caution: &'static str,
 }
 
-fn many_points(
-    args: &FatigueArgs,
-    setup: &FatigueSetup,
-    factors_file: &Path,
-) -> Result<String, CliError> {
+/// Where many points' histories come from.
+enum ManyPoints {
+    /// Load-case tables joined on ids, every point under one factor history.
+    Tables {
+        points: Box<crate::study::table::Points>,
+        factors: Factors,
+        /// The tables' index of each factor column's case.
+        case_index: Vec<usize>,
+    },
+    /// One long table of a history per point.
+    Long(crate::study::load_history::PointHistories),
+}
+
+impl ManyPoints {
+    fn len(&self) -> usize {
+        match self {
+            Self::Tables { points, .. } => points.len(),
+            Self::Long(h) => h.histories.len(),
+        }
+    }
+
+    fn left_out(&self, p: usize) -> bool {
+        match self {
+            Self::Tables { points, .. } => points.left_out(p),
+            Self::Long(_) => false,
+        }
+    }
+
+    fn id_names(&self) -> &[String] {
+        match self {
+            Self::Tables { points, .. } => &points.id_names,
+            Self::Long(h) => &h.id_names,
+        }
+    }
+
+    fn ids(&self, p: usize) -> Vec<String> {
+        match self {
+            Self::Tables { points, .. } => points.ids(p),
+            Self::Long(h) => h.ids[p].clone(),
+        }
+    }
+
+    /// Point `p`'s history.
+    fn history(&self, p: usize) -> Result<std::borrow::Cow<'_, StressHistory>, String> {
+        match self {
+            Self::Tables {
+                points,
+                factors,
+                case_index,
+            } => {
+                let tensors: Vec<StressTensor> = case_index
+                    .iter()
+                    .map(|c| StressTensor::from_pa(points.tensor(*c, p)).map_err(|e| e.to_string()))
+                    .collect::<Result<_, _>>()?;
+                factors.history(&tensors).map(std::borrow::Cow::Owned)
+            }
+            Self::Long(h) => Ok(std::borrow::Cow::Borrowed(&h.histories[p])),
+        }
+    }
+
+    /// Where the histories come from, in words; the load cases (none for a long table); the
+    /// steps when every point has the same.
+    fn describe(&self) -> (String, Vec<String>, Option<usize>) {
+        match self {
+            Self::Tables { factors, .. } => (
+                format!("{} on load-case tables", factors.file),
+                factors.cases.clone(),
+                Some(factors.time.len()),
+            ),
+            Self::Long(h) => {
+                let first = h.histories.first().map_or(0, StressHistory::len);
+                (
+                    format!(
+                        "a history per point ({} against {})",
+                        h.ids.len(),
+                        h.time_name
+                    ),
+                    Vec::new(),
+                    h.histories
+                        .iter()
+                        .all(|x| x.len() == first)
+                        .then_some(first),
+                )
+            }
+        }
+    }
+}
+
+/// Reads the many points: load-case tables with a factor history, or a long table of histories.
+fn read_many_points(args: &FatigueArgs, setup: &FatigueSetup) -> Result<ManyPoints, CliError> {
     use crate::study::table::{self, CaseTable, JoinOptions, TableOptions};
-    let started = std::time::Instant::now();
+    let ids: Vec<String> = args.ids.iter().map(|s| s.trim().to_owned()).collect();
+    if let Some(file) = &args.histories {
+        if ids.is_empty() {
+            return Err(ArgError::new(
+                "--ids",
+                "--histories needs the id columns that name the points",
+            )
+            .into());
+        }
+        return crate::study::load_history::read_point_histories(
+            file,
+            &ids,
+            &args.time_column,
+            setup.unit,
+            setup.convention,
+        )
+        .map(ManyPoints::Long)
+        .map_err(|e| ArgError::new("--histories", e).into());
+    }
+    let Some(factors_file) = &args.factors else {
+        return Err(ArgError::new("--factors", "--case-table needs --factors").into());
+    };
     let mut tables = Vec::new();
     for text in &args.case_table {
         let Some((case, file)) = text.split_once('=') else {
@@ -696,7 +816,7 @@ fn many_points(
     }
     let options = TableOptions::new(setup.unit, setup.convention);
     let join = JoinOptions {
-        ids: args.ids.iter().map(|s| s.trim().to_owned()).collect(),
+        ids,
         case_column: None,
         skip_unmatched: false,
     };
@@ -709,23 +829,29 @@ fn many_points(
         .iter()
         .filter_map(|c| points.cases.iter().position(|p| p == c))
         .collect();
+    Ok(ManyPoints::Tables {
+        points: Box::new(points),
+        factors,
+        case_index,
+    })
+}
+
+fn many_points(args: &FatigueArgs, setup: &FatigueSetup) -> Result<String, CliError> {
+    let started = std::time::Instant::now();
+    let source = read_many_points(args, setup)?;
     let threshold = args
         .above
         .as_deref()
         .map(|t| crate::text::parse::number(t).map_err(|e| ArgError::new("--above", e)))
         .transpose()?;
-    let n = points.len();
+    let n = source.len();
     let done = std::sync::atomic::AtomicUsize::new(0);
     let quiet = args.quiet || args.json;
     let judged: Vec<Result<(usize, Judged), String>> = (0..n)
         .into_par_iter()
-        .filter(|p| !points.left_out(*p))
+        .filter(|p| !source.left_out(*p))
         .map(|p| {
-            let tensors: Vec<StressTensor> = case_index
-                .iter()
-                .map(|c| StressTensor::from_pa(points.tensor(*c, p)).map_err(|e| e.to_string()))
-                .collect::<Result<_, _>>()?;
-            let history = factors.history(&tensors)?;
+            let history = source.history(p)?;
             let j = Judged::of(&history, setup);
             let k = done.fetch_add(1, std::sync::atomic::Ordering::Relaxed) + 1;
             if !quiet && k.is_multiple_of(500) {
@@ -753,40 +879,42 @@ fn many_points(
         Some(t) => judged.iter().filter(|(_, j)| j.rank_value() >= t).collect(),
         None => judged.iter().take(args.top).collect(),
     };
-    // Every point's history has the same times.
-    let times = StressHistory::new(factors.time.clone(), vec![[0.0; 6]; factors.time.len()])
-        .map_err(|e| ArgError::new("--factors", format!("{}: {e}", factors.file)))?;
     let u = setup.unit;
+    let (histories, cases, steps) = source.describe();
+    let mut rows = Vec::with_capacity(listed.len());
+    for (p, j) in &listed {
+        let history = source
+            .history(*p)
+            .map_err(|e| ArgError::new("--factors", e))?;
+        rows.push(PointJson {
+            ids: source
+                .id_names()
+                .iter()
+                .zip(source.ids(*p))
+                .map(|(k, v)| (k.clone(), serde_json::Value::String(v)))
+                .collect(),
+            utilization: clean(j.plane.utilization),
+            factor_of_safety: j.plane.factor_of_safety().map(clean),
+            critical_plane: plane_json(&j.plane, &history, u),
+            life: j
+                .life
+                .as_ref()
+                .zip(setup.sn.as_ref())
+                .map(|(l, sn)| life_json(l, sn, &history, u)),
+        });
+    }
     let json = PointsJson {
         settings: SettingsJson::of(setup),
-        factors: factors.file.clone(),
-        cases: factors.cases.clone(),
-        steps: factors.time.len(),
+        histories,
+        cases,
+        steps,
         ranked_by: if setup.sn.is_some() {
             "damage per repeat"
         } else {
             "utilization"
         },
         points: judged.len(),
-        listed: listed
-            .iter()
-            .map(|(p, j)| PointJson {
-                ids: points
-                    .id_names
-                    .iter()
-                    .zip(points.ids(*p))
-                    .map(|(k, v)| (k.clone(), serde_json::Value::String(v)))
-                    .collect(),
-                utilization: clean(j.plane.utilization),
-                factor_of_safety: j.plane.factor_of_safety().map(clean),
-                critical_plane: plane_json(&j.plane, &times, u),
-                life: j
-                    .life
-                    .as_ref()
-                    .zip(setup.sn.as_ref())
-                    .map(|(l, sn)| life_json(l, sn, &times, u)),
-            })
-            .collect(),
+        listed: rows,
         seconds: started.elapsed().as_secs_f64(),
         caution: FATIGUE_CAUTION,
     };
@@ -798,14 +926,19 @@ fn many_points(
     let mut s = String::new();
     let _ = writeln!(
         s,
-        "Fatigue at {} points ({} — {}), ranked by {}; history: {} on {}, {} steps; {u}, {}",
+        "Fatigue at {} points ({} — {}), ranked by {}; histories: {}{}{}; {u}, {}",
         json.points,
         setup.constants.criterion.label(),
         json.settings.definition,
         json.ranked_by,
-        json.factors,
-        json.cases.join(", "),
-        json.steps,
+        json.histories,
+        if json.cases.is_empty() {
+            String::new()
+        } else {
+            format!(" ({})", json.cases.join(", "))
+        },
+        json.steps
+            .map_or_else(String::new, |n| format!(", {n} steps")),
         json.settings.convention,
         u = json.settings.unit
     );
@@ -813,7 +946,7 @@ fn many_points(
     let _ = writeln!(
         s,
         "{:<24} {:>11} {:>8} {:>8} {:>11} {:>11}{}",
-        points.id_names.join(","),
+        source.id_names().join(","),
         "utilization",
         "dip°",
         "dipdir°",
@@ -879,7 +1012,7 @@ fn read_source(
     let (Some(project_file), Some(factors)) = (&args.project, &args.factors) else {
         return Err(ArgError::new(
             "--history",
-            "give the history: --history FILE (components in time), --project FILE with --factors FILE (factors on its load cases), or --case-table with --ids and --factors (many points)",
+            "give the history: --history FILE (components in time), --project FILE with --factors FILE (factors on its load cases), --case-table with --ids and --factors, or --histories with --ids (many points)",
         ));
     };
     let (project, _) =
@@ -944,18 +1077,15 @@ pub fn run(args: &FatigueArgs) -> Result<String, CliError> {
             crate::study::atomic::not_an_input(p, &inputs).map_err(|e| ArgError::new(arg, e))?;
         }
     }
-    if !args.case_table.is_empty() {
+    if !args.case_table.is_empty() || args.histories.is_some() {
         if args.map.is_some() || args.path_figure.is_some() || args.report.is_some() {
             return Err(ArgError::new(
                 "--map",
-                "figures are drawn for one point (--history or --project); not with --case-table",
+                "figures are drawn for one point (--history or --project); not with --case-table or --histories",
             )
             .into());
         }
-        let Some(factors) = &args.factors else {
-            return Err(ArgError::new("--factors", "--case-table needs --factors").into());
-        };
-        return many_points(args, &setup, factors);
+        return many_points(args, &setup);
     }
     // Read in the given convention: the history file's components are in it.
     let source = read_source(args, unit, setup.convention)?;

@@ -214,6 +214,145 @@ pub fn read_factors(
     Ok((history, factors))
 }
 
+/// Histories of many points in one long table: id columns naming the point, a time column, and
+/// the six components; one row per point and step.
+#[derive(Clone, Debug, PartialEq)]
+pub struct PointHistories {
+    /// The id columns' names, as given.
+    pub id_names: Vec<String>,
+    /// The time column's name.
+    pub time_name: String,
+    /// Each point's ids, in the order the table first names it.
+    pub ids: Vec<Vec<String>>,
+    /// Each point's history.
+    pub histories: Vec<StressHistory>,
+}
+
+/// Reads a long table of histories: the header names the `ids` columns, the `time` column and
+/// the six components (any other column is an error naming it, never ignored). A point's rows
+/// need not be together, but its times must increase in file order. Errors say file, line and
+/// column, or the point.
+pub fn read_point_histories(
+    path: &Path,
+    ids: &[String],
+    time: &str,
+    unit: StressUnit,
+    convention: SignConvention,
+) -> Result<PointHistories, String> {
+    let file = path.display();
+    let text = std::fs::read_to_string(path).map_err(|e| format!("{file}: {e}"))?;
+    let mut lines = text
+        .lines()
+        .enumerate()
+        .map(|(i, l)| (i + 1, l.trim()))
+        .filter(|(_, l)| !l.is_empty() && !l.starts_with('#'));
+    let Some((_, header)) = lines.next() else {
+        return Err(format!("{file}: no header line: the file is empty"));
+    };
+    let names: Vec<String> = header
+        .split(',')
+        .map(|n| n.trim().trim_matches('"').to_owned())
+        .collect();
+    let find = |wanted: &str| names.iter().position(|n| n.eq_ignore_ascii_case(wanted));
+    let mut id_index = Vec::new();
+    for id in ids {
+        id_index.push(find(id).ok_or_else(|| {
+            format!(
+                "{file}:1: no id column '{id}' (the header has: {})",
+                names.join(", ")
+            )
+        })?);
+    }
+    let time_index = find(time).ok_or_else(|| {
+        format!(
+            "{file}:1: no time column '{time}' (the header has: {}; name it with --time-column)",
+            names.join(", ")
+        )
+    })?;
+    let mut component = [None; 6];
+    for (i, name) in names.iter().enumerate() {
+        if id_index.contains(&i) || i == time_index {
+            continue;
+        }
+        match component_of(name) {
+            Some(c) if component[c].is_none() => component[c] = Some(i),
+            Some(_) => {
+                return Err(format!(
+                    "{file}:1: column '{name}' is a second column for the same component"
+                ));
+            }
+            None => {
+                return Err(format!(
+                    "{file}:1: column '{name}' is neither an id, the time nor a stress component"
+                ));
+            }
+        }
+    }
+    let keys = ["xx", "yy", "zz", "xy", "yz", "zx"];
+    let missing: Vec<&str> = keys
+        .iter()
+        .zip(component)
+        .filter(|(_, i)| i.is_none())
+        .map(|(k, _)| *k)
+        .collect();
+    if !missing.is_empty() {
+        return Err(format!(
+            "{file}:1: no column for {} (all six components are needed; write 0 where a component is zero)",
+            missing.join(", ")
+        ));
+    }
+    let sign = convention.sign();
+    let mut order: Vec<Vec<String>> = Vec::new();
+    let mut index: std::collections::HashMap<Vec<String>, usize> = std::collections::HashMap::new();
+    let mut rows: Vec<(Vec<f64>, Vec<[f64; 6]>)> = Vec::new();
+    for (line, l) in lines {
+        let fields: Vec<&str> = l.split(',').map(str::trim).collect();
+        if fields.len() != names.len() {
+            return Err(format!(
+                "{file}:{line}: {} fields where the header has {}",
+                fields.len(),
+                names.len()
+            ));
+        }
+        let number = |i: usize| -> Result<f64, String> {
+            crate::text::parse::number(fields[i])
+                .map_err(|e| format!("{file}:{line}: column '{}': {e}", names[i]))
+        };
+        let key: Vec<String> = id_index.iter().map(|i| fields[*i].to_owned()).collect();
+        let p = *index.entry(key.clone()).or_insert_with(|| {
+            order.push(key);
+            rows.push((Vec::new(), Vec::new()));
+            rows.len() - 1
+        });
+        let mut t = [0.0; 6];
+        for (c, i) in component.iter().enumerate() {
+            if let Some(i) = i {
+                t[c] = sign * unit.to_pa(number(*i)?);
+            }
+        }
+        rows[p].0.push(number(time_index)?);
+        rows[p].1.push(t);
+    }
+    let mut histories = Vec::with_capacity(rows.len());
+    for ((time, tensors), key) in rows.into_iter().zip(&order) {
+        let point = ids
+            .iter()
+            .zip(key)
+            .map(|(n, v)| format!("{n}={v}"))
+            .collect::<Vec<_>>()
+            .join(", ");
+        histories.push(
+            StressHistory::new(time, tensors).map_err(|e| format!("{file}: point {point}: {e}"))?,
+        );
+    }
+    Ok(PointHistories {
+        id_names: ids.to_vec(),
+        time_name: names[time_index].clone(),
+        ids: order,
+        histories,
+    })
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -262,6 +401,55 @@ mod tests {
         let e = read_factors(&p, &[("dead".to_owned(), case)]).unwrap_err();
         assert!(
             e.ends_with(":1: column 'snow' names no load case (there are: dead)"),
+            "{e}"
+        );
+    }
+
+    #[test]
+    fn histories_of_many_points_in_one_long_table() {
+        let p = write(
+            "long.csv",
+            "node,t,xx,yy,zz,xy,yz,zx\n2,0,1,0,0,0,0,0\n1,0,5,0,0,0,0,0\n2,1,-1,0,0,0,0,0\n1,1,-5,0,0,0,0,0\n1,2,5,0,0,0,0,0\n",
+        );
+        let h = read_point_histories(
+            &p,
+            &["node".to_owned()],
+            "t",
+            StressUnit::MPa,
+            SignConvention::TensionPositive,
+        )
+        .unwrap();
+        assert_eq!(h.ids, vec![vec!["2".to_owned()], vec!["1".to_owned()]]);
+        assert_eq!(h.histories[1].time(), &[0.0, 1.0, 2.0]);
+        assert_eq!(h.histories[1].tensors_pa()[1][0], -5e6);
+        let back = write(
+            "back.csv",
+            "node,t,xx,yy,zz,xy,yz,zx\n1,1,0,0,0,0,0,0\n1,0,0,0,0,0,0,0\n",
+        );
+        let e = read_point_histories(
+            &back,
+            &["node".to_owned()],
+            "t",
+            StressUnit::MPa,
+            SignConvention::TensionPositive,
+        )
+        .unwrap_err();
+        assert!(
+            e.contains("point node=1: step 2: time 0 does not come after"),
+            "{e}"
+        );
+        let e = read_point_histories(
+            &p,
+            &["elem".to_owned()],
+            "t",
+            StressUnit::MPa,
+            SignConvention::TensionPositive,
+        )
+        .unwrap_err();
+        assert!(
+            e.ends_with(
+                ":1: no id column 'elem' (the header has: node, t, xx, yy, zz, xy, yz, zx)"
+            ),
             "{e}"
         );
     }
