@@ -6,7 +6,6 @@ use std::fmt::Write as _;
 use std::path::{Path, PathBuf};
 
 use clap::Args;
-use rayon::prelude::*;
 use serde::Serialize;
 
 use super::{ArgError, CliError, values};
@@ -15,11 +14,13 @@ use crate::mechanics::fatigue::{
     Constants, Criterion, CriticalPlane, DamagePlane, FatigueLimits, PathMethod, SearchSettings,
     SnCurve, StressHistory,
 };
-use crate::mechanics::{SignConvention, StressTensor, StressUnit};
+use crate::mechanics::{SignConvention, StressUnit};
 use crate::picture::draw::Sizes;
 use crate::picture::figures;
-use crate::study::fatigue::{FATIGUE_CAUTION, FatigueSetup, Judged, LIFE_METHOD, LoadedHistory};
-use crate::study::load_history::{Factors, read_components};
+use crate::study::fatigue::{
+    FATIGUE_CAUTION, FatigueSetup, Judged, LIFE_METHOD, LoadedHistory, ManyError, ManyPoints,
+};
+use crate::study::load_history::read_components;
 use crate::text::format::{clean, sig};
 
 /// Arguments of `planewise fatigue`.
@@ -684,97 +685,8 @@ pub struct PointsJson {
     pub caution: &'static str,
 }
 
-/// Where many points' histories come from.
-enum ManyPoints {
-    /// Load-case tables joined on ids, every point under one factor history.
-    Tables {
-        points: Box<crate::study::table::Points>,
-        factors: Factors,
-        /// The tables' index of each factor column's case.
-        case_index: Vec<usize>,
-    },
-    /// One long table of a history per point.
-    Long(crate::study::load_history::PointHistories),
-}
-
-impl ManyPoints {
-    fn len(&self) -> usize {
-        match self {
-            Self::Tables { points, .. } => points.len(),
-            Self::Long(h) => h.histories.len(),
-        }
-    }
-
-    fn left_out(&self, p: usize) -> bool {
-        match self {
-            Self::Tables { points, .. } => points.left_out(p),
-            Self::Long(_) => false,
-        }
-    }
-
-    fn id_names(&self) -> &[String] {
-        match self {
-            Self::Tables { points, .. } => &points.id_names,
-            Self::Long(h) => &h.id_names,
-        }
-    }
-
-    fn ids(&self, p: usize) -> Vec<String> {
-        match self {
-            Self::Tables { points, .. } => points.ids(p),
-            Self::Long(h) => h.ids[p].clone(),
-        }
-    }
-
-    /// Point `p`'s history.
-    fn history(&self, p: usize) -> Result<std::borrow::Cow<'_, StressHistory>, String> {
-        match self {
-            Self::Tables {
-                points,
-                factors,
-                case_index,
-            } => {
-                let tensors: Vec<StressTensor> = case_index
-                    .iter()
-                    .map(|c| StressTensor::from_pa(points.tensor(*c, p)).map_err(|e| e.to_string()))
-                    .collect::<Result<_, _>>()?;
-                factors.history(&tensors).map(std::borrow::Cow::Owned)
-            }
-            Self::Long(h) => Ok(std::borrow::Cow::Borrowed(&h.histories[p])),
-        }
-    }
-
-    /// Where the histories come from, in words; the load cases (none for a long table); the
-    /// steps when every point has the same.
-    fn describe(&self) -> (String, Vec<String>, Option<usize>) {
-        match self {
-            Self::Tables { factors, .. } => (
-                format!("{} on load-case tables", factors.file),
-                factors.cases.clone(),
-                Some(factors.time.len()),
-            ),
-            Self::Long(h) => {
-                let first = h.histories.first().map_or(0, StressHistory::len);
-                (
-                    format!(
-                        "a history per point ({} against {})",
-                        h.ids.len(),
-                        h.time_name
-                    ),
-                    Vec::new(),
-                    h.histories
-                        .iter()
-                        .all(|x| x.len() == first)
-                        .then_some(first),
-                )
-            }
-        }
-    }
-}
-
 /// Reads the many points: load-case tables with a factor history, or a long table of histories.
 fn read_many_points(args: &FatigueArgs, setup: &FatigueSetup) -> Result<ManyPoints, CliError> {
-    use crate::study::table::{self, CaseTable, JoinOptions, TableOptions};
     let ids: Vec<String> = args.ids.iter().map(|s| s.trim().to_owned()).collect();
     if let Some(file) = &args.histories {
         if ids.is_empty() {
@@ -784,15 +696,8 @@ fn read_many_points(args: &FatigueArgs, setup: &FatigueSetup) -> Result<ManyPoin
             )
             .into());
         }
-        return crate::study::load_history::read_point_histories(
-            file,
-            &ids,
-            &args.time_column,
-            setup.unit,
-            setup.convention,
-        )
-        .map(ManyPoints::Long)
-        .map_err(|e| ArgError::new("--histories", e).into());
+        return ManyPoints::read_long(file, &ids, &args.time_column, setup.unit, setup.convention)
+            .map_err(|e| ArgError::new("--histories", e).into());
     }
     let Some(factors_file) = &args.factors else {
         return Err(ArgError::new("--factors", "--case-table needs --factors").into());
@@ -806,34 +711,14 @@ fn read_many_points(args: &FatigueArgs, setup: &FatigueSetup) -> Result<ManyPoin
             )
             .into());
         };
-        let f = std::fs::File::open(file)
-            .map_err(|e| ArgError::new("--case-table", format!("{file}: {e}")))?;
-        tables.push(CaseTable {
-            case: case.trim().to_owned(),
-            file: file.to_owned(),
-            source: std::io::BufReader::new(f),
-        });
+        tables.push((case.trim().to_owned(), PathBuf::from(file)));
     }
-    let options = TableOptions::new(setup.unit, setup.convention);
-    let join = JoinOptions {
-        ids,
-        case_column: None,
-        skip_unmatched: false,
-    };
-    let points = table::join(tables, &options, &join, |_| true)
-        .map_err(|e| ArgError::new("--case-table", e))?;
-    let factors =
-        Factors::read(factors_file, &points.cases).map_err(|e| ArgError::new("--factors", e))?;
-    let case_index: Vec<usize> = factors
-        .cases
-        .iter()
-        .filter_map(|c| points.cases.iter().position(|p| p == c))
-        .collect();
-    Ok(ManyPoints::Tables {
-        points: Box::new(points),
-        factors,
-        case_index,
-    })
+    ManyPoints::read_tables(&tables, &ids, factors_file, setup.unit, setup.convention).map_err(
+        |e| match e {
+            ManyError::Tables(e) => ArgError::new("--case-table", e).into(),
+            ManyError::Factors(e) => ArgError::new("--factors", e).into(),
+        },
+    )
 }
 
 fn many_points(args: &FatigueArgs, setup: &FatigueSetup) -> Result<String, CliError> {
@@ -847,34 +732,34 @@ fn many_points(args: &FatigueArgs, setup: &FatigueSetup) -> Result<String, CliEr
     let n = source.len();
     let done = std::sync::atomic::AtomicUsize::new(0);
     let quiet = args.quiet || args.json;
-    let judged: Vec<Result<(usize, Judged), String>> = (0..n)
-        .into_par_iter()
-        .filter(|p| !source.left_out(*p))
-        .map(|p| {
-            let history = source.history(p)?;
-            let j = Judged::of(&history, setup);
-            let k = done.fetch_add(1, std::sync::atomic::Ordering::Relaxed) + 1;
-            if !quiet && k.is_multiple_of(500) {
-                eprint!("\rplanewise fatigue: {k} of {n} points   ");
+    let judged = std::thread::scope(|scope| {
+        let ranking = scope.spawn(|| {
+            crate::study::fatigue::rank(
+                &source,
+                setup,
+                &done,
+                &std::sync::atomic::AtomicBool::new(false),
+            )
+        });
+        while !ranking.is_finished() {
+            std::thread::sleep(std::time::Duration::from_millis(250));
+            if !quiet {
+                eprint!(
+                    "\rplanewise fatigue: {} of {n} points   ",
+                    done.load(std::sync::atomic::Ordering::Relaxed)
+                );
             }
-            Ok((p, j))
-        })
-        .collect();
+        }
+        ranking.join()
+    })
+    .map_err(|_| anyhow::anyhow!("the ranking stopped unexpectedly"))?
+    .map_err(|e| ArgError::new("--factors", e))?;
     if !quiet {
         eprintln!(
             "\rplanewise fatigue: {n} points judged in {:.1} s   ",
             started.elapsed().as_secs_f64()
         );
     }
-    let mut judged: Vec<(usize, Judged)> = judged
-        .into_iter()
-        .collect::<Result<_, _>>()
-        .map_err(|e| ArgError::new("--factors", e))?;
-    judged.sort_by(|a, b| {
-        b.1.rank_value()
-            .total_cmp(&a.1.rank_value())
-            .then(a.0.cmp(&b.0))
-    });
     let listed: Vec<&(usize, Judged)> = match threshold {
         Some(t) => judged.iter().filter(|(_, j)| j.rank_value() >= t).collect(),
         None => judged.iter().take(args.top).collect(),
