@@ -9,6 +9,8 @@
 
 mod common;
 
+use std::fmt::Write as _;
+
 use common::{NoDialogs, planewise_ok, type_into};
 
 use egui_kittest::Harness;
@@ -99,4 +101,97 @@ fn a_missing_unit_or_bad_limit_is_said_and_nothing_typed_is_lost() {
     assert!(h.state().fatigue_panel.answer.is_none());
     assert_eq!(h.state().fatigue_panel.path, HISTORY);
     assert_eq!(h.state().fatigue_panel.bending, "320");
+}
+
+#[test]
+fn many_points_from_load_case_tables_ranked_in_the_tab_as_on_the_command_line() {
+    // Two invented load-case tables (values made up for the test) and a factor history.
+    let dir = std::env::temp_dir().join(format!("planewise-gui-fatigue-{}", std::process::id()));
+    std::fs::create_dir_all(&dir).unwrap();
+    let bending = dir.join("bending.csv");
+    let torsion = dir.join("torsion.csv");
+    let factors = dir.join("factors.csv");
+    std::fs::write(
+        &bending,
+        "node,xx,yy,zz,xy,yz,zx\n1,100,0,0,0,0,0\n2,220,0,0,0,0,0\n3,150,20,0,10,0,0\n",
+    )
+    .unwrap();
+    std::fs::write(
+        &torsion,
+        "node,xx,yy,zz,xy,yz,zx\n3,0,0,0,60,0,5\n1,0,0,0,100,0,0\n2,0,0,0,90,0,0\n",
+    )
+    .unwrap();
+    let mut text = String::from("step,bending,torsion\n");
+    for i in 0..=24 {
+        let w = 2.0 * std::f64::consts::PI * f64::from(i) / 24.0;
+        writeln!(text, "{i},{},{}", w.sin(), 0.3 + (w - 1.0).sin()).unwrap();
+    }
+    std::fs::write(&factors, text).unwrap();
+    let cli: serde_json::Value = serde_json::from_slice(
+        &planewise_ok(&[
+            "fatigue",
+            "--case-table",
+            &format!("bending={}", bending.display()),
+            "--case-table",
+            &format!("torsion={}", torsion.display()),
+            "--ids",
+            "node",
+            "--factors",
+            factors.to_str().unwrap(),
+            "--bending-limit",
+            "320",
+            "--torsion-limit",
+            "200",
+            "--json",
+        ])
+        .stdout,
+    )
+    .unwrap();
+    let mut h = demo();
+    h.get_by_label("Fatigue").click();
+    h.run();
+    type_into(&mut h, "A CSV", factors.to_str().unwrap());
+    h.get_by_label("fatigue unit").click();
+    h.run();
+    h.get_all_by_label("MPa").last().unwrap().click();
+    h.run();
+    type_into(&mut h, "Fully reversed bending", "320");
+    type_into(&mut h, "Fully reversed torsion", "200");
+    h.get_by_label("Many points").click();
+    h.run();
+    type_into(&mut h, "id columns", "node");
+    type_into(&mut h, "load case 1", "bending");
+    type_into(&mut h, "table 1's path", bending.to_str().unwrap());
+    h.get_by_label("+ table").click();
+    h.run();
+    type_into(&mut h, "load case 2", "torsion");
+    type_into(&mut h, "table 2's path", torsion.to_str().unwrap());
+    h.get_by_label("Rank the points").click();
+    for _ in 0..600 {
+        h.run();
+        if h.state().fatigue_panel.many.ranked.is_some()
+            || h.state().fatigue_panel.many.message.is_some()
+        {
+            break;
+        }
+        std::thread::sleep(std::time::Duration::from_millis(20));
+    }
+    let panel = &h.state().fatigue_panel;
+    assert_eq!(panel.many.message, None);
+    let ranked = panel.many.ranked.as_ref().unwrap();
+    let listed = cli["listed"].as_array().unwrap();
+    assert_eq!(ranked.judged.len(), listed.len());
+    for ((p, j), row) in ranked.judged.iter().zip(listed) {
+        assert_eq!(
+            ranked.source.ids(*p),
+            vec![row["ids"]["node"].as_str().unwrap()]
+        );
+        assert!((j.plane.utilization - row["utilization"].as_f64().unwrap()).abs() < 1e-9);
+    }
+    // Show makes the worst point the tab's point.
+    h.get_all_by_label("Show").next().unwrap().click();
+    h.run();
+    let (loaded, _, judged) = h.state().fatigue_panel.answer.as_ref().unwrap();
+    assert!(loaded.text.starts_with("point node="), "{}", loaded.text);
+    assert!((judged.plane.utilization - listed[0]["utilization"].as_f64().unwrap()).abs() < 1e-9);
 }

@@ -6,13 +6,16 @@
 //! The tab's fields are the window's, not the project's: a history is a file beside the project.
 
 use std::path::PathBuf;
+use std::sync::Arc;
+use std::sync::atomic::{AtomicBool, AtomicUsize, Ordering};
+use std::sync::mpsc::Receiver;
 
 use crate::mechanics::fatigue::{
     Constants, Criterion, FatigueLimits, PathMethod, SearchSettings, SnCurve,
 };
 use crate::mechanics::{SignConvention, StressUnit};
 use crate::picture::draw::egui_backend;
-use crate::study::fatigue::{FATIGUE_CAUTION, FatigueSetup, Judged, LoadedHistory};
+use crate::study::fatigue::{FATIGUE_CAUTION, FatigueSetup, Judged, LoadedHistory, ManyPoints};
 use crate::study::load_history::{read_components, read_factors};
 use crate::study::{Edit, Project};
 use crate::text::format::sig;
@@ -101,6 +104,58 @@ pub struct FatiguePanel {
     fold_inputs: bool,
     /// Which figure the tab shows.
     pub figure: Shown,
+    /// Many points: where they come from, their ids, the running ranking and its answer.
+    pub many: Many,
+}
+
+/// Where many points come from.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Default)]
+pub enum ManyKind {
+    /// Load-case tables, every point under the factor history in the history file field.
+    #[default]
+    Tables,
+    /// The history file is one long table of a history per point.
+    Long,
+}
+
+/// A ranking running in the background.
+struct ManyJob {
+    answer: Receiver<Result<Ranked, String>>,
+    cancel: Arc<AtomicBool>,
+    done: Arc<AtomicUsize>,
+    total: usize,
+}
+
+/// A finished ranking: the points and every judged point, worst first.
+pub struct Ranked {
+    /// The points.
+    pub source: Arc<ManyPoints>,
+    /// Judged points (index into the source), worst first.
+    pub judged: Vec<(usize, Judged)>,
+    /// The settings they were judged with.
+    pub setup: FatigueSetup,
+    /// The files read, with their role.
+    pub files: Vec<(String, PathBuf)>,
+}
+
+/// The many-points section's fields.
+#[derive(Default)]
+pub struct Many {
+    /// The section is open.
+    pub open: bool,
+    /// Where the points come from.
+    pub kind: ManyKind,
+    /// The id columns, comma separated.
+    pub ids: String,
+    /// The time column of a long table.
+    pub time_column: String,
+    /// Load-case tables: (case, path) as typed.
+    pub tables: Vec<(String, String)>,
+    job: Option<ManyJob>,
+    /// The last ranking.
+    pub ranked: Option<Ranked>,
+    /// What went wrong.
+    pub message: Option<String>,
 }
 
 fn number(text: &str, what: &str) -> Result<f64, String> {
@@ -119,7 +174,8 @@ impl FatiguePanel {
         }
     }
 
-    fn try_judge(&mut self, project: &Project) -> Result<(), String> {
+    /// The settings the tab's fields give.
+    fn setup(&self) -> Result<FatigueSetup, String> {
         let unit = self
             .unit
             .ok_or("choose the unit of the history's stresses (a file does not say)")?;
@@ -169,6 +225,24 @@ impl FatiguePanel {
         } else {
             None
         };
+        Ok(FatigueSetup {
+            unit,
+            convention,
+            constants,
+            limits: Some(limits),
+            sn,
+            method: if self.chord {
+                PathMethod::Chord
+            } else {
+                PathMethod::Circle
+            },
+            search: SearchSettings::default(),
+        })
+    }
+
+    fn try_judge(&mut self, project: &Project) -> Result<(), String> {
+        let setup = self.setup()?;
+        let (unit, convention) = (setup.unit, setup.convention);
         let path = PathBuf::from(self.path.trim());
         if self.path.trim().is_empty() {
             return Err("type the history file's path".into());
@@ -204,22 +278,295 @@ impl FatiguePanel {
                 }
             }
         };
-        let setup = FatigueSetup {
-            unit,
-            convention,
-            constants,
-            limits: Some(limits),
-            sn,
-            method: if self.chord {
-                PathMethod::Chord
-            } else {
-                PathMethod::Circle
-            },
-            search: SearchSettings::default(),
-        };
         let judged = Judged::of(&loaded.history, &setup);
         self.answer = Some((loaded, setup, judged));
         Ok(())
+    }
+
+    /// Starts ranking many points in the background.
+    pub fn rank_many(&mut self, ctx: &egui::Context) {
+        self.many.message = None;
+        let setup = match self.setup() {
+            Ok(s) => s,
+            Err(e) => {
+                self.many.message = Some(e);
+                return;
+            }
+        };
+        let ids: Vec<String> = self
+            .many
+            .ids
+            .split(',')
+            .map(|s| s.trim().to_owned())
+            .filter(|s| !s.is_empty())
+            .collect();
+        if ids.is_empty() {
+            self.many.message = Some("name the id columns of the points (e.g. node)".to_owned());
+            return;
+        }
+        let file = PathBuf::from(self.path.trim());
+        let kind = self.many.kind;
+        let time_column = if self.many.time_column.trim().is_empty() {
+            "time".to_owned()
+        } else {
+            self.many.time_column.trim().to_owned()
+        };
+        let tables: Vec<(String, PathBuf)> = self
+            .many
+            .tables
+            .iter()
+            .filter(|(c, f)| !c.trim().is_empty() || !f.trim().is_empty())
+            .map(|(c, f)| (c.trim().to_owned(), PathBuf::from(f.trim())))
+            .collect();
+        let mut files: Vec<(String, PathBuf)> = match kind {
+            ManyKind::Tables => tables
+                .iter()
+                .map(|(c, f)| (format!("load-case table '{c}'"), f.clone()))
+                .collect(),
+            ManyKind::Long => Vec::new(),
+        };
+        files.push((
+            match kind {
+                ManyKind::Tables => "factors in time",
+                ManyKind::Long => "a history per point",
+            }
+            .to_owned(),
+            file.clone(),
+        ));
+        let source = match kind {
+            ManyKind::Tables => {
+                ManyPoints::read_tables(&tables, &ids, &file, setup.unit, setup.convention).map_err(
+                    |e| match e {
+                        crate::study::fatigue::ManyError::Tables(m)
+                        | crate::study::fatigue::ManyError::Factors(m) => m,
+                    },
+                )
+            }
+            ManyKind::Long => {
+                ManyPoints::read_long(&file, &ids, &time_column, setup.unit, setup.convention)
+            }
+        };
+        let source = match source {
+            Ok(s) => Arc::new(s),
+            Err(e) => {
+                self.many.message = Some(e);
+                return;
+            }
+        };
+        let cancel = Arc::new(AtomicBool::new(false));
+        let done = Arc::new(AtomicUsize::new(0));
+        let (tx, rx) = std::sync::mpsc::channel();
+        let (c, d, repaint) = (cancel.clone(), done.clone(), ctx.clone());
+        let total = source.len();
+        std::thread::spawn(move || {
+            let result =
+                crate::study::fatigue::rank(&source, &setup, &d, &c).map(|judged| Ranked {
+                    source,
+                    judged,
+                    setup,
+                    files,
+                });
+            let _ = tx.send(result);
+            repaint.request_repaint();
+        });
+        self.many.job = Some(ManyJob {
+            answer: rx,
+            cancel,
+            done,
+            total,
+        });
+    }
+
+    /// Shows point `p` of the last ranking as the tab's one point.
+    fn show_point(&mut self, rank: usize) {
+        let Some(r) = &self.many.ranked else {
+            return;
+        };
+        let Some((p, judged)) = r.judged.get(rank) else {
+            return;
+        };
+        let Ok(history) = r.source.history(*p) else {
+            return;
+        };
+        let ids = r
+            .source
+            .id_names()
+            .iter()
+            .zip(r.source.ids(*p))
+            .map(|(n, v)| format!("{n}={v}"))
+            .collect::<Vec<_>>()
+            .join(", ");
+        self.answer = Some((
+            LoadedHistory {
+                text: format!("point {ids} of {}", r.source.describe().0),
+                time_name: r.source.time_name().to_owned(),
+                history: history.into_owned(),
+                files: r.files.clone(),
+            },
+            r.setup.clone(),
+            judged.clone(),
+        ));
+        self.map_cache = None;
+    }
+
+    fn many_ui(&mut self, ui: &mut egui::Ui) {
+        ui.horizontal_wrapped(|ui| {
+            ui.radio_value(
+                &mut self.many.kind,
+                ManyKind::Tables,
+                "load-case tables under the factor history in the file above",
+            );
+            ui.radio_value(
+                &mut self.many.kind,
+                ManyKind::Long,
+                "the file above is a long table of a history per point",
+            );
+        });
+        ui.horizontal_wrapped(|ui| {
+            ui.label("Id columns:");
+            ui.add(
+                egui::TextEdit::singleline(&mut self.many.ids)
+                    .hint_text("id columns, e.g. node")
+                    .desired_width(140.0),
+            )
+            .on_hover_text("id columns naming the points, comma separated");
+            if self.many.kind == ManyKind::Long {
+                ui.label("Time column:");
+                ui.add(
+                    egui::TextEdit::singleline(&mut self.many.time_column)
+                        .hint_text("time")
+                        .desired_width(100.0),
+                )
+                .on_hover_text("time column of the long table (default: time)");
+            }
+        });
+        if self.many.kind == ManyKind::Tables {
+            if self.many.tables.is_empty() {
+                self.many.tables.push((String::new(), String::new()));
+            }
+            let mut remove = None;
+            for (i, (case, path)) in self.many.tables.iter_mut().enumerate() {
+                ui.horizontal(|ui| {
+                    ui.add(
+                        egui::TextEdit::singleline(case)
+                            .hint_text("load case")
+                            .desired_width(100.0),
+                    )
+                    .on_hover_text(format!(
+                        "load case {}: as the factor file's column names it",
+                        i + 1
+                    ));
+                    ui.add(
+                        egui::TextEdit::singleline(path)
+                            .hint_text("its table's path")
+                            .desired_width(300.0),
+                    )
+                    .on_hover_text(format!(
+                        "table {}'s path: a header with the id columns and the six components",
+                        i + 1
+                    ));
+                    if ui.button("×").on_hover_text("Remove this table").clicked() {
+                        remove = Some(i);
+                    }
+                });
+            }
+            if let Some(i) = remove {
+                self.many.tables.remove(i);
+            }
+            if ui.button("+ table").clicked() {
+                self.many.tables.push((String::new(), String::new()));
+            }
+        }
+        ui.horizontal(|ui| {
+            if let Some(job) = &self.many.job {
+                ui.add(egui::Spinner::new());
+                ui.label(format!(
+                    "{} of {} points judged",
+                    job.done.load(Ordering::Relaxed),
+                    job.total
+                ));
+                if ui.button("Stop").clicked() {
+                    job.cancel.store(true, Ordering::Relaxed);
+                }
+            } else if ui
+                .button("Rank the points")
+                .on_hover_text("Judge every point with the settings above, in parallel, worst first (by damage with finite life, else by utilization)")
+                .clicked()
+            {
+                self.rank_many(ui.ctx());
+            }
+            if let Some(m) = &self.many.message {
+                ui.colored_label(ui.visuals().error_fg_color, m);
+            }
+        });
+        if let Some(job) = &self.many.job {
+            match job.answer.try_recv() {
+                Ok(Ok(r)) => {
+                    self.many.ranked = Some(r);
+                    self.many.job = None;
+                }
+                Ok(Err(e)) => {
+                    self.many.message = Some(e);
+                    self.many.job = None;
+                }
+                Err(std::sync::mpsc::TryRecvError::Empty) => {
+                    ui.ctx()
+                        .request_repaint_after(std::time::Duration::from_millis(200));
+                }
+                Err(std::sync::mpsc::TryRecvError::Disconnected) => {
+                    self.many.message = Some("the ranking stopped unexpectedly".to_owned());
+                    self.many.job = None;
+                }
+            }
+        }
+        let mut show = None;
+        if let Some(r) = &self.many.ranked {
+            let u = r.setup.unit;
+            let sym = u.symbol();
+            ui.label(format!(
+                "{} points, worst first (the 20 worst; Show makes one the tab's point):",
+                r.judged.len()
+            ));
+            egui::Grid::new("fatigue points")
+                .striped(true)
+                .show(ui, |ui| {
+                    ui.strong(r.source.id_names().join(", "));
+                    ui.strong("utilization");
+                    ui.strong("dip / dip direction");
+                    ui.strong(format!("τa {sym}"));
+                    ui.strong(format!("σn,max {sym}"));
+                    if r.setup.sn.is_some() {
+                        ui.strong("damage per repeat");
+                        ui.strong("life, repeats");
+                    }
+                    ui.end_row();
+                    for (rank, (p, j)) in r.judged.iter().take(20).enumerate() {
+                        ui.label(r.source.ids(*p).join(", "));
+                        ui.label(sig(j.plane.utilization, 4));
+                        ui.label(format!(
+                            "{}° / {}°",
+                            sig(j.plane.dip_deg, 4),
+                            sig(j.plane.dip_direction_deg, 4)
+                        ));
+                        ui.label(sig(u.from_pa(j.plane.value.tau_amplitude_pa), 5));
+                        ui.label(sig(u.from_pa(j.plane.value.sigma_n_max_pa), 5));
+                        if let Some(l) = &j.life {
+                            ui.label(sig(l.damage.damage, 4));
+                            ui.label(
+                                l.life_repeats
+                                    .map_or_else(|| "unlimited".to_owned(), |n| sig(n, 4)),
+                            );
+                        }
+                        if ui.button("Show").clicked() {
+                            show = Some(rank);
+                        }
+                        ui.end_row();
+                    }
+                });
+        }
+        if let Some(rank) = show {
+            self.show_point(rank);
+        }
     }
 
     fn inputs_ui(&mut self, ui: &mut egui::Ui, project: &Project) {
@@ -468,7 +815,15 @@ impl FatiguePanel {
             ui.radio_value(&mut self.figure, Shown::Map, "orientation map");
             ui.radio_value(&mut self.figure, Shown::Components, "components in time");
         });
-        let size = ui.available_size().max(egui::vec2(300.0, 240.0));
+        // The figure keeps a readable height; the tab scrolls when the sections above take
+        // the room.
+        let height = ui.available_height();
+        let height = if height.is_finite() {
+            height.max(440.0)
+        } else {
+            520.0
+        };
+        let size = egui::vec2(ui.available_width().max(300.0), height);
         let (rect, _) = ui.allocate_exact_size(size, egui::Sense::hover());
         let px = [rect.width() as u32, rect.height() as u32];
         let frame = match self.figure {
@@ -517,6 +872,19 @@ impl FatiguePanel {
 
 impl super::Panel for FatiguePanel {
     fn ui(&mut self, ui: &mut egui::Ui, reads: super::Reads<'_>, writes: &mut super::Writes<'_>) {
+        egui::ScrollArea::vertical()
+            .auto_shrink([false, false])
+            .show(ui, |ui| self.contents(ui, reads, writes));
+    }
+}
+
+impl FatiguePanel {
+    fn contents(
+        &mut self,
+        ui: &mut egui::Ui,
+        reads: super::Reads<'_>,
+        writes: &mut super::Writes<'_>,
+    ) {
         let fold = std::mem::take(&mut self.fold_inputs);
         egui::CollapsingHeader::new("History and material")
             .default_open(true)
@@ -545,6 +913,11 @@ impl super::Panel for FatiguePanel {
                     }
                 });
             });
+        ui.checkbox(&mut self.many.open, "Many points")
+            .on_hover_text("Rank every point of load-case tables under a factor history, or of a long table of histories, by the settings above");
+        if self.many.open {
+            ui.indent("many points", |ui| self.many_ui(ui));
+        }
         ui.separator();
         self.answer_ui(ui, &reads.d.plane, writes.commands);
         self.figures_ui(ui, &reads.d.plane);
