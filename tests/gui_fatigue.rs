@@ -30,10 +30,11 @@ fn demo() -> Harness<'static, PlanewiseApp> {
 
 const HISTORY: &str = "examples/fatigue-shaft/history.csv";
 
-fn fill(h: &mut Harness<'static, PlanewiseApp>) {
+/// Opens the Fatigue tab and types the history file, its unit and the two fatigue limits.
+fn fill(h: &mut Harness<'static, PlanewiseApp>, history: &str) {
     h.get_by_label("Fatigue").click();
     h.run();
-    type_into(h, "A CSV", HISTORY);
+    type_into(h, "A CSV", history);
     h.get_by_label("fatigue unit").click();
     h.run();
     h.get_all_by_label("MPa").last().unwrap().click();
@@ -45,7 +46,7 @@ fn fill(h: &mut Harness<'static, PlanewiseApp>) {
 #[test]
 fn a_history_typed_in_is_judged_as_on_the_command_line() {
     let mut h = demo();
-    fill(&mut h);
+    fill(&mut h, HISTORY);
     h.get_by_label("Judge").click();
     h.run();
     let cli: serde_json::Value = serde_json::from_slice(
@@ -148,15 +149,7 @@ fn many_points_from_load_case_tables_ranked_in_the_tab_as_on_the_command_line() 
     )
     .unwrap();
     let mut h = demo();
-    h.get_by_label("Fatigue").click();
-    h.run();
-    type_into(&mut h, "A CSV", factors.to_str().unwrap());
-    h.get_by_label("fatigue unit").click();
-    h.run();
-    h.get_all_by_label("MPa").last().unwrap().click();
-    h.run();
-    type_into(&mut h, "Fully reversed bending", "320");
-    type_into(&mut h, "Fully reversed torsion", "200");
+    fill(&mut h, factors.to_str().unwrap());
     h.get_by_label("Many points").click();
     h.run();
     type_into(&mut h, "id columns", "node");

@@ -88,17 +88,20 @@ fn located(file: &Path, e: &HistoryError) -> String {
     format!("{}: {e}", file.display())
 }
 
-/// A history of the six components, in `unit` and `convention`, with its time column's name;
-/// every component must have a column (a missing one is an error naming it, never a zero).
-pub fn read_components(
-    path: &Path,
-    unit: StressUnit,
-    convention: SignConvention,
-) -> Result<(StressHistory, String), String> {
-    let cols = read_columns(path)?;
-    let file = path.display();
+/// The column of each component (xx, yy, zz, xy, yz, zx) among `names`, skipping the columns
+/// in `skip`; `other` says what else a column may be, for the error of one that is nothing.
+/// Every component must have a column: a missing one is an error naming it, never a zero.
+fn component_columns(
+    file: &std::path::Display<'_>,
+    names: &[String],
+    skip: &[usize],
+    other: &str,
+) -> Result<[usize; 6], String> {
     let mut index = [None; 6];
-    for (i, name) in cols.names.iter().enumerate() {
+    for (i, name) in names.iter().enumerate() {
+        if skip.contains(&i) {
+            continue;
+        }
         match component_of(name) {
             Some(c) if index[c].is_some() => {
                 return Err(format!(
@@ -106,11 +109,7 @@ pub fn read_components(
                 ));
             }
             Some(c) => index[c] = Some(i),
-            None => {
-                return Err(format!(
-                    "{file}:1: column '{name}' is not a stress component (xx, yy, zz, xy, yz, zx, or S11…S13)"
-                ));
-            }
+            None => return Err(format!("{file}:1: column '{name}' is {other}")),
         }
     }
     let keys = ["xx", "yy", "zz", "xy", "yz", "zx"];
@@ -126,6 +125,24 @@ pub fn read_components(
             missing.join(", ")
         ));
     }
+    Ok(index.map(Option::unwrap_or_default))
+}
+
+/// A history of the six components, in `unit` and `convention`, with its time column's name;
+/// every component must have a column (a missing one is an error naming it, never a zero).
+pub fn read_components(
+    path: &Path,
+    unit: StressUnit,
+    convention: SignConvention,
+) -> Result<(StressHistory, String), String> {
+    let cols = read_columns(path)?;
+    let file = path.display();
+    let index = component_columns(
+        &file,
+        &cols.names,
+        &[],
+        "not a stress component (xx, yy, zz, xy, yz, zx, or S11…S13)",
+    )?;
     let sign = convention.sign();
     let tensors = cols
         .rows
@@ -133,9 +150,7 @@ pub fn read_components(
         .map(|row| {
             let mut t = [0.0; 6];
             for (c, i) in index.iter().enumerate() {
-                if let Some(i) = i {
-                    t[c] = sign * unit.to_pa(row[*i]);
-                }
+                t[c] = sign * unit.to_pa(row[*i]);
             }
             t
         })
@@ -269,38 +284,14 @@ pub fn read_point_histories(
             names.join(", ")
         )
     })?;
-    let mut component = [None; 6];
-    for (i, name) in names.iter().enumerate() {
-        if id_index.contains(&i) || i == time_index {
-            continue;
-        }
-        match component_of(name) {
-            Some(c) if component[c].is_none() => component[c] = Some(i),
-            Some(_) => {
-                return Err(format!(
-                    "{file}:1: column '{name}' is a second column for the same component"
-                ));
-            }
-            None => {
-                return Err(format!(
-                    "{file}:1: column '{name}' is neither an id, the time nor a stress component"
-                ));
-            }
-        }
-    }
-    let keys = ["xx", "yy", "zz", "xy", "yz", "zx"];
-    let missing: Vec<&str> = keys
-        .iter()
-        .zip(component)
-        .filter(|(_, i)| i.is_none())
-        .map(|(k, _)| *k)
-        .collect();
-    if !missing.is_empty() {
-        return Err(format!(
-            "{file}:1: no column for {} (all six components are needed; write 0 where a component is zero)",
-            missing.join(", ")
-        ));
-    }
+    let mut skip = id_index.clone();
+    skip.push(time_index);
+    let component = component_columns(
+        &file,
+        &names,
+        &skip,
+        "neither an id, the time nor a stress component",
+    )?;
     let sign = convention.sign();
     let mut order: Vec<Vec<String>> = Vec::new();
     let mut index: std::collections::HashMap<Vec<String>, usize> = std::collections::HashMap::new();
@@ -326,9 +317,7 @@ pub fn read_point_histories(
         });
         let mut t = [0.0; 6];
         for (c, i) in component.iter().enumerate() {
-            if let Some(i) = i {
-                t[c] = sign * unit.to_pa(number(*i)?);
-            }
+            t[c] = sign * unit.to_pa(number(*i)?);
         }
         rows[p].0.push(number(time_index)?);
         rows[p].1.push(t);

@@ -123,6 +123,39 @@ fn tick_labels(ticks: &[f64], unit: Option<StressUnit>) -> Vec<String> {
     shown.iter().map(|v| readable(*v, digits)).collect()
 }
 
+/// Draws an axis box of time across (`t0` to `t1`) and stress up (`mid` ± `span`/2, Pa) with
+/// about `count` round ticks on each.
+#[expect(
+    clippy::too_many_arguments,
+    reason = "one axis box, its two ranges and its labels"
+)]
+fn time_stress_axes(
+    frame: &mut Frame,
+    b: Box2,
+    (t0, t1): (f64, f64),
+    (mid, span): (f64, f64),
+    unit: StressUnit,
+    count: f64,
+    labels: [&str; 2],
+    sizes: Sizes,
+) {
+    let tx = |t: f64| b.x + ((t - t0) / (t1 - t0)) as f32 * b.w;
+    let vy = |v: f64| b.y + (0.5 - (v - mid) / span) as f32 * b.h;
+    let tt = chart::round_ticks(t0, t1, count);
+    let ts: Vec<(f32, String)> = tt
+        .iter()
+        .map(|v| tx(*v))
+        .zip(tick_labels(&tt, None))
+        .collect();
+    let vt = stress_ticks(mid - 0.5 * span, mid + 0.5 * span, count, unit);
+    let vs: Vec<(f32, String)> = vt
+        .iter()
+        .map(|v| vy(*v))
+        .zip(tick_labels(&vt, Some(unit)))
+        .collect();
+    axes(frame, b, &ts, &vs, labels, sizes);
+}
+
 /// The figure, `width` × `height` pixels.
 #[must_use]
 pub fn path_frame(fig: &PathFigure, width: u32, height: u32, sizes: Sizes) -> Frame {
@@ -279,20 +312,17 @@ pub fn path_frame(fig: &PathFigure, width: u32, height: u32, sizes: Sizes) -> Fr
             });
         }
     }
-    let tt = chart::round_ticks(t0, t1, 5.0);
-    let ts: Vec<(f32, String)> = tt
-        .iter()
-        .map(|v| tx(*v))
-        .zip(tick_labels(&tt, None))
-        .collect();
-    let vt = stress_ticks(vmid - 0.5 * vspan, vmid + 0.5 * vspan, 5.0, u);
-    let vs: Vec<(f32, String)> = vt
-        .iter()
-        .map(|v| vy(*v))
-        .zip(tick_labels(&vt, Some(u)))
-        .collect();
     let vlabel = format!("σn and |τ|, {sym}");
-    axes(&mut frame, tb, &ts, &vs, [&fig.time_label, &vlabel], sizes);
+    time_stress_axes(
+        &mut frame,
+        tb,
+        (t0, t1),
+        (vmid, vspan),
+        u,
+        5.0,
+        [&fig.time_label, &vlabel],
+        sizes,
+    );
     for (values, color) in [(&shown_n, style::NORMAL_PART), (&mag, style::SHEAR_PART)] {
         let pts: Vec<[f32; 2]> = fig
             .time
@@ -373,20 +403,17 @@ pub fn components_frame(
     let mid = 0.5 * (hi + lo);
     let tx = |t: f64| b.x + ((t - t0) / (t1 - t0)) as f32 * b.w;
     let vy = |v: f64| b.y + (0.5 - (v - mid) / span) as f32 * b.h;
-    let tt = chart::round_ticks(t0, t1, 6.0);
-    let ts: Vec<(f32, String)> = tt
-        .iter()
-        .map(|v| tx(*v))
-        .zip(tick_labels(&tt, None))
-        .collect();
-    let vt = stress_ticks(mid - 0.5 * span, mid + 0.5 * span, 6.0, unit);
-    let vs: Vec<(f32, String)> = vt
-        .iter()
-        .map(|v| vy(*v))
-        .zip(tick_labels(&vt, Some(unit)))
-        .collect();
     let vlabel = format!("stress, {}", unit.symbol());
-    axes(&mut frame, b, &ts, &vs, [time_label, &vlabel], sizes);
+    time_stress_axes(
+        &mut frame,
+        b,
+        (t0, t1),
+        (mid, span),
+        unit,
+        6.0,
+        [time_label, &vlabel],
+        sizes,
+    );
     // Components that are zero at every step are named in the key, not drawn.
     let scale = hi.max(-lo);
     let zero: Vec<bool> = (0..6)
