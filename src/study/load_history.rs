@@ -346,9 +346,15 @@ pub fn read_point_histories(
 mod tests {
     use super::*;
 
+    /// Writes `text` to a file named `name` in a folder of its own (tests run in parallel and
+    /// two of them write a file of the same name).
     fn write(name: &str, text: &str) -> std::path::PathBuf {
-        let dir =
-            std::env::temp_dir().join(format!("planewise-load-history-{}", std::process::id()));
+        static CALLS: std::sync::atomic::AtomicUsize = std::sync::atomic::AtomicUsize::new(0);
+        let call = CALLS.fetch_add(1, std::sync::atomic::Ordering::Relaxed);
+        let dir = std::env::temp_dir().join(format!(
+            "planewise-load-history-{}-{call}",
+            std::process::id()
+        ));
         std::fs::create_dir_all(&dir).unwrap();
         let p = dir.join(name);
         std::fs::write(&p, text).unwrap();
