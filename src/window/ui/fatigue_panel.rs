@@ -819,7 +819,7 @@ impl FatiguePanel {
         // the room.
         let height = ui.available_height();
         let height = if height.is_finite() {
-            height.max(440.0)
+            height.max(300.0)
         } else {
             520.0
         };
