@@ -23,6 +23,7 @@ fn demo_input(t: &StressTensor) -> SceneInput<'_> {
         },
         faces: FaceChoice::FacingViewer,
         worst_planes: &[],
+        marked_plane: None,
     }
 }
 

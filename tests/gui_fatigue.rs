@@ -70,6 +70,17 @@ fn a_history_typed_in_is_judged_as_on_the_command_line() {
     h.get_by_label_contains(&shown);
     let (_, _, judged) = h.state().fatigue_panel.answer.as_ref().unwrap();
     let normal = judged.plane.normal;
+    // The critical plane is marked in the 3D view, named, until the box says not to.
+    let (marked, label) = h.state().settings.fatigue_plane.clone().unwrap();
+    assert!((marked.vector() - nalgebra::Vector3::from(normal)).norm() < 1e-12);
+    assert_eq!(label, "Findley critical plane");
+    h.get_by_label("3D view").click();
+    h.run();
+    h.get_by_label("Fatigue").click();
+    h.run();
+    h.get_by_label("mark it in the 3D view").click();
+    h.run();
+    assert_eq!(h.state().settings.fatigue_plane, None);
     // The critical plane becomes the cut plane, and one undo takes it back.
     let before = h.state().project.plane;
     h.get_by_label("Make it the cut plane").click();

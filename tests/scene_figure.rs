@@ -41,6 +41,7 @@ fn input(t: &StressTensor, layers: Layers) -> SceneInput<'_> {
         layers,
         faces: FaceChoice::Chosen([true; 6]),
         worst_planes: &[],
+        marked_plane: None,
     }
 }
 
@@ -320,6 +321,7 @@ fn worst_planes_are_outlined_in_their_planes_on_the_cube() {
     ];
     let scene_input = SceneInput {
         worst_planes: &worst,
+        marked_plane: None,
         ..input(&t, only(|l| l.worst_planes = true))
     };
     let scene = Scene::build(&scene_input, &Vector3::z());
@@ -346,6 +348,7 @@ fn worst_planes_are_outlined_in_their_planes_on_the_cube() {
     // The layer off draws nothing of them even with planes given.
     let off = SceneInput {
         worst_planes: &worst,
+        marked_plane: None,
         ..input(&t, only(|l| l.cube = true))
     };
     let scene = Scene::build(&off, &Vector3::z());
@@ -526,4 +529,44 @@ fn ellipsoid_vertices_lie_on_the_surface_with_semi_axes_the_principal_magnitudes
             .sum();
         assert!((sum - 1.0).abs() < 1e-9, "{v}: {sum}");
     }
+}
+
+#[test]
+fn a_marked_plane_is_drawn_named_and_in_the_key() {
+    // The Fatigue tab's critical plane: its outline lies in the plane through the centre, its
+    // name is a label at the tip of its normal, and the key names it.
+    let t = demo_tensor();
+    let n = PlaneNormal::from_vector(Vector3::new(0.0, 0.6, 0.8)).unwrap();
+    let plain = Scene::build(
+        &input(&t, only(|l| l.legend = true)),
+        &Vector3::new(1.0, 1.0, 1.0),
+    );
+    let marked = Scene::build(
+        &SceneInput {
+            marked_plane: Some((n, "Findley critical plane")),
+            ..input(&t, only(|l| l.legend = true))
+        },
+        &Vector3::new(1.0, 1.0, 1.0),
+    );
+    let added = &marked.segments[plain.segments.len()..];
+    assert!(!added.is_empty());
+    for s in added {
+        assert!(s.a.coords.dot(&n.vector()).abs() < 1e-9);
+        assert!(s.b.coords.dot(&n.vector()).abs() < 1e-9);
+    }
+    assert!(
+        marked
+            .labels
+            .iter()
+            .any(|l| l.text == "Findley critical plane")
+    );
+    assert!(
+        marked
+            .legend
+            .as_ref()
+            .unwrap()
+            .entries
+            .iter()
+            .any(|e| e.text.starts_with("Findley critical plane"))
+    );
 }

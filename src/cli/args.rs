@@ -308,6 +308,7 @@ impl StressInput {
             envelope: None,
             map_range: None,
             notes: view.map(|v| v.notes.clone()).unwrap_or_default(),
+            marked_plane: None,
         }
     }
 }

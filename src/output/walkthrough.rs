@@ -381,6 +381,7 @@ pub fn step_figure_keyed(
                 layers,
                 faces: crate::picture::scene::FaceChoice::FacingViewer,
                 worst_planes: &[],
+                marked_plane: None,
             },
             &step.camera.towards_eye(),
         );

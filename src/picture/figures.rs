@@ -41,6 +41,9 @@ pub struct FigureInput {
     pub map_range: Option<(f64, f64)>,
     /// The shown case's captions and pinned notes (each names its figure).
     pub notes: Vec<Annotation>,
+    /// A plane another study marks in the 3D view (the Fatigue tab's critical plane), with its
+    /// label.
+    pub marked_plane: Option<(PlaneNormal, String)>,
 }
 
 impl FigureInput {
@@ -66,6 +69,7 @@ impl FigureInput {
             envelope,
             map_range: None,
             notes: d.notes.clone(),
+            marked_plane: None,
         }
     }
 
@@ -136,6 +140,10 @@ pub fn view_3d(
         layers,
         faces,
         worst_planes: &worst,
+        marked_plane: input
+            .marked_plane
+            .as_ref()
+            .map(|(n, label)| (*n, label.as_str())),
     };
     let mut built = crate::picture::scene::Scene::build(&scene, &camera.towards_eye());
     built.notes = space_notes(&input.notes);

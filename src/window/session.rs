@@ -49,6 +49,10 @@ pub struct Settings {
     pub show_results: bool,
     /// Dark panels instead of the light default (the figures stay on paper white).
     pub dark: bool,
+    /// The Fatigue tab's critical plane, marked in the 3D view while the tab asks (never
+    /// saved: it belongs to a history read in this run).
+    #[serde(skip)]
+    pub fatigue_plane: Option<(crate::mechanics::PlaneNormal, String)>,
 }
 
 /// How many recent files File → Open recent lists.
@@ -145,6 +149,7 @@ impl Default for Settings {
             show_inputs: true,
             show_results: true,
             dark: false,
+            fatigue_plane: None,
         }
     }
 }

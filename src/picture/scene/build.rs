@@ -142,6 +142,7 @@ impl Scene {
         if layers.principal_axes {
             scene.add_principal_axes(&cx);
         }
+        scene.add_marked_plane(&cx);
         if layers.worst_planes {
             scene.add_worst_planes(&cx);
         }
@@ -521,6 +522,37 @@ impl Scene {
         }
     }
 
+    /// A plane another study marks (the Fatigue tab's critical plane): outline, normal arrow
+    /// and its label, in ink so it stands apart from the cut plane and the worst planes.
+    fn add_marked_plane(&mut self, cx: &Context<'_>) {
+        let Some((plane, label)) = cx.input.marked_plane else {
+            return;
+        };
+        let n = plane.vector();
+        let outline = cut_polygon(&n);
+        for (k, a) in outline.iter().enumerate() {
+            let b = outline[(k + 1) % outline.len()];
+            self.segments.push(Segment {
+                a: *a,
+                b,
+                color: style::INK,
+                width_px: 2.4,
+            });
+        }
+        push_arrow(
+            &mut self.arrows,
+            Point3::origin(),
+            n * (0.9 * NORMAL_LENGTH),
+            style::INK,
+            1.6,
+        );
+        self.labels.push(Label {
+            at: Point3::from(n * (0.9 * NORMAL_LENGTH + 0.04)),
+            text: label.to_owned(),
+            color: style::INK,
+        });
+    }
+
     fn add_legend(&mut self, cx: &Context<'_>) {
         let sym = cx.input.unit.symbol();
         // Round in the display unit (500 psi, not a converted round number of pascals).
@@ -539,7 +571,17 @@ impl Scene {
             } else {
                 "zero stress".to_owned()
             },
-            entries: legend_entries(cx.input.layers, !cx.input.worst_planes.is_empty()),
+            entries: {
+                let mut entries =
+                    legend_entries(cx.input.layers, !cx.input.worst_planes.is_empty());
+                if let Some((_, label)) = cx.input.marked_plane {
+                    entries.push(LegendEntry {
+                        color: style::INK,
+                        text: format!("{label} (outline, normal)"),
+                    });
+                }
+                entries
+            },
         });
     }
 }

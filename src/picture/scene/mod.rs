@@ -176,6 +176,9 @@ pub struct SceneInput<'a> {
     pub faces: FaceChoice,
     /// The worst planes of the chosen measure, drawn when that layer is on.
     pub worst_planes: &'a [PlaneNormal],
+    /// A plane marked by another study (the Fatigue tab's critical plane), with its label;
+    /// drawn whenever given.
+    pub marked_plane: Option<(PlaneNormal, &'a str)>,
 }
 
 /// An arrow from `from` to `to` (world units).

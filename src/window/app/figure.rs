@@ -16,7 +16,10 @@ impl PlanewiseApp {
         let [w, h] = self.settings.export_size;
         let d = Derived::new(&self.project);
         let settings = &self.settings;
-        let input = FigureInput::from_derived(&d, settings.mohr_envelope);
+        let input = FigureInput {
+            marked_plane: settings.fatigue_plane.clone(),
+            ..FigureInput::from_derived(&d, settings.mohr_envelope)
+        };
         let sizes = crate::picture::draw::Sizes::for_export(w as f32, h as f32);
         let kind = match settings.central {
             Central::Map => FigureKind::Map,

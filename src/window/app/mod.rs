@@ -366,6 +366,11 @@ impl PlanewiseApp {
             layers: self.settings.layers,
             faces: self.settings.faces,
             worst_planes,
+            marked_plane: self
+                .settings
+                .fatigue_plane
+                .as_ref()
+                .map(|(n, label)| (*n, label.as_str())),
         }
     }
 

@@ -104,6 +104,8 @@ pub struct FatiguePanel {
     fold_inputs: bool,
     /// Which figure the tab shows.
     pub figure: Shown,
+    /// Do not mark the critical plane in the 3D view.
+    pub hide_in_3d: bool,
     /// Many points: where they come from, their ids, the running ranking and its answer.
     pub many: Many,
 }
@@ -724,6 +726,14 @@ impl FatiguePanel {
                 sig(u.from_pa(p.value.tau_amplitude_pa), 5),
                 sig(u.from_pa(p.value.sigma_n_max_pa), 5)
             ));
+            let mut shown = !self.hide_in_3d;
+            if ui
+                .checkbox(&mut shown, "mark it in the 3D view")
+                .on_hover_text("The 3D view (and the figure it exports) draws the critical plane's outline and normal in ink, with its name")
+                .changed()
+            {
+                self.hide_in_3d = !shown;
+            }
             if ui
                 .button("Make it the cut plane")
                 .on_hover_text("The project's cut plane becomes the critical plane, so the 3D view, the map and the Mohr circles show it (one undo step)")
@@ -919,6 +929,21 @@ impl FatiguePanel {
             ui.indent("many points", |ui| self.many_ui(ui));
         }
         ui.separator();
+        // The critical plane marked in the 3D view (and its exported figure) while asked.
+        writes.settings.fatigue_plane = if self.hide_in_3d {
+            None
+        } else {
+            self.answer.as_ref().and_then(|(_, setup, judged)| {
+                crate::mechanics::PlaneNormal::try_from(judged.plane.normal)
+                    .ok()
+                    .map(|n| {
+                        (
+                            n,
+                            format!("{} critical plane", setup.constants.criterion.label()),
+                        )
+                    })
+            })
+        };
         self.answer_ui(ui, &reads.d.plane, writes.commands);
         self.figures_ui(ui, &reads.d.plane);
     }

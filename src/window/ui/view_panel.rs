@@ -138,6 +138,7 @@ fn view_ui(
     let (rect, response) = ui.allocate_exact_size(size, egui::Sense::click_and_drag());
     response.widget_info(|| egui::WidgetInfo::labeled(egui::Role::Image, true, "3D view picture"));
     let worst = worst_normals(d, settings);
+    let marked = settings.fatigue_plane.clone();
     let input = |settings: &Settings| SceneInput {
         tensor: &d.tensor,
         plane: d.plane,
@@ -146,6 +147,7 @@ fn view_ui(
         layers: settings.layers,
         faces: settings.faces,
         worst_planes: &worst,
+        marked_plane: marked.as_ref().map(|(n, label)| (*n, label.as_str())),
     };
 
     // The normal's handle: where it is on screen now, and whether a drag holds it.
