@@ -495,23 +495,7 @@ impl Scene {
     fn add_worst_planes(&mut self, cx: &Context<'_>) {
         for (i, plane) in cx.input.worst_planes.iter().enumerate() {
             let n = plane.vector();
-            let outline = cut_polygon(&n);
-            for (k, a) in outline.iter().enumerate() {
-                let b = outline[(k + 1) % outline.len()];
-                self.segments.push(Segment {
-                    a: *a,
-                    b,
-                    color: style::WORST_PLANE,
-                    width_px: 2.0,
-                });
-            }
-            push_arrow(
-                &mut self.arrows,
-                Point3::origin(),
-                n * (0.8 * NORMAL_LENGTH),
-                style::WORST_PLANE,
-                1.4,
-            );
+            self.add_plane_outline(&n, style::WORST_PLANE, 2.0, 0.8);
             if cx.input.layers.labels {
                 self.labels.push(Label {
                     at: Point3::from(n * (0.8 * NORMAL_LENGTH + 0.03)),
@@ -522,6 +506,28 @@ impl Scene {
         }
     }
 
+    /// A plane's outline in the cube, `width_px` wide, and its normal from the centre,
+    /// `reach` normal lengths long (its shaft 0.7 of the outline's width), in `color`.
+    fn add_plane_outline(&mut self, n: &Vector3<f64>, color: Rgba, width_px: f32, reach: f64) {
+        let outline = cut_polygon(n);
+        for (k, a) in outline.iter().enumerate() {
+            let b = outline[(k + 1) % outline.len()];
+            self.segments.push(Segment {
+                a: *a,
+                b,
+                color,
+                width_px,
+            });
+        }
+        push_arrow(
+            &mut self.arrows,
+            Point3::origin(),
+            n * (reach * NORMAL_LENGTH),
+            color,
+            0.7 * width_px,
+        );
+    }
+
     /// A plane another study marks (the Fatigue tab's critical plane): outline, normal arrow
     /// and its label, in ink so it stands apart from the cut plane and the worst planes.
     fn add_marked_plane(&mut self, cx: &Context<'_>) {
@@ -529,23 +535,7 @@ impl Scene {
             return;
         };
         let n = plane.vector();
-        let outline = cut_polygon(&n);
-        for (k, a) in outline.iter().enumerate() {
-            let b = outline[(k + 1) % outline.len()];
-            self.segments.push(Segment {
-                a: *a,
-                b,
-                color: style::INK,
-                width_px: 2.4,
-            });
-        }
-        push_arrow(
-            &mut self.arrows,
-            Point3::origin(),
-            n * (0.9 * NORMAL_LENGTH),
-            style::INK,
-            1.6,
-        );
+        self.add_plane_outline(&n, style::INK, 2.4, 0.9);
         self.labels.push(Label {
             at: Point3::from(n * (0.9 * NORMAL_LENGTH + 0.04)),
             text: label.to_owned(),
