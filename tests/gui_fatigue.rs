@@ -171,8 +171,10 @@ fn many_points_from_load_case_tables_ranked_in_the_tab_as_on_the_command_line() 
     type_into(&mut h, "load case 2", "torsion");
     type_into(&mut h, "table 2's path", torsion.to_str().unwrap());
     h.get_by_label("Rank the points").click();
+    // While the ranking runs the spinner repaints every frame: step frame by frame (run()
+    // waits for a settled frame) until the answer arrives.
     for _ in 0..600 {
-        h.run();
+        h.step();
         if h.state().fatigue_panel.many.ranked.is_some()
             || h.state().fatigue_panel.many.message.is_some()
         {
@@ -180,6 +182,7 @@ fn many_points_from_load_case_tables_ranked_in_the_tab_as_on_the_command_line() 
         }
         std::thread::sleep(std::time::Duration::from_millis(20));
     }
+    h.run();
     let panel = &h.state().fatigue_panel;
     assert_eq!(panel.many.message, None);
     let ranked = panel.many.ranked.as_ref().unwrap();
