@@ -34,7 +34,7 @@ fn history(steps: usize) -> StressHistory {
 fn fatigue(c: &mut Criterion) {
     let h = history(1000);
     let limits = FatigueLimits {
-        bending_pa: 320e6,
+        bending_pa: Some(320e6),
         torsion_pa: 200e6,
         tensile_strength_pa: Some(800e6),
     };

@@ -27,7 +27,7 @@ const MPA: f64 = 1e6;
 /// σu = 700 MPa.
 fn limits() -> FatigueLimits {
     FatigueLimits {
-        bending_pa: 300.0 * MPA,
+        bending_pa: Some(300.0 * MPA),
         torsion_pa: 200.0 * MPA,
         tensile_strength_pa: Some(700.0 * MPA),
     }

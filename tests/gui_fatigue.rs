@@ -43,26 +43,21 @@ fn fill(h: &mut Harness<'static, PlanewiseApp>, history: &str) {
     type_into(h, "Fully reversed torsion", "200");
 }
 
+/// `planewise fatigue ARGS` with the tab's limits (f₋₁ 320, t₋₁ 200 MPa) as JSON.
+fn fatigue_json(args: &[&str]) -> serde_json::Value {
+    let mut full = vec!["fatigue"];
+    full.extend_from_slice(args);
+    full.extend(["--bending-limit", "320", "--torsion-limit", "200", "--json"]);
+    serde_json::from_slice(&planewise_ok(&full).stdout).unwrap()
+}
+
 #[test]
 fn a_history_typed_in_is_judged_as_on_the_command_line() {
     let mut h = demo();
     fill(&mut h, HISTORY);
     h.get_by_label("Judge").click();
     h.run();
-    let cli: serde_json::Value = serde_json::from_slice(
-        &planewise_ok(&[
-            "fatigue",
-            "--history",
-            HISTORY,
-            "--bending-limit",
-            "320",
-            "--torsion-limit",
-            "200",
-            "--json",
-        ])
-        .stdout,
-    )
-    .unwrap();
+    let cli = fatigue_json(&["--history", HISTORY]);
     let shown = format!(
         "Utilization {}",
         planewise::text::format::sig(cli["utilization"].as_f64().unwrap(), 4)
@@ -139,26 +134,16 @@ fn many_points_from_load_case_tables_ranked_in_the_tab_as_on_the_command_line() 
         writeln!(text, "{i},{},{}", w.sin(), 0.3 + (w - 1.0).sin()).unwrap();
     }
     std::fs::write(&factors, text).unwrap();
-    let cli: serde_json::Value = serde_json::from_slice(
-        &planewise_ok(&[
-            "fatigue",
-            "--case-table",
-            &format!("bending={}", bending.display()),
-            "--case-table",
-            &format!("torsion={}", torsion.display()),
-            "--ids",
-            "node",
-            "--factors",
-            factors.to_str().unwrap(),
-            "--bending-limit",
-            "320",
-            "--torsion-limit",
-            "200",
-            "--json",
-        ])
-        .stdout,
-    )
-    .unwrap();
+    let cli = fatigue_json(&[
+        "--case-table",
+        &format!("bending={}", bending.display()),
+        "--case-table",
+        &format!("torsion={}", torsion.display()),
+        "--ids",
+        "node",
+        "--factors",
+        factors.to_str().unwrap(),
+    ]);
     let mut h = demo();
     fill(&mut h, factors.to_str().unwrap());
     h.get_by_label("Many points").click();

@@ -11,8 +11,8 @@ use serde::Serialize;
 use super::{ArgError, CliError, values};
 use crate::mechanics::fatigue::life::WorstCycle;
 use crate::mechanics::fatigue::{
-    Constants, Criterion, CriticalPlane, DamagePlane, FatigueLimits, PathMethod, SearchSettings,
-    SnCurve, StressHistory,
+    Constants, Criterion, CriticalPlane, DamagePlane, FatigueLimits, Limit, PathMethod, SnCurve,
+    StressHistory,
 };
 use crate::mechanics::{SignConvention, StressUnit};
 use crate::picture::draw::Sizes;
@@ -144,115 +144,70 @@ fn stress(arg: &'static str, text: &str, unit: StressUnit) -> Result<f64, ArgErr
     super::stress_value(arg, text, unit)
 }
 
+/// The argument that gives `limit`.
+fn limit_arg(limit: Limit) -> &'static str {
+    match limit {
+        Limit::Bending => "--bending-limit",
+        Limit::Torsion => "--torsion-limit",
+        Limit::TensileStrength => "--tensile-strength",
+    }
+}
+
 /// The settings the arguments give, stresses read in `unit`.
 fn read_setup(args: &FatigueArgs, unit: StressUnit) -> Result<FatigueSetup, ArgError> {
-    {
-        let convention = if args.compression_positive {
-            SignConvention::CompressionPositive
-        } else {
-            SignConvention::TensionPositive
-        };
-        let (constants, limits) = if let (Some(k), Some(limit)) = (&args.coefficient, &args.limit) {
-            if args.bending_limit.is_some() || args.torsion_limit.is_some() {
-                return Err(ArgError::new(
-                    "--coefficient",
-                    "give the criterion's constants or the fatigue limits, not both",
-                ));
-            }
-            let k = crate::text::parse::number(k).map_err(|e| ArgError::new("--coefficient", e))?;
-            let limit = stress("--limit", limit, unit)?;
-            (
-                Constants::given(args.criterion, k, limit)
-                    .map_err(|e| ArgError::new("--limit", e))?,
-                None,
-            )
-        } else {
-            fn need<'a>(a: Option<&'a str>, name: &'static str) -> Result<&'a str, ArgError> {
-                a.ok_or_else(|| {
-                    ArgError::new(
-                        name,
-                        "the fatigue limits are needed (--bending-limit and --torsion-limit), or the criterion's constants (--coefficient and --limit)",
-                    )
-                })
-            }
-            let torsion = stress(
+    let convention = if args.compression_positive {
+        SignConvention::CompressionPositive
+    } else {
+        SignConvention::TensionPositive
+    };
+    let optional = |text: &Option<String>, arg: &'static str| {
+        text.as_deref().map(|t| stress(arg, t, unit)).transpose()
+    };
+    let (constants, limits) = if let (Some(k), Some(limit)) = (&args.coefficient, &args.limit) {
+        if args.bending_limit.is_some() || args.torsion_limit.is_some() {
+            return Err(ArgError::new(
+                "--coefficient",
+                "give the criterion's constants or the fatigue limits, not both",
+            ));
+        }
+        let k = crate::text::parse::number(k).map_err(|e| ArgError::new("--coefficient", e))?;
+        let limit = stress("--limit", limit, unit)?;
+        (
+            Constants::given(args.criterion, k, limit).map_err(|e| ArgError::new("--limit", e))?,
+            None,
+        )
+    } else {
+        let torsion = optional(&args.torsion_limit, "--torsion-limit")?.ok_or_else(|| {
+            ArgError::new(
                 "--torsion-limit",
-                need(args.torsion_limit.as_deref(), "--torsion-limit")?,
-                unit,
-            )?;
-            let bending = if args.criterion == Criterion::McDiarmid {
-                args.bending_limit
-                    .as_deref()
-                    .map(|b| stress("--bending-limit", b, unit))
-                    .transpose()?
-                    .unwrap_or(f64::NAN)
-            } else {
-                stress(
-                    "--bending-limit",
-                    need(args.bending_limit.as_deref(), "--bending-limit")?,
-                    unit,
-                )?
-            };
-            let tensile = args
-                .tensile_strength
-                .as_deref()
-                .map(|t| stress("--tensile-strength", t, unit))
-                .transpose()?;
-            let limits = FatigueLimits {
-                bending_pa: bending,
-                torsion_pa: torsion,
-                tensile_strength_pa: tensile,
-            };
-            let arg = if args.criterion == Criterion::McDiarmid {
-                "--tensile-strength"
-            } else {
-                "--bending-limit"
-            };
-            let derived = if args.criterion == Criterion::McDiarmid {
-                // McDiarmid reads t₋₁ and σu only.
-                Constants::derive(
-                    args.criterion,
-                    &FatigueLimits {
-                        bending_pa: 1.0,
-                        ..limits
-                    },
-                )
-            } else {
-                Constants::derive(args.criterion, &limits)
-            };
-            (derived.map_err(|e| ArgError::new(arg, e))?, Some(limits))
+                "the fatigue limits are needed (--bending-limit and --torsion-limit), or the criterion's constants (--coefficient and --limit)",
+            )
+        })?;
+        let limits = FatigueLimits {
+            bending_pa: optional(&args.bending_limit, "--bending-limit")?,
+            torsion_pa: torsion,
+            tensile_strength_pa: optional(&args.tensile_strength, "--tensile-strength")?,
         };
-        let sn = args
-            .sn
-            .as_deref()
-            .map(|text| {
-                if args.criterion != Criterion::Findley {
-                    return Err(ArgError::new(
-                        "--sn",
-                        "finite life is computed with Findley's parameter; use --criterion findley",
-                    ));
-                }
-                let [coefficient, exponent] =
-                    crate::text::parse::numbers::<2>(text).map_err(|e| ArgError::new("--sn", e))?;
-                let endurance = args
-                    .endurance
-                    .as_deref()
-                    .map(|e| stress("--endurance", e, unit))
-                    .transpose()?;
-                SnCurve::new(unit.to_pa(coefficient), exponent, endurance)
-                    .map_err(|e| ArgError::new("--sn", e))
-            })
-            .transpose()?;
-        Ok(FatigueSetup {
-            unit,
-            convention,
-            constants,
-            limits,
-            sn,
-            method: args.path,
-            search: SearchSettings::default(),
+        let constants = Constants::derive(args.criterion, &limits)
+            .map_err(|e| ArgError::new(e.limit().map_or("--bending-limit", limit_arg), e))?;
+        (constants, Some(limits))
+    };
+    let sn = args
+        .sn
+        .as_deref()
+        .map(|text| {
+            let [coefficient, exponent] =
+                crate::text::parse::numbers::<2>(text).map_err(|e| ArgError::new("--sn", e))?;
+            SnCurve::new(
+                unit.to_pa(coefficient),
+                exponent,
+                optional(&args.endurance, "--endurance")?,
+            )
+            .map_err(|e| ArgError::new("--sn", e))
         })
-    }
+        .transpose()?;
+    FatigueSetup::new(unit, convention, constants, limits, sn, args.path)
+        .map_err(|e| ArgError::new("--sn", e))
 }
 
 // ---- JSON contract -------------------------------------------------------------------------
@@ -395,8 +350,7 @@ fn constants_json(setup: &FatigueSetup) -> ConstantsJson {
         derivation: c.derivation.clone(),
         bending_limit: setup
             .limits
-            .map(|l| l.bending_pa)
-            .filter(|v| v.is_finite())
+            .and_then(|l| l.bending_pa)
             .map(|v| clean(u.from_pa(v))),
         torsion_limit: setup.limits.map(|l| clean(u.from_pa(l.torsion_pa))),
         tensile_strength: setup
@@ -415,16 +369,7 @@ fn plane_json(p: &CriticalPlane, h: &StressHistory, u: StressUnit) -> PlaneJson 
         dip_deg: crate::text::format::angle(p.dip_deg, false),
         dip_direction_deg: crate::text::format::angle(p.dip_direction_deg, true),
         shear_amplitude: stress(v.tau_amplitude_pa),
-        // The plane is found to about 0.01°: a component below 1e-5 of the path's size is the
-        // search's resolution, not a result.
-        mean_shear: v.circle.centre.map(|x| {
-            let size = v.circle.radius + v.circle.centre[0].hypot(v.circle.centre[1]);
-            if x.abs() < 1e-5 * size {
-                0.0
-            } else {
-                stress(x)
-            }
-        }),
+        mean_shear: v.circle.centre_resolved().map(stress),
         normal_stress_max: stress(v.sigma_n_max_pa),
         value: stress(v.value_pa),
         time: h.time()[v.step],
@@ -482,7 +427,7 @@ fn single_json(source: &LoadedHistory, setup: &FatigueSetup, j: &Judged) -> Fati
 
 // ---- text ----------------------------------------------------------------------------------
 
-use crate::output::fatigue_report::normal_text;
+use crate::output::fatigue_report::plane_text;
 
 fn single_text(json: &FatigueJson) -> String {
     let settings = &json.settings;
@@ -522,10 +467,8 @@ fn single_text(json: &FatigueJson) -> String {
     );
     let _ = writeln!(
         s,
-        "  Critical plane: dip {}° / dip direction {}°, normal {}",
-        sig(p.dip_deg, 4),
-        sig(p.dip_direction_deg, 4),
-        normal_text(p.normal)
+        "  Critical plane: {}",
+        plane_text(p.dip_deg, p.dip_direction_deg, p.normal)
     );
     let _ = writeln!(
         s,
@@ -566,10 +509,8 @@ fn single_text(json: &FatigueJson) -> String {
         let _ = writeln!(s, "    Method: {}", l.method);
         let _ = writeln!(
             s,
-            "    Plane of largest damage: dip {}° / dip direction {}°, normal {}",
-            sig(l.dip_deg, 4),
-            sig(l.dip_direction_deg, 4),
-            normal_text(l.normal)
+            "    Plane of largest damage: {}",
+            plane_text(l.dip_deg, l.dip_direction_deg, l.normal)
         );
         let _ = writeln!(
             s,

@@ -103,9 +103,19 @@ pub fn html(r: &FatigueReport) -> String {
     s
 }
 
-/// A unit normal to the four decimals the search resolves (about 0.01°).
+/// A searched plane in words: dip and dip direction to four digits and its unit normal to the
+/// four decimals the search resolves (about 0.01°).
 #[must_use]
-pub fn normal_text(n: [f64; 3]) -> String {
+pub fn plane_text(dip_deg: f64, dip_direction_deg: f64, normal: [f64; 3]) -> String {
+    format!(
+        "dip {}° / dip direction {}°, normal {}",
+        sig(dip_deg, 4),
+        sig(dip_direction_deg, 4),
+        normal_text(normal)
+    )
+}
+
+fn normal_text(n: [f64; 3]) -> String {
     let c = |v: f64| {
         let r = format!("{v:.4}");
         if r == "-0.0000" {
@@ -142,10 +152,10 @@ pub fn of(
     let stress = |v: f64| format!("{} {sym}", sig(u.from_pa(v), 6));
     let mut material = Vec::new();
     if let Some(l) = &setup.limits {
-        if l.bending_pa.is_finite() {
+        if let Some(f) = l.bending_pa {
             material.push((
                 "f₋₁, fully reversed bending fatigue limit".to_owned(),
-                stress(l.bending_pa),
+                stress(f),
             ));
         }
         material.push((
@@ -170,10 +180,7 @@ pub fn of(
     ));
     let p = &judged.plane;
     let v = &p.value;
-    // The plane is found to about 0.01°: a mean-shear component below 1e-5 of the path's size
-    // is the search's resolution (as in the command line's output).
-    let size = v.circle.radius + v.circle.centre[0].hypot(v.circle.centre[1]);
-    let mean = |x: f64| if x.abs() < 1e-5 * size { 0.0 } else { x };
+    let mean = v.circle.centre_resolved();
     let mut sections = vec![
         Section {
             heading: "Load history".to_owned(),
@@ -209,20 +216,15 @@ pub fn of(
                 ("shear amplitude".to_owned(), setup.method.label().to_owned()),
                 (
                     "critical plane".to_owned(),
-                    format!(
-                        "dip {}° / dip direction {}°, normal {}",
-                        sig(p.dip_deg, 4),
-                        sig(p.dip_direction_deg, 4),
-                        normal_text(p.normal)
-                    ),
+                    plane_text(p.dip_deg, p.dip_direction_deg, p.normal),
                 ),
                 ("τa, shear amplitude".to_owned(), stress(v.tau_amplitude_pa)),
                 (
                     "mean shear (a, b)".to_owned(),
                     format!(
                         "({}, {}) {sym}",
-                        sig(u.from_pa(mean(v.circle.centre[0])), 4),
-                        sig(u.from_pa(mean(v.circle.centre[1])), 4)
+                        sig(u.from_pa(mean[0]), 4),
+                        sig(u.from_pa(mean[1]), 4)
                     ),
                 ),
                 ("σn,max".to_owned(), stress(v.sigma_n_max_pa)),
@@ -271,12 +273,7 @@ pub fn of(
             ("method".to_owned(), LIFE_METHOD.to_owned()),
             (
                 "plane of largest damage".to_owned(),
-                format!(
-                    "dip {}° / dip direction {}°, normal {}",
-                    sig(l.dip_deg, 4),
-                    sig(l.dip_direction_deg, 4),
-                    normal_text(l.normal)
-                ),
+                plane_text(l.dip_deg, l.dip_direction_deg, l.normal),
             ),
             (
                 "damage per repeat (Miner)".to_owned(),

@@ -51,6 +51,34 @@ pub struct FatigueSetup {
     pub search: SearchSettings,
 }
 
+impl FatigueSetup {
+    /// The setup, with the default search. Finite life is computed with Findley's parameter,
+    /// so an S–N curve with another criterion is refused (said in words).
+    pub fn new(
+        unit: StressUnit,
+        convention: SignConvention,
+        constants: Constants,
+        limits: Option<FatigueLimits>,
+        sn: Option<SnCurve>,
+        method: PathMethod,
+    ) -> Result<Self, &'static str> {
+        if sn.is_some() && constants.criterion != crate::mechanics::fatigue::Criterion::Findley {
+            return Err(
+                "finite life is computed with Findley's parameter: choose the Findley criterion",
+            );
+        }
+        Ok(Self {
+            unit,
+            convention,
+            constants,
+            limits,
+            sn,
+            method,
+            search: SearchSettings::default(),
+        })
+    }
+}
+
 /// One point's answer.
 #[derive(Clone, Debug, PartialEq)]
 pub struct Judged {

@@ -406,14 +406,16 @@ mod tests {
             "long.csv",
             "node,t,xx,yy,zz,xy,yz,zx\n2,0,1,0,0,0,0,0\n1,0,5,0,0,0,0,0\n2,1,-1,0,0,0,0,0\n1,1,-5,0,0,0,0,0\n1,2,5,0,0,0,0,0\n",
         );
-        let h = read_point_histories(
-            &p,
-            &["node".to_owned()],
-            "t",
-            StressUnit::MPa,
-            SignConvention::TensionPositive,
-        )
-        .unwrap();
+        let read = |path: &std::path::Path, id: &str| {
+            read_point_histories(
+                path,
+                &[id.to_owned()],
+                "t",
+                StressUnit::MPa,
+                SignConvention::TensionPositive,
+            )
+        };
+        let h = read(&p, "node").unwrap();
         assert_eq!(h.ids, vec![vec!["2".to_owned()], vec!["1".to_owned()]]);
         assert_eq!(h.histories[1].time(), &[0.0, 1.0, 2.0]);
         assert_eq!(h.histories[1].tensors_pa()[1][0], -5e6);
@@ -421,26 +423,12 @@ mod tests {
             "back.csv",
             "node,t,xx,yy,zz,xy,yz,zx\n1,1,0,0,0,0,0,0\n1,0,0,0,0,0,0,0\n",
         );
-        let e = read_point_histories(
-            &back,
-            &["node".to_owned()],
-            "t",
-            StressUnit::MPa,
-            SignConvention::TensionPositive,
-        )
-        .unwrap_err();
+        let e = read(&back, "node").unwrap_err();
         assert!(
             e.contains("point node=1: step 2: time 0 does not come after"),
             "{e}"
         );
-        let e = read_point_histories(
-            &p,
-            &["elem".to_owned()],
-            "t",
-            StressUnit::MPa,
-            SignConvention::TensionPositive,
-        )
-        .unwrap_err();
+        let e = read(&p, "elem").unwrap_err();
         assert!(
             e.ends_with(
                 ":1: no id column 'elem' (the header has: node, t, xx, yy, zz, xy, yz, zx)"

@@ -20,6 +20,18 @@ pub struct Circle {
     pub radius: f64,
 }
 
+impl Circle {
+    /// The centre as a searched plane resolves it: the critical plane is found to about 0.01°,
+    /// so a component below 1e-5 of the path's size (radius plus the centre's distance from
+    /// the origin) is the search's resolution, not a result, and is 0.
+    #[must_use]
+    pub fn centre_resolved(&self) -> [f64; 2] {
+        let size = self.radius + self.centre[0].hypot(self.centre[1]);
+        self.centre
+            .map(|x| if x.abs() < 1e-5 * size { 0.0 } else { x })
+    }
+}
+
 /// How the shear amplitude of a path is measured.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, serde::Serialize, serde::Deserialize)]
 #[serde(rename_all = "kebab-case")]

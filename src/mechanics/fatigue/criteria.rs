@@ -116,20 +116,53 @@ impl Criterion {
 /// The material's fatigue limits, Pa (amplitudes of fully reversed tests).
 #[derive(Clone, Copy, Debug, PartialEq, serde::Serialize, serde::Deserialize)]
 pub struct FatigueLimits {
-    /// Fully reversed bending (or tension–compression) fatigue limit f₋₁.
-    pub bending_pa: f64,
+    /// Fully reversed bending (or tension–compression) fatigue limit f₋₁ (McDiarmid does not
+    /// read it).
+    pub bending_pa: Option<f64>,
     /// Fully reversed torsion fatigue limit t₋₁.
     pub torsion_pa: f64,
     /// Ultimate tensile strength σu (McDiarmid only).
     pub tensile_strength_pa: Option<f64>,
 }
 
+/// One of the material's fatigue limits.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum Limit {
+    /// f₋₁.
+    Bending,
+    /// t₋₁.
+    Torsion,
+    /// σu.
+    TensileStrength,
+}
+
+impl Limit {
+    /// Its name in words.
+    #[must_use]
+    pub fn what(self) -> &'static str {
+        match self {
+            Self::Bending => "the bending fatigue limit f₋₁",
+            Self::Torsion => "the torsion fatigue limit t₋₁",
+            Self::TensileStrength => "the tensile strength σu",
+        }
+    }
+}
+
 /// Why constants cannot be had.
 #[derive(Debug, Clone, PartialEq, thiserror::Error)]
 pub enum ConstantsError {
-    /// A limit that is not a positive finite number.
+    /// A given constant that is not a usable number.
     #[error("{0} must be a positive number")]
     NotPositive(&'static str),
+    /// A limit that is not a positive finite number.
+    #[error("{} must be a positive number", .0.what())]
+    LimitNotPositive(Limit),
+    /// A limit the criterion needs and was not given.
+    #[error("{criterion} needs {}", .limit.what())]
+    Missing {
+        criterion: &'static str,
+        limit: Limit,
+    },
     /// The limits' ratio is outside what the criterion can be calibrated to.
     #[error(
         "{criterion} needs a bending-to-torsion limit ratio f₋₁/t₋₁ {range}; these limits give {ratio:.3}"
@@ -139,9 +172,18 @@ pub enum ConstantsError {
         range: &'static str,
         ratio: f64,
     },
-    /// McDiarmid without a tensile strength.
-    #[error("McDiarmid needs the tensile strength σu")]
-    NeedsTensileStrength,
+}
+
+impl ConstantsError {
+    /// The limit the error is about, if it is about one.
+    #[must_use]
+    pub fn limit(&self) -> Option<Limit> {
+        match self {
+            Self::LimitNotPositive(l) | Self::Missing { limit: l, .. } => Some(*l),
+            Self::Ratio { .. } => Some(Limit::Bending),
+            Self::NotPositive(_) => None,
+        }
+    }
 }
 
 /// A criterion's two constants, and how they were had.
@@ -157,20 +199,32 @@ pub struct Constants {
     pub derivation: String,
 }
 
-fn positive(v: f64, what: &'static str) -> Result<f64, ConstantsError> {
-    if v.is_finite() && v > 0.0 {
-        Ok(v)
-    } else {
-        Err(ConstantsError::NotPositive(what))
+fn positive(v: f64) -> bool {
+    v.is_finite() && v > 0.0
+}
+
+/// The limit `limit` of `value`, given and positive.
+fn limit_of(criterion: Criterion, value: Option<f64>, limit: Limit) -> Result<f64, ConstantsError> {
+    match value {
+        None => Err(ConstantsError::Missing {
+            criterion: criterion.label(),
+            limit,
+        }),
+        Some(v) if positive(v) => Ok(v),
+        Some(_) => Err(ConstantsError::LimitNotPositive(limit)),
     }
 }
 
 impl Constants {
     /// The constants calibrated from the fatigue limits (see the module's text).
     pub fn derive(criterion: Criterion, limits: &FatigueLimits) -> Result<Self, ConstantsError> {
-        let f = positive(limits.bending_pa, "the bending fatigue limit f₋₁")?;
-        let t = positive(limits.torsion_pa, "the torsion fatigue limit t₋₁")?;
-        let r = f / t;
+        let t = limit_of(criterion, Some(limits.torsion_pa), Limit::Torsion)?;
+        // Every criterion but McDiarmid is calibrated on both tests.
+        let r = if criterion == Criterion::McDiarmid {
+            f64::NAN
+        } else {
+            limit_of(criterion, limits.bending_pa, Limit::Bending)? / t
+        };
         let ratio = |range| ConstantsError::Ratio {
             criterion: criterion.label(),
             range,
@@ -199,11 +253,10 @@ impl Constants {
                 (mu, t, format!("μ = 2t₋₁/f₋₁ − 1 = {mu:.4}; limit t₋₁"))
             }
             Criterion::McDiarmid => {
-                let su = positive(
-                    limits
-                        .tensile_strength_pa
-                        .ok_or(ConstantsError::NeedsTensileStrength)?,
-                    "the tensile strength σu",
+                let su = limit_of(
+                    criterion,
+                    limits.tensile_strength_pa,
+                    Limit::TensileStrength,
                 )?;
                 let c = t / (2.0 * su);
                 (
@@ -241,7 +294,9 @@ impl Constants {
         if !coefficient.is_finite() {
             return Err(ConstantsError::NotPositive("the coefficient"));
         }
-        let limit_pa = positive(limit_pa, "the limit")?;
+        if !positive(limit_pa) {
+            return Err(ConstantsError::NotPositive("the limit"));
+        }
         Ok(Self {
             criterion,
             coefficient,
@@ -323,11 +378,11 @@ mod tests {
         // Bending 300 MPa, torsion 200 MPa (r = 1.5): each criterion's value in either test,
         // at its own critical plane, equals its limit (derived on Mohr's circle, see the module).
         let limits = FatigueLimits {
-            bending_pa: 300.0 * MPA,
+            bending_pa: Some(300.0 * MPA),
             torsion_pa: 200.0 * MPA,
             tensile_strength_pa: Some(700.0 * MPA),
         };
-        let (f, t) = (limits.bending_pa, limits.torsion_pa);
+        let (f, t) = (300.0 * MPA, limits.torsion_pa);
         let c = Constants::derive(Criterion::Findley, &limits).unwrap();
         let k = c.coefficient;
         assert!((k - 0.5 / (2.0 * 0.5f64.sqrt())).abs() < 1e-12);
@@ -344,7 +399,7 @@ mod tests {
     #[test]
     fn limits_outside_the_calibration_are_refused() {
         let limits = FatigueLimits {
-            bending_pa: 100.0,
+            bending_pa: Some(100.0),
             torsion_pa: 120.0,
             tensile_strength_pa: None,
         };
@@ -354,15 +409,28 @@ mod tests {
         ));
         assert_eq!(
             Constants::derive(Criterion::McDiarmid, &limits),
-            Err(ConstantsError::NeedsTensileStrength)
+            Err(ConstantsError::Missing {
+                criterion: "McDiarmid",
+                limit: Limit::TensileStrength
+            })
         );
         let bad = FatigueLimits {
-            bending_pa: f64::NAN,
+            bending_pa: Some(f64::NAN),
             ..limits
         };
         assert!(matches!(
             Constants::derive(Criterion::Matake, &bad),
-            Err(ConstantsError::NotPositive(_))
+            Err(ConstantsError::LimitNotPositive(Limit::Bending))
         ));
+        // McDiarmid reads t₋₁ and σu only; the others need f₋₁ and say so.
+        let no_bending = FatigueLimits {
+            bending_pa: None,
+            torsion_pa: 120.0,
+            tensile_strength_pa: Some(500.0),
+        };
+        assert!(Constants::derive(Criterion::McDiarmid, &no_bending).is_ok());
+        let e = Constants::derive(Criterion::Findley, &no_bending).unwrap_err();
+        assert_eq!(e.limit(), Some(Limit::Bending));
+        assert_eq!(e.to_string(), "Findley needs the bending fatigue limit f₋₁");
     }
 }

@@ -10,7 +10,7 @@ pub mod life;
 pub mod rainflow;
 
 pub use circle::{Circle, PathMethod};
-pub use criteria::{Constants, ConstantsError, Criterion, FatigueLimits, PlaneValue};
+pub use criteria::{Constants, ConstantsError, Criterion, FatigueLimits, Limit, PlaneValue};
 pub use critical::{CriticalPlane, SearchSettings, critical_plane};
 pub use history::{HistoryError, PlaneAxes, PlanePath, StressHistory};
 pub use life::{DamagePlane, SnCurve, SnError, damage_plane};

@@ -170,10 +170,7 @@ pub fn path_frame(fig: &PathFigure, width: u32, height: u32, sizes: Sizes) -> Fr
     let sym = u.symbol();
     let sign = fig.convention.sign();
     let c = fig.circle;
-    // The plane is found to about 0.01°, so a mean-shear component below 1e-5 of the path's
-    // size is the search's resolution, not a result: it prints as 0.
-    let size = c.radius + c.centre[0].hypot(c.centre[1]);
-    let resolved = |v: f64| if v.abs() < 1e-5 * size { 0.0 } else { v };
+    let mean = c.centre_resolved();
     let key_lines = [
         (fig.title.clone(), style::INK),
         (
@@ -187,8 +184,8 @@ pub fn path_frame(fig: &PathFigure, width: u32, height: u32, sizes: Sizes) -> Fr
             format!(
                 "τa {} {sym} (the circle's radius); ● mean shear ({}, {}) {sym}",
                 readable(u.from_pa(c.radius), 4),
-                readable(u.from_pa(resolved(c.centre[0])), 4),
-                readable(u.from_pa(resolved(c.centre[1])), 4),
+                readable(u.from_pa(mean[0]), 4),
+                readable(u.from_pa(mean[1]), 4),
             ),
             style::WORST_PLANE,
         ),

@@ -10,9 +10,7 @@ use std::sync::Arc;
 use std::sync::atomic::{AtomicBool, AtomicUsize, Ordering};
 use std::sync::mpsc::Receiver;
 
-use crate::mechanics::fatigue::{
-    Constants, Criterion, FatigueLimits, PathMethod, SearchSettings, SnCurve,
-};
+use crate::mechanics::fatigue::{Constants, Criterion, FatigueLimits, PathMethod, SnCurve};
 use crate::mechanics::{SignConvention, StressUnit};
 use crate::picture::draw::egui_backend;
 use crate::study::fatigue::{FATIGUE_CAUTION, FatigueSetup, Judged, LoadedHistory, ManyPoints};
@@ -188,58 +186,45 @@ impl FatiguePanel {
             SignConvention::TensionPositive
         };
         let stress = |text: &str, what: &str| number(text, what).map(|v| unit.to_pa(v));
-        let torsion = stress(&self.torsion, "t₋₁, the torsion fatigue limit")?;
-        let bending = if criterion == Criterion::McDiarmid && self.bending.trim().is_empty() {
-            1.0
-        } else {
-            stress(&self.bending, "f₋₁, the bending fatigue limit")?
-        };
-        let tensile = if self.tensile.trim().is_empty() {
-            None
-        } else {
-            Some(stress(&self.tensile, "σu, the tensile strength")?)
+        // An empty field is a value not given (the criterion says whether it needs it).
+        let optional = |text: &str, what: &str| {
+            if text.trim().is_empty() {
+                Ok(None)
+            } else {
+                stress(text, what).map(Some)
+            }
         };
         let limits = FatigueLimits {
-            bending_pa: bending,
-            torsion_pa: torsion,
-            tensile_strength_pa: tensile,
+            bending_pa: optional(&self.bending, "f₋₁, the bending fatigue limit")?,
+            torsion_pa: stress(&self.torsion, "t₋₁, the torsion fatigue limit")?,
+            tensile_strength_pa: optional(&self.tensile, "σu, the tensile strength")?,
         };
         let constants = Constants::derive(criterion, &limits).map_err(|e| e.to_string())?;
         let sn = if self.life {
-            if criterion != Criterion::Findley {
-                return Err(
-                    "finite life is computed with Findley's parameter: choose Findley".into(),
-                );
-            }
-            let endurance = if self.endurance.trim().is_empty() {
-                None
-            } else {
-                Some(stress(&self.endurance, "the endurance limit")?)
-            };
             Some(
                 SnCurve::new(
                     stress(&self.sn_coefficient, "τ'f, the S–N coefficient")?,
                     number(&self.sn_exponent, "b, the S–N exponent")?,
-                    endurance,
+                    optional(&self.endurance, "the endurance limit")?,
                 )
                 .map_err(|e| e.to_string())?,
             )
         } else {
             None
         };
-        Ok(FatigueSetup {
+        let method = if self.chord {
+            PathMethod::Chord
+        } else {
+            PathMethod::Circle
+        };
+        Ok(FatigueSetup::new(
             unit,
             convention,
             constants,
-            limits: Some(limits),
+            Some(limits),
             sn,
-            method: if self.chord {
-                PathMethod::Chord
-            } else {
-                PathMethod::Circle
-            },
-            search: SearchSettings::default(),
-        })
+            method,
+        )?)
     }
 
     fn try_judge(&mut self, project: &Project) -> Result<(), String> {
